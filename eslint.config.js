@@ -5,7 +5,7 @@ import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 import globals from 'globals';
 
-const uiAndIo = ['react', 'react-dom', 'react-dom/*', 'd3', 'd3-*', 'comlink', 'comlink/*', 'idb', 'papaparse', 'playwright-core', 'node:*', 'fs', 'path', 'worker_threads'];
+const uiAndIo = ['react', 'react-dom', 'react-dom/*', 'd3', 'd3-*', 'comlink', 'comlink/*', 'idb', 'playwright-core', 'node:*', 'fs', 'path', 'worker_threads'];
 
 export default tseslint.config(
   { ignores: ['dist/**', 'node_modules/**', 'bench/peers/node_modules/**', 'coverage/**', 'tests/browser/.artifacts/**'] },

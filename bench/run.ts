@@ -1,0 +1,101 @@
+/**
+ * `npm run bench [-- name ...]`: runs the benchmarks (all, or those named), prints a
+ * table of each one's figures, and ends with one JSON line per benchmark.
+ * Figures are rates and ratios within one run on one machine; bench/README.md says
+ * how to read them. Benchmarks are not tests: nothing here passes or fails on a time.
+ */
+import { performance } from 'node:perf_hooks';
+// bench/kernel.ts is being written; enable this import and its entry in BENCHES together.
+// import { benchKernel } from './kernel';
+
+/** Figure name (with its unit, e.g. `solvesPerS`, `nmOverFminTimeRatio`) -> value. */
+type Figures = Record<string, number>;
+
+interface Bench {
+  readonly name: string;
+  run(): Promise<Figures>;
+}
+
+const BENCHES: readonly Bench[] = [
+  // { name: 'kernel', run: benchKernel },
+];
+
+type Outcome =
+  | { readonly bench: string; readonly wallS: number; readonly figures: Figures }
+  | { readonly bench: string; readonly wallS: number; readonly error: string };
+
+function formatValue(value: number): string {
+  if (!Number.isFinite(value)) return String(value);
+  if (Math.abs(value) >= 1000) return Math.round(value).toLocaleString('en-GB');
+  if (Number.isInteger(value)) return String(value);
+  return Number(value.toPrecision(4)).toString();
+}
+
+function table(outcome: Outcome): string {
+  const head = `${outcome.bench}  (${outcome.wallS.toFixed(2)} s wall)`;
+  if ('error' in outcome) return `${head}\n  FAILED: ${outcome.error}`;
+  const rows = Object.entries(outcome.figures).map(([name, value]) => [name, formatValue(value)] as const);
+  if (rows.length === 0) return `${head}\n  (no figures)`;
+  const nameWidth = Math.max('figure'.length, ...rows.map(([name]) => name.length));
+  const valueWidth = Math.max('value'.length, ...rows.map(([, value]) => value.length));
+  const line = (name: string, value: string) => `  ${name.padEnd(nameWidth)}  ${value.padStart(valueWidth)}`;
+  return [head, line('figure', 'value'), `  ${'-'.repeat(nameWidth + 2 + valueWidth)}`, ...rows.map(([n, v]) => line(n, v))].join('\n');
+}
+
+/** A bench must return plain numbers; anything else is reported, not printed as a figure. */
+function checkFigures(result: unknown): Figures {
+  if (typeof result !== 'object' || result === null || Array.isArray(result)) {
+    throw new Error(`expected an object of named numbers, got ${Array.isArray(result) ? 'an array' : typeof result}`);
+  }
+  for (const [name, value] of Object.entries(result)) {
+    if (typeof value !== 'number') throw new Error(`figure "${name}" is ${typeof value}, expected a number`);
+  }
+  return result as Figures;
+}
+
+async function runOne(bench: Bench): Promise<Outcome> {
+  const startMs = performance.now();
+  const wallS = () => Math.round(performance.now() - startMs) / 1000;
+  try {
+    const figures = checkFigures(await bench.run());
+    return { bench: bench.name, wallS: wallS(), figures };
+  } catch (error) {
+    const message = error instanceof Error ? (error.stack ?? error.message) : String(error);
+    return { bench: bench.name, wallS: wallS(), error: message };
+  }
+}
+
+function selectBenches(names: readonly string[]): readonly Bench[] | string {
+  if (names.length === 0) return BENCHES;
+  const known = new Map(BENCHES.map((bench) => [bench.name, bench]));
+  const unknown = names.filter((name) => !known.has(name));
+  if (unknown.length > 0) {
+    return `unknown bench ${unknown.map((n) => `"${n}"`).join(', ')}; known: ${BENCHES.map((b) => b.name).join(', ') || '(none)'}`;
+  }
+  return names.map((name) => known.get(name) as Bench);
+}
+
+async function main(): Promise<number> {
+  const selected = selectBenches(process.argv.slice(2));
+  if (typeof selected === 'string') {
+    console.error(selected);
+    return 2;
+  }
+  if (selected.length === 0) {
+    console.error('no benchmarks are registered in bench/run.ts');
+    return 2;
+  }
+  const outcomes: Outcome[] = [];
+  for (const bench of selected) {
+    const outcome = await runOne(bench);
+    outcomes.push(outcome);
+    console.log(`${table(outcome)}\n`);
+  }
+  // Machine-readable tail: one line per bench. JSON has no Infinity or NaN: they print as null.
+  for (const outcome of outcomes) console.log(JSON.stringify(outcome));
+  return outcomes.some((outcome) => 'error' in outcome) ? 1 : 0;
+}
+
+void main().then((exitCode) => {
+  process.exitCode = exitCode;
+});
