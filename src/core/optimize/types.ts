@@ -1,0 +1,251 @@
+/**
+ * The ask/tell interface shared by every optimizer, its configuration and its JSON state.
+ *
+ * Frame: every optimizer searches the normalised box [0, 1]^dim. Points handed out by
+ * `ask()` and taken by `tell()`, `best().x`, `x0` and every distance or tolerance on
+ * points are in box units; the caller maps them to real bounds (`fromUnitBoxInto`).
+ */
+import type { JsonReal } from './codec';
+import type { PrngState } from './prng';
+
+export type StopReason =
+  /** `maxEvaluations` points were asked and told. */
+  | 'budget'
+  /** A feasible point with value ≤ `targetValue` was found. */
+  | 'target'
+  /** The search cannot make progress: the population collapsed, or restarts stopped improving. */
+  | 'converged';
+
+export interface BestPoint {
+  /** A copy, in box units. Before the first evaluation: the box centre. */
+  readonly x: Float64Array;
+  /** Ranked value: +Infinity for none yet or for a failed evaluation. */
+  readonly value: number;
+  /** 0 when feasible; +Infinity for none yet or a failed evaluation. */
+  readonly violation: number;
+}
+
+export interface Optimizer {
+  readonly dim: number;
+  /**
+   * The points to evaluate next, in box units: views of a buffer the optimizer reuses.
+   * Read them, do not modify or keep them; they are valid until the next `tell()`.
+   * Calling `ask()` again before `tell()` returns the same batch; after `done()`, none.
+   */
+  ask(): readonly Float64Array[];
+  /**
+   * The results for the batch of the last `ask()`, in its order. A value that is NaN or
+   * ±Infinity marks a failed evaluation, which ranks worst. `violations` (≤ 0 feasible)
+   * switches on feasibility-first ranking (Deb, 2000). Throws if `points` is not that batch.
+   */
+  tell(points: readonly Float64Array[], values: Float64Array, violations?: Float64Array): void;
+  best(): BestPoint;
+  done(): boolean;
+  /** Why the search stopped, or null while it runs. */
+  stopReason(): StopReason | null;
+  /** Points told so far; never more than `maxEvaluations`. */
+  evaluations(): number;
+  /** Plain JSON (no typed arrays, no Infinity): `JSON.parse(JSON.stringify(s))` restores exactly. */
+  exportState(): OptimizerState;
+}
+
+// ---------------------------------------------------------------------------------------
+// Configuration: what a caller writes (options may be left out) ...
+
+export interface CommonConfig {
+  /** Number of variables. */
+  readonly dim: number;
+  /** Budget: the optimizer asks for exactly this many evaluations, unless it stops earlier. */
+  readonly maxEvaluations: number;
+  /** Non-negative safe integer. */
+  readonly seed: number;
+  /** Independent stream of the seed (an island index): `Prng.fromSeed(seed).split(stream)`. */
+  readonly stream?: number | null;
+  /** Stop as soon as a feasible point has a value ≤ this. */
+  readonly targetValue?: number | null;
+}
+
+export interface LshadeOptions {
+  /** N_init; default round(18 · dim) (Tanabe and Fukunaga, 2014). */
+  readonly initialPopulation: number;
+  /** N_min reached at the end of the budget; default 4. */
+  readonly minPopulation: number;
+  /** H, entries of the success-history memory; default 6. */
+  readonly memorySize: number;
+  /** p of current-to-pbest: the best max(2, round(p · N)) are candidates; default 0.11. */
+  readonly pBest: number;
+  /** Archive size = round(archiveRate · N); default 2.6. */
+  readonly archiveRate: number;
+  /** Converged when every coordinate's range over the population is below this (box units); default 1e-12. */
+  readonly xTolerance: number;
+}
+
+export interface RandOneBinOptions {
+  /** NP; default 10 · dim, as Storn and Price (1997) advise; at least 4. */
+  readonly population: number;
+  /** F, the weight of the difference vector; default 0.8, within their advised [0.5, 1]. */
+  readonly differentialWeight: number;
+  /** CR, the binomial crossover probability; default 0.9. */
+  readonly crossoverRate: number;
+  /** As for L-SHADE; default 1e-12. */
+  readonly xTolerance: number;
+}
+
+export interface NelderMeadOptions {
+  /** Start point in box units; null: a uniform random point of the seed. */
+  readonly x0: readonly number[] | null;
+  /** Edge of the first simplex along each axis, box units, in (0, 0.5]; default 0.1. */
+  readonly initialStep: number;
+  /** Restart when every vertex is within this of the best one (∞-norm, box units); default 1e-10. */
+  readonly simplexTolerance: number;
+  /** Restart when worst − best ≤ this · max(|best|, |worst|) (relative); default 1e-12. */
+  readonly valueTolerance: number;
+  /** Each restart's simplex edge is the previous one times this; default 0.5. */
+  readonly restartStepFactor: number;
+  /** Below this edge the restart edge returns to `initialStep`; default 1e-6. */
+  readonly minRestartStep: number;
+  /** Converged after this many restarts in a row that did not improve the best; default 3. */
+  readonly maxStaleRestarts: number;
+}
+
+export type GlobalOptions = ({ readonly kind: 'lshade' } & LshadeOptions) | ({ readonly kind: 'de-rand-1-bin' } & RandOneBinOptions);
+
+export interface HybridOptions {
+  /** Share of the budget for the global search; default 0.8. */
+  readonly globalShare: number;
+  /** Number of distinct candidates polished; default 3. */
+  readonly polishCount: number;
+  /** Candidates are distinct when their RMS coordinate difference (box units) exceeds this; default 0.05. */
+  readonly distinctDistance: number;
+  /** Default L-SHADE with its defaults. */
+  readonly global: GlobalOptions;
+  /** Nelder–Mead options of each polish (`x0` is the candidate); default initialStep 0.02. */
+  readonly polish: Omit<NelderMeadOptions, 'x0'>;
+}
+
+export type LshadeConfig = CommonConfig & { readonly kind: 'lshade' } & Partial<LshadeOptions>;
+export type RandOneBinConfig = CommonConfig & { readonly kind: 'de-rand-1-bin' } & Partial<RandOneBinOptions>;
+export type NelderMeadConfig = CommonConfig & { readonly kind: 'nelder-mead' } & Partial<NelderMeadOptions>;
+export type HybridConfig = CommonConfig & {
+  readonly kind: 'hybrid';
+  readonly globalShare?: number;
+  readonly polishCount?: number;
+  readonly distinctDistance?: number;
+  readonly global?:
+    | ({ readonly kind: 'lshade' } & Partial<LshadeOptions>)
+    | ({ readonly kind: 'de-rand-1-bin' } & Partial<RandOneBinOptions>);
+  readonly polish?: Partial<Omit<NelderMeadOptions, 'x0'>>;
+};
+export type OptimizerConfig = LshadeConfig | RandOneBinConfig | NelderMeadConfig | HybridConfig;
+
+// ... and the same with every option filled in, as the state carries it.
+
+export interface ResolvedCommon {
+  readonly dim: number;
+  readonly maxEvaluations: number;
+  readonly seed: number;
+  readonly stream: number | null;
+  readonly targetValue: number | null;
+}
+export type ResolvedLshade = ResolvedCommon & { readonly kind: 'lshade' } & LshadeOptions;
+export type ResolvedRandOneBin = ResolvedCommon & { readonly kind: 'de-rand-1-bin' } & RandOneBinOptions;
+export type ResolvedDe = ResolvedLshade | ResolvedRandOneBin;
+export type ResolvedNelderMead = ResolvedCommon & { readonly kind: 'nelder-mead' } & NelderMeadOptions;
+export type ResolvedHybrid = ResolvedCommon & { readonly kind: 'hybrid' } & HybridOptions;
+export type ResolvedConfig = ResolvedDe | ResolvedNelderMead | ResolvedHybrid;
+
+// ---------------------------------------------------------------------------------------
+// State: plain JSON. Points are row-major number[]; ranked values and violations are
+// JsonReal (null = +Infinity).
+
+export const STATE_FORMAT = 'loci-optimizer-state';
+export const STATE_VERSION = 1;
+
+export interface BestPointState {
+  readonly x: number[];
+  readonly value: JsonReal;
+  readonly violation: JsonReal;
+  readonly seen: boolean;
+}
+
+export interface CandidateState {
+  readonly x: number[];
+  readonly value: JsonReal;
+  readonly violation: JsonReal;
+}
+
+interface StateHeader<C> {
+  readonly format: typeof STATE_FORMAT;
+  readonly version: typeof STATE_VERSION;
+  readonly config: C;
+  readonly rng: PrngState;
+  readonly evaluations: number;
+  readonly stopReason: StopReason | null;
+  readonly best: BestPointState;
+}
+
+export interface DeState extends StateHeader<ResolvedDe> {
+  readonly kind: 'lshade' | 'de-rand-1-bin';
+  /** 'init': the pending batch is the initial population. */
+  readonly phase: 'init' | 'evolve';
+  readonly populationSize: number;
+  /** populationSize × dim. */
+  readonly population: number[];
+  readonly values: JsonReal[];
+  readonly violations: JsonReal[];
+  /** The batch asked and not yet told: pending × dim; ask() after a restore returns it. */
+  readonly trials: number[];
+  /** F and CR of each pending trial (L-SHADE; empty otherwise). */
+  readonly trialF: number[];
+  readonly trialCR: number[];
+  /** L-SHADE external archive, archiveSize × dim. */
+  readonly archive: number[];
+  /** Success-history memories M_F and M_CR (−1 is the terminal value ⊥ of M_CR). */
+  readonly memoryF: number[];
+  readonly memoryCR: number[];
+  readonly memoryIndex: number;
+}
+
+export type NelderMeadPhase = 'simplex' | 'reflect' | 'expand' | 'contract-outside' | 'contract-inside' | 'shrink';
+
+export interface NelderMeadState extends StateHeader<ResolvedNelderMead> {
+  readonly kind: 'nelder-mead';
+  /** What the pending batch is: 'simplex' (new simplex) and 'shrink' refill vertices `pendingSlots`. */
+  readonly phase: NelderMeadPhase;
+  /** (dim + 1) × dim. */
+  readonly vertices: number[];
+  readonly values: JsonReal[];
+  readonly violations: JsonReal[];
+  /** Vertex indices, best first. */
+  readonly order: number[];
+  readonly centroid: number[];
+  readonly reflected: number[];
+  readonly reflectedValue: JsonReal;
+  readonly reflectedViolation: JsonReal;
+  /** The pending batch, rows × dim. */
+  readonly pending: number[];
+  readonly pendingSlots: number[];
+  readonly restarts: number;
+  readonly staleRestarts: number;
+  /** Edge of the next restart's simplex, box units. */
+  readonly restartStep: number;
+  /** The best when the current simplex was built: a restart that does not beat it is stale. */
+  readonly restartBaseValue: JsonReal;
+  readonly restartBaseViolation: JsonReal;
+}
+
+export interface HybridState extends StateHeader<ResolvedHybrid> {
+  readonly kind: 'hybrid';
+  readonly phase: 'global' | 'polish';
+  /** The global search while it runs, then null. */
+  readonly global: DeState | null;
+  /** The best distinct points of the global phase (see DistinctElite), best first: polished in this order. */
+  readonly candidates: CandidateState[];
+  /** Index of the candidate being polished. */
+  readonly polishIndex: number;
+  readonly polish: NelderMeadState | null;
+}
+
+export type OptimizerState = DeState | NelderMeadState | HybridState;
+
+export type OptimizerResult = { readonly ok: true; readonly optimizer: Optimizer } | { readonly ok: false; readonly reason: string };
