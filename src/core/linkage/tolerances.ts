@@ -1,0 +1,77 @@
+/** Named tolerances of the kinematics core, each with its unit and why it has its size. */
+
+/**
+ * Two joints of one body closer than this (mm) make a link of zero length: its
+ * direction, and so the body's pose, is undefined. 1e-6 mm is far below any drawing
+ * precision and far above rounding of mm coordinates.
+ */
+export const COINCIDENT_JOINT_TOL_MM = 1e-6;
+
+/** A slider joint further than this (mm) from its line in the reference pose is off it. */
+export const SLIDER_ON_LINE_TOL_MM = 1e-6;
+
+/**
+ * Newton–Raphson stops when every block equation is below this share of the plan's
+ * length scale (mm per mm). Convergence is quadratic, so the step that brings the
+ * residual from ~1e-7 lands near rounding (~1e-16 of the coordinates); 1e-13 is a few
+ * hundred rounding errors.
+ */
+export const NEWTON_RESIDUAL_REL_TOL = 1e-13;
+
+/**
+ * When no step lowers the residual any more but it is already below this multiple of
+ * the Newton tolerance, the residual is at the rounding floor of an ill-conditioned
+ * block: converged, not stalled.
+ */
+export const NEWTON_ROUNDING_FLOOR_FACTOR = 100;
+
+/** Cap on Newton iterations per block solve; a good start converges in 3–6. */
+export const NEWTON_MAX_ITERATIONS = 30;
+
+/** Cap on step halvings per Newton iteration (the step shrinks to 2^-10 of Newton's). */
+export const NEWTON_MAX_HALVINGS = 10;
+
+/**
+ * A pivot of the block Jacobian below this share of its largest entry counts as zero
+ * (the block is at a singular, dead-centre pose). Entries are O(1) (unit directions and
+ * body-local coordinates), so 1e-13 is a few hundred rounding errors.
+ */
+export const SINGULAR_PIVOT_REL_TOL = 1e-13;
+
+/**
+ * The compiler accepts a Newton block only when its Jacobian at the reference pose has
+ * no pivot below this share of its largest entry: a block nearly singular in the
+ * reference pose is a wrong choice of unknowns or a reference at a dead centre.
+ */
+export const BLOCK_RANK_REL_TOL = 1e-8;
+
+/** Cap on the subsets of unplaced joints the compiler tries as a Newton block. */
+export const BLOCK_SEARCH_MAX_SUBSETS = 200_000;
+
+/**
+ * The compiler re-solves the reference pose from its own plan and accepts the plan
+ * when every slot is back within this share of the length scale (mm per mm).
+ */
+export const REFERENCE_REPRODUCTION_REL_TOL = 1e-9;
+
+/**
+ * A dyad is at a dead centre (toggle) when the sine of its angle at the placed joint
+ * falls below this: the joint is within 1e-6 of a link length of the line through its
+ * two centres, and the two branches meet.
+ */
+export const DEAD_CENTRE_SIN_TOL = 1e-6;
+
+/**
+ * A sampled local minimum of a dyad's sine below this is refined by golden-section
+ * search; a larger one is a near miss, not a toggle worth locating.
+ */
+export const DEAD_CENTRE_CANDIDATE_SIN = 0.2;
+
+/** Edge and minimum refinements in a sweep stop at this share of the sample spacing. */
+export const SWEEP_REFINE_REL_TOL = 1e-9;
+
+/** Cap on bisection or golden-section steps per refinement (2^-60 of a step, 0.618^60 ≈ 3e-13). */
+export const SWEEP_REFINE_MAX_STEPS = 60;
+
+/** A rotation driver's range turns fully when it spans 2π less at most this (rad). */
+export const FULL_TURN_TOL_RAD = 1e-9;
