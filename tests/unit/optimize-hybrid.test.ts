@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { canonicalValue, canonicalViolation, DistinctElite, precedes, rmsDistance } from '../../src/core/optimize';
+import { canonicalValue, canonicalViolation, DistinctElite, precedes, restoreOptimizer, rmsDistance } from '../../src/core/optimize';
 import type { HybridState, OptimizerConfig } from '../../src/core/optimize';
 import {
   drive,
@@ -155,6 +155,20 @@ describe('hybrid determinism, resume, budget and failures', () => {
       expect(r.evaluations).toBe(budget);
       expect(r.stopReason).toBe('budget');
       expect(opt.ask()).toEqual([]);
+    }
+  });
+
+  // Regression: a hybrid stopped on its budget exported a state it then refused to restore.
+  it('a state exported after the search stopped restores, still stopped, with the same best point', () => {
+    for (const budget of [300, 2345]) {
+      const opt = make({ ...config, maxEvaluations: budget });
+      drive(opt, problem);
+      const restored = restoreOptimizer(JSON.parse(JSON.stringify(opt.exportState())));
+      if (!restored.ok) throw new Error(restored.reason);
+      expect(restored.optimizer.done()).toBe(true);
+      expect(restored.optimizer.stopReason()).toBe('budget');
+      expect(restored.optimizer.best()).toEqual(opt.best());
+      expect(restored.optimizer.ask()).toEqual([]);
     }
   });
 

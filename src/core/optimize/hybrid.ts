@@ -129,7 +129,13 @@ export class Hybrid implements Optimizer {
     this.evaluationsTold += points.length;
     const { targetValue, maxEvaluations } = this.config;
     this.stop = targetOrBudget(this.bestPoint, targetValue, this.evaluationsTold, maxEvaluations);
-    if (this.stop !== null || !part.done()) return;
+    if (this.stop !== null) {
+      // A stopped hybrid holds no running part, so its exported state restores.
+      this.global = null;
+      this.polish = null;
+      return;
+    }
+    if (!part.done()) return;
     if (global) {
       this.global = null;
       this.phase = 'polish';
