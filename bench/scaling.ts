@@ -1,0 +1,65 @@
+/**
+ * Engine scaling: evaluations per second of one search at 1 and at 2 workers, in one
+ * process a moment apart, and their ratio (2 would be perfect scaling; the machine's
+ * other load and the messages between rounds keep it lower).
+ *
+ * Both runs are the same deterministic search (same seed, islands and evaluation
+ * budget), so they do exactly the same evaluations and must end on the same best
+ * value: the checksum printed is that value, and the bench fails if the two differ.
+ * Rates are over the search itself (`elapsedMs` leaves out worker start-up). There is no
+ * separate warm-up run: every run starts fresh workers, so their JIT warm-up falls
+ * inside both measurements alike, and a warm-up run would only add a worker start-up.
+ */
+import { createRun, type RunInput } from '../src/engine';
+import { nodeEnvironment } from '../src/engine/node';
+
+/** Four islands: two per worker at 2 workers, all four on one worker at 1. */
+const ISLANDS = 4;
+const EVALUATIONS = 30_000;
+
+/**
+ * A real synthesis workload: the five-point prescribed-timing four-bar problem of
+ * Cabrera, Simon and Prado (2002), as in /work/shared/reference/path-synthesis.json
+ * ("timed5"), with bounds of our own that contain its optimum.
+ */
+const TIMED5 = {
+  format: 'loci-problem',
+  version: 1,
+  name: 'timed5',
+  target: { points: [[3, 3], [2.759, 3.363], [2.372, 3.663], [1.89, 3.862], [1.355, 3.943]], closed: false },
+  timing: { mode: 'prescribed', driverValues: [30, 45, 60, 75, 90], unit: 'deg' },
+  placement: 'fixed',
+  families: ['fourbar-lengths'],
+  bounds: { 'fourbar-lengths': { r1: [0.5, 6], r2: [0.5, 6], r3: [0.5, 6], r4: [0.5, 6], rcx: [-5, 5], rcy: [-5, 5], x0: [-5, 5], y0: [-5, 5] } },
+  constraints: { fullTurnCrank: true },
+};
+
+function spec(evaluations: number): RunInput {
+  return {
+    jobs: [{ id: 'timed5', objective: { kind: 'synthesis', problem: TIMED5, family: 'fourbar-lengths' }, seed: 1, islands: ISLANDS }],
+    budget: { evaluations },
+    deterministic: true,
+  };
+}
+
+async function measure(workers: number, evaluations: number): Promise<{ evalsPerS: number; best: number }> {
+  const made = createRun(nodeEnvironment(), spec(evaluations), { workers, topK: 1 });
+  if (!made.ok) throw new Error(made.reason);
+  const result = await made.run.start();
+  if (!result.ok) throw new Error(result.reason);
+  return { evalsPerS: (result.evaluations * 1000) / result.elapsedMs, best: result.candidates[0]?.value ?? NaN };
+}
+
+export async function benchScaling(): Promise<Record<string, number>> {
+  const one = await measure(1, EVALUATIONS);
+  const two = await measure(2, EVALUATIONS);
+  if (!Object.is(one.best, two.best)) {
+    throw new Error(`the 1- and 2-worker runs ended on different best values (${one.best} and ${two.best}); the schedule is not deterministic`);
+  }
+  return {
+    evalsPerS1Worker: one.evalsPerS,
+    evalsPerS2Workers: two.evalsPerS,
+    twoOverOneWorkerRatio: two.evalsPerS / one.evalsPerS,
+    bestValueChecksum: one.best,
+  };
+}

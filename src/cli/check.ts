@@ -1,0 +1,132 @@
+/**
+ * `loci check PROBLEM.json [--json]`: validates a problem file and prints what a fit
+ * would search (each family's variables and their bounds), or every issue, one a line
+ * with the field it concerns, and exit code 2.
+ */
+import { createObjective, type Problem } from '../core/synthesis';
+import { parseCommandArgs, type OptionSpec } from './args';
+import { EXIT_OK, EXIT_USAGE, type CliIo } from './command';
+import { formatJson } from './formatJson';
+import { readProblemFile } from './problemInput';
+
+export const usage = `usage: loci check PROBLEM.json [--json]
+
+Validates a problem file (format "loci-problem") and prints what \`loci fit\` would
+search: the target, timing, placement, measure and constraints, and for each family
+its variables with their bounds. A file with issues gets one line per issue, naming
+the field, on stderr, and exit code 2.
+
+  --json      print the summary as JSON instead of text.
+  --help, -h  this text.
+
+Exit codes: 0 valid, 2 bad input (unreadable file, not JSON, issues, bad flags), 1 an
+unexpected failure.
+`;
+
+const OPTIONS: readonly OptionSpec[] = [
+  { name: 'json', kind: 'flag' },
+  { name: 'help', kind: 'flag' },
+];
+
+interface FamilySummary {
+  readonly family: string;
+  readonly dim: number;
+  readonly variables: { readonly name: string; readonly lower: number; readonly upper: number }[];
+}
+
+/** What a fit of `problem` would search, family by family. */
+export function searchSummary(problem: Problem): FamilySummary[] {
+  return problem.families.map((family) => {
+    const objective = createObjective(problem, family);
+    return {
+      family,
+      dim: objective.dim,
+      variables: objective.variableNames.map((name, j) => ({ name, lower: objective.lower[j], upper: objective.upper[j] })),
+    };
+  });
+}
+
+function timingText(problem: Problem): string {
+  const t = problem.timing;
+  if (t.mode === 'prescribed') return `prescribed (${t.driverValues.length} driver values)`;
+  if (t.mode === 'free') return `free (one driver value per point is a variable${t.wrap ? ', may wrap through a full turn' : ''}${t.refine ? ', refined' : ''})`;
+  return `unprescribed (matched in order to ${t.samples ?? 'the default number of'} curve samples${t.wrap === false ? '' : ', may wrap'})`;
+}
+
+function constraintsText(problem: Problem): string {
+  const c = problem.constraints;
+  const parts: string[] = [];
+  if (c.fullTurnCrank) parts.push('crank turns fully (Grashof)');
+  if (c.grashofTolerance !== undefined) parts.push(`Grashof tolerance ${c.grashofTolerance}`);
+  if (c.minTransmissionRad !== undefined) parts.push(`transmission angle ≥ ${((c.minTransmissionRad * 180) / Math.PI).toFixed(1)}°`);
+  if (c.linkLengthMm !== undefined) parts.push(`link lengths ${c.linkLengthMm[0]} to ${c.linkLengthMm[1]} mm`);
+  if (c.keepOut !== undefined && c.keepOut.length > 0) parts.push(`${c.keepOut.length} keep-out circle${c.keepOut.length > 1 ? 's' : ''}`);
+  if (c.branch !== undefined) parts.push(`branch ${c.branch}`);
+  return parts.length === 0 ? 'none beyond the variable bounds' : parts.join('; ');
+}
+
+function formatBound(value: number): string {
+  return String(Number(value.toPrecision(6)));
+}
+
+function summaryText(file: string, problem: Problem, families: readonly FamilySummary[]): string {
+  const points = problem.target.points.length / 2;
+  const lines = [
+    `${file}: valid problem ${JSON.stringify(problem.name)}`,
+    `  target:      ${points} points, ${problem.target.closed ? 'closed' : 'open'}${problem.target.weights ? ', weighted' : ''}`,
+    `  timing:      ${timingText(problem)}`,
+    `  placement:   ${problem.placement}`,
+    `  measure:     ${problem.measure}`,
+    `  constraints: ${constraintsText(problem)}`,
+    `A fit would search ${families.length} famil${families.length === 1 ? 'y' : 'ies'}:`,
+  ];
+  for (const f of families) {
+    lines.push(`  ${f.family}: ${f.dim} variables`);
+    const width = Math.max(...f.variables.map((v) => v.name.length));
+    for (const v of f.variables) lines.push(`    ${v.name.padEnd(width)}  ${formatBound(v.lower)} … ${formatBound(v.upper)}`);
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+export async function run(args: readonly string[], io: CliIo): Promise<number> {
+  const usageError = (message: string): number => {
+    io.stderr(`loci check: ${message}\n\n${usage}`);
+    return EXIT_USAGE;
+  };
+  const parsed = parseCommandArgs(args, OPTIONS);
+  if (!parsed.ok) return usageError(parsed.message);
+  const { positionals, options } = parsed.args;
+  if (options.has('help')) {
+    io.stdout(usage);
+    return EXIT_OK;
+  }
+  if (positionals.length === 0) return usageError('no problem file given');
+  if (positionals.length > 1) return usageError(`one problem file expected, got ${positionals.length}: ${positionals.join(' ')}`);
+  const file = positionals[0];
+
+  const read = await readProblemFile(file, io);
+  if (!read.ok) {
+    io.stderr(`${read.lines.join('\n')}\n`);
+    return EXIT_USAGE;
+  }
+  const families = searchSummary(read.problem);
+  if (options.has('json')) {
+    const p = read.problem;
+    io.stdout(
+      `${formatJson({
+        file,
+        valid: true,
+        name: p.name,
+        target: { points: p.target.points.length / 2, closed: p.target.closed, weighted: p.target.weights !== undefined },
+        timing: p.timing.mode,
+        placement: p.placement,
+        measure: p.measure,
+        constraints: p.constraints,
+        families,
+      })}\n`,
+    );
+  } else {
+    io.stdout(summaryText(file, read.problem, families));
+  }
+  return EXIT_OK;
+}

@@ -1,0 +1,27 @@
+/** Reading a problem file for `loci fit` and `loci check`: the file, its JSON, then parseProblemFile. */
+import { parseProblemFile } from '../core/io/problem';
+import type { Problem } from '../core/synthesis';
+import type { CliIo } from './command';
+
+export type ReadProblemResult =
+  | { readonly ok: true; readonly json: unknown; readonly problem: Problem; readonly description?: string }
+  /** Each line names the file and, where there is one, the field. */
+  | { readonly ok: false; readonly lines: string[] };
+
+export async function readProblemFile(path: string, io: CliIo): Promise<ReadProblemResult> {
+  const read = await io.readTextFile(path);
+  if (!read.ok) return { ok: false, lines: [read.message] };
+  let json: unknown;
+  try {
+    json = JSON.parse(read.text.charCodeAt(0) === 0xfeff ? read.text.slice(1) : read.text);
+  } catch (error) {
+    return { ok: false, lines: [`${path}: not valid JSON: ${error instanceof Error ? error.message : String(error)}`] };
+  }
+  const parsed = parseProblemFile(json);
+  if (!parsed.ok) {
+    return { ok: false, lines: parsed.issues.map((issue) => `${path}: ${issue.path === '' ? '' : `${issue.path}: `}${issue.message}`) };
+  }
+  return parsed.description === undefined
+    ? { ok: true, json, problem: parsed.problem }
+    : { ok: true, json, problem: parsed.problem, description: parsed.description };
+}

@@ -1,0 +1,107 @@
+/**
+ * The checkpoint of a whole run, and its text form. A checkpoint is every island's
+ * state, the run's archive and its counters, with the spec it runs; restoring it
+ * continues the same search. The text is JSON:
+ *
+ *   { "format": "loci-run-checkpoint", "version": 1, "checksum": "fnv1a64:…", "payload": {…} }
+ *
+ * where the checksum is taken over `JSON.stringify(payload)`. JSON round-trips every
+ * finite double exactly and keeps key order, so a reader recomputes the same string
+ * from the parsed payload; any change to it (a truncated write, a flipped digit, a hand
+ * edit) shows up as a mismatch.
+ */
+import type { Individual, IslandState } from '../../workers/api';
+import { fnv1a64Hex } from './checksum';
+import { defineRun, planIslands, type RunSpec } from './runSpec';
+
+export const CHECKPOINT_FORMAT = 'loci-run-checkpoint';
+export const CHECKPOINT_VERSION = 1;
+const CHECKSUM_PREFIX = 'fnv1a64:';
+
+export interface CheckpointPayload {
+  readonly spec: RunSpec;
+  /** Rounds completed (every island stepped once per round). */
+  readonly rounds: number;
+  /** Active (not paused) milliseconds of the run so far. */
+  readonly elapsedMs: number;
+  /** Evaluations of all islands so far. */
+  readonly evaluations: number;
+  /** Worker restarts after a failure, so far. */
+  readonly restarts: number;
+  /** Every island, in the order of `planIslands(spec)`. */
+  readonly islands: readonly IslandState[];
+  /** The run's archive of each job, best first. */
+  readonly archive: readonly { readonly jobId: string; readonly entries: readonly Individual[] }[];
+}
+
+export type DecodeResult = { readonly ok: true; readonly payload: CheckpointPayload } | { readonly ok: false; readonly reason: string };
+
+/** The checkpoint as text. */
+export function encodeCheckpoint(payload: CheckpointPayload): string {
+  const body = JSON.stringify(payload);
+  const checksum = CHECKSUM_PREFIX + fnv1a64Hex(body);
+  return `{"format":${JSON.stringify(CHECKPOINT_FORMAT)},"version":${CHECKPOINT_VERSION},"checksum":${JSON.stringify(checksum)},"payload":${body}}`;
+}
+
+function isObject(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+function isCount(v: unknown): v is number {
+  return typeof v === 'number' && Number.isInteger(v) && v >= 0;
+}
+
+/**
+ * Reads a checkpoint's text: JSON, format, version, checksum, then the shape of the
+ * payload and its spec. The island states themselves are checked by the workers that
+ * import them.
+ */
+export function decodeCheckpoint(text: string): DecodeResult {
+  let doc: unknown;
+  try {
+    doc = JSON.parse(text);
+  } catch (error) {
+    return { ok: false, reason: `checkpoint is not valid JSON (${error instanceof Error ? error.message : String(error)}); it may have been cut short` };
+  }
+  if (!isObject(doc)) return { ok: false, reason: 'checkpoint is not a JSON object' };
+  if (doc.format !== CHECKPOINT_FORMAT) return { ok: false, reason: `checkpoint format is ${JSON.stringify(doc.format)}; expected "${CHECKPOINT_FORMAT}"` };
+  if (doc.version !== CHECKPOINT_VERSION) {
+    return { ok: false, reason: `checkpoint version is ${JSON.stringify(doc.version)}; this Loci reads version ${CHECKPOINT_VERSION}` };
+  }
+  if (!(typeof doc.checksum === 'string' && doc.checksum.startsWith(CHECKSUM_PREFIX))) {
+    return { ok: false, reason: `checkpoint checksum is ${JSON.stringify(doc.checksum)}; expected "${CHECKSUM_PREFIX}" and 16 hex digits` };
+  }
+  if (!isObject(doc.payload)) return { ok: false, reason: 'checkpoint payload is not an object' };
+  const actual = CHECKSUM_PREFIX + fnv1a64Hex(JSON.stringify(doc.payload));
+  if (actual !== doc.checksum) {
+    return { ok: false, reason: `checkpoint is corrupt: its checksum is ${doc.checksum} but its payload hashes to ${actual}` };
+  }
+  const p = doc.payload;
+  const defined = defineRun(p.spec);
+  if (!defined.ok) return { ok: false, reason: `checkpoint spec: ${defined.reason}` };
+  const spec = defined.spec;
+  for (const field of ['rounds', 'evaluations', 'restarts'] as const) {
+    if (!isCount(p[field])) return { ok: false, reason: `checkpoint ${field} is ${JSON.stringify(p[field])}; expected an integer ≥ 0` };
+  }
+  if (!(typeof p.elapsedMs === 'number' && p.elapsedMs >= 0)) return { ok: false, reason: 'checkpoint elapsedMs is not a number ≥ 0' };
+  const plans = planIslands(spec);
+  if (!(Array.isArray(p.islands) && p.islands.length === plans.length)) {
+    return { ok: false, reason: `checkpoint islands is not an array of ${plans.length} island states (one per island of its spec)` };
+  }
+  for (const [k, plan] of plans.entries()) {
+    const island = p.islands[k] as unknown;
+    if (!(isObject(island) && isObject(island.config) && island.config.islandId === plan.islandId)) {
+      return { ok: false, reason: `checkpoint islands[${k}] is not the state of island ${plan.islandId}` };
+    }
+  }
+  if (!(Array.isArray(p.archive) && p.archive.length === spec.jobs.length)) {
+    return { ok: false, reason: `checkpoint archive is not an array of ${spec.jobs.length} job archives` };
+  }
+  for (const [k, job] of spec.jobs.entries()) {
+    const entry = p.archive[k] as unknown;
+    if (!(isObject(entry) && entry.jobId === job.id && Array.isArray(entry.entries))) {
+      return { ok: false, reason: `checkpoint archive[${k}] is not the archive of job ${job.id}` };
+    }
+  }
+  return { ok: true, payload: { ...(p as unknown as CheckpointPayload), spec } };
+}

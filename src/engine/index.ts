@@ -1,0 +1,15 @@
+/**
+ * The search engine: runs jobs (target × family × seed) as islands over workers, with
+ * budgets, migration, an archive of distinct candidates, progress, pause/resume/cancel
+ * and checkpoints. Environment-specific parts are in node/ and browser/.
+ */
+export { createRun, restoreRun, restoreRunFromStore, DEFAULT_TOP_K } from './run';
+export type { MakeRunResult, RankedCandidate, Run, RunOptions, RunProgress, RunResult, RunStatus, RunStopReason } from './run';
+export { defineRun, planIslands, DEFAULT_ISLAND_EVALUATIONS } from './runSpec';
+export type { IslandPlan, JobSpec, RunInput, RunSpec } from './runSpec';
+export { CHECKPOINT_FORMAT, CHECKPOINT_VERSION, decodeCheckpoint, encodeCheckpoint } from './checkpoint';
+export type { CheckpointPayload } from './checkpoint';
+export { memoryCheckpointStore, type CheckpointStore } from './checkpointStore';
+export type { EngineEnvironment, WorkerHandle } from './environment';
+export { fnv1a64Hex } from './checksum';
+export type { CandidateDetail, DescribedCandidate, Individual, ObjectiveSpec } from '../../workers/api';

@@ -1,0 +1,678 @@
+/**
+ * A search run: the islands of a spec spread over N workers, stepped in rounds.
+ *
+ * One round steps every running island once (the islands of one worker in turn, the
+ * workers in parallel). After a round the engine merges the islands' new elites into
+ * the run's archive, reports progress, migrates the best few individuals around each
+ * job's ring every few rounds (island k sends to island k + 1), and checkpoints at a
+ * fixed interval. Pause checkpoints and waits between rounds; cancel stops between
+ * rounds. A worker that dies or stops answering is replaced, and the whole run goes
+ * back to the last checkpoint, so a deterministic run still ends as it would have.
+ *
+ * Every evaluation happens in the workers; this side only orchestrates.
+ */
+import { precedes } from '../core/optimize';
+import type { DescribedCandidate, IslandInfo, IslandProgress, IslandState, IslandStopReason, StepSlice } from '../../workers/api';
+import { CandidateArchive } from '../../workers/archive';
+import { decodeCheckpoint, encodeCheckpoint, type CheckpointPayload } from './checkpoint';
+import type { CheckpointStore } from './checkpointStore';
+import type { EngineEnvironment } from './environment';
+import { defineRun, planIslands, type IslandPlan, type RunInput, type RunSpec } from './runSpec';
+import { WorkerClient, WorkerLost, WorkerRefused } from './workerClient';
+
+export type RunStatus = 'idle' | 'running' | 'paused' | 'finished' | 'failed';
+
+/** Why a run ended: its evaluation budget, its time budget, every island converged or hit its target, or a cancel. */
+export type RunStopReason = 'budget' | 'time' | 'converged' | 'target' | 'cancelled';
+
+export interface RunProgress {
+  readonly status: RunStatus;
+  readonly rounds: number;
+  /** Evaluations of all islands so far (after a worker restart: since the checkpoint it went back to). */
+  readonly evaluations: number;
+  readonly budgetEvaluations: number | null;
+  /** Active search milliseconds (worker start-up and paused time excluded), this session and those it resumes. */
+  readonly elapsedMs: number;
+  /** Evaluations per second of this session. */
+  readonly evaluationsPerSecond: number;
+  /** Estimated milliseconds left, from the budget and the rate; null when it cannot be told yet. */
+  readonly remainingMs: number | null;
+  /** The best candidate of the run so far (its job, value of the measure and violation). */
+  readonly best: { readonly jobId: string; readonly value: number; readonly violation: number } | null;
+  readonly islands: number;
+  readonly islandsRunning: number;
+  readonly workers: number;
+  readonly restarts: number;
+  /** The round of the last checkpoint taken, or null. */
+  readonly checkpointRound: number | null;
+}
+
+export interface RankedCandidate extends DescribedCandidate {
+  /** 1 for the best. */
+  readonly rank: number;
+  readonly jobId: string;
+}
+
+export type RunResult =
+  | {
+      readonly ok: true;
+      readonly stopReason: RunStopReason;
+      readonly evaluations: number;
+      readonly elapsedMs: number;
+      readonly rounds: number;
+      readonly restarts: number;
+      /** Evaluations of each job (all its islands). */
+      readonly jobs: { readonly jobId: string; readonly evaluations: number }[];
+      /** The best distinct candidates of all jobs, ranked feasibility first (Deb, 2000). */
+      readonly candidates: RankedCandidate[];
+    }
+  | { readonly ok: false; readonly reason: string; readonly evaluations: number; readonly rounds: number };
+
+export interface RunOptions {
+  /** Workers to start (never more than islands); default the environment's count. */
+  readonly workers?: number;
+  /** Where checkpoints go; without one the run keeps its last checkpoint in memory only. */
+  readonly store?: CheckpointStore;
+  /** Candidates described in the result; default 10. */
+  readonly topK?: number;
+  /** A worker call that takes longer counts as a lost worker; default 120 000 ms. */
+  readonly callTimeoutMs?: number;
+  /** Restarts without a checkpoint in between before the run gives up; default 3. */
+  readonly maxRestarts?: number;
+}
+
+export interface Run {
+  readonly spec: RunSpec;
+  status(): RunStatus;
+  progress(): RunProgress;
+  /** Called after every round and on every change of status; returns the unsubscribe function. */
+  onProgress(listener: (progress: RunProgress) => void): () => void;
+  /** Runs to the end (budget, convergence or cancel). Call once. */
+  start(): Promise<RunResult>;
+  /** Stops after the current round, checkpoints, and waits; resolves once paused. */
+  pause(): Promise<void>;
+  resume(): void;
+  /** Stops after the current round (at once if paused); `start()` then resolves with stopReason 'cancelled'. */
+  cancel(): void;
+  /** The whole run's checkpoint, taken between rounds. */
+  exportCheckpoint(): Promise<string>;
+}
+
+export type MakeRunResult = { readonly ok: true; readonly run: Run } | { readonly ok: false; readonly reason: string };
+
+export const DEFAULT_TOP_K = 10;
+const DEFAULT_CALL_TIMEOUT_MS = 120_000;
+const DEFAULT_MAX_RESTARTS = 3;
+/** Every loop has a cap: no run goes beyond this many rounds. */
+const MAX_ROUNDS = 1_000_000_000;
+/** A time-budget step is never shorter than this, ms. */
+const MIN_STEP_MS = 1;
+
+/** A failure the run cannot recover from; its message is the run's `reason`. */
+class RunFailure extends Error {}
+
+interface IslandView {
+  readonly plan: IslandPlan;
+  worker: number;
+  evaluations: number;
+  stopReason: IslandStopReason | null;
+}
+
+function checkOptions(options: RunOptions, islands: number, env: EngineEnvironment): string | null {
+  const { workers, topK, callTimeoutMs, maxRestarts } = options;
+  if (workers !== undefined && !(Number.isInteger(workers) && workers >= 1 && workers <= 1024)) return `workers is ${workers}; expected an integer in [1, 1024]`;
+  if (topK !== undefined && !(Number.isInteger(topK) && topK >= 0 && topK <= 10_000)) return `topK is ${topK}; expected an integer in [0, 10000]`;
+  if (callTimeoutMs !== undefined && !(callTimeoutMs > 0)) return `callTimeoutMs is ${callTimeoutMs}; expected a number > 0`;
+  if (maxRestarts !== undefined && !(Number.isInteger(maxRestarts) && maxRestarts >= 0)) return `maxRestarts is ${maxRestarts}; expected an integer ≥ 0`;
+  if (islands < 1) return 'the run has no islands';
+  if (!(env.defaultWorkerCount() >= 1)) return 'the environment reports no workers';
+  return null;
+}
+
+/** A new run of `input` (checked, defaults filled in). Nothing starts until `start()`. */
+export function createRun(env: EngineEnvironment, input: RunInput, options: RunOptions = {}): MakeRunResult {
+  const defined = defineRun(input);
+  if (!defined.ok) return defined;
+  const problem = checkOptions(options, planIslands(defined.spec).length, env);
+  if (problem !== null) return { ok: false, reason: problem };
+  return { ok: true, run: new Engine(env, defined.spec, null, options) };
+}
+
+/** The run a checkpoint holds, ready to `start()` where it left off. */
+export function restoreRun(env: EngineEnvironment, checkpointText: string, options: RunOptions = {}): MakeRunResult {
+  const decoded = decodeCheckpoint(checkpointText);
+  if (!decoded.ok) return decoded;
+  const problem = checkOptions(options, decoded.payload.islands.length, env);
+  if (problem !== null) return { ok: false, reason: problem };
+  return { ok: true, run: new Engine(env, decoded.payload.spec, decoded.payload, options) };
+}
+
+/**
+ * The run of the newest checkpoint in `store` that decodes, and what was wrong with
+ * newer ones it skipped. `{ ok: false }` when the store holds none, or none that decodes.
+ */
+export async function restoreRunFromStore(
+  env: EngineEnvironment,
+  store: CheckpointStore,
+  options: Omit<RunOptions, 'store'> = {},
+): Promise<{ readonly ok: true; readonly run: Run; readonly skipped: string[] } | { readonly ok: false; readonly reason: string; readonly empty: boolean }> {
+  const texts = await store.load();
+  if (texts.length === 0) return { ok: false, reason: 'the store holds no checkpoint', empty: true };
+  const skipped: string[] = [];
+  for (const text of texts) {
+    const made = restoreRun(env, text, { ...options, store });
+    if (made.ok) return { ok: true, run: made.run, skipped };
+    skipped.push(made.reason);
+  }
+  return { ok: false, reason: skipped.map((reason, k) => `checkpoint ${k + 1} (newest first): ${reason}`).join('; '), empty: false };
+}
+
+class Engine implements Run {
+  readonly spec: RunSpec;
+  private readonly env: EngineEnvironment;
+  private readonly store: CheckpointStore | null;
+  private readonly topK: number;
+  private readonly callTimeoutMs: number;
+  private readonly maxRestarts: number;
+  private readonly workerCount: number;
+  private readonly islands: IslandView[];
+  private readonly listeners = new Set<(progress: RunProgress) => void>();
+  private readonly from: CheckpointPayload | null;
+
+  private state: RunStatus = 'idle';
+  private started = false;
+  private workers: WorkerClient[] = [];
+  private archives: (CandidateArchive | null)[];
+  /** Real bounds of each job's variables, from its first island. */
+  private readonly bounds = new Map<number, [number[], number[]]>();
+  private rounds = 0;
+  private restarts = 0;
+  private restartsSinceCheckpoint = 0;
+  private elapsedBeforeMs = 0;
+  private activeSinceMs: number | null = null;
+  private sessionEvaluations = 0;
+  private sessionActiveMs = 0;
+  private sessionSinceMs: number | null = null;
+  private snapshot: CheckpointPayload | null = null;
+  private checkpointRound: number | null = null;
+  private lastCheckpointAtMs = 0;
+  private finalPayload: CheckpointPayload | null = null;
+
+  private pauseRequested = false;
+  private cancelRequested = false;
+  private pauseWaiters: (() => void)[] = [];
+  private wake: (() => void) | null = null;
+  private exportRequests: { resolve: (text: string) => void; reject: (error: Error) => void }[] = [];
+
+  constructor(env: EngineEnvironment, spec: RunSpec, from: CheckpointPayload | null, options: RunOptions) {
+    this.env = env;
+    this.spec = spec;
+    this.from = from;
+    this.store = options.store ?? null;
+    this.topK = options.topK ?? DEFAULT_TOP_K;
+    this.callTimeoutMs = options.callTimeoutMs ?? DEFAULT_CALL_TIMEOUT_MS;
+    this.maxRestarts = options.maxRestarts ?? DEFAULT_MAX_RESTARTS;
+    const plans = planIslands(spec);
+    this.workerCount = Math.min(plans.length, options.workers ?? env.defaultWorkerCount());
+    this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null }));
+    this.archives = spec.jobs.map(() => null);
+    if (from !== null) {
+      this.rounds = from.rounds;
+      this.restarts = from.restarts;
+      this.elapsedBeforeMs = from.elapsedMs;
+    }
+  }
+
+  status(): RunStatus {
+    return this.state;
+  }
+
+  onProgress(listener: (progress: RunProgress) => void): () => void {
+    this.listeners.add(listener);
+    return () => this.listeners.delete(listener);
+  }
+
+  progress(): RunProgress {
+    const evaluations = this.islands.reduce((sum, island) => sum + island.evaluations, 0);
+    const elapsedMs = this.elapsedMs();
+    const sessionMs = this.sessionActiveMs + (this.sessionSinceMs === null ? 0 : this.env.now() - this.sessionSinceMs);
+    const rate = sessionMs > 0 ? (this.sessionEvaluations * 1000) / sessionMs : 0;
+    const budget = this.spec.budget;
+    let remainingMs: number | null = null;
+    if (budget.evaluations !== null && rate > 0) remainingMs = (Math.max(0, budget.evaluations - evaluations) / rate) * 1000;
+    if (budget.seconds !== null) {
+      const left = Math.max(0, budget.seconds * 1000 - elapsedMs);
+      remainingMs = remainingMs === null ? left : Math.min(remainingMs, left);
+    }
+    if (this.state === 'finished') remainingMs = 0;
+    return {
+      status: this.state,
+      rounds: this.rounds,
+      evaluations,
+      budgetEvaluations: budget.evaluations,
+      elapsedMs,
+      evaluationsPerSecond: rate,
+      remainingMs,
+      best: this.best(),
+      islands: this.islands.length,
+      islandsRunning: this.islands.filter((island) => island.stopReason === null).length,
+      workers: this.workers.length,
+      restarts: this.restarts,
+      checkpointRound: this.checkpointRound,
+    };
+  }
+
+  pause(): Promise<void> {
+    if (this.state === 'paused') return Promise.resolve();
+    if (this.state !== 'running') return Promise.resolve();
+    this.pauseRequested = true;
+    return new Promise((resolve) => this.pauseWaiters.push(resolve));
+  }
+
+  resume(): void {
+    this.pauseRequested = false;
+    // A pause asked for and withdrawn before it took effect: its promise still settles.
+    if (this.state !== 'paused') for (const resolve of this.pauseWaiters.splice(0)) resolve();
+    this.wake?.();
+  }
+
+  cancel(): void {
+    this.cancelRequested = true;
+    this.wake?.();
+  }
+
+  exportCheckpoint(): Promise<string> {
+    if (this.finalPayload !== null) return Promise.resolve(encodeCheckpoint(this.finalPayload));
+    if (this.state === 'paused') return this.collect().then(encodeCheckpoint);
+    if (this.state === 'idle') return Promise.reject(new Error('exportCheckpoint: the run has not started'));
+    if (this.state === 'failed') return Promise.reject(new Error('exportCheckpoint: the run failed; its last checkpoint is the one in its store'));
+    return new Promise((resolve, reject) => this.exportRequests.push({ resolve, reject }));
+  }
+
+  async start(): Promise<RunResult> {
+    if (this.started) throw new Error('start(): a run starts once');
+    this.started = true;
+    this.state = 'running';
+    try {
+      await this.launch();
+      this.beginActive();
+      const stopReason = await this.loop();
+      const payload = await this.collect();
+      this.finalPayload = payload;
+      await this.save(payload);
+      const finalText = encodeCheckpoint(payload);
+      for (const request of this.exportRequests.splice(0)) request.resolve(finalText);
+      const candidates = await this.describeTop();
+      this.endActive();
+      this.state = 'finished';
+      this.emit();
+      return {
+        ok: true,
+        stopReason,
+        evaluations: payload.evaluations,
+        elapsedMs: this.elapsedMs(),
+        rounds: this.rounds,
+        restarts: this.restarts,
+        jobs: this.spec.jobs.map((job, j) => ({
+          jobId: job.id,
+          evaluations: this.islands.filter((island) => island.plan.jobIndex === j).reduce((sum, island) => sum + island.evaluations, 0),
+        })),
+        candidates,
+      };
+    } catch (error) {
+      this.endActive();
+      this.state = 'failed';
+      for (const request of this.exportRequests.splice(0)) request.reject(new Error('the run failed'));
+      this.emit();
+      // Anything else is a bug (in the engine, or thrown inside a worker): the caller sees it as thrown.
+      if (!(error instanceof RunFailure || error instanceof WorkerLost || error instanceof WorkerRefused)) throw error;
+      const reason = error.message;
+      return { ok: false, reason, evaluations: this.progress().evaluations, rounds: this.rounds };
+    } finally {
+      await this.closeWorkers();
+      for (const resolve of this.pauseWaiters.splice(0)) resolve();
+    }
+  }
+
+  // --- the loop ----------------------------------------------------------------------
+
+  private async loop(): Promise<RunStopReason> {
+    for (let guard = 0; guard < MAX_ROUNDS; guard++) {
+      if (this.cancelRequested) return 'cancelled';
+      if (this.pauseRequested) {
+        await this.pauseHere();
+        continue;
+      }
+      const stop = this.stopReason();
+      if (stop !== null) return stop;
+      try {
+        await this.round();
+        this.rounds++;
+        if (this.spec.migration.count > 0 && this.rounds % this.spec.migration.everyRounds === 0) await this.migrate();
+        if (this.env.now() - this.lastCheckpointAtMs >= this.spec.checkpointEveryMs) await this.checkpoint();
+        await this.answerExports();
+      } catch (error) {
+        if (!(error instanceof WorkerLost)) throw error;
+        await this.recover(error);
+      }
+      this.emit();
+    }
+    throw new RunFailure(`the run reached the cap of ${MAX_ROUNDS} rounds`);
+  }
+
+  private stopReason(): RunStopReason | null {
+    const { seconds } = this.spec.budget;
+    const running = this.islands.filter((island) => island.stopReason === null).length;
+    if (running === 0) {
+      if (this.islands.every((island) => island.stopReason === 'budget')) return 'budget';
+      return this.islands.some((island) => island.stopReason === 'target') ? 'target' : 'converged';
+    }
+    if (seconds !== null && this.elapsedMs() >= seconds * 1000) return 'time';
+    return null;
+  }
+
+  private slice(): StepSlice {
+    if (this.spec.deterministic) return { evaluations: this.spec.stepEvaluations };
+    const { seconds } = this.spec.budget;
+    let ms = this.spec.stepMs;
+    if (seconds !== null) {
+      const perWorker = Math.ceil(this.islands.length / this.workerCount);
+      ms = Math.min(ms, Math.max(MIN_STEP_MS, (seconds * 1000 - this.elapsedMs()) / perWorker));
+    }
+    return { ms };
+  }
+
+  /** Steps every running island once: the islands of a worker in turn, the workers in parallel. */
+  private async round(): Promise<void> {
+    const slice = this.slice();
+    const results: (IslandProgress | null)[] = this.islands.map(() => null);
+    const settled = await Promise.allSettled(
+      this.workers.map(async (worker, w) => {
+        for (const [k, island] of this.islands.entries()) {
+          if (island.worker !== w || island.stopReason !== null) continue;
+          const { progress } = await worker.call('step', this.callTimeoutMs, (api) => api.step(island.plan.islandId, slice));
+          results[k] = progress;
+        }
+      }),
+    );
+    throwFirst(settled);
+    // In island order, whatever order the workers answered in: the archive then does not depend on timing.
+    for (const [k, progress] of results.entries()) if (progress !== null) this.record(this.islands[k], progress);
+  }
+
+  private record(island: IslandView, progress: IslandProgress): void {
+    island.evaluations = progress.evaluations;
+    island.stopReason = progress.stopReason;
+    this.sessionEvaluations += progress.stepEvaluations;
+    const archive = this.archives[island.plan.jobIndex];
+    if (archive !== null) for (const elite of progress.elites) archive.offer(elite.x, elite.value, elite.violation);
+  }
+
+  /** Each island of a ring sends its best few to the next one. */
+  private async migrate(): Promise<void> {
+    const { count } = this.spec.migration;
+    const rings = this.spec.jobs.map((_, j) => this.islands.filter((island) => island.plan.jobIndex === j)).filter((ring) => ring.length > 1);
+    if (rings.length === 0) return;
+    const outgoing = await Promise.allSettled(
+      rings.flat().map((island) =>
+        this.workers[island.worker].call('emigrants', this.callTimeoutMs, (api) => api.emigrants(island.plan.islandId, count)),
+      ),
+    );
+    const sent = throwFirst(outgoing);
+    const byIsland = new Map(rings.flat().map((island, k) => [island.plan.islandId, sent[k].individuals]));
+    const incoming = await Promise.allSettled(
+      rings.flatMap((ring) =>
+        ring.map((island, k) => {
+          const target = ring[(k + 1) % ring.length];
+          const individuals = byIsland.get(island.plan.islandId) ?? [];
+          return this.workers[target.worker].call('immigrate', this.callTimeoutMs, (api) => api.immigrate(target.plan.islandId, individuals));
+        }),
+      ),
+    );
+    throwFirst(incoming);
+  }
+
+  private async pauseHere(): Promise<void> {
+    await this.checkpoint();
+    this.endActive();
+    this.state = 'paused';
+    this.emit();
+    for (const resolve of this.pauseWaiters.splice(0)) resolve();
+    await this.answerExports();
+    while (this.pauseRequested && !this.cancelRequested) {
+      await new Promise<void>((resolve) => {
+        this.wake = resolve;
+      });
+      this.wake = null;
+    }
+    this.state = 'running';
+    this.beginActive();
+    this.emit();
+  }
+
+  // --- workers, checkpoints and recovery ------------------------------------------------
+
+  /** Starts the workers and creates (or restores) every island on its worker. */
+  private async launch(): Promise<void> {
+    for (let w = 0; w < this.workerCount; w++) this.workers.push(new WorkerClient(w, this.env.spawnWorker()));
+    const from = this.from;
+    try {
+      await this.placeIslands(from === null ? null : from.islands);
+    } catch (error) {
+      if (!(error instanceof WorkerLost) || from !== null) throw error;
+      // A worker lost while starting a new run: start it once more from scratch.
+      await this.replaceLostWorkers();
+      await this.placeIslands(null);
+    }
+    if (from !== null) this.loadArchives(from);
+    const payload = await this.collect();
+    this.snapshot = payload;
+    this.checkpointRound = this.rounds;
+    this.lastCheckpointAtMs = this.env.now();
+    if (from === null) await this.save(payload);
+    this.emit();
+  }
+
+  private async placeIslands(states: readonly IslandState[] | null): Promise<void> {
+    const settled = await Promise.allSettled(
+      this.islands.map((island, k) => {
+        const worker = this.workers[island.worker];
+        if (states !== null) return worker.call('importState', this.callTimeoutMs, (api) => api.importState(states[k]));
+        const { plan } = island;
+        const { spec } = this;
+        return worker.call('init', this.callTimeoutMs, (api) =>
+          api.init({
+            islandId: plan.islandId,
+            objective: plan.job.objective,
+            seed: plan.job.seed,
+            stream: plan.stream,
+            optimizer: plan.job.optimizer,
+            maxEvaluations: plan.maxEvaluations,
+            archiveCapacity: spec.archive.capacity,
+            archiveDistance: spec.archive.distance,
+          }),
+        );
+      }),
+    );
+    const placed = throwFirst(settled);
+    for (const [k, island] of this.islands.entries()) this.adopt(island, placed[k].island);
+  }
+
+  private adopt(island: IslandView, info: IslandInfo): void {
+    island.evaluations = info.evaluations;
+    island.stopReason = info.stopReason;
+    const j = island.plan.jobIndex;
+    if (this.archives[j] === null) {
+      this.bounds.set(j, [info.lower, info.upper]);
+      this.archives[j] = new CandidateArchive(this.spec.archive.capacity, this.spec.archive.distance, info.lower, info.upper);
+    }
+  }
+
+  private loadArchives(payload: CheckpointPayload): void {
+    this.archives = this.archives.map((archive, j) => {
+      if (archive === null) return null;
+      const [lower, upper] = this.bounds.get(j) as [number[], number[]];
+      const fresh = new CandidateArchive(archive.capacity, archive.distance, lower, upper);
+      for (const [k, entry] of payload.archive[j].entries.entries()) {
+        if (!(Array.isArray(entry.x) && fresh.fits(entry.x))) {
+          throw new RunFailure(`checkpoint archive of job ${this.spec.jobs[j].id}, entry ${k}: x does not fit the job's bounds`);
+        }
+        fresh.offer(entry.x, entry.value, entry.violation);
+      }
+      return fresh;
+    });
+  }
+
+  /** Every island's state, the archives and the counters, taken between rounds. */
+  private async collect(): Promise<CheckpointPayload> {
+    const settled = await Promise.allSettled(
+      this.islands.map((island) =>
+        this.workers[island.worker].call('exportState', this.callTimeoutMs, (api) => api.exportState(island.plan.islandId)),
+      ),
+    );
+    const states = throwFirst(settled).map((answer) => answer.state);
+    return {
+      spec: this.spec,
+      rounds: this.rounds,
+      elapsedMs: this.elapsedMs(),
+      evaluations: this.islands.reduce((sum, island) => sum + island.evaluations, 0),
+      restarts: this.restarts,
+      islands: states,
+      archive: this.spec.jobs.map((job, j) => ({
+        jobId: job.id,
+        entries: (this.archives[j]?.entries() ?? []).map((entry) => ({ x: Array.from(entry.x), value: entry.value, violation: entry.violation })),
+      })),
+    };
+  }
+
+  private async save(payload: CheckpointPayload): Promise<void> {
+    if (this.store !== null) await this.store.save(encodeCheckpoint(payload));
+  }
+
+  private async checkpoint(): Promise<void> {
+    const payload = await this.collect();
+    await this.save(payload);
+    this.snapshot = payload;
+    this.checkpointRound = this.rounds;
+    this.lastCheckpointAtMs = this.env.now();
+    this.restartsSinceCheckpoint = 0;
+  }
+
+  private async answerExports(): Promise<void> {
+    if (this.exportRequests.length === 0) return;
+    const text = encodeCheckpoint(await this.collect());
+    for (const request of this.exportRequests.splice(0)) request.resolve(text);
+  }
+
+  /** Replaces lost workers and takes every island back to the last checkpoint. */
+  private async recover(lost: WorkerLost): Promise<void> {
+    const snapshot = this.snapshot;
+    this.restarts++;
+    this.restartsSinceCheckpoint++;
+    if (snapshot === null || this.restartsSinceCheckpoint > this.maxRestarts) {
+      throw new RunFailure(`${lost.message}; gave up after ${this.restartsSinceCheckpoint - 1} restart(s) without progress`);
+    }
+    for (let attempt = 0; ; attempt++) {
+      try {
+        await this.replaceLostWorkers();
+        await this.placeIslands(snapshot.islands);
+        break;
+      } catch (error) {
+        if (!(error instanceof WorkerLost) || attempt >= this.maxRestarts) throw error;
+        this.restarts++;
+      }
+    }
+    this.rounds = snapshot.rounds;
+    this.loadArchives(snapshot);
+    this.emit();
+  }
+
+  private async replaceLostWorkers(): Promise<void> {
+    for (const [w, worker] of this.workers.entries()) {
+      if (worker.failure === null) continue;
+      await worker.close().catch(() => {});
+      this.workers[w] = new WorkerClient(w, this.env.spawnWorker());
+    }
+  }
+
+  private async closeWorkers(): Promise<void> {
+    const workers = this.workers;
+    this.workers = [];
+    await Promise.allSettled(workers.map((worker) => worker.close()));
+  }
+
+  // --- results ----------------------------------------------------------------------------
+
+  private best(): RunProgress['best'] {
+    let best: RunProgress['best'] = null;
+    for (const [j, archive] of this.archives.entries()) {
+      const top = archive?.entries()[0];
+      if (top === undefined) continue;
+      if (best === null || precedes(top.value, top.violation, best.value, best.violation)) {
+        best = { jobId: this.spec.jobs[j].id, value: top.value, violation: top.violation };
+      }
+    }
+    return best;
+  }
+
+  /** The topK best candidates of all jobs, described by a worker of each job. */
+  private async describeTop(): Promise<RankedCandidate[]> {
+    const pool = this.archives.flatMap((archive, j) => (archive?.entries() ?? []).map((entry) => ({ entry, j })));
+    pool.sort((a, b) =>
+      precedes(a.entry.value, a.entry.violation, b.entry.value, b.entry.violation) ? -1
+      : precedes(b.entry.value, b.entry.violation, a.entry.value, a.entry.violation) ? 1
+      : a.j - b.j,
+    );
+    const chosen = pool.slice(0, this.topK);
+    const described = new Map<number, DescribedCandidate[]>();
+    const jobs = [...new Set(chosen.map((c) => c.j))];
+    const settled = await Promise.allSettled(
+      jobs.map((j) => {
+        const island = this.islands.find((candidate) => candidate.plan.jobIndex === j) as IslandView;
+        const designs = chosen.filter((c) => c.j === j).map((c) => Array.from(c.entry.x));
+        return this.workers[island.worker].call('describe', this.callTimeoutMs, (api) => api.describe(island.plan.islandId, designs));
+      }),
+    );
+    for (const [k, answer] of throwFirst(settled).entries()) described.set(jobs[k], answer.candidates);
+    const next = new Map<number, number>();
+    return chosen.map((c, k) => {
+      const at = next.get(c.j) ?? 0;
+      next.set(c.j, at + 1);
+      const candidate = (described.get(c.j) as DescribedCandidate[])[at];
+      return { ...candidate, rank: k + 1, jobId: this.spec.jobs[c.j].id };
+    });
+  }
+
+  // --- time and events ------------------------------------------------------------------
+
+  private elapsedMs(): number {
+    return this.elapsedBeforeMs + (this.activeSinceMs === null ? 0 : this.env.now() - this.activeSinceMs);
+  }
+
+  private beginActive(): void {
+    const now = this.env.now();
+    this.activeSinceMs = now;
+    this.sessionSinceMs = now;
+  }
+
+  private endActive(): void {
+    const now = this.env.now();
+    if (this.activeSinceMs !== null) this.elapsedBeforeMs += now - this.activeSinceMs;
+    if (this.sessionSinceMs !== null) this.sessionActiveMs += now - this.sessionSinceMs;
+    this.activeSinceMs = null;
+    this.sessionSinceMs = null;
+  }
+
+  private emit(): void {
+    if (this.listeners.size === 0) return;
+    const progress = this.progress();
+    for (const listener of this.listeners) listener(progress);
+  }
+}
+
+/** The values of settled calls, or the first failure (a lost worker before anything else). */
+function throwFirst<T>(settled: readonly PromiseSettledResult<T>[]): T[] {
+  const failures = settled.filter((s): s is PromiseRejectedResult => s.status === 'rejected').map((s) => s.reason as unknown);
+  if (failures.length > 0) throw failures.find((f) => f instanceof WorkerLost) ?? failures[0];
+  return settled.map((s) => (s as PromiseFulfilledResult<T>).value);
+}

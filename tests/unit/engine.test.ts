@@ -1,0 +1,313 @@
+/**
+ * The search engine with real Node worker_threads workers, the real L-SHADE optimizer and
+ * a real objective: Rosenbrock's function, Σ 100 (x_{i+1} − x_i²)² + (x_i − 1)² on
+ * [−30, 30]^D, minimum 0 at (1, …, 1) (Jamil and Yang, 2013, "A literature survey of
+ * benchmark functions for global optimization problems").
+ *
+ * The reference for every "same result" check is an uninterrupted run of the same spec:
+ * a deterministic run must end bit for bit the same however it was paused, exported,
+ * restored on another number of workers, or had a worker killed under it.
+ */
+import { beforeAll, describe, expect, it } from 'vitest';
+import {
+  createRun,
+  decodeCheckpoint,
+  fnv1a64Hex,
+  memoryCheckpointStore,
+  restoreRun,
+  restoreRunFromStore,
+  type RunInput,
+  type RunProgress,
+  type RunResult,
+} from '../../src/engine';
+import { nodeEnvironment, spawnNodeSearchWorker, type NodeWorkerHandle } from '../../src/engine/node';
+import type { DeState } from '../../src/core/optimize';
+import { createSearchWorkerApi } from '../../workers/searchWorkerApi';
+import type { IslandConfig } from '../../workers/api';
+
+const DIM = 8;
+const ISLANDS = 3;
+const BUDGET = ISLANDS * 8000;
+
+/** One job, three islands (a migration ring) on two workers, so one worker hosts two. */
+const SPEC: RunInput = {
+  jobs: [{ id: 'rosenbrock', objective: { kind: 'test-function', name: 'rosenbrock', dim: DIM }, seed: 2013, islands: ISLANDS }],
+  budget: { evaluations: BUDGET },
+  deterministic: true,
+  stepEvaluations: 1000,
+  migration: { everyRounds: 1, count: 2 },
+  archive: { capacity: 8, distance: 0.01 },
+};
+
+type Finished = Extract<RunResult, { ok: true }>;
+
+function finished(result: RunResult): Finished {
+  if (!result.ok) throw new Error(`run failed: ${result.reason}`);
+  return result;
+}
+
+/** What must match between two runs of one deterministic spec. */
+function fingerprint(result: Finished) {
+  return { evaluations: result.evaluations, candidates: result.candidates.map((c) => ({ x: c.x, value: c.value, violation: c.violation })) };
+}
+
+let reference: Finished;
+let referenceEvents: RunProgress[];
+
+beforeAll(async () => {
+  const made = createRun(nodeEnvironment(), SPEC, { workers: 2 });
+  if (!made.ok) throw new Error(made.reason);
+  referenceEvents = [];
+  made.run.onProgress((p) => referenceEvents.push(p));
+  reference = finished(await made.run.start());
+});
+
+describe('a deterministic run', () => {
+  it('spends exactly its evaluation budget and reports why it stopped', () => {
+    // L-SHADE cuts its last generation short so its budget share is met exactly; 8 000
+    // evaluations of an 8-d Rosenbrock are too few for it to converge first.
+    expect(reference.stopReason).toBe('budget');
+    expect(reference.evaluations).toBe(BUDGET);
+    expect(referenceEvents.at(-1)?.status).toBe('finished');
+    expect(referenceEvents.at(-1)?.evaluations).toBe(BUDGET);
+  });
+
+  it('reports progress that advances: evaluations and rounds grow, the best error never rises', () => {
+    const running = referenceEvents.filter((p) => p.status === 'running' && p.rounds > 0);
+    expect(running.length).toBeGreaterThanOrEqual(5);
+    for (let k = 1; k < running.length; k++) {
+      expect(running[k].rounds).toBeGreaterThan(running[k - 1].rounds);
+      expect(running[k].evaluations).toBeGreaterThan(running[k - 1].evaluations);
+      expect(running[k].best!.value).toBeLessThanOrEqual(running[k - 1].best!.value);
+    }
+    const last = running.at(-1)!;
+    expect(last.evaluationsPerSecond).toBeGreaterThan(0);
+    expect(last.remainingMs).not.toBeNull();
+    expect(last.workers).toBe(2);
+  });
+
+  it('ranks distinct candidates best first, and the best is near Rosenbrock\'s minimum', () => {
+    const values = reference.candidates.map((c) => c.value);
+    expect(values).toEqual([...values].sort((a, b) => a - b));
+    expect(reference.candidates[0].rank).toBe(1);
+    const best = reference.candidates[0];
+    // Started from errors of order 1e6 on [−30, 30]^8: the search has got into the valley.
+    expect(best.value).toBeLessThan(10);
+    expect(best.detail.kind).toBe('test-function');
+    // describe() re-evaluates each design in a worker: the value must be the archived one.
+    if (best.detail.kind === 'test-function') expect(best.detail.value).toBe(best.value);
+  });
+
+  it('gives the same result run again (same seed, same result)', async () => {
+    const made = createRun(nodeEnvironment(), SPEC, { workers: 1 });
+    if (!made.ok) throw new Error(made.reason);
+    expect(fingerprint(finished(await made.run.start()))).toEqual(fingerprint(reference));
+  });
+});
+
+describe('pause, resume, checkpoint export and import, cancel', () => {
+  let exported = '';
+  let pausedCheckpoint = '';
+  let cancelled: Finished;
+  const store = memoryCheckpointStore(2);
+
+  beforeAll(async () => {
+    const made = createRun(nodeEnvironment(), SPEC, { workers: 2, store });
+    if (!made.ok) throw new Error(made.reason);
+    const run = made.run;
+    let pausedAt: Promise<void> | null = null;
+    let exportedAt: Promise<string> | null = null;
+    run.onProgress((p) => {
+      if (p.status === 'running' && p.rounds >= 3 && pausedAt === null) pausedAt = run.pause();
+      if (p.status === 'running' && p.rounds >= 5 && exportedAt === null) exportedAt = run.exportCheckpoint();
+    });
+    const done = run.start();
+    await waitFor(() => pausedAt !== null);
+    await pausedAt;
+    expect(run.status()).toBe('paused');
+    const before = run.progress().evaluations;
+    await new Promise((resolve) => setTimeout(resolve, 300));
+    expect(run.progress().evaluations).toBe(before);
+    pausedCheckpoint = await run.exportCheckpoint();
+    run.resume();
+    await waitFor(() => exportedAt !== null);
+    exported = await exportedAt!;
+    run.cancel();
+    cancelled = finished(await done);
+  });
+
+  it('pauses between rounds: no evaluations while paused, and a checkpoint is saved on pause', () => {
+    const decoded = decodeCheckpoint(store.texts.at(-1) ?? '');
+    expect(decoded.ok).toBe(true);
+    const paused = decodeCheckpoint(pausedCheckpoint);
+    expect(paused.ok && paused.payload.rounds).toBeGreaterThanOrEqual(3);
+  });
+
+  it('stops on cancel, before its budget, saying so', () => {
+    expect(cancelled.stopReason).toBe('cancelled');
+    expect(cancelled.evaluations).toBeLessThan(BUDGET);
+  });
+
+  it('continues from an exported checkpoint, on another number of workers, to the uninterrupted result', async () => {
+    const decoded = decodeCheckpoint(exported);
+    expect(decoded.ok && decoded.payload.rounds).toBeGreaterThanOrEqual(5);
+    const made = restoreRun(nodeEnvironment(), exported, { workers: 1 });
+    if (!made.ok) throw new Error(made.reason);
+    expect(fingerprint(finished(await made.run.start()))).toEqual(fingerprint(reference));
+  });
+
+  it('migrates: after a round, each island holds its ring neighbour\'s best individuals', () => {
+    const decoded = decodeCheckpoint(pausedCheckpoint);
+    if (!decoded.ok) throw new Error(decoded.reason);
+    const { islands } = decoded.payload;
+    for (let k = 0; k < islands.length; k++) {
+      const from = islands[k];
+      const to = islands[(k + 1) % islands.length];
+      const population = (to.optimizer as DeState).population;
+      for (const emigrant of from.archive.slice(0, SPEC.migration!.count!)) {
+        const u = emigrant.x.map((x) => (x + 30) / 60);
+        let found = false;
+        for (let row = 0; row * DIM < population.length && !found; row++) {
+          found = u.every((c, j) => Math.abs(population[row * DIM + j] - c) < 1e-12);
+        }
+        expect(found, `island ${to.config.islandId} holds an emigrant of ${from.config.islandId}`).toBe(true);
+      }
+    }
+  });
+
+  it('rejects a corrupt checkpoint with a message, and falls back to the previous one in a store', async () => {
+    const flipped = exported.replace(/"rounds":(\d+)/, (_, n: string) => `"rounds":${Number(n) + 1}`);
+    expect(flipped).not.toBe(exported);
+    const corrupt = restoreRun(nodeEnvironment(), flipped);
+    expect(corrupt.ok).toBe(false);
+    if (!corrupt.ok) expect(corrupt.reason).toMatch(/corrupt.*checksum/);
+    const truncated = restoreRun(nodeEnvironment(), exported.slice(0, exported.length - 100));
+    expect(truncated.ok).toBe(false);
+    if (!truncated.ok) expect(truncated.reason).toMatch(/not valid JSON/);
+
+    const twoDeep = memoryCheckpointStore(2);
+    await twoDeep.save(exported);
+    await twoDeep.save(flipped);
+    const restored = await restoreRunFromStore(nodeEnvironment(), twoDeep);
+    expect(restored.ok).toBe(true);
+    if (restored.ok) expect(restored.skipped[0]).toMatch(/corrupt/);
+  });
+});
+
+describe('a killed worker', () => {
+  it('is replaced and the run resumes from the last checkpoint, to the uninterrupted result', async () => {
+    const handles: NodeWorkerHandle[] = [];
+    const env = nodeEnvironment(() => {
+      const handle = spawnNodeSearchWorker();
+      handles.push(handle);
+      return handle;
+    });
+    const made = createRun(env, SPEC, { workers: 2 });
+    if (!made.ok) throw new Error(made.reason);
+    let killed = false;
+    const seen: number[] = [];
+    made.run.onProgress((p) => {
+      seen.push(p.evaluations);
+      if (!killed && p.rounds >= 4) {
+        killed = true;
+        void handles[1].worker.terminate();
+      }
+    });
+    const result = finished(await made.run.start());
+    expect(killed).toBe(true);
+    expect(result.restarts).toBe(1);
+    expect(handles.length).toBe(3);
+    // Back to the last checkpoint: the evaluation count went down once before going on.
+    expect(seen.some((n, k) => k > 0 && n < seen[k - 1])).toBe(true);
+    expect(fingerprint(result)).toEqual(fingerprint(reference));
+  });
+});
+
+describe('a time budget', () => {
+  it('stops when its seconds are spent', async () => {
+    // 30-d Rosenbrock: far from converged after 0.8 s, so the clock is what stops it.
+    const jobs = [{ ...SPEC.jobs[0], objective: { kind: 'test-function', name: 'rosenbrock', dim: 30 } as const }];
+    const made = createRun(nodeEnvironment(), { ...SPEC, jobs, budget: { seconds: 0.8 }, deterministic: false, stepMs: 50 }, { workers: 2 });
+    if (!made.ok) throw new Error(made.reason);
+    const result = finished(await made.run.start());
+    expect(result.stopReason).toBe('time');
+    expect(result.elapsedMs).toBeGreaterThanOrEqual(800);
+    // One round of 50 ms steps (two islands on one worker) past the budget, and some start-up.
+    expect(result.elapsedMs).toBeLessThan(800 + 5000);
+    expect(result.evaluations).toBeGreaterThan(0);
+  });
+});
+
+describe('run input and the island API', () => {
+  it('rejects bad input with the field named', () => {
+    const env = nodeEnvironment();
+    const noBudget = createRun(env, { ...SPEC, budget: {} });
+    expect(!noBudget.ok && noBudget.reason).toMatch(/^budget is .*expected an evaluation budget, a time budget, or both/);
+    const badSeed = createRun(env, { ...SPEC, jobs: [{ ...SPEC.jobs[0], seed: -1 }] });
+    expect(!badSeed.ok && badSeed.reason).toMatch(/^jobs\[0\]\.seed is -1; expected a safe integer ≥ 0/);
+  });
+
+  it('an island refuses a bad configuration as a value, naming the field', () => {
+    const api = createSearchWorkerApi(() => performance.now());
+    const config: IslandConfig = {
+      islandId: 'a',
+      objective: { kind: 'test-function', name: 'rosenbrock', dim: 4 },
+      seed: 1,
+      stream: 0,
+      optimizer: { kind: 'lshade' },
+      maxEvaluations: 1000,
+      archiveCapacity: 4,
+      archiveDistance: 0.01,
+    };
+    expect(api.init({ ...config, maxEvaluations: 0 })).toEqual({ ok: false, reason: 'maxEvaluations is 0; expected an integer ≥ 1' });
+    const badDim = api.init({ ...config, objective: { kind: 'test-function', name: 'rosenbrock', dim: 1 } });
+    expect(!badDim.ok && badDim.reason).toMatch(/dim of rosenbrock is 1/);
+    expect(api.step('nobody', { evaluations: 10 })).toEqual({ ok: false, reason: 'no island "nobody" in this worker' });
+  });
+
+  it('an island takes an immigrant better than its worst member into its population, and it becomes its best', () => {
+    const api = createSearchWorkerApi(() => performance.now());
+    const base: IslandConfig = {
+      islandId: 'a',
+      objective: { kind: 'test-function', name: 'rosenbrock', dim: 4 },
+      seed: 7,
+      stream: 0,
+      optimizer: { kind: 'lshade' },
+      maxEvaluations: 50_000,
+      archiveCapacity: 4,
+      archiveDistance: 0.01,
+    };
+    expect(api.init(base).ok).toBe(true);
+    expect(api.init({ ...base, islandId: 'b', stream: 1 }).ok).toBe(true);
+    api.step('a', { evaluations: 20_000 });
+    api.step('b', { evaluations: 200 });
+    const sent = api.emigrants('a', 1);
+    if (!sent.ok) throw new Error(sent.reason);
+    const beforeB = api.step('b', { evaluations: 1 });
+    if (!beforeB.ok) throw new Error(beforeB.reason);
+    expect(sent.individuals[0].value).toBeLessThan(beforeB.progress.bestValue!);
+    const taken = api.immigrate('b', sent.individuals);
+    expect(taken).toEqual({ ok: true, accepted: 1 });
+    const after = api.exportState('b');
+    if (!after.ok) throw new Error(after.reason);
+    expect(after.state.optimizer.best.value).toBe(sent.individuals[0].value);
+  });
+});
+
+describe('checkpoint checksum', () => {
+  it('is FNV-1a 64 (test vectors of Fowler, Noll and Vo, IETF draft-eastlake-fnv)', () => {
+    // "" and "a" and "foobar": from memory, checked against an independent Python implementation.
+    expect(fnv1a64Hex('')).toBe('cbf29ce484222325');
+    expect(fnv1a64Hex('a')).toBe('af63dc4c8601ec8c');
+    expect(fnv1a64Hex('foobar')).toBe('85944171f73967e8');
+  });
+});
+
+async function waitFor(ready: () => boolean, timeoutMs = 30_000): Promise<void> {
+  const start = performance.now();
+  while (!ready()) {
+    if (performance.now() - start > timeoutMs) throw new Error('timed out waiting');
+    await new Promise((resolve) => setTimeout(resolve, 10));
+  }
+}
+

@@ -1,0 +1,138 @@
+/**
+ * The search worker's API: what crosses the boundary between the engine and a worker.
+ * Everything here is plain data (structured-clone and JSON safe: no class instances, no
+ * typed arrays, no Infinity in anything stored), so the same calls work across comlink
+ * in a browser Worker, a Node worker_threads worker, or in the same thread.
+ *
+ * A worker hosts any number of islands, each named by its `islandId`. Expected failures
+ * (bad input, an unknown island) come back as `{ ok: false, reason }`.
+ */
+import type { OptimizerConfig, OptimizerState } from '../src/core/optimize';
+import type { CandidateReport, FamilyId } from '../src/core/synthesis';
+import type { TestFunctionName } from './testFunctions';
+
+export type Failure = { readonly ok: false; readonly reason: string };
+export type Outcome<T> = ({ readonly ok: true } & T) | Failure;
+
+/** What an island searches. */
+export type ObjectiveSpec =
+  /** A path-synthesis problem: `problem` is the problem file's JSON, read by parseProblemFile in the worker. */
+  | { readonly kind: 'synthesis'; readonly problem: unknown; readonly family: FamilyId }
+  /** A published test function (workers/testFunctions.ts), for tests and benchmarks of the search itself. */
+  | { readonly kind: 'test-function'; readonly name: TestFunctionName; readonly dim: number };
+
+/** The optimizer of an island, less what the island fills in (dim, budget, seed, stream). */
+export type IslandOptimizerConfig = OptimizerConfig extends infer C
+  ? C extends OptimizerConfig
+    ? Omit<C, 'dim' | 'maxEvaluations' | 'seed' | 'stream'>
+    : never
+  : never;
+
+export interface IslandConfig {
+  readonly islandId: string;
+  readonly objective: ObjectiveSpec;
+  /** Non-negative safe integer; the island's stream of it is `stream`. */
+  readonly seed: number;
+  /** Independent PRNG stream of the seed (`Prng.fromSeed(seed).split(stream)`), 0 … 65535. */
+  readonly stream: number;
+  readonly optimizer: IslandOptimizerConfig;
+  /** This island's share of the run's budget, in evaluations. */
+  readonly maxEvaluations: number;
+  /** Capacity of the island's archive of distinct good candidates. */
+  readonly archiveCapacity: number;
+  /** Two candidates are distinct when their RMS coordinate difference, in box units (share of each bound's span), exceeds this. */
+  readonly archiveDistance: number;
+}
+
+/** One evaluated design, in real coordinates (the objective's own units). */
+export interface Individual {
+  readonly x: number[];
+  readonly value: number;
+  /** 0 when feasible. */
+  readonly violation: number;
+}
+
+/** How much one `step` may run: about `ms` milliseconds, or, for a deterministic schedule, `evaluations`. */
+export type StepSlice = { readonly ms: number } | { readonly evaluations: number };
+
+export type IslandStopReason = 'budget' | 'target' | 'converged';
+
+export interface IslandProgress {
+  readonly islandId: string;
+  /** Evaluations of this island since it was created. */
+  readonly evaluations: number;
+  /** Evaluations and milliseconds of this step. */
+  readonly stepEvaluations: number;
+  readonly stepMs: number;
+  /** The best design so far (null before the first evaluation). */
+  readonly bestValue: number | null;
+  readonly bestViolation: number | null;
+  readonly bestX: number[] | null;
+  /** Candidates that entered the island's archive during this step, best first. */
+  readonly elites: Individual[];
+  /** Set once the island has stopped; it then evaluates nothing more. */
+  readonly stopReason: IslandStopReason | null;
+}
+
+export interface IslandInfo {
+  readonly islandId: string;
+  readonly dim: number;
+  readonly variableNames: string[];
+  readonly lower: number[];
+  readonly upper: number[];
+  readonly evaluations: number;
+  readonly stopReason: IslandStopReason | null;
+}
+
+/** What `describe` says of one design, by the kind of objective. */
+export type CandidateDetail =
+  | { readonly kind: 'synthesis'; readonly candidate: CandidateReport }
+  | {
+      readonly kind: 'test-function';
+      readonly name: TestFunctionName;
+      readonly value: number;
+      readonly minimum: number;
+      readonly distanceToOptimum: number;
+    };
+
+export interface DescribedCandidate extends Individual {
+  readonly detail: CandidateDetail;
+}
+
+export const ISLAND_STATE_FORMAT = 'loci-island-state';
+export const ISLAND_STATE_VERSION = 1;
+
+/** Everything an island is, as JSON: `importState(exportState())` continues it exactly. */
+export interface IslandState {
+  readonly format: typeof ISLAND_STATE_FORMAT;
+  readonly version: typeof ISLAND_STATE_VERSION;
+  readonly config: IslandConfig;
+  readonly optimizer: OptimizerState;
+  /** The archive, best first, each entry with the counter value it entered under. */
+  readonly archive: (Individual & { readonly entered: number })[];
+  /** Entries counter of the archive, and its value at the end of the last step. */
+  readonly entered: number;
+  readonly reported: number;
+  /** Immigrants waiting for the optimizer to reach a state that takes them. */
+  readonly immigrants: Individual[];
+}
+
+export interface SearchWorkerApi {
+  /** Creates (or replaces) the island `config.islandId`. */
+  init(config: IslandConfig): Outcome<{ readonly island: IslandInfo }>;
+  /** Creates (or replaces) an island from an exported state. */
+  importState(state: IslandState): Outcome<{ readonly island: IslandInfo }>;
+  exportState(islandId: string): Outcome<{ readonly state: IslandState }>;
+  /** Runs ask/evaluate/tell for one slice; a stopped island returns at once. */
+  step(islandId: string, slice: StepSlice): Outcome<{ readonly progress: IslandProgress }>;
+  /** The island's `count` best distinct candidates, to send to its neighbour. */
+  emigrants(islandId: string, count: number): Outcome<{ readonly individuals: Individual[] }>;
+  /** Takes candidates from a neighbour into the population (replacing its worst members). */
+  immigrate(islandId: string, individuals: readonly Individual[]): Outcome<{ readonly accepted: number }>;
+  /** The island's `count` best distinct candidates, described. */
+  topCandidates(islandId: string, count: number): Outcome<{ readonly candidates: DescribedCandidate[] }>;
+  /** Describes given designs with the island's objective (real coordinates). */
+  describe(islandId: string, designs: readonly (readonly number[])[]): Outcome<{ readonly candidates: DescribedCandidate[] }>;
+  /** Forgets an island. */
+  drop(islandId: string): Outcome<object>;
+}

@@ -1,0 +1,327 @@
+/**
+ * One island of the search: an optimizer, the objective it minimises, and an archive of
+ * the best distinct candidates it has evaluated. Everything it holds comes back from
+ * `exportState()` as JSON, and `Island.restore` continues from that exactly: the same
+ * state and the same slices give the same evaluations, bit for bit.
+ */
+import {
+  canonicalValue,
+  canonicalViolation,
+  createOptimizer,
+  fromUnitBoxInto,
+  MAX_STREAM,
+  restoreOptimizer,
+  toUnitBoxInto,
+  type Optimizer,
+  type OptimizerConfig,
+} from '../src/core/optimize';
+import {
+  ISLAND_STATE_FORMAT,
+  ISLAND_STATE_VERSION,
+  type DescribedCandidate,
+  type Individual,
+  type IslandConfig,
+  type IslandInfo,
+  type IslandProgress,
+  type IslandState,
+  type IslandStopReason,
+  type StepSlice,
+} from './api';
+import { CandidateArchive, MAX_ARCHIVE_CAPACITY } from './archive';
+import { injectImmigrants, type UnitImmigrant } from './migration';
+import { buildObjective, type SearchObjective } from './objective';
+
+type Made = { readonly ok: true; readonly island: Island } | { readonly ok: false; readonly reason: string };
+
+/** A step ends after at most this many ask/tell rounds, whatever its slice says. */
+const MAX_BATCHES_PER_STEP = 1_000_000;
+
+function isObject(v: unknown): v is Record<string, unknown> {
+  return typeof v === 'object' && v !== null && !Array.isArray(v);
+}
+
+function isIntegerIn(v: unknown, min: number, max: number): v is number {
+  return typeof v === 'number' && Number.isInteger(v) && v >= min && v <= max;
+}
+
+/** What is wrong with an island configuration, or null. Checks the island's own fields; the optimizer checks its own. */
+function checkConfig(config: unknown): string | null {
+  if (!isObject(config)) return 'island config is not an object';
+  const c = config as Partial<Record<keyof IslandConfig, unknown>>;
+  if (!(typeof c.islandId === 'string' && c.islandId.length > 0)) return `islandId is ${JSON.stringify(c.islandId)}; expected a non-empty string`;
+  if (!isIntegerIn(c.seed, 0, Number.MAX_SAFE_INTEGER)) return `seed is ${JSON.stringify(c.seed)}; expected a safe integer ≥ 0`;
+  if (!isIntegerIn(c.stream, 0, MAX_STREAM)) return `stream is ${JSON.stringify(c.stream)}; expected an integer in [0, ${MAX_STREAM}]`;
+  if (!isIntegerIn(c.maxEvaluations, 1, Number.MAX_SAFE_INTEGER)) return `maxEvaluations is ${JSON.stringify(c.maxEvaluations)}; expected an integer ≥ 1`;
+  if (!isIntegerIn(c.archiveCapacity, 1, MAX_ARCHIVE_CAPACITY)) return `archiveCapacity is ${JSON.stringify(c.archiveCapacity)}; expected an integer in [1, ${MAX_ARCHIVE_CAPACITY}]`;
+  if (!(typeof c.archiveDistance === 'number' && c.archiveDistance >= 0 && c.archiveDistance <= 1)) {
+    return `archiveDistance is ${JSON.stringify(c.archiveDistance)}; expected a number in [0, 1] (box units)`;
+  }
+  if (!isObject(c.optimizer)) return 'optimizer is not an object; expected an optimizer configuration such as { "kind": "lshade" }';
+  if (!isObject(c.objective)) return 'objective is not an object';
+  return null;
+}
+
+function optimizerConfig(config: IslandConfig, dim: number): OptimizerConfig {
+  return {
+    ...config.optimizer,
+    dim,
+    maxEvaluations: config.maxEvaluations,
+    seed: config.seed,
+    stream: config.stream,
+  } as OptimizerConfig;
+}
+
+/** A defensive, JSON-clean copy: what the island keeps of a configuration it is given. */
+function copyConfig(config: IslandConfig): IslandConfig {
+  return JSON.parse(JSON.stringify(config)) as IslandConfig;
+}
+
+export class Island {
+  readonly config: IslandConfig;
+  private readonly objective: SearchObjective;
+  private optimizer: Optimizer;
+  private readonly archive: CandidateArchive;
+  private reported: number;
+  private immigrants: Individual[];
+  // Scratch, reused by every step.
+  private readonly real: Float64Array;
+  private readonly out = new Float64Array(2);
+  private values = new Float64Array(0);
+  private violations = new Float64Array(0);
+  private batchViews: { n: number; values: Float64Array; violations: Float64Array } = {
+    n: -1,
+    values: new Float64Array(0),
+    violations: new Float64Array(0),
+  };
+
+  private constructor(config: IslandConfig, objective: SearchObjective, optimizer: Optimizer, archive: CandidateArchive) {
+    this.config = config;
+    this.objective = objective;
+    this.optimizer = optimizer;
+    this.archive = archive;
+    this.reported = 0;
+    this.immigrants = [];
+    this.real = new Float64Array(objective.dim);
+  }
+
+  static create(input: IslandConfig): Made {
+    const problem = checkConfig(input);
+    if (problem !== null) return { ok: false, reason: problem };
+    const config = copyConfig(input);
+    const built = buildObjective(config.objective);
+    if (!built.ok) return { ok: false, reason: `objective: ${built.reason}` };
+    const objective = built.objective;
+    const made = createOptimizer(optimizerConfig(config, objective.dim));
+    if (!made.ok) return { ok: false, reason: `optimizer: ${made.reason}` };
+    const archive = new CandidateArchive(config.archiveCapacity, config.archiveDistance, objective.lower, objective.upper);
+    return { ok: true, island: new Island(config, objective, made.optimizer, archive) };
+  }
+
+  static restore(input: IslandState): Made {
+    if (!isObject(input)) return { ok: false, reason: 'island state is not an object' };
+    if (input.format !== ISLAND_STATE_FORMAT) return { ok: false, reason: `island state format is ${JSON.stringify(input.format)}; expected "${ISLAND_STATE_FORMAT}"` };
+    if (input.version !== ISLAND_STATE_VERSION) return { ok: false, reason: `island state version is ${JSON.stringify(input.version)}; expected ${ISLAND_STATE_VERSION}` };
+    const made = Island.create(input.config);
+    if (!made.ok) return made;
+    const island = made.island;
+    const restored = restoreOptimizer(input.optimizer);
+    if (!restored.ok) return { ok: false, reason: `optimizer state: ${restored.reason}` };
+    if (restored.optimizer.dim !== island.objective.dim) {
+      return { ok: false, reason: `optimizer state has dim ${restored.optimizer.dim}; the objective has ${island.objective.dim}` };
+    }
+    island.optimizer = restored.optimizer;
+    if (!(Array.isArray(input.archive) && input.archive.length <= island.archive.capacity)) {
+      return { ok: false, reason: `archive is not an array of at most ${island.archive.capacity} entries` };
+    }
+    if (!(isIntegerIn(input.entered, 0, Number.MAX_SAFE_INTEGER) && isIntegerIn(input.reported, 0, input.entered))) {
+      return { ok: false, reason: 'entered and reported must be integers with 0 ≤ reported ≤ entered' };
+    }
+    for (const [k, entry] of input.archive.entries()) {
+      const problem = island.checkIndividual(entry);
+      if (problem !== null) return { ok: false, reason: `archive[${k}]: ${problem}` };
+      if (!isIntegerIn(entry.entered, 1, input.entered)) return { ok: false, reason: `archive[${k}].entered must be an integer in [1, entered]` };
+      island.archive.offer(entry.x, entry.value, entry.violation, entry.entered);
+    }
+    island.archive.restoreCounter(input.entered);
+    island.reported = input.reported;
+    if (!(Array.isArray(input.immigrants) && input.immigrants.length <= island.archive.capacity)) {
+      return { ok: false, reason: `immigrants is not an array of at most ${island.archive.capacity} entries` };
+    }
+    for (const [k, immigrant] of input.immigrants.entries()) {
+      const problem = island.checkIndividual(immigrant);
+      if (problem !== null) return { ok: false, reason: `immigrants[${k}]: ${problem}` };
+    }
+    island.immigrants = input.immigrants.map(copyIndividual);
+    return { ok: true, island };
+  }
+
+  info(): IslandInfo {
+    const o = this.objective;
+    return {
+      islandId: this.config.islandId,
+      dim: o.dim,
+      variableNames: [...o.variableNames],
+      lower: Array.from(o.lower),
+      upper: Array.from(o.upper),
+      evaluations: this.optimizer.evaluations(),
+      stopReason: this.stopReason(),
+    };
+  }
+
+  stopReason(): IslandStopReason | null {
+    return this.optimizer.stopReason();
+  }
+
+  /** Runs whole ask/evaluate/tell batches until the slice is used up or the search stops. */
+  step(slice: StepSlice, nowMs: () => number): IslandProgress {
+    const startMs = nowMs();
+    const maxEvaluations = 'evaluations' in slice ? slice.evaluations : Infinity;
+    const maxMs = 'ms' in slice ? slice.ms : Infinity;
+    const opt = this.optimizer;
+    const startEvaluations = opt.evaluations();
+    let stepEvaluations = 0;
+    for (let batch = 0; batch < MAX_BATCHES_PER_STEP; batch++) {
+      if (opt.done() || !(stepEvaluations < maxEvaluations)) break;
+      if (batch > 0 && !(nowMs() - startMs < maxMs)) break;
+      const points = opt.ask();
+      const n = points.length;
+      if (n === 0) break;
+      const { values, violations } = this.batchBuffers(n);
+      for (let k = 0; k < n; k++) this.evaluateInto(points[k], k, values, violations);
+      opt.tell(points, values, violations);
+      stepEvaluations += n;
+      if (this.immigrants.length > 0) this.placeImmigrants();
+    }
+    const elites = this.archive.enteredAfter(this.reported).map(toIndividual);
+    this.reported = this.archive.entered;
+    const best = opt.best();
+    const seen = opt.evaluations() > 0 && best.value < Infinity;
+    let bestX: number[] | null = null;
+    if (seen) bestX = Array.from(fromUnitBoxInto(best.x, this.objective.lower, this.objective.upper, this.real));
+    return {
+      islandId: this.config.islandId,
+      evaluations: opt.evaluations(),
+      stepEvaluations: opt.evaluations() - startEvaluations,
+      stepMs: nowMs() - startMs,
+      bestValue: seen ? best.value : null,
+      bestViolation: seen && best.violation < Infinity ? best.violation : null,
+      bestX,
+      elites,
+      stopReason: this.stopReason(),
+    };
+  }
+
+  /** The `count` best distinct candidates of the archive. */
+  emigrants(count: number): Individual[] {
+    return this.archive.entries().slice(0, Math.max(0, count)).map(toIndividual);
+  }
+
+  /** Places immigrants in the population now, or keeps them for when it can; returns how many were taken. */
+  immigrate(individuals: readonly Individual[]): { accepted: number } | { reason: string } {
+    if (!Array.isArray(individuals)) return { reason: 'immigrants is not an array' };
+    for (const [k, individual] of individuals.entries()) {
+      const problem = this.checkIndividual(individual);
+      if (problem !== null) return { reason: `immigrants[${k}]: ${problem}` };
+    }
+    const capacity = this.archive.capacity;
+    this.immigrants = [...individuals.map(copyIndividual), ...this.immigrants].slice(0, capacity);
+    return { accepted: this.placeImmigrants() };
+  }
+
+  describe(designs: readonly (readonly number[])[]): DescribedCandidate[] | { reason: string } {
+    if (!Array.isArray(designs)) return { reason: 'designs is not an array' };
+    const out: DescribedCandidate[] = [];
+    for (const [k, design] of designs.entries()) {
+      if (!(Array.isArray(design) && design.length === this.objective.dim && design.every((v) => Number.isFinite(v)))) {
+        return { reason: `designs[${k}] is not an array of ${this.objective.dim} finite numbers` };
+      }
+      const x = Float64Array.from(design);
+      this.objective.evaluate(x, this.out);
+      const value = canonicalValue(this.out[0]);
+      const violation = canonicalViolation(this.out[1], value);
+      out.push({ x: Array.from(x), value, violation, detail: this.objective.describe(x) });
+    }
+    return out;
+  }
+
+  topCandidates(count: number): DescribedCandidate[] {
+    return this.archive
+      .entries()
+      .slice(0, Math.max(0, count))
+      .map((entry) => ({ ...toIndividual(entry), detail: this.objective.describe(Float64Array.from(entry.x)) }));
+  }
+
+  exportState(): IslandState {
+    return {
+      format: ISLAND_STATE_FORMAT,
+      version: ISLAND_STATE_VERSION,
+      config: copyConfig(this.config),
+      optimizer: this.optimizer.exportState(),
+      archive: this.archive.entries().map((entry) => ({ ...toIndividual(entry), entered: entry.entered })),
+      entered: this.archive.entered,
+      reported: this.reported,
+      immigrants: this.immigrants.map(copyIndividual),
+    };
+  }
+
+  private batchBuffers(n: number): { values: Float64Array; violations: Float64Array } {
+    if (this.batchViews.n === n) return this.batchViews;
+    if (this.values.length < n) {
+      this.values = new Float64Array(n);
+      this.violations = new Float64Array(n);
+    }
+    this.batchViews = { n, values: this.values.subarray(0, n), violations: this.violations.subarray(0, n) };
+    return this.batchViews;
+  }
+
+  private evaluateInto(u: Float64Array, k: number, values: Float64Array, violations: Float64Array): void {
+    const o = this.objective;
+    const x = fromUnitBoxInto(u, o.lower, o.upper, this.real);
+    o.evaluate(x, this.out);
+    const value = canonicalValue(this.out[0]);
+    const violation = canonicalViolation(this.out[1], value);
+    values[k] = value;
+    violations[k] = violation;
+    // The archive keeps x as evaluated: a repair the objective wrote back is part of the design.
+    this.archive.offer(x, value, violation);
+  }
+
+  /** Moves waiting immigrants into the optimizer's population if its state takes them now. */
+  private placeImmigrants(): number {
+    if (this.immigrants.length === 0) return 0;
+    const o = this.objective;
+    const unitImmigrants: UnitImmigrant[] = this.immigrants.map((individual) => {
+      const u = toUnitBoxInto(individual.x, o.lower, o.upper, new Float64Array(o.dim));
+      for (let j = 0; j < u.length; j++) u[j] = Math.min(1, Math.max(0, u[j]));
+      return { u, value: individual.value, violation: individual.violation };
+    });
+    const placed = injectImmigrants(this.optimizer.exportState(), unitImmigrants);
+    if (placed.kind === 'later') return 0;
+    this.immigrants = [];
+    if (placed.kind === 'never' || placed.accepted === 0) return 0;
+    const restored = restoreOptimizer(placed.state);
+    if (!restored.ok) throw new Error(`island ${this.config.islandId}: migration produced a state the optimizer rejects: ${restored.reason}`);
+    this.optimizer = restored.optimizer;
+    return placed.accepted;
+  }
+
+  private checkIndividual(v: unknown): string | null {
+    if (!isObject(v)) return 'not an object { x, value, violation }';
+    const dim = this.objective.dim;
+    if (!(Array.isArray(v.x) && v.x.length === dim && v.x.every((c) => Number.isFinite(c)))) return `x is not an array of ${dim} finite numbers`;
+    if (!this.archive.fits(v.x as number[])) return 'x lies outside the objective bounds';
+    if (!(typeof v.value === 'number' && Number.isFinite(v.value))) return `value is ${JSON.stringify(v.value)}; expected a finite number`;
+    if (!(typeof v.violation === 'number' && v.violation >= 0 && Number.isFinite(v.violation))) {
+      return `violation is ${JSON.stringify(v.violation)}; expected a finite number ≥ 0`;
+    }
+    return null;
+  }
+}
+
+function toIndividual(entry: { readonly x: ArrayLike<number>; readonly value: number; readonly violation: number }): Individual {
+  return { x: Array.from(entry.x), value: entry.value, violation: entry.violation };
+}
+
+function copyIndividual(individual: Individual): Individual {
+  return { x: [...individual.x], value: individual.value, violation: individual.violation };
+}

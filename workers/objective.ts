@@ -1,0 +1,60 @@
+/**
+ * What an island evaluates, built from the plain `ObjectiveSpec` that crosses the
+ * worker boundary: a synthesis problem (the problem file's JSON and a family) or a
+ * published test function.
+ */
+import { parseProblemFile } from '../src/core/io/problem';
+import { createObjective, FAMILY_IDS, type FamilyId } from '../src/core/synthesis';
+import type { CandidateDetail, ObjectiveSpec } from './api';
+import { testFunctionObjective } from './testFunctions';
+
+/** The island's view of an objective; the synthesis `Objective` has this shape. */
+export interface SearchObjective {
+  readonly dim: number;
+  /** Real bounds of each variable. */
+  readonly lower: Float64Array;
+  readonly upper: Float64Array;
+  readonly variableNames: readonly string[];
+  /** out[0] = value, out[1] = violation (0 feasible). May write a repaired x back. No allocation. */
+  evaluate(x: Float64Array, out: Float64Array): void;
+  /** A full report of one design (allocates). */
+  describe(x: Float64Array): CandidateDetail;
+}
+
+export type ObjectiveResult = { readonly ok: true; readonly objective: SearchObjective } | { readonly ok: false; readonly reason: string };
+
+export function buildObjective(spec: ObjectiveSpec): ObjectiveResult {
+  if (typeof spec !== 'object' || spec === null) return { ok: false, reason: `objective is ${JSON.stringify(spec)}; expected an object` };
+  switch (spec.kind) {
+    case 'test-function':
+      return testFunctionObjective(spec.name, spec.dim);
+    case 'synthesis':
+      return synthesisObjective(spec.problem, spec.family);
+    default:
+      return { ok: false, reason: `objective.kind is ${JSON.stringify((spec as { kind?: unknown }).kind)}; expected "synthesis" or "test-function"` };
+  }
+}
+
+/** The synthesis objective of one family on the problem a problem file (as JSON) describes. */
+function synthesisObjective(problemFile: unknown, family: unknown): ObjectiveResult {
+  if (!(FAMILY_IDS as readonly unknown[]).includes(family)) {
+    return { ok: false, reason: `family is ${JSON.stringify(family)}; expected one of ${FAMILY_IDS.join(', ')}` };
+  }
+  const parsed = parseProblemFile(problemFile);
+  if (!parsed.ok) {
+    const issues = parsed.issues.map((issue) => (issue.path === '' ? issue.message : `${issue.path}: ${issue.message}`));
+    return { ok: false, reason: `problem: ${issues.join('; ')}` };
+  }
+  const objective = createObjective(parsed.problem, family as FamilyId);
+  return {
+    ok: true,
+    objective: {
+      dim: objective.dim,
+      lower: objective.lower,
+      upper: objective.upper,
+      variableNames: objective.variableNames,
+      evaluate: objective.evaluate,
+      describe: (x) => ({ kind: 'synthesis', candidate: objective.describe(x) }),
+    },
+  };
+}
