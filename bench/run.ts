@@ -1,63 +1,80 @@
 /**
  * `npm run bench [-- name ...]`: runs the benchmarks (all, or those named), prints a
- * table of each one's figures, and ends with one JSON line per benchmark.
+ * table of each one's figures, and ends with one JSON line per benchmark, or per case of
+ * a benchmark that returns one row of figures per case.
  * Figures are rates and ratios within one run on one machine; bench/README.md says
  * how to read them. Benchmarks are not tests: nothing here passes or fails on a time.
  */
 import { performance } from 'node:perf_hooks';
-// bench/kernel.ts is being written; enable this import and its entry in BENCHES together.
-// import { benchKernel } from './kernel';
+import { benchKernel } from './kernel';
+import { benchScaling } from './scaling';
+import { benchSynthesis } from './synthesis';
 
-/** Figure name (with its unit, e.g. `solvesPerS`, `nmOverFminTimeRatio`) -> value. */
-type Figures = Record<string, number>;
+/** Figure name (with its unit, e.g. `solvesPerS`, `nmOverFminTimeRatio`) -> value; null: not reached. */
+type Figures = Record<string, number | null>;
+/** One case of a benchmark: its figures, and strings that name the case. */
+type Row = Record<string, number | string | null>;
 
 interface Bench {
   readonly name: string;
-  run(): Promise<Figures>;
+  run(): Promise<Figures | Row[]>;
 }
 
 const BENCHES: readonly Bench[] = [
-  // { name: 'kernel', run: benchKernel },
+  { name: 'kernel', run: benchKernel },
+  { name: 'scaling', run: benchScaling },
+  { name: 'synthesis', run: benchSynthesis },
 ];
 
 type Outcome =
   | { readonly bench: string; readonly wallS: number; readonly figures: Figures }
+  | { readonly bench: string; readonly wallS: number; readonly rows: Row[] }
   | { readonly bench: string; readonly wallS: number; readonly error: string };
 
-function formatValue(value: number): string {
+function formatValue(value: number | string | null): string {
+  if (typeof value === 'string' || value === null) return String(value);
   if (!Number.isFinite(value)) return String(value);
   if (Math.abs(value) >= 1000) return Math.round(value).toLocaleString('en-GB');
   if (Number.isInteger(value)) return String(value);
   return Number(value.toPrecision(4)).toString();
 }
 
-function table(outcome: Outcome): string {
-  const head = `${outcome.bench}  (${outcome.wallS.toFixed(2)} s wall)`;
-  if ('error' in outcome) return `${head}\n  FAILED: ${outcome.error}`;
-  const rows = Object.entries(outcome.figures).map(([name, value]) => [name, formatValue(value)] as const);
-  if (rows.length === 0) return `${head}\n  (no figures)`;
+function figureTable(figures: Row): string[] {
+  const rows = Object.entries(figures).map(([name, value]) => [name, formatValue(value)] as const);
+  if (rows.length === 0) return ['  (no figures)'];
   const nameWidth = Math.max('figure'.length, ...rows.map(([name]) => name.length));
   const valueWidth = Math.max('value'.length, ...rows.map(([, value]) => value.length));
   const line = (name: string, value: string) => `  ${name.padEnd(nameWidth)}  ${value.padStart(valueWidth)}`;
-  return [head, line('figure', 'value'), `  ${'-'.repeat(nameWidth + 2 + valueWidth)}`, ...rows.map(([n, v]) => line(n, v))].join('\n');
+  return [line('figure', 'value'), `  ${'-'.repeat(nameWidth + 2 + valueWidth)}`, ...rows.map(([n, v]) => line(n, v))];
 }
 
-/** A bench must return plain numbers; anything else is reported, not printed as a figure. */
-function checkFigures(result: unknown): Figures {
+function table(outcome: Outcome): string {
+  const head = `${outcome.bench}  (${outcome.wallS.toFixed(2)} s wall)`;
+  if ('error' in outcome) return `${head}\n  FAILED: ${outcome.error}`;
+  if ('rows' in outcome) return [head, ...outcome.rows.flatMap((row) => ['', ...figureTable(row)])].join('\n');
+  return [head, ...figureTable(outcome.figures)].join('\n');
+}
+
+/** Figures must be numbers (or null); strings are allowed only in the rows of a per-case bench. */
+function checkFigures(result: unknown, strings: boolean): Row {
   if (typeof result !== 'object' || result === null || Array.isArray(result)) {
     throw new Error(`expected an object of named numbers, got ${Array.isArray(result) ? 'an array' : typeof result}`);
   }
   for (const [name, value] of Object.entries(result)) {
-    if (typeof value !== 'number') throw new Error(`figure "${name}" is ${typeof value}, expected a number`);
+    if (!(typeof value === 'number' || value === null || (strings && typeof value === 'string'))) {
+      throw new Error(`figure "${name}" is ${typeof value}, expected a number${strings ? ', a string' : ''} or null`);
+    }
   }
-  return result as Figures;
+  return result as Row;
 }
 
 async function runOne(bench: Bench): Promise<Outcome> {
   const startMs = performance.now();
   const wallS = () => Math.round(performance.now() - startMs) / 1000;
   try {
-    const figures = checkFigures(await bench.run());
+    const result: unknown = await bench.run();
+    if (Array.isArray(result)) return { bench: bench.name, wallS: wallS(), rows: result.map((row) => checkFigures(row, true)) };
+    const figures = checkFigures(result, false) as Figures;
     return { bench: bench.name, wallS: wallS(), figures };
   } catch (error) {
     const message = error instanceof Error ? (error.stack ?? error.message) : String(error);
@@ -91,8 +108,12 @@ async function main(): Promise<number> {
     outcomes.push(outcome);
     console.log(`${table(outcome)}\n`);
   }
-  // Machine-readable tail: one line per bench. JSON has no Infinity or NaN: they print as null.
-  for (const outcome of outcomes) console.log(JSON.stringify(outcome));
+  // Machine-readable tail: one line per bench, or per row of a per-case bench. JSON has no
+  // Infinity or NaN: they print as null.
+  for (const outcome of outcomes) {
+    if ('rows' in outcome) for (const row of outcome.rows) console.log(JSON.stringify(row));
+    else console.log(JSON.stringify(outcome));
+  }
   return outcomes.some((outcome) => 'error' in outcome) ? 1 : 0;
 }
 
