@@ -1,0 +1,216 @@
+/**
+ * The problem file: Loci's own versioned JSON form of a path-synthesis problem,
+ * validated once here at the boundary.
+ *
+ *   { "format": "loci-problem", "version": 1, "name": "…",
+ *     "target": { "points": [[x, y], …], "closed": false, "weights"?: […] },
+ *     "timing": { "mode": "prescribed", "driverValues": […], "unit"?: "rad" | "deg" }
+ *             | { "mode": "free", "wrap": false, "refine"?: false }
+ *             | { "mode": "unprescribed", "wrap"?: true, "samples"?: 180 },
+ *     "placement": "fixed" | "free",
+ *     "families": ["fourbar-lengths", …],
+ *     "bounds"?: { "fourbar-lengths": { "r1": [5, 60], "theta2": [0, 6.283…], … } },
+ *     "constraints"?: { "fullTurnCrank"?, "grashofTolerance"?, "minTransmissionRad"?,
+ *                       "linkLengthMm"?, "keepOut"?, "branch"? },
+ *     "measure"?: "sum-of-squares" | "rms" | "max",
+ *     "description"?: "…" }
+ *
+ * Lengths in mm, angles in rad (prescribed driver values may be given in degrees with
+ * "unit": "deg"). Reading runs three stages, each stopping on failure: the envelope
+ * (`format`, `version`), the schema (every field's type, unknown fields rejected), then
+ * the meaning (createProblem: point counts, repeated points, weights, driver values;
+ * then every bound names a variable of its family).
+ */
+import * as z from 'zod';
+import { FAMILY_IDS, createProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue } from '../synthesis';
+
+export const PROBLEM_FILE_FORMAT = 'loci-problem';
+/** The version this code writes, and the newest it reads. */
+export const PROBLEM_FILE_VERSION = 1;
+
+export type ParseProblemFileResult =
+  | { readonly ok: true; readonly problem: Problem; readonly description?: string }
+  | { readonly ok: false; readonly issues: ProblemIssue[] };
+
+function describeValue(value: unknown): string {
+  if (value === null) return 'null';
+  if (Array.isArray(value)) return 'an array';
+  switch (typeof value) {
+    case 'string':
+      return JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}…` : value);
+    case 'number':
+    case 'boolean':
+      return String(value);
+    case 'object':
+      return 'an object';
+    default:
+      return typeof value;
+  }
+}
+
+function quoteList(words: readonly string[]): string {
+  return words.map((w) => `"${w}"`).join(', ');
+}
+
+/** A zod error function saying what the field should have held. */
+function expected(what: string, fields?: readonly string[]): z.core.$ZodErrorMap {
+  return (issue) => {
+    if (issue.code === 'unrecognized_keys') {
+      const known = fields ? `; the known fields are ${quoteList(fields)}` : '';
+      return `unknown field${issue.keys.length > 1 ? 's' : ''} ${quoteList(issue.keys)} in ${what}${known}`;
+    }
+    if (issue.code === 'invalid_union' && issue.discriminator !== undefined) {
+      const input = issue.input as Record<string, unknown> | undefined;
+      const got = input?.[issue.discriminator];
+      return got === undefined ? `missing; expected ${what}` : `expected ${what}, got ${describeValue(got)}`;
+    }
+    if (issue.input === undefined) return `missing; expected ${what}`;
+    return `expected ${what}, got ${describeValue(issue.input)}`;
+  };
+}
+
+function strict<T extends z.core.$ZodLooseShape>(what: string, shape: T) {
+  return z.strictObject(shape, { error: expected(what, Object.keys(shape)) });
+}
+
+const finite = (what: string) => z.number({ error: expected(what) }).refine(Number.isFinite, { error: expected(what) });
+const pair = (what: string) => z.tuple([finite(what), finite(what)], { error: expected(`[lower, upper], two ${what}s`) });
+
+const targetSchema = strict('a target { "points", "closed", "weights"? }', {
+  points: z.array(z.array(z.number({ error: expected('a coordinate in mm') }), { error: expected('a point [x, y] in mm') }), {
+    error: expected('an array of points [x, y] in mm'),
+  }),
+  closed: z.boolean({ error: expected('true (a closed path) or false (open)') }),
+  weights: z.array(z.number({ error: expected('a weight ≥ 0') }), { error: expected('an array of weights, one per point') }).optional(),
+});
+
+const timingModes = 'a timing mode, "prescribed", "free" or "unprescribed"';
+const timingSchema = z.discriminatedUnion(
+  'mode',
+  [
+    strict('prescribed timing { "mode", "driverValues", "unit"? }', {
+      mode: z.literal('prescribed', { error: expected(timingModes) }),
+      driverValues: z.array(z.number({ error: expected('a driver value') }), { error: expected('an array of driver values, one per point') }),
+      unit: z.enum(['rad', 'deg'], { error: expected('"rad" or "deg"') }).optional(),
+    }),
+    strict('free timing { "mode", "wrap", "refine"? }', {
+      mode: z.literal('free', { error: expected(timingModes) }),
+      wrap: z.boolean({ error: expected('true (the driver values may pass once through 2π) or false') }),
+      refine: z.boolean({ error: expected('true or false') }).optional(),
+    }),
+    strict('unprescribed timing { "mode", "wrap"?, "samples"? }', {
+      mode: z.literal('unprescribed', { error: expected(timingModes) }),
+      wrap: z.boolean({ error: expected('true or false') }).optional(),
+      samples: z.number({ error: expected('a whole number of curve samples') }).int({ error: expected('a whole number of curve samples') }).optional(),
+    }),
+  ],
+  { error: expected(timingModes) },
+);
+
+const familyEnum = z.enum(FAMILY_IDS as [FamilyId, ...FamilyId[]], { error: expected(`a family, one of ${quoteList(FAMILY_IDS)}`) });
+
+const constraintsSchema = strict('constraints', {
+  fullTurnCrank: z.boolean({ error: expected('true or false') }).optional(),
+  grashofTolerance: finite('a share of the longest link in [0, 1)').optional(),
+  minTransmissionRad: finite('an angle in rad').optional(),
+  linkLengthMm: pair('length in mm').optional(),
+  keepOut: z
+    .array(strict('a keep-out circle { "x", "y", "r" } in mm', { x: finite('a number in mm'), y: finite('a number in mm'), r: finite('a radius in mm') }), {
+      error: expected('an array of keep-out circles'),
+    })
+    .optional(),
+  branch: z.enum(['open', 'crossed', 'either'], { error: expected('"open", "crossed" or "either"') }).optional(),
+});
+
+const fileShape = {
+  format: z.literal(PROBLEM_FILE_FORMAT, { error: expected(`"${PROBLEM_FILE_FORMAT}"`) }),
+  version: z.literal(PROBLEM_FILE_VERSION, { error: expected(`${PROBLEM_FILE_VERSION}`) }),
+  name: z.string({ error: expected('a name string') }),
+  description: z.string({ error: expected('a description string') }).optional(),
+  target: targetSchema,
+  timing: timingSchema,
+  placement: z.enum(['fixed', 'free'], { error: expected('"fixed" or "free"') }),
+  families: z.array(familyEnum, { error: expected('an array of families') }),
+  bounds: z
+    .partialRecord(familyEnum, z.record(z.string(), pair('number'), { error: expected('an object of variable name → [lower, upper]') }), {
+      error: expected('an object of family → bounds'),
+    })
+    .optional(),
+  constraints: constraintsSchema.optional(),
+  measure: z.enum(['sum-of-squares', 'rms', 'max'], { error: expected('"sum-of-squares", "rms" or "max"') }).optional(),
+};
+const problemFileV1Schema = strict('a problem file', fileShape);
+
+/** A problem file of the current version. */
+export type ProblemFileV1 = z.infer<typeof problemFileV1Schema>;
+
+function formatPath(path: readonly PropertyKey[]): string {
+  let out = '';
+  for (const key of path) {
+    if (typeof key === 'number') out += `[${key}]`;
+    else out += out === '' ? String(key) : `.${String(key)}`;
+  }
+  return out;
+}
+
+function isPlainObject(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+function fail(path: string, message: string): { ok: false; issues: ProblemIssue[] } {
+  return { ok: false, issues: [{ path, message }] };
+}
+
+/** Reads a problem file (already parsed from JSON text). */
+export function parseProblemFile(json: unknown): ParseProblemFileResult {
+  if (!isPlainObject(json)) return fail('', `expected a problem file (a JSON object with "format": "${PROBLEM_FILE_FORMAT}"), got ${describeValue(json)}`);
+  if (json.format !== PROBLEM_FILE_FORMAT) {
+    return fail('format', json.format === undefined
+      ? `missing; expected "${PROBLEM_FILE_FORMAT}" (is this a problem file?)`
+      : `expected "${PROBLEM_FILE_FORMAT}", got ${describeValue(json.format)}`);
+  }
+  const version = json.version;
+  if (!(typeof version === 'number' && Number.isInteger(version) && version >= 1)) {
+    return fail('version', `expected a whole number from 1 to ${PROBLEM_FILE_VERSION}, got ${describeValue(version)}`);
+  }
+  if (version > PROBLEM_FILE_VERSION) {
+    return fail('version', `this file is version ${version}, newer than this Loci reads (up to version ${PROBLEM_FILE_VERSION}); open it with a newer Loci`);
+  }
+  const parsed = problemFileV1Schema.safeParse(json);
+  if (!parsed.success) {
+    return { ok: false, issues: parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })) };
+  }
+  const file = parsed.data;
+  const t = file.timing;
+  const timing: ProblemInput['timing'] =
+    t.mode === 'prescribed'
+      ? { mode: 'prescribed', driverValues: t.unit === 'deg' ? t.driverValues.map((d) => (d * Math.PI) / 180) : t.driverValues }
+      : t.mode === 'free'
+        ? { mode: 'free', wrap: t.wrap, ...(t.refine === undefined ? {} : { refine: t.refine }) }
+        : { mode: 'unprescribed', ...(t.wrap === undefined ? {} : { wrap: t.wrap }), ...(t.samples === undefined ? {} : { samples: t.samples }) };
+  const created = createProblem({
+    name: file.name,
+    target: file.target,
+    timing,
+    placement: file.placement,
+    families: file.families,
+    ...(file.bounds === undefined ? {} : { bounds: file.bounds }),
+    ...(file.constraints === undefined ? {} : { constraints: file.constraints }),
+    ...(file.measure === undefined ? {} : { measure: file.measure }),
+  });
+  if (!created.ok) return created;
+  const problem = created.problem;
+  const issues: ProblemIssue[] = [];
+  for (const [family, boxes] of Object.entries(problem.bounds)) {
+    const names = objectiveVariableNames(problem, family as FamilyId);
+    const groups = names.filter((n) => /_\d+$/.test(n)).map((n) => n.replace(/_\d+$/, ''));
+    for (const name of Object.keys(boxes ?? {})) {
+      if (!names.includes(name) && !groups.includes(name)) {
+        const groupNote = groups.length > 0 ? ` (or "${groups[0]}" for every per-point driver value)` : '';
+        issues.push({ path: `bounds.${family}.${name}`, message: `"${name}" is not a variable of ${family} here; expected one of ${quoteList(names)}${groupNote}` });
+      }
+    }
+  }
+  if (issues.length > 0) return { ok: false, issues };
+  return file.description === undefined ? { ok: true, problem } : { ok: true, problem, description: file.description };
+}

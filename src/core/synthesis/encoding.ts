@@ -1,0 +1,100 @@
+/**
+ * What a family encoding gives the objective: its variables and default box, the
+ * output curve of the design it holds, and its share of the constraint violations.
+ * Violations are added into slots of one Float64Array so a report can say which
+ * constraint a design breaks; each is already normalised (dimensionless, ~1 = badly
+ * broken), and their sum is the objective's `violation`.
+ */
+import type { FourBarClass } from '../linkage/analysis';
+import type { Linkage } from '../linkage';
+import type { CurveEvaluator } from './curve';
+import type { FamilyId } from './problem';
+
+export const V_BOUNDS = 0;
+/** A full turn is required and the crank cannot make it (Grashof with the crank shortest). */
+export const V_CRANK = 1;
+/** The mechanism cannot assemble at a target point's driver value. */
+export const V_ASSEMBLY = 2;
+/** The motion between target points passes a lock or dead centre (would flip branch). */
+export const V_BRANCH = 3;
+/** The driver values do not increase. */
+export const V_ORDER = 4;
+export const V_TRANSMISSION = 5;
+export const V_LINK_LENGTH = 6;
+export const V_KEEP_OUT = 7;
+export const V_SLOTS = 8;
+
+export const DEFECT_NAMES: readonly string[] = [
+  'variable outside its bounds',
+  'crank cannot turn fully (not Grashof with the crank shortest)',
+  'cannot assemble at a target point',
+  'motion passes a dead centre or lock (branch defect)',
+  'driver values out of order (order defect)',
+  'transmission angle below the minimum',
+  'link length outside the limits',
+  'ground pivot inside a keep-out circle',
+];
+
+export interface EncodingReport {
+  readonly linkage: Linkage;
+  readonly grashof?: FourBarClass;
+  readonly transmissionDeg?: { readonly min: number; readonly max: number };
+}
+
+export interface MechanismEncoding {
+  readonly family: FamilyId;
+  /** The mechanism's variables (the per-point driver variables come after them). */
+  readonly names: readonly string[];
+  /** Default box of each mechanism variable. */
+  readonly lower: Float64Array;
+  readonly upper: Float64Array;
+  /** Prefix of the per-point driver variables: `theta2` or `driver`. */
+  readonly driverName: string;
+  /** Designs one x stands for (2 when both assembly branches are tried). */
+  readonly branchCount: number;
+  /** The output curve of the loaded design. */
+  readonly curve: CurveEvaluator;
+  /** Loads design x (its first names.length entries) on branch k; adds the design's own violations. */
+  load(x: Float64Array, branch: number, parts: Float64Array): void;
+  /** Adds the violations of moving the driver from span[0] to span[1] ≥ span[0] (an array: doubles passed to calls are boxed). */
+  motion(span: Float64Array, parts: Float64Array): void;
+  /** Adds the violations that depend on placement: p ↦ (a −b; b a) p + (tx, ty), `placement` = [a, b, tx, ty]. */
+  placed(placement: Float64Array, parts: Float64Array): void;
+  /** The loaded design as a linkage at driver value `t` (reference pose), placed; allocates. */
+  report(t: number, driverValues: Float64Array, sa: number, sb: number, tx: number, ty: number): EncodingReport;
+}
+
+/** Where the target sits and how big it is: the scale of default boxes. */
+export interface TargetFrame {
+  readonly cx: number;
+  readonly cy: number;
+  /** Larger side of the target's bounding box, mm (> 0). */
+  readonly size: number;
+}
+
+export function targetFrame(points: Float64Array): TargetFrame {
+  let minX = Infinity;
+  let minY = Infinity;
+  let maxX = -Infinity;
+  let maxY = -Infinity;
+  for (let i = 0; i < points.length; i += 2) {
+    minX = Math.min(minX, points[i]);
+    maxX = Math.max(maxX, points[i]);
+    minY = Math.min(minY, points[i + 1]);
+    maxY = Math.max(maxY, points[i + 1]);
+  }
+  return { cx: (minX + maxX) / 2, cy: (minY + maxY) / 2, size: Math.max(maxX - minX, maxY - minY) };
+}
+
+/** Largest |cos μ| allowed by a minimum transmission angle μmin: μ ∈ [μmin, π − μmin]. */
+export function transmissionCosLimit(minTransmissionRad: number | undefined): number {
+  return minTransmissionRad === undefined ? 1 : Math.cos(minTransmissionRad);
+}
+
+/** Normalised excess of a length over [lo, hi]. */
+export function lengthViolation(length: number, lo: number, hi: number): number {
+  if (Number.isNaN(length)) return 1;
+  if (length < lo) return (lo - length) / lo;
+  if (length > hi) return (length - hi) / hi;
+  return 0;
+}

@@ -1,0 +1,263 @@
+/**
+ * `fourbar-lengths`: the literature encoding of the four-bar (Cabrera, Simon and Prado,
+ * 2002, and the benchmark papers after them), evaluated in closed form.
+ *
+ * Fixed placement: r1 ground, r2 crank, r3 coupler, r4 rocker, rcx, rcy, θ0, x0, y0
+ * (see fourBarClosedForm.ts). Free placement: the similarity fit supplies scale,
+ * rotation and translation, so r1 ≡ 1, θ0 = x0 = y0 = 0 and the variables are r2, r3,
+ * r4, rcx, rcy in units of the ground link.
+ */
+import { fourBar } from '../linkage';
+import { classifyFourBar } from '../linkage/analysis';
+import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, type CurveEvaluator } from './curve';
+import {
+  V_BRANCH as V_BRANCH_BINDING,
+  V_CRANK as V_CRANK_BINDING,
+  V_KEEP_OUT as V_KEEP_OUT_BINDING,
+  V_LINK_LENGTH as V_LINK_LENGTH_BINDING,
+  V_TRANSMISSION as V_TRANSMISSION_BINDING,
+  lengthViolation,
+  transmissionCosLimit,
+  type EncodingReport,
+  type MechanismEncoding,
+  type TargetFrame,
+} from './encoding';
+import {
+  FOUR_BAR_LENGTH_VARIABLES as FOUR_BAR_LENGTH_VARIABLES_BINDING,
+  R1 as R1_BINDING,
+  R2 as R2_BINDING,
+  R3 as R3_BINDING,
+  R4 as R4_BINDING,
+  THETA0 as THETA0_BINDING,
+  X0 as X0_BINDING,
+  Y0 as Y0_BINDING,
+  fourBarCouplerPointInto,
+  fourBarJointsInto,
+} from './fourBarClosedForm';
+import type { Branch, Constraints, Placement } from './problem';
+
+// Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
+// imported binding into a getter call, which the hot loops below cannot afford.
+const CURVE_OUT_LENGTH = CURVE_OUT_LENGTH_BINDING;
+const V_BRANCH = V_BRANCH_BINDING;
+const V_CRANK = V_CRANK_BINDING;
+const V_KEEP_OUT = V_KEEP_OUT_BINDING;
+const V_LINK_LENGTH = V_LINK_LENGTH_BINDING;
+const V_TRANSMISSION = V_TRANSMISSION_BINDING;
+const FOUR_BAR_LENGTH_VARIABLES = FOUR_BAR_LENGTH_VARIABLES_BINDING;
+const R1 = R1_BINDING;
+const R2 = R2_BINDING;
+const R3 = R3_BINDING;
+const R4 = R4_BINDING;
+const THETA0 = THETA0_BINDING;
+const X0 = X0_BINDING;
+const Y0 = Y0_BINDING;
+
+const TAU = 2 * Math.PI;
+
+const FIXED_NAMES = ['r1', 'r2', 'r3', 'r4', 'rcx', 'rcy', 'theta0', 'x0', 'y0'];
+const FREE_NAMES = ['r2', 'r3', 'r4', 'rcx', 'rcy'];
+
+/** Range of cos t over [a, b] into out[0] (min), out[1] (max). */
+function cosRangeInto(a: number, b: number, out: Float64Array): void {
+  if (!(b - a < TAU)) {
+    out[0] = -1;
+    out[1] = 1;
+    return;
+  }
+  const ca = Math.cos(a);
+  const cb = Math.cos(b);
+  out[0] = Math.min(ca, cb);
+  out[1] = Math.max(ca, cb);
+  // An even multiple of π inside (a, b] reaches cos = 1, an odd one cos = −1 (the ends are counted above).
+  if (Math.floor(b / TAU) > Math.floor(a / TAU)) out[1] = 1;
+  if (Math.floor((b - Math.PI) / TAU) > Math.floor((a - Math.PI) / TAU)) out[0] = -1;
+}
+
+class ClosedFormCurve implements CurveEvaluator {
+  readonly secondDerivatives = true;
+  readonly p = new Float64Array(FOUR_BAR_LENGTH_VARIABLES);
+  sign = 1;
+  at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
+    return fourBarCouplerPointInto(this.p, 0, t, this.sign, order, out);
+  }
+}
+
+export function createFourBarLengths(placement: Placement, constraints: Constraints, frame: TargetFrame): MechanismEncoding {
+  const free = placement === 'free';
+  const names = free ? FREE_NAMES : FIXED_NAMES;
+  const L = frame.size;
+  const lower = new Float64Array(names.length);
+  const upper = new Float64Array(names.length);
+  if (free) {
+    // Units of the ground link.
+    lower.set([0.05, 0.05, 0.05, -3, -3]);
+    upper.set([3, 3, 3, 3, 3]);
+  } else {
+    lower.set([0.05 * L, 0.05 * L, 0.05 * L, 0.05 * L, -3 * L, -3 * L, 0, frame.cx - 3 * L, frame.cy - 3 * L]);
+    upper.set([3 * L, 3 * L, 3 * L, 3 * L, 3 * L, 3 * L, TAU, frame.cx + 3 * L, frame.cy + 3 * L]);
+  }
+  const branch: Branch = constraints.branch ?? 'open';
+  const fullTurn = constraints.fullTurnCrank === true;
+  const grashofTolerance = constraints.grashofTolerance ?? 0;
+  const cosLimit = transmissionCosLimit(constraints.minTransmissionRad);
+  const linkLimits = constraints.linkLengthMm;
+  const keepOut = constraints.keepOut ?? [];
+  const curve = new ClosedFormCurve();
+  const p = curve.p;
+  const range = new Float64Array(2);
+  const joints = new Float64Array(8);
+
+  /** Adds the transmission violation for cos θ2 over [cmin, cmax]. */
+  function transmissionOver(cmin: number, cmax: number, parts: Float64Array): void {
+    if (cosLimit >= 1) return;
+    const r1 = p[R1];
+    const r2 = p[R2];
+    const r3 = p[R3];
+    const r4 = p[R4];
+    // cos μ = (r3² + r4² − r1² − r2² + 2 r1 r2 cos θ2) / (2 r3 r4): monotone in cos θ2.
+    const k = 2 * r3 * r4;
+    const base = r3 * r3 + r4 * r4 - r1 * r1 - r2 * r2;
+    const m1 = Math.abs((base + 2 * r1 * r2 * cmin) / k);
+    const m2 = Math.abs((base + 2 * r1 * r2 * cmax) / k);
+    const worst = Math.max(m1, m2);
+    if (!(worst <= cosLimit)) parts[V_TRANSMISSION] += Number.isNaN(worst) ? 1 : worst - cosLimit;
+  }
+
+  const encoding: MechanismEncoding = {
+    family: 'fourbar-lengths',
+    names,
+    lower,
+    upper,
+    driverName: 'theta2',
+    branchCount: branch === 'either' ? 2 : 1,
+    curve,
+    load(x: Float64Array, k: number, parts: Float64Array): void {
+      if (free) {
+        p[R1] = 1;
+        for (let i = 0; i < 5; i++) p[R2 + i] = x[i];
+        p[THETA0] = 0;
+        p[X0] = 0;
+        p[Y0] = 0;
+      } else {
+        for (let i = 0; i < FOUR_BAR_LENGTH_VARIABLES; i++) p[i] = x[i];
+      }
+      curve.sign = branch === 'crossed' || (branch === 'either' && k === 1) ? -1 : 1;
+      // A link of no length is no four-bar (the published boxes start at 0).
+      for (let i = R1; i <= R4; i++) if (!(p[i] > 0)) parts[V_LINK_LENGTH] += 1;
+      if (fullTurn) {
+        const r1 = p[R1];
+        const r2 = p[R2];
+        const r3 = p[R3];
+        const r4 = p[R4];
+        const l = Math.max(r1, r2, r3, r4);
+        const s = Math.min(r1, r2, r3, r4);
+        const pq = r1 + r2 + r3 + r4 - s - l;
+        // Grashof with the crank shortest (Grashof, 1883): r2 ≤ min(r1, r3, r4), s + l ≤ p + q (+ slack).
+        const shortest = r2 - Math.min(r1, r3, r4);
+        const grashof = s + l - pq - grashofTolerance * l;
+        let v = 0;
+        if (shortest > 0) v += shortest / l;
+        if (grashof > 0) v += grashof / l;
+        if (!(v >= 0)) v = 1;
+        parts[V_CRANK] += v;
+        transmissionOver(-1, 1, parts);
+      }
+    },
+    motion(span: Float64Array, parts: Float64Array): void {
+      // With a full turn required, the Grashof test (with its tolerance) stands for the
+      // whole turn, as in the benchmark papers' formulation; otherwise check the travel.
+      if (fullTurn) return;
+      const a = span[0];
+      const b = span[1];
+      // The loop closes when |r3 − r4| ≤ |O4 − A| ≤ r3 + r4, |O4 − A|² = r1² + r2² − 2 r1 r2 cos θ2.
+      const r1 = p[R1];
+      const r2 = p[R2];
+      const r3 = p[R3];
+      const r4 = p[R4];
+      cosRangeInto(a, b, range);
+      const cmin = range[0];
+      const cmax = range[1];
+      const k = 2 * r1 * r2;
+      const cLo = (r1 * r1 + r2 * r2 - (r3 + r4) * (r3 + r4)) / k;
+      const cHi = (r1 * r1 + r2 * r2 - (r3 - r4) * (r3 - r4)) / k;
+      let v = 0;
+      if (cmin < cLo) v += cLo - cmin;
+      if (cmax > cHi) v += cmax - cHi;
+      if (!(v >= 0)) v = 1;
+      parts[V_BRANCH] += v;
+      transmissionOver(cmin, cmax, parts);
+    },
+    placed(placement: Float64Array, parts: Float64Array): void {
+      const sa = placement[0];
+      const sb = placement[1];
+      const tx = placement[2];
+      const ty = placement[3];
+      const scale = Math.hypot(sa, sb);
+      if (linkLimits !== undefined) {
+        const [lo, hi] = linkLimits;
+        for (let i = R1; i <= R4; i++) parts[V_LINK_LENGTH] += lengthViolation(scale * p[i], lo, hi);
+      }
+      if (keepOut.length > 0) {
+        fourBarJointsInto(p, 0, 0, curve.sign, joints);
+        for (let j = 0; j < 8; j += 6) {
+          const x = sa * joints[j] - sb * joints[j + 1] + tx;
+          const y = sb * joints[j] + sa * joints[j + 1] + ty;
+          for (let q = 0; q < keepOut.length; q++) {
+            const c = keepOut[q];
+            const d = Math.hypot(x - c.x, y - c.y);
+            if (!(d >= c.r)) parts[V_KEEP_OUT] += Number.isNaN(d) ? 1 : (c.r - d) / c.r;
+          }
+        }
+      }
+    },
+    report(t: number, driverValues: Float64Array, sa: number, sb: number, tx: number, ty: number): EncodingReport {
+      fourBarJointsInto(p, 0, t, curve.sign, joints);
+      const point = new Float64Array(CURVE_OUT_LENGTH);
+      curve.at(t, 0, point);
+      const place = (x: number, y: number) => ({ x: sa * x - sb * y + tx, y: sb * x + sa * y + ty });
+      const linkage = fourBar({
+        A0: place(joints[0], joints[1]),
+        A: place(joints[2], joints[3]),
+        B: place(joints[4], joints[5]),
+        B0: place(joints[6], joints[7]),
+        P: place(point[0], point[1]),
+      });
+      const scale = Math.hypot(sa, sb);
+      let grashof: EncodingReport['grashof'];
+      try {
+        grashof = classifyFourBar(scale * p[R1], scale * p[R2], scale * p[R3], scale * p[R4]);
+      } catch {
+        grashof = undefined;
+      }
+      let min = Infinity;
+      let max = -Infinity;
+      const r1 = p[R1];
+      const r2 = p[R2];
+      const r3 = p[R3];
+      const r4 = p[R4];
+      const consider = (c2: number) => {
+        const c = (r3 * r3 + r4 * r4 - r1 * r1 - r2 * r2 + 2 * r1 * r2 * c2) / (2 * r3 * r4);
+        const mu = (Math.acos(Math.max(-1, Math.min(1, c))) * 180) / Math.PI;
+        min = Math.min(min, mu);
+        max = Math.max(max, mu);
+      };
+      if (fullTurn) {
+        consider(1);
+        consider(-1);
+      } else {
+        for (let i = 0; i + 1 < driverValues.length; i++) {
+          cosRangeInto(driverValues[i], Math.max(driverValues[i], driverValues[i + 1]), range);
+          consider(range[0]);
+          consider(range[1]);
+        }
+      }
+      return {
+        linkage,
+        ...(grashof === undefined ? {} : { grashof }),
+        ...(min <= max ? { transmissionDeg: { min, max } } : {}),
+      };
+    },
+  };
+  return encoding;
+}

@@ -1,0 +1,27 @@
+/**
+ * Path synthesis: targets, error measures, timing, placement, family encodings,
+ * constraints and the objective a search minimises; ranking and an archive of
+ * distinct candidates.
+ */
+export type { FamilyId, Timing, Placement, Measure, Branch, Constraints, KeepOutCircle, BoundsOverrides, Problem, ProblemInput, ProblemIssue, ProblemResult } from './problem';
+export { FAMILY_IDS, createProblem, DEFAULT_MATCH_SAMPLES, MIN_MATCH_SAMPLES, MAX_MATCH_SAMPLES } from './problem';
+export type { Target } from './target';
+export { validateTarget, MIN_TARGET_POINTS, REPEATED_POINT_TOLERANCE_MM } from './target';
+export type { ErrorSummary } from './measures';
+export { MEASURES, errorSummary, measureValue } from './measures';
+export type { CandidateReport, Objective } from './objective';
+export { createObjective, objectiveVariableNames, REFINE_ITERATIONS, FREE_REFINE_MAX_STEP_RAD } from './objective';
+export type { Ranked } from './ranking';
+export { compareCandidates, compareRanks } from './ranking';
+export type { ArchiveEntry } from './archive';
+export { CandidateArchive } from './archive';
+export type { CurveEvaluator } from './curve';
+export { createMatchScratch, matchInOrder, orderViolation, refineDriverValue, DRIVER_STEP_TOLERANCE } from './timing';
+export type { MatchScratch } from './timing';
+export { DEFECT_NAMES } from './encoding';
+export {
+  FOUR_BAR_LENGTH_VARIABLES,
+  FOUR_BAR_OUT_LENGTH,
+  fourBarCouplerPointInto,
+  fourBarJointsInto,
+} from './fourBarClosedForm';

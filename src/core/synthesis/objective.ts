@@ -1,0 +1,516 @@
+/**
+ * createObjective(problem, family): the function a search minimises. Everything it
+ * needs is allocated here; `evaluate` allocates nothing. One evaluation is: bounds, the
+ * family's own constraints, the timing solve (prescribed, free, or matched in order and
+ * refined), the placement fit, the error measure and the sum of normalised violations.
+ * With both assembly branches asked for, both are evaluated and the better kept, all
+ * within one evaluation.
+ */
+import type { FourBarClass } from '../linkage/analysis';
+import type { Linkage } from '../linkage';
+import {
+  SIM_A as SIM_A_BINDING,
+  SIM_B as SIM_B_BINDING,
+  SIM_LENGTH as SIM_LENGTH_BINDING,
+  SIM_SSE as SIM_SSE_BINDING,
+  SIM_TX as SIM_TX_BINDING,
+  SIM_TY as SIM_TY_BINDING,
+  similarityFitInto,
+} from '../geometry';
+import {
+  CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING,
+  CURVE_X as CURVE_X_BINDING,
+  CURVE_Y as CURVE_Y_BINDING,
+  type CurveEvaluator,
+} from './curve';
+import {
+  DEFECT_NAMES,
+  V_ASSEMBLY as V_ASSEMBLY_BINDING,
+  V_BOUNDS as V_BOUNDS_BINDING,
+  V_ORDER as V_ORDER_BINDING,
+  V_SLOTS as V_SLOTS_BINDING,
+  targetFrame,
+  type MechanismEncoding,
+} from './encoding';
+import { createFourBarLengths } from './fourBarLengths';
+import { createJointFit } from './jointFit';
+import { errorSummary, measureValue, type ErrorSummary } from './measures';
+import { createPoseFamily } from './poseFamilies';
+import { DEFAULT_MATCH_SAMPLES, type FamilyId, type Problem } from './problem';
+import { compareRanks } from './ranking';
+import {
+  REFINE_HI as REFINE_HI_BINDING,
+  REFINE_IO_LENGTH,
+  REFINE_LO as REFINE_LO_BINDING,
+  REFINE_MAX_STEP as REFINE_MAX_STEP_BINDING,
+  REFINE_QX as REFINE_QX_BINDING,
+  REFINE_QY as REFINE_QY_BINDING,
+  REFINE_T as REFINE_T_BINDING,
+  createMatchScratch,
+  matchInOrder,
+  orderViolation,
+  refineDriverValue,
+} from './timing';
+
+// Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
+// imported binding into a getter call, which the hot loops below cannot afford.
+const SIM_A = SIM_A_BINDING;
+const SIM_B = SIM_B_BINDING;
+const SIM_LENGTH = SIM_LENGTH_BINDING;
+const SIM_SSE = SIM_SSE_BINDING;
+const SIM_TX = SIM_TX_BINDING;
+const SIM_TY = SIM_TY_BINDING;
+const CURVE_OUT_LENGTH = CURVE_OUT_LENGTH_BINDING;
+const CURVE_X = CURVE_X_BINDING;
+const CURVE_Y = CURVE_Y_BINDING;
+const V_ASSEMBLY = V_ASSEMBLY_BINDING;
+const V_BOUNDS = V_BOUNDS_BINDING;
+const V_ORDER = V_ORDER_BINDING;
+const V_SLOTS = V_SLOTS_BINDING;
+const REFINE_T = REFINE_T_BINDING;
+const REFINE_QX = REFINE_QX_BINDING;
+const REFINE_QY = REFINE_QY_BINDING;
+const REFINE_LO = REFINE_LO_BINDING;
+const REFINE_HI = REFINE_HI_BINDING;
+const REFINE_MAX_STEP = REFINE_MAX_STEP_BINDING;
+
+const TAU = 2 * Math.PI;
+/** Newton steps per target point in a timing refinement. */
+export const REFINE_ITERATIONS = 8;
+/** Largest Newton step of a free-timing refinement, rad. */
+export const FREE_REFINE_MAX_STEP_RAD = 0.25;
+/** Starting offsets tried when a free placement is aligned by arc length. */
+export const ALIGNMENT_OFFSETS = 12;
+/** Alternations of matching and fitting in a free placement with matched timing. */
+export const ALIGNMENT_ITERATIONS = 3;
+
+export interface CandidateReport {
+  readonly family: FamilyId;
+  /** The design vector (with refined driver values where evaluate writes them back). */
+  readonly x: number[];
+  readonly variables: Record<string, number>;
+  readonly error: ErrorSummary;
+  /** The value of the problem's measure. */
+  readonly value: number;
+  readonly violation: number;
+  readonly feasible: boolean;
+  /** The constraints the design breaks, in words. */
+  readonly defects: string[];
+  /** The design as a linkage (reference pose, placed), ready for the linkage file. */
+  readonly linkage: Linkage;
+  /** The driver value at each target point. */
+  readonly driverValues: number[];
+  /** The output point at each target point, placed (x0, y0, x1, y1, …). */
+  readonly points: number[];
+  /** The fitted similarity of a free placement: p ↦ s R(θ) p + t. */
+  readonly placement?: { readonly scale: number; readonly rotationRad: number; readonly tx: number; readonly ty: number };
+  readonly grashof?: FourBarClass;
+  readonly transmissionDeg?: { readonly min: number; readonly max: number };
+}
+
+export interface Objective {
+  readonly family: FamilyId;
+  readonly dim: number;
+  /** Real bounds of each variable. */
+  readonly lower: Float64Array;
+  readonly upper: Float64Array;
+  readonly variableNames: readonly string[];
+  /**
+   * One evaluation: out[0] = value of the problem's measure, out[1] = constraint
+   * violation (0 feasible, > 0 otherwise). No allocation. With free timing and
+   * `refine`, the refined driver values are written back into x (Lamarckian), so the
+   * value is that of the x the caller then holds.
+   */
+  evaluate(x: Float64Array, out: Float64Array): void;
+  /** Full report of one design (allocates; for the archive and the top candidates). */
+  describe(x: Float64Array): CandidateReport;
+}
+
+function createEncoding(problem: Problem, family: FamilyId): MechanismEncoding {
+  const frame = targetFrame(problem.target.points);
+  const sized = frame.size > 0 ? frame : { ...frame, size: 1 };
+  if (family === 'fourbar-lengths') return createFourBarLengths(problem.placement, problem.constraints, sized);
+  return createPoseFamily(family, problem.constraints, sized);
+}
+
+/** The variable names of `family` on `problem`, in design-vector order. */
+export function objectiveVariableNames(problem: Problem, family: FamilyId): string[] {
+  const encoding = createEncoding(problem, family);
+  return variableNames(encoding, problem);
+}
+
+function variableNames(encoding: MechanismEncoding, problem: Problem): string[] {
+  const names = [...encoding.names];
+  if (problem.timing.mode === 'free') {
+    const n = problem.target.points.length / 2;
+    for (let i = 0; i < n; i++) names.push(`${encoding.driverName}_${i + 1}`);
+  }
+  return names;
+}
+
+export function createObjective(problem: Problem, family: FamilyId): Objective {
+  const encoding = createEncoding(problem, family);
+  const names = variableNames(encoding, problem);
+  const m = encoding.names.length;
+  const targets = Float64Array.from(problem.target.points);
+  const weights = problem.target.weights === undefined ? undefined : Float64Array.from(problem.target.weights);
+  const n = targets.length / 2;
+  const closed = problem.target.closed;
+  const timing = problem.timing;
+  const freePlacement = problem.placement === 'free';
+  const measure = problem.measure;
+  const dim = names.length;
+
+  const lower = new Float64Array(dim);
+  const upper = new Float64Array(dim);
+  lower.set(encoding.lower);
+  upper.set(encoding.upper);
+  for (let i = m; i < dim; i++) {
+    lower[i] = 0;
+    upper[i] = TAU;
+  }
+  const overrides = problem.bounds[family] ?? {};
+  for (const [name, box] of Object.entries(overrides)) {
+    let matched = false;
+    for (let j = 0; j < dim; j++) {
+      if (names[j] === name || (j >= m && name === encoding.driverName)) {
+        lower[j] = box[0];
+        upper[j] = box[1];
+        matched = true;
+      }
+    }
+    if (!matched) throw new RangeError(`bounds.${family}.${name}: no such variable; expected one of ${names.join(', ')}${dim > m ? ` or ${encoding.driverName}` : ''}`);
+  }
+
+  // Scratch, allocated once.
+  const parts = new Float64Array(V_SLOTS);
+  const refineIo = new Float64Array(REFINE_IO_LENGTH);
+  const span = new Float64Array(2);
+  const buf = new Float64Array(CURVE_OUT_LENGTH);
+  const sim = new Float64Array(SIM_LENGTH);
+  const branchCount = encoding.branchCount;
+  const times = new Float64Array(branchCount * n);
+  const unwrapped = new Float64Array(n);
+  const points = new Float64Array(2 * n);
+  const d2 = new Float64Array(n);
+  const driverValues = timing.mode === 'prescribed' ? Float64Array.from(timing.driverValues) : new Float64Array(0);
+  const wrap = timing.mode === 'free' ? timing.wrap : timing.mode === 'unprescribed' ? timing.wrap !== false : false;
+  const refineFree = timing.mode === 'free' && timing.refine === true;
+  const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : 0;
+  const samples = new Float64Array(2 * sampleCount);
+  const placedSamples = new Float64Array(freePlacement ? 2 * sampleCount : 0);
+  const valid = new Uint8Array(sampleCount);
+  const arc = new Float64Array(freePlacement ? sampleCount + 1 : 0);
+  const targetArc = new Float64Array(n);
+  const matchScratch = createMatchScratch(n, Math.max(sampleCount, 1));
+  const matched = new Int32Array(n);
+  const jointFit = createJointFit(n);
+  const limits = new Float64Array(2);
+  /** a, b, tx, ty of the placement in force (identity when fixed); the layout of SIM_A … SIM_TY. */
+  const placement = new Float64Array(4);
+  const curve = encoding.curve;
+  const evaluation = new Float64Array(2 * branchCount);
+
+  if (freePlacement) {
+    // Arc-length share of each target point along the path (closed: with the closing segment).
+    let total = 0;
+    for (let i = 1; i <= n; i++) {
+      if (i === n && !closed) break;
+      const a = i - 1;
+      const b = i % n;
+      total += Math.hypot(targets[2 * b] - targets[2 * a], targets[2 * b + 1] - targets[2 * a + 1]);
+      if (i < n) targetArc[i] = total;
+    }
+    for (let i = 0; i < n; i++) targetArc[i] /= total;
+  }
+
+  function boundsViolation(x: Float64Array): number {
+    let v = 0;
+    for (let j = 0; j < dim; j++) {
+      const w = upper[j] - lower[j];
+      const xj = x[j];
+      if (xj < lower[j]) v += (lower[j] - xj) / w;
+      else if (xj > upper[j]) v += (xj - upper[j]) / w;
+      else if (Number.isNaN(xj)) v += 1;
+    }
+    return v;
+  }
+
+  function sampleCurve(): void {
+    const step = TAU / sampleCount;
+    let any = false;
+    for (let j = 0; j < sampleCount; j++) {
+      const margin = curve.at(j * step, 0, buf);
+      samples[2 * j] = buf[CURVE_X];
+      samples[2 * j + 1] = buf[CURVE_Y];
+      const ok = margin >= 0 && Number.isFinite(buf[CURVE_X] + buf[CURVE_Y]);
+      valid[j] = ok ? 1 : 0;
+      any = any || ok;
+    }
+    // Nothing assembles: match anyway on the stand-in curve, so the value still ranks.
+    if (!any) for (let j = 0; j < sampleCount; j++) valid[j] = Number.isFinite(samples[2 * j] + samples[2 * j + 1]) ? 1 : 0;
+  }
+
+  /** Newton refinement of matched driver values t[o..o+n) on `c`, each kept between its neighbours. */
+  function refineMatched(c: CurveEvaluator, t: Float64Array, o: number, maxStep: number): void {
+    for (let i = 0; i < n; i++) {
+      let lo: number;
+      let hi: number;
+      if (wrap) {
+        lo = i > 0 ? t[o + i - 1] : t[o + n - 1] - TAU;
+        hi = i + 1 < n ? t[o + i + 1] : t[o] + TAU;
+      } else {
+        lo = i > 0 ? t[o + i - 1] : 0;
+        hi = i + 1 < n ? t[o + i + 1] : TAU;
+      }
+      refineIo[REFINE_T] = t[o + i];
+      refineIo[REFINE_QX] = targets[2 * i];
+      refineIo[REFINE_QY] = targets[2 * i + 1];
+      refineIo[REFINE_LO] = lo;
+      refineIo[REFINE_HI] = hi;
+      refineIo[REFINE_MAX_STEP] = maxStep;
+      refineDriverValue(c, refineIo, REFINE_ITERATIONS, buf);
+      t[o + i] = refineIo[REFINE_T];
+    }
+  }
+
+  /** Unprescribed timing with a fixed placement: match in order on the samples, refine. */
+  function matchTiming(t: Float64Array, o: number): void {
+    sampleCurve();
+    matchInOrder(samples, valid, targets, weights, wrap, matchScratch, matched);
+    const step = TAU / sampleCount;
+    for (let i = 0; i < n; i++) t[o + i] = matched[i] * step;
+    refineMatched(curve, t, o, step);
+  }
+
+  function placeSamples(): void {
+    const a = sim[SIM_A];
+    const b = sim[SIM_B];
+    for (let j = 0; j < sampleCount; j++) {
+      const x = samples[2 * j];
+      const y = samples[2 * j + 1];
+      placedSamples[2 * j] = a * x - b * y + sim[SIM_TX];
+      placedSamples[2 * j + 1] = b * x + a * y + sim[SIM_TY];
+    }
+  }
+
+  /**
+   * Unprescribed timing with a free placement: align by arc length from a few starting
+   * offsets (the curve unknown in size and pose, the target's points spread along it
+   * as along the target), then alternate matching in order and refitting (an iterative
+   * closest point scheme, Besl and McKay, 1992), then refine on the placed curve.
+   */
+  function matchPlacedTiming(t: Float64Array, o: number): void {
+    sampleCurve();
+    arc[0] = 0;
+    for (let j = 1; j <= sampleCount; j++) {
+      const a = j - 1;
+      const b = j % sampleCount;
+      const seg = valid[a] === 1 && valid[b] === 1 ? Math.hypot(samples[2 * b] - samples[2 * a], samples[2 * b + 1] - samples[2 * a + 1]) : 0;
+      arc[j] = arc[j - 1] + seg;
+    }
+    const total = arc[sampleCount];
+    const step = TAU / sampleCount;
+    let bestSse = Infinity;
+    for (let k = 0; k < ALIGNMENT_OFFSETS; k++) {
+      const offset = k / ALIGNMENT_OFFSETS;
+      let j = 0;
+      for (let i = 0; i < n; i++) {
+        let share = offset + targetArc[i];
+        if (share >= 1) share -= 1;
+        // targetArc increases, so j only moves forward, once around the loop at most.
+        if (i === 0 || share < offset) j = 0;
+        while (j < sampleCount - 1 && arc[j + 1] <= share * total) j++;
+        points[2 * i] = samples[2 * j];
+        points[2 * i + 1] = samples[2 * j + 1];
+        matched[i] = j;
+      }
+      similarityFitInto(points, targets, n, buf, weights ?? null);
+      if (buf[SIM_SSE] < bestSse || k === 0) {
+        bestSse = buf[SIM_SSE];
+        for (let q = 0; q < SIM_LENGTH; q++) sim[q] = buf[q];
+      }
+    }
+    for (let it = 0; it < ALIGNMENT_ITERATIONS; it++) {
+      placeSamples();
+      matchInOrder(placedSamples, valid, targets, weights, wrap, matchScratch, matched);
+      for (let i = 0; i < n; i++) {
+        const j = ((matched[i] % sampleCount) + sampleCount) % sampleCount;
+        points[2 * i] = samples[2 * j];
+        points[2 * i + 1] = samples[2 * j + 1];
+      }
+      similarityFitInto(points, targets, n, buf, weights ?? null);
+      if (!Number.isFinite(buf[SIM_A] + buf[SIM_B] + buf[SIM_TX] + buf[SIM_TY])) break;
+      for (let q = 0; q < SIM_LENGTH; q++) sim[q] = buf[q];
+    }
+    for (let i = 0; i < n; i++) t[o + i] = matched[i] * step;
+    // Then driver values and placement together, from the samples' answer.
+    if (wrap) {
+      limits[0] = t[o + n - 1] - TAU;
+      limits[1] = t[o] + TAU;
+    } else {
+      limits[0] = 0;
+      limits[1] = TAU;
+    }
+    jointFit.refine(curve, targets, weights, t, o, sim, limits, step);
+  }
+
+  function refineFreeTiming(x: Float64Array, t: Float64Array, o: number): void {
+    for (let i = 0; i < n; i++) {
+      let lo = lower[m + i];
+      let hi = upper[m + i];
+      const here = t[o + i];
+      // Stay between neighbours that are in order, so refining never creates an order defect.
+      if (i > 0 && t[o + i - 1] <= here) lo = Math.max(lo, t[o + i - 1]);
+      if (i + 1 < n && x[m + i + 1] >= here) hi = Math.min(hi, x[m + i + 1]);
+      if (!(lo <= here && here <= hi)) continue;
+      refineIo[REFINE_T] = here;
+      refineIo[REFINE_QX] = targets[2 * i];
+      refineIo[REFINE_QY] = targets[2 * i + 1];
+      refineIo[REFINE_LO] = lo;
+      refineIo[REFINE_HI] = hi;
+      refineIo[REFINE_MAX_STEP] = FREE_REFINE_MAX_STEP_RAD;
+      refineDriverValue(curve, refineIo, REFINE_ITERATIONS, buf);
+      t[o + i] = refineIo[REFINE_T];
+    }
+  }
+
+  /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
+  function evaluateBranch(x: Float64Array, k: number): void {
+    parts.fill(0);
+    parts[V_BOUNDS] = boundsViolation(x);
+    encoding.load(x, k, parts);
+    const o = k * n;
+    if (timing.mode === 'prescribed') {
+      for (let i = 0; i < n; i++) times[o + i] = driverValues[i];
+    } else if (timing.mode === 'free') {
+      for (let i = 0; i < n; i++) times[o + i] = x[m + i];
+      if (refineFree) refineFreeTiming(x, times, o);
+      parts[V_ORDER] += orderViolation(times, o, n, wrap, TAU);
+    } else if (freePlacement) {
+      matchPlacedTiming(times, o);
+    } else {
+      matchTiming(times, o);
+    }
+
+    // Output points at the driver values; assembly at each.
+    let assembly = 0;
+    for (let i = 0; i < n; i++) {
+      const margin = curve.at(times[o + i], 0, buf);
+      if (!(margin >= 0)) assembly += margin < 0 ? Math.min(1, -margin) : 1;
+      points[2 * i] = buf[CURVE_X];
+      points[2 * i + 1] = buf[CURVE_Y];
+    }
+    parts[V_ASSEMBLY] += assembly / n;
+
+    // The motion from point to point (and, on a closed path, back to the first).
+    const cyclic = wrap && timing.mode !== 'prescribed';
+    unwrapped[0] = times[o];
+    for (let i = 1; i < n; i++) {
+      let d = times[o + i] - times[o + i - 1];
+      if (cyclic) d -= Math.floor(d / TAU) * TAU;
+      unwrapped[i] = unwrapped[i - 1] + d;
+    }
+    for (let i = 1; i < n; i++) {
+      const a = unwrapped[i - 1];
+      const b = unwrapped[i];
+      span[0] = Math.min(a, b);
+      span[1] = Math.max(a, b);
+      encoding.motion(span, parts);
+    }
+    if (closed && unwrapped[n - 1] < unwrapped[0] + TAU) {
+      span[0] = unwrapped[n - 1];
+      span[1] = unwrapped[0] + TAU;
+      encoding.motion(span, parts);
+    }
+
+    // Placement.
+    placement[0] = 1;
+    placement[1] = 0;
+    placement[2] = 0;
+    placement[3] = 0;
+    if (freePlacement) {
+      similarityFitInto(points, targets, n, sim, weights ?? null);
+      for (let q = 0; q < 4; q++) placement[q] = sim[q];
+      const sa = sim[SIM_A];
+      const sb = sim[SIM_B];
+      const tx = sim[SIM_TX];
+      const ty = sim[SIM_TY];
+      for (let i = 0; i < n; i++) {
+        const px = points[2 * i];
+        const py = points[2 * i + 1];
+        points[2 * i] = sa * px - sb * py + tx;
+        points[2 * i + 1] = sb * px + sa * py + ty;
+      }
+    }
+    encoding.placed(placement, parts);
+
+    for (let i = 0; i < n; i++) {
+      const ex = points[2 * i] - targets[2 * i];
+      const ey = points[2 * i + 1] - targets[2 * i + 1];
+      d2[i] = ex * ex + ey * ey;
+    }
+    let violation = 0;
+    for (let s = 0; s < V_SLOTS; s++) violation += parts[s];
+    evaluation[2 * k] = measureValue(measure, d2, n, weights);
+    evaluation[2 * k + 1] = violation;
+  }
+
+  /** Evaluates every branch; returns the best one's index. */
+  function evaluateAll(x: Float64Array): number {
+    let best = 0;
+    for (let k = 0; k < branchCount; k++) {
+      evaluateBranch(x, k);
+      if (k > 0 && compareRanks(evaluation[2 * k], evaluation[2 * k + 1], evaluation[2 * best], evaluation[2 * best + 1]) < 0) best = k;
+    }
+    return best;
+  }
+
+  function evaluate(x: Float64Array, out: Float64Array): void {
+    const best = evaluateAll(x);
+    if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
+    out[0] = evaluation[2 * best];
+    out[1] = evaluation[2 * best + 1];
+  }
+
+  function describe(xIn: Float64Array): CandidateReport {
+    const x = Float64Array.from(xIn);
+    const best = evaluateAll(x);
+    if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
+    // Leave the scratch (points, parts, sim) describing the kept branch.
+    evaluateBranch(x, best);
+    const value = evaluation[2 * best];
+    const violation = evaluation[2 * best + 1];
+    const defects: string[] = [];
+    for (let s = 0; s < V_SLOTS; s++) if (parts[s] > 0 || Number.isNaN(parts[s])) defects.push(DEFECT_NAMES[s]);
+    const t = times.slice(best * n, best * n + n);
+    const sa = freePlacement ? sim[SIM_A] : 1;
+    const sb = freePlacement ? sim[SIM_B] : 0;
+    const tx = freePlacement ? sim[SIM_TX] : 0;
+    const ty = freePlacement ? sim[SIM_TY] : 0;
+    const part = encoding.report(t[0], t, sa, sb, tx, ty);
+    const variables: Record<string, number> = {};
+    names.forEach((name, j) => {
+      variables[name] = x[j];
+    });
+    const feasible = violation <= 0;
+    return {
+      family,
+      x: Array.from(x),
+      variables,
+      error: errorSummary(d2, n, weights),
+      value,
+      violation,
+      feasible,
+      defects,
+      linkage: part.linkage,
+      driverValues: Array.from(t),
+      points: Array.from(points),
+      ...(freePlacement ? { placement: { scale: Math.hypot(sa, sb), rotationRad: Math.atan2(sb, sa), tx, ty } } : {}),
+      ...(part.grashof === undefined ? {} : { grashof: part.grashof }),
+      ...(part.transmissionDeg === undefined ? {} : { transmissionDeg: part.transmissionDeg }),
+    };
+  }
+
+  return { family, dim, lower, upper, variableNames: names, evaluate, describe };
+}

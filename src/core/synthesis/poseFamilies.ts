@@ -1,0 +1,273 @@
+/**
+ * Pose-based encodings of every family in linkage/families.ts: the variables are the
+ * reference-pose positions of the joints and of the output point P (mm), in the plan's
+ * slot order. The family is compiled once; each evaluation sets the new reference pose
+ * (same topology) and runs the plan per driver value, warm-started along the sweep so a
+ * Newton block starts from the previous pose. Driver values are the crank's rotation
+ * from its reference-pose angle. The assembly branch of every dyad is the one of the
+ * reference pose. A slider's direction stays that of the family's default.
+ */
+import {
+  compile,
+  fourBar,
+  run,
+  runWithRates,
+  setReferencePose,
+  sliderCrank,
+  stephensonI,
+  stephensonII,
+  stephensonIII,
+  wattI,
+  wattII,
+  type Linkage,
+  type Plan,
+} from '../linkage';
+import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
+import {
+  CURVE_DX as CURVE_DX_BINDING,
+  CURVE_DY as CURVE_DY_BINDING,
+  CURVE_X as CURVE_X_BINDING,
+  CURVE_Y as CURVE_Y_BINDING,
+  type CurveEvaluator,
+} from './curve';
+import {
+  V_BRANCH as V_BRANCH_BINDING,
+  V_CRANK as V_CRANK_BINDING,
+  V_KEEP_OUT as V_KEEP_OUT_BINDING,
+  V_LINK_LENGTH as V_LINK_LENGTH_BINDING,
+  V_TRANSMISSION as V_TRANSMISSION_BINDING,
+  lengthViolation,
+  transmissionCosLimit,
+  type EncodingReport,
+  type MechanismEncoding,
+  type TargetFrame,
+} from './encoding';
+import type { Constraints, FamilyId } from './problem';
+
+// Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
+// imported binding into a getter call, which the hot loops below cannot afford.
+const CURVE_DX = CURVE_DX_BINDING;
+const CURVE_DY = CURVE_DY_BINDING;
+const CURVE_X = CURVE_X_BINDING;
+const CURVE_Y = CURVE_Y_BINDING;
+const V_BRANCH = V_BRANCH_BINDING;
+const V_CRANK = V_CRANK_BINDING;
+const V_KEEP_OUT = V_KEEP_OUT_BINDING;
+const V_LINK_LENGTH = V_LINK_LENGTH_BINDING;
+const V_TRANSMISSION = V_TRANSMISSION_BINDING;
+
+const TAU = 2 * Math.PI;
+/** Driver step of the lock and transmission checks along a motion: 72 per turn. */
+export const MOTION_CHECK_STEP_RAD = TAU / 72;
+
+export type PoseFamilyId = Exclude<FamilyId, 'fourbar-lengths'>;
+
+const BUILDERS: Readonly<Record<PoseFamilyId, () => Linkage>> = {
+  fourbar: () => fourBar(),
+  'slider-crank': () => sliderCrank(),
+  'watt-i': () => wattI(),
+  'watt-ii': () => wattII(),
+  'stephenson-i': () => stephensonI(),
+  'stephenson-ii': () => stephensonII(),
+  'stephenson-iii': () => stephensonIII(),
+};
+
+class PlanCurve implements CurveEvaluator {
+  readonly secondDerivatives = false;
+  readonly plan: Plan;
+  readonly pose: Float64Array;
+  readonly rates: Float64Array;
+  private readonly pSlot: number;
+  constructor(plan: Plan) {
+    this.plan = plan;
+    this.pose = new Float64Array(2 * plan.slotCount);
+    this.rates = new Float64Array(2 * plan.slotCount);
+    this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
+  }
+  /** Start the next sweep from the reference pose. */
+  reset(): void {
+    this.pose.set(this.plan.reference);
+  }
+  at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
+    const plan = this.plan;
+    const value = plan.driverReferenceValue + t;
+    const ok = order === 0 ? run(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates);
+    const s = this.pSlot;
+    if (!ok) {
+      // A finite stand-in (the reference point), and a sane start for the next Newton block.
+      this.pose.set(plan.reference);
+      out[CURVE_X] = plan.reference[s];
+      out[CURVE_Y] = plan.reference[s + 1];
+      out[CURVE_DX] = 0;
+      out[CURVE_DY] = 0;
+      return -1;
+    }
+    out[CURVE_X] = this.pose[s];
+    out[CURVE_Y] = this.pose[s + 1];
+    if (order > 0) {
+      out[CURVE_DX] = this.rates[s];
+      out[CURVE_DY] = this.rates[s + 1];
+    }
+    return 1;
+  }
+}
+
+/** Pairs of slots (pose offsets) that are the ends of a link: the first joint of each body to each other joint. */
+function linkPairs(plan: Plan): Int32Array {
+  const pairs: number[] = [];
+  const jointCount = plan.jointIds.length;
+  for (let b = 1; b < plan.bodies.length; b++) {
+    const slots = Array.from(plan.bodies[b].slots).filter((s) => s < jointCount);
+    for (let i = 0; i < slots.length; i++) for (let j = i + 1; j < slots.length; j++) pairs.push(2 * slots[i], 2 * slots[j]);
+  }
+  return Int32Array.from(pairs);
+}
+
+export function createPoseFamily(family: PoseFamilyId, constraints: Constraints, frame: TargetFrame): MechanismEncoding {
+  const source = BUILDERS[family]();
+  const compiled = compile(source);
+  if (!compiled.ok) throw new Error(`family ${family} does not compile: ${compiled.issues.map((i) => `${i.where}: ${i.message}`).join('; ')}`);
+  const plan = compiled.plan;
+  const names: string[] = [];
+  for (const id of [...plan.jointIds, ...plan.pointIds]) names.push(`${id}.x`, `${id}.y`);
+  const L = frame.size;
+  const lower = new Float64Array(names.length);
+  const upper = new Float64Array(names.length);
+  for (let k = 0; k < names.length; k += 2) {
+    lower[k] = frame.cx - 3 * L;
+    upper[k] = frame.cx + 3 * L;
+    lower[k + 1] = frame.cy - 3 * L;
+    upper[k + 1] = frame.cy + 3 * L;
+  }
+  const curve = new PlanCurve(plan);
+  const groundSlots = Int32Array.from(
+    source.joints.filter((j) => j.ground === true).map((j) => 2 * (plan.slotIndex.get(j.id) ?? 0)),
+  );
+  const links = linkPairs(plan);
+  const loops: FourBarLoop[] = fourBarLoops(plan);
+  const fullTurn = constraints.fullTurnCrank === true;
+  const cosLimit = transmissionCosLimit(constraints.minTransmissionRad);
+  const linkLimits = constraints.linkLengthMm;
+  const keepOut = constraints.keepOut ?? [];
+  const reference = new Float64Array(2 * plan.slotCount);
+  const point = new Float64Array(6);
+
+  function transmissionAtPose(parts: Float64Array, share: number): void {
+    if (cosLimit >= 1) return;
+    for (let q = 0; q < loops.length; q++) {
+      const loop = loops[q];
+      const c = Math.abs(Math.cos(transmissionAngleRad(loop, curve.pose)));
+      if (!(c <= cosLimit)) parts[V_TRANSMISSION] += share * (Number.isNaN(c) ? 1 : c - cosLimit);
+    }
+  }
+
+  /** Runs the driver from a to b in steps of MOTION_CHECK_STEP_RAD; returns the share of a turn that failed. */
+  function sweepFailures(a: number, b: number, parts: Float64Array): number {
+    const steps = Math.min(720, Math.max(1, Math.ceil((b - a) / MOTION_CHECK_STEP_RAD)));
+    const h = (b - a) / steps;
+    let failed = 0;
+    for (let k = 1; k <= steps; k++) {
+      if (curve.at(a + k * h, 0, point) < 0) failed++;
+      else transmissionAtPose(parts, h / TAU);
+    }
+    return (failed * h) / TAU;
+  }
+
+  return {
+    family,
+    names,
+    lower,
+    upper,
+    driverName: 'driver',
+    branchCount: 1,
+    curve,
+    load(x: Float64Array, _branch: number, parts: Float64Array): void {
+      for (let k = 0; k < reference.length; k++) reference[k] = x[k];
+      setReferencePose(plan, reference);
+      curve.reset();
+      if (fullTurn) {
+        parts[V_CRANK] += sweepFailures(0, TAU, parts);
+        curve.reset();
+      }
+    },
+    motion(span: Float64Array, parts: Float64Array): void {
+      const a = span[0];
+      const b = span[1];
+      // A full turn was swept in load: it found every lock and every poor transmission angle.
+      if (fullTurn || !(b > a)) return;
+      curve.at(a, 0, point);
+      parts[V_BRANCH] += sweepFailures(a, b, parts);
+    },
+    placed(placement: Float64Array, parts: Float64Array): void {
+      const sa = placement[0];
+      const sb = placement[1];
+      const tx = placement[2];
+      const ty = placement[3];
+      const scale = Math.hypot(sa, sb);
+      const ref = plan.reference;
+      if (linkLimits !== undefined) {
+        const [lo, hi] = linkLimits;
+        for (let k = 0; k < links.length; k += 2) {
+          const i = links[k];
+          const j = links[k + 1];
+          parts[V_LINK_LENGTH] += lengthViolation(scale * Math.hypot(ref[j] - ref[i], ref[j + 1] - ref[i + 1]), lo, hi);
+        }
+      }
+      for (let g = 0; g < groundSlots.length; g++) {
+        const s = groundSlots[g];
+        const x = sa * ref[s] - sb * ref[s + 1] + tx;
+        const y = sb * ref[s] + sa * ref[s + 1] + ty;
+        for (let q = 0; q < keepOut.length; q++) {
+          const c = keepOut[q];
+          const d = Math.hypot(x - c.x, y - c.y);
+          if (!(d >= c.r)) parts[V_KEEP_OUT] += Number.isNaN(d) ? 1 : (c.r - d) / c.r;
+        }
+      }
+    },
+    report(_t: number, driverValues: Float64Array, sa: number, sb: number, tx: number, ty: number): EncodingReport {
+      const ref = plan.reference;
+      const place = (s: number) => ({ x: sa * ref[2 * s] - sb * ref[2 * s + 1] + tx, y: sb * ref[2 * s] + sa * ref[2 * s + 1] + ty });
+      const rotation = Math.atan2(sb, sa);
+      const linkage: Linkage = {
+        joints: source.joints.map((j) => ({ ...j, ...place(plan.slotIndex.get(j.id) ?? 0) })),
+        bodies: source.bodies.map((b) => ({ id: b.id, joints: [...b.joints] })),
+        ...(source.sliders === undefined ? {} : { sliders: source.sliders.map((s) => ({ joint: s.joint, body: s.body, angle: s.angle + rotation })) }),
+        ...(source.points === undefined ? {} : { points: source.points.map((p) => ({ ...p, ...place(plan.slotIndex.get(p.id) ?? 0) })) }),
+        driver: source.driver,
+      };
+      const scale = Math.hypot(sa, sb);
+      const driven = loops.find((l) => l.grounded && l.inputDriven);
+      let grashof: EncodingReport['grashof'];
+      if (driven !== undefined) {
+        const len = (i: number) => {
+          const a = driven.joints[(i + 3) % 4];
+          const b = driven.joints[i];
+          return scale * Math.hypot(ref[2 * b] - ref[2 * a], ref[2 * b + 1] - ref[2 * a + 1]);
+        };
+        try {
+          grashof = classifyFourBar(len(0), len(1), len(2), len(3));
+        } catch {
+          grashof = undefined;
+        }
+      }
+      let min = Infinity;
+      let max = -Infinity;
+      curve.reset();
+      for (let i = 0; i < driverValues.length; i++) {
+        if (curve.at(driverValues[i], 0, point) < 0) continue;
+        for (const loop of loops) {
+          const mu = (transmissionAngleRad(loop, curve.pose) * 180) / Math.PI;
+          if (Number.isFinite(mu)) {
+            min = Math.min(min, mu);
+            max = Math.max(max, mu);
+          }
+        }
+      }
+      return {
+        linkage,
+        ...(grashof === undefined ? {} : { grashof }),
+        ...(min <= max ? { transmissionDeg: { min, max } } : {}),
+      };
+    },
+  };
+}

@@ -1,0 +1,284 @@
+/**
+ * Timing solvers: which driver value goes with which target point.
+ *
+ * - `matchInOrder`: dynamic programming over the samples of the output curve, each
+ *   target point matched to a sample, the sample indices non-decreasing in target
+ *   order (cyclically when the curve is a closed loop);
+ * - `refineDriverValue`: safeguarded Newton steps on the continuous curve, so the
+ *   reported error is the error at a genuine driver value, not at a sample;
+ * - `orderViolation`: how far a list of driver values is from increasing.
+ */
+
+import {
+  CURVE_DDX as CURVE_DDX_BINDING,
+  CURVE_DDY as CURVE_DDY_BINDING,
+  CURVE_DX as CURVE_DX_BINDING,
+  CURVE_DY as CURVE_DY_BINDING,
+  CURVE_X as CURVE_X_BINDING,
+  CURVE_Y as CURVE_Y_BINDING,
+  type CurveEvaluator,
+} from './curve';
+
+// Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
+// imported binding into a getter call, which the hot loops below cannot afford.
+const CURVE_DDX = CURVE_DDX_BINDING;
+const CURVE_DDY = CURVE_DDY_BINDING;
+const CURVE_DX = CURVE_DX_BINDING;
+const CURVE_DY = CURVE_DY_BINDING;
+const CURVE_X = CURVE_X_BINDING;
+const CURVE_Y = CURVE_Y_BINDING;
+
+/** Below this step (rad or mm of driver value) Newton has converged. */
+export const DRIVER_STEP_TOLERANCE = 1e-13;
+/** Candidate starts tried for a cyclic match (local minima of the first point's distance). */
+export const CYCLIC_START_CANDIDATES = 3;
+
+export interface MatchScratch {
+  readonly pointCount: number;
+  readonly sampleCount: number;
+  readonly previous: Float64Array;
+  readonly current: Float64Array;
+  readonly argPrevious: Int32Array;
+  readonly unrolled: Int32Array;
+  readonly starts: Int32Array;
+  readonly startCost: Float64Array;
+}
+
+export function createMatchScratch(pointCount: number, sampleCount: number): MatchScratch {
+  return {
+    pointCount,
+    sampleCount,
+    previous: new Float64Array(sampleCount),
+    current: new Float64Array(sampleCount),
+    argPrevious: new Int32Array(pointCount * sampleCount),
+    unrolled: new Int32Array(pointCount),
+    starts: new Int32Array(CYCLIC_START_CANDIDATES),
+    startCost: new Float64Array(CYCLIC_START_CANDIDATES),
+  };
+}
+
+function sampleCost(samples: Float64Array, valid: Uint8Array, j: number, qx: number, qy: number, w: number): number {
+  if (valid[j] === 0) return Infinity;
+  const dx = samples[2 * j] - qx;
+  const dy = samples[2 * j + 1] - qy;
+  return w * (dx * dx + dy * dy);
+}
+
+/**
+ * One monotone pass: sample index `first + u` (mod M) for u in 0..M-1, point 0 limited
+ * to u ≤ firstSpan. Writes the chosen u per point into scratch.unrolled; returns the cost.
+ */
+function monotonePass(
+  samples: Float64Array,
+  valid: Uint8Array,
+  targets: Float64Array,
+  weights: Float64Array | undefined,
+  first: number,
+  firstSpan: number,
+  s: MatchScratch,
+): number {
+  const m = s.sampleCount;
+  const n = s.pointCount;
+  const prev = s.previous;
+  const cur = s.current;
+  const arg = s.argPrevious;
+  const w0 = weights === undefined ? 1 : weights[0];
+  for (let u = 0; u < m; u++) {
+    const j = (first + u) % m;
+    prev[u] = u <= firstSpan ? sampleCost(samples, valid, j, targets[0], targets[1], w0) : Infinity;
+  }
+  for (let i = 1; i < n; i++) {
+    const qx = targets[2 * i];
+    const qy = targets[2 * i + 1];
+    const w = weights === undefined ? 1 : weights[i];
+    let best = Infinity;
+    let bestU = 0;
+    const row = i * m;
+    for (let u = 0; u < m; u++) {
+      if (prev[u] < best) {
+        best = prev[u];
+        bestU = u;
+      }
+      arg[row + u] = bestU;
+      cur[u] = best + sampleCost(samples, valid, (first + u) % m, qx, qy, w);
+    }
+    for (let u = 0; u < m; u++) prev[u] = cur[u];
+  }
+  let best = Infinity;
+  let bestU = 0;
+  for (let u = 0; u < m; u++) {
+    if (prev[u] < best) {
+      best = prev[u];
+      bestU = u;
+    }
+  }
+  const unrolled = s.unrolled;
+  unrolled[n - 1] = bestU;
+  for (let i = n - 1; i > 0; i--) unrolled[i - 1] = arg[i * m + unrolled[i]];
+  return best;
+}
+
+/**
+ * Match target points (x0, y0, x1, y1, …) to curve samples in order. `samples` holds
+ * `M` points (2M numbers) at equally spaced driver values; `valid[j]` is 1 where the
+ * mechanism assembles. Non-cyclic: the indices are non-decreasing in 0..M-1. Cyclic:
+ * the samples form a closed loop and the indices may pass once through M − 1 → 0;
+ * tried from the few best local minima of the first point's distance.
+ *
+ * Writes into `outIndex` an unrolled index per point (non-decreasing; in a cyclic
+ * match it may be negative or ≥ M: the driver value is start + index · step either
+ * way). Returns the weighted sum of squared distances at the samples (Infinity when
+ * no sample assembles).
+ */
+export function matchInOrder(
+  samples: Float64Array,
+  valid: Uint8Array,
+  targets: Float64Array,
+  weights: Float64Array | undefined,
+  cyclic: boolean,
+  scratch: MatchScratch,
+  outIndex: Int32Array,
+): number {
+  const m = scratch.sampleCount;
+  const n = scratch.pointCount;
+  if (!cyclic) {
+    const cost = monotonePass(samples, valid, targets, weights, 0, m - 1, scratch);
+    for (let i = 0; i < n; i++) outIndex[i] = scratch.unrolled[i];
+    return cost;
+  }
+  // Local minima of the first point's distance along the loop: where the match starts.
+  const starts = scratch.starts;
+  const startCost = scratch.startCost;
+  let found = 0;
+  const w0 = weights === undefined ? 1 : weights[0];
+  for (let j = 0; j < m; j++) {
+    const c = sampleCost(samples, valid, j, targets[0], targets[1], w0);
+    if (!(c < Infinity)) continue;
+    const before = sampleCost(samples, valid, (j + m - 1) % m, targets[0], targets[1], w0);
+    const after = sampleCost(samples, valid, (j + 1) % m, targets[0], targets[1], w0);
+    if (!(c <= before && c < after)) continue;
+    if (found < starts.length) {
+      starts[found] = j;
+      startCost[found] = c;
+      found++;
+    } else {
+      let worst = 0;
+      for (let k = 1; k < found; k++) if (startCost[k] > startCost[worst]) worst = k;
+      if (c < startCost[worst]) {
+        starts[worst] = j;
+        startCost[worst] = c;
+      }
+    }
+  }
+  if (found === 0) {
+    // No interior minimum (a constant or invalid curve): start anywhere.
+    starts[0] = 0;
+    found = 1;
+  }
+  // Point 0 may sit a little before or after its minimum: a window of ±M/16 samples.
+  const half = Math.max(1, Math.floor(m / 16));
+  let best = Infinity;
+  for (let k = 0; k < found; k++) {
+    const first = (starts[k] - half + m) % m;
+    const cost = monotonePass(samples, valid, targets, weights, first, 2 * half, scratch);
+    if (cost < best || k === 0) {
+      best = cost;
+      const base = starts[k] - half;
+      for (let i = 0; i < n; i++) outIndex[i] = base + scratch.unrolled[i];
+    }
+  }
+  return best;
+}
+
+/** Layout of the `io` array of refineDriverValue. */
+export const REFINE_T = 0;
+export const REFINE_QX = 1;
+export const REFINE_QY = 2;
+export const REFINE_LO = 3;
+export const REFINE_HI = 4;
+export const REFINE_MAX_STEP = 5;
+export const REFINE_IO_LENGTH = 6;
+
+/**
+ * Safeguarded Newton on f(t) = |P(t) − Q|² from t = io[REFINE_T], kept inside
+ * [io[REFINE_LO], io[REFINE_HI]]: the step uses f'' with the curvature term when the
+ * curve provides it and that term leaves f'' clearly positive, else the Gauss–Newton
+ * value 2|P'|² (always downhill); steps are capped at io[REFINE_MAX_STEP], and a step
+ * that raises f is halved (at most 4 times). Writes the refined value to io[REFINE_T].
+ * Numbers cross through `io` because a double passed to a call that is not inlined is
+ * boxed. `buf` is scratch of CURVE_OUT_LENGTH.
+ */
+export function refineDriverValue(curve: CurveEvaluator, io: Float64Array, maxIterations: number, buf: Float64Array): void {
+  let t = io[REFINE_T];
+  const qx = io[REFINE_QX];
+  const qy = io[REFINE_QY];
+  const lo = io[REFINE_LO];
+  const hi = io[REFINE_HI];
+  const maxStep = io[REFINE_MAX_STEP];
+  const order = curve.secondDerivatives ? 2 : 1;
+  curve.at(t, order, buf);
+  let ex = buf[CURVE_X] - qx;
+  let ey = buf[CURVE_Y] - qy;
+  let f = ex * ex + ey * ey;
+  for (let it = 0; it < maxIterations; it++) {
+    const px = buf[CURVE_DX];
+    const py = buf[CURVE_DY];
+    const gaussNewton = px * px + py * py;
+    const g = ex * px + ey * py;
+    let h = gaussNewton;
+    if (order === 2) {
+      const full = gaussNewton + ex * buf[CURVE_DDX] + ey * buf[CURVE_DDY];
+      if (full > 0.1 * gaussNewton) h = full;
+    }
+    if (!(h > 0)) break;
+    let step = -g / h;
+    if (!(step <= maxStep)) step = step > maxStep ? maxStep : 0;
+    if (step < -maxStep) step = -maxStep;
+    let accepted = false;
+    for (let halving = 0; halving < 5; halving++) {
+      let next = t + step;
+      if (next < lo) next = lo;
+      if (next > hi) next = hi;
+      if (!(Math.abs(next - t) > DRIVER_STEP_TOLERANCE)) break;
+      curve.at(next, order, buf);
+      const nx = buf[CURVE_X] - qx;
+      const ny = buf[CURVE_Y] - qy;
+      const fn = nx * nx + ny * ny;
+      if (fn <= f) {
+        t = next;
+        ex = nx;
+        ey = ny;
+        f = fn;
+        accepted = true;
+        break;
+      }
+      step *= 0.5;
+    }
+    if (!accepted) break;
+  }
+  io[REFINE_T] = t;
+}
+
+/**
+ * How far driver values `values[offset .. offset + n)` are from increasing, as a share
+ * of `period`. Without wrap: the sum of the decreases. With wrap (a full-turn driver
+ * whose sequence may pass once through `period`): the cyclic increments must add up to
+ * less than one period; the excess is the violation.
+ */
+export function orderViolation(values: ArrayLike<number>, offset: number, n: number, wrap: boolean, period: number): number {
+  let sum = 0;
+  if (!wrap) {
+    for (let i = 0; i + 1 < n; i++) {
+      const d = values[offset + i] - values[offset + i + 1];
+      if (d > 0) sum += d;
+    }
+    return sum / period;
+  }
+  for (let i = 0; i + 1 < n; i++) {
+    let d = values[offset + i + 1] - values[offset + i];
+    d -= Math.floor(d / period) * period;
+    sum += d;
+  }
+  const excess = sum - period;
+  return excess > 0 ? excess / period : 0;
+}
