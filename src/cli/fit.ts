@@ -198,7 +198,9 @@ function candidateJson(c: RankedCandidate, problem: Problem) {
     defects: report.defects,
     grashof: report.grashof ?? null,
     transmissionDeg: report.transmissionDeg ?? null,
-    driverValuesRad: report.driverValues,
+    // Problem frame (the timing variables) and the linkage file's own driver frame.
+    driverValues: report.driverValues,
+    linkageDriverValues: report.linkageDriverValues,
     ...(report.placement === undefined ? {} : { placement: report.placement }),
     x: report.x,
     linkage: toLinkageFile(report.linkage, `${problem.name}: ${report.family} #${c.rank}`),

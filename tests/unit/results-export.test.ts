@@ -39,7 +39,7 @@ function parallelogram(): Linkage {
 }
 
 function motionOf(linkage: Linkage, driverValues: number[]): CandidateMotion {
-  const result = computeMotion({ linkage, driverValues }, DETAIL_STEPS);
+  const result = computeMotion({ linkage, linkageDriverValues: driverValues }, DETAIL_STEPS);
   if (!result.ok) throw new Error(result.reason);
   return result.motion;
 }

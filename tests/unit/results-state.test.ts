@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { computeMotion, linkageDriverValues, TABLE_STEPS } from '../../src/app/results/motion';
+import { computeMotion, TABLE_STEPS } from '../../src/app/results/motion';
 import {
   INITIAL_RESULTS_STATE,
   MAX_COMPARE,
@@ -10,7 +10,7 @@ import {
   type CandidateRow,
   type RowFigures,
 } from '../../src/app/results/state';
-import { compile } from '../../src/core/linkage';
+import { compile, run } from '../../src/core/linkage';
 import { resultsFixture } from '../browser/results-page/candidates';
 
 // Reports from synthesis `describe` of known linkages (the results test page's list).
@@ -91,9 +91,12 @@ describe('driver values of a report in the linkage frame', () => {
       if (slot === undefined) throw new Error('no output point P');
       const m = computeMotion(candidate, TABLE_STEPS);
       if (!m.ok) throw new Error(m.reason);
-      const values = linkageDriverValues(plan, slot, candidate.driverValues, candidate.points);
-      expect(values).toHaveLength(candidate.driverValues.length);
-      candidate.driverValues.forEach((_, i) => {
+      expect(candidate.linkageDriverValues).toHaveLength(candidate.driverValues.length);
+      const pose = new Float64Array(2 * plan.slotCount);
+      candidate.linkageDriverValues.forEach((value, i) => {
+        pose.set(plan.reference);
+        expect(run(plan, value, pose)).toBe(true);
+        expect(Math.hypot(pose[2 * slot] - candidate.points[2 * i], pose[2 * slot + 1] - candidate.points[2 * i + 1])).toBeLessThan(1e-9);
         expect(Math.hypot(m.motion.matched.x[i] - candidate.points[2 * i], m.motion.matched.y[i] - candidate.points[2 * i + 1])).toBeLessThan(1e-9);
       });
     }

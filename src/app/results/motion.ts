@@ -32,8 +32,8 @@ const TWO_PI = 2 * Math.PI;
 
 export interface MotionInput {
   readonly linkage: Linkage;
-  /** The driver value (rad or mm) matched to each target point, in target order; see `linkageDriverValues`. */
-  readonly driverValues: readonly number[];
+  /** The driver value matched to each target point, in the linkage's own frame (rad or mm), in target order. */
+  readonly linkageDriverValues: readonly number[];
   /** The output point at each target point (x0, y0, x1, y1, …, mm), as the search placed it. */
   readonly points?: readonly number[];
 }
@@ -122,8 +122,8 @@ export function computeMotion(input: MotionInput, steps: number): MotionResult {
   }
 
   const rotation = plan.linkage.driver.kind === 'rotation';
-  const own = linkageDriverValues(plan, outputSlot, input.driverValues, input.points);
-  const driverValues = rotation ? unwrapAngles(own) : own;
+  const own = input.linkageDriverValues;
+  const driverValues = rotation ? unwrapAngles(own) : [...own];
   const chosen = chooseSweep(plan, driverValues, steps, rotation);
   const result = chosen.result;
   const stride = 2 * plan.slotCount;
@@ -250,46 +250,6 @@ export function solveAt(motion: CandidateMotion, value: number, scratch: SolveSc
   if (motion.assembled[k] !== 1) scratch.pose.set(motion.plan.reference);
   if (!runWithRates(motion.plan, value, scratch.pose, scratch.rates)) return 0;
   return instantCentreInto(motion.plan, motion.output.bodyIndex, 0, scratch.pose, scratch.rates, scratch.centre);
-}
-
-/**
- * The report's driver values in the linkage's own frame (notes/linkage-api.md: the
- * absolute angle of pivot → tip, or the length). A synthesis family may count its
- * driver from elsewhere, from its ground line or from its reference pose, and a change
- * of frame only adds a constant; so each reading is tried (as given, counted from the
- * first target point's pose, counted from the reference pose) and the one whose output
- * points land where the report put them is kept.
- */
-export function linkageDriverValues(
-  plan: Plan,
-  outputSlot: number,
-  values: readonly number[],
-  points: readonly number[] | undefined,
-): number[] {
-  if (values.length === 0) return [];
-  const reference = plan.driverReferenceValue;
-  const fromFirst = values.map((v) => reference + (v - values[0]));
-  if (points === undefined || points.length !== 2 * values.length) return fromFirst;
-  const readings = [fromFirst, [...values], values.map((v) => reference + v)];
-  const pose = new Float64Array(2 * plan.slotCount);
-  let best = readings[0];
-  let bestMissMm = Infinity;
-  for (const reading of readings) {
-    let missMm = 0;
-    for (let i = 0; i < reading.length && missMm < bestMissMm; i++) {
-      pose.set(plan.reference);
-      const ok = run(plan, reading[i], pose);
-      const miss = Math.hypot(pose[2 * outputSlot] - points[2 * i], pose[2 * outputSlot + 1] - points[2 * i + 1]);
-      // A reading that does not assemble there is out (a NaN distance takes this branch too).
-      if (!(ok && miss >= 0)) missMm = Infinity;
-      else missMm = Math.max(missMm, miss);
-    }
-    if (missMm < bestMissMm) {
-      bestMissMm = missMm;
-      best = reading;
-    }
-  }
-  return best;
 }
 
 /** Successive angles moved by whole turns so that no step exceeds half a turn. */

@@ -37,6 +37,8 @@ export const DEFECT_NAMES: readonly string[] = [
 
 export interface EncodingReport {
   readonly linkage: Linkage;
+  /** The driver value, in the encoding's frame, at which `linkage` is drawn (its reference pose). */
+  readonly drawnAt: number;
   readonly grashof?: FourBarClass;
   readonly transmissionDeg?: { readonly min: number; readonly max: number };
 }

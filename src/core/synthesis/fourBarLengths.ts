@@ -254,6 +254,7 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       }
       return {
         linkage,
+        drawnAt: t,
         ...(grashof === undefined ? {} : { grashof }),
         ...(min <= max ? { transmissionDeg: { min, max } } : {}),
       };

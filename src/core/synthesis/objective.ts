@@ -7,7 +7,7 @@
  * within one evaluation.
  */
 import type { FourBarClass } from '../linkage/analysis';
-import type { Linkage } from '../linkage';
+import { compile, type Linkage } from '../linkage';
 import {
   SIM_A as SIM_A_BINDING,
   SIM_B as SIM_B_BINDING,
@@ -98,8 +98,14 @@ export interface CandidateReport {
   readonly defects: string[];
   /** The design as a linkage (reference pose, placed), ready for the linkage file. */
   readonly linkage: Linkage;
-  /** The driver value at each target point. */
+  /** The driver value at each target point, in the problem's frame (its timing's variables). */
   readonly driverValues: number[];
+  /**
+   * The same values in the linkage's own driver frame (absolute angle of pivot → tip,
+   * rad; or length, mm): running `linkage` at `linkageDriverValues[i]` places the output
+   * point at `points[i]`.
+   */
+  readonly linkageDriverValues: number[];
   /** The output point at each target point, placed (x0, y0, x1, y1, …). */
   readonly points: number[];
   /** The fitted similarity of a free placement: p ↦ s R(θ) p + t. */
@@ -505,6 +511,7 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
       defects,
       linkage: part.linkage,
       driverValues: Array.from(t),
+      linkageDriverValues: inLinkageFrame(part.linkage, part.drawnAt, t),
       points: Array.from(points),
       ...(freePlacement ? { placement: { scale: Math.hypot(sa, sb), rotationRad: Math.atan2(sb, sa), tx, ty } } : {}),
       ...(part.grashof === undefined ? {} : { grashof: part.grashof }),
@@ -513,4 +520,17 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
   }
 
   return { family, dim, lower, upper, variableNames: names, evaluate, describe };
+}
+
+/**
+ * Problem-frame driver values in the linkage's own frame. The reported linkage is drawn
+ * at problem-frame value `drawnAt`, and both frames measure the same input (a rotation
+ * about the same pivot; the placement is a similarity without reflection), so they
+ * differ by a constant.
+ */
+function inLinkageFrame(linkage: Linkage, drawnAt: number, t: Float64Array): number[] {
+  const compiled = compile(linkage);
+  if (!compiled.ok) throw new Error(`describe: the reported linkage does not compile: ${compiled.issues[0].message}`);
+  const offset = compiled.plan.driverReferenceValue - drawnAt;
+  return Array.from(t, (v) => offset + v);
 }

@@ -265,6 +265,8 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       }
       return {
         linkage,
+        // Pose families count the driver as the rotation from the reference pose.
+        drawnAt: 0,
         ...(grashof === undefined ? {} : { grashof }),
         ...(min <= max ? { transmissionDeg: { min, max } } : {}),
       };
