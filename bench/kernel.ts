@@ -179,9 +179,9 @@ export async function benchKernel(): Promise<Record<string, number>> {
   return {
     fourbar_plan_per_s: planRate.perS,
     fourbar_handwritten_per_s: handRate.perS,
+    stephenson3_per_s: stephRate.perS,
     fourbar_plan_over_handwritten_ratio: planRate.perS / handRate.perS,
     fourbar_handwritten_mathtrig_per_s: mathRate.perS,
-    stephenson3_per_s: stephRate.perS,
     fourbar_checksum: planRate.result,
     fourbar_mathtrig_checksum: mathRate.result,
     stephenson3_checksum: stephRate.result.acc,

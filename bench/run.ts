@@ -1,7 +1,8 @@
 /**
  * `npm run bench [-- name ...]`: runs the benchmarks (all, or those named), prints a
- * table of each one's figures, and ends with one JSON line per benchmark, or per case of
- * a benchmark that returns one row of figures per case.
+ * table of each one's figures, and ends with one JSON line per benchmark (its figures,
+ * then `bench` and `wallS`), or per case of a benchmark that returns one row of figures
+ * per case.
  * Figures are rates and ratios within one run on one machine; bench/README.md says
  * how to read them. Benchmarks are not tests: nothing here passes or fails on a time.
  */
@@ -75,6 +76,8 @@ async function runOne(bench: Bench): Promise<Outcome> {
     const result: unknown = await bench.run();
     if (Array.isArray(result)) return { bench: bench.name, wallS: wallS(), rows: result.map((row) => checkFigures(row, true)) };
     const figures = checkFigures(result, false) as Figures;
+    const clash = Object.keys(figures).find((name) => name === 'bench' || name === 'wallS');
+    if (clash !== undefined) throw new Error(`figure "${clash}" has a name the JSON line keeps for the bench itself; rename it`);
     return { bench: bench.name, wallS: wallS(), figures };
   } catch (error) {
     const message = error instanceof Error ? (error.stack ?? error.message) : String(error);
@@ -108,11 +111,13 @@ async function main(): Promise<number> {
     outcomes.push(outcome);
     console.log(`${table(outcome)}\n`);
   }
-  // Machine-readable tail: one line per bench, or per row of a per-case bench. JSON has no
-  // Infinity or NaN: they print as null.
+  // Machine-readable tail: one line per bench, its figures at the top level so a reader
+  // takes a figure by name, then the bench's name and wall time; or one line per row of a
+  // per-case bench. JSON has no Infinity or NaN: they print as null.
   for (const outcome of outcomes) {
     if ('rows' in outcome) for (const row of outcome.rows) console.log(JSON.stringify(row));
-    else console.log(JSON.stringify(outcome));
+    else if ('error' in outcome) console.log(JSON.stringify(outcome));
+    else console.log(JSON.stringify({ ...outcome.figures, bench: outcome.bench, wallS: outcome.wallS }));
   }
   return outcomes.some((outcome) => 'error' in outcome) ? 1 : 0;
 }

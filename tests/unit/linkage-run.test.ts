@@ -18,6 +18,7 @@ import {
   type Linkage,
   type Plan,
 } from '../../src/core/linkage';
+import type { PlanInternal } from '../../src/core/linkage/plan';
 
 function compiled(linkage: Linkage): Plan {
   const result = compile(linkage);
@@ -518,5 +519,42 @@ describe('setReferencePose', () => {
     expect(run(plan, plan.driverReferenceValue + 0.2, pose)).toBe(true);
     expect(closureResidualMm(plan, pose)).toBeLessThan(1e-9);
     expect(() => setReferencePose(plan, new Float64Array(2))).toThrow(RangeError);
+  });
+});
+
+describe('run: the generated kernel and the interpreter give the same poses', () => {
+  function bits(pose: Float64Array): number[] {
+    return Array.from(new Uint8Array(pose.buffer, pose.byteOffset, pose.byteLength));
+  }
+
+  /** Driver values round a full turn (or ±60 % of the driven length), past the limits of assembly, and non-finite. */
+  function driverValues(plan: Plan): number[] {
+    const v0 = plan.driverReferenceValue;
+    const isLength = plan.linkage.driver.kind === 'length';
+    const values: number[] = [];
+    for (let k = 0; k <= 96; k++) values.push(isLength ? v0 * (0.4 + (1.2 * k) / 96) : v0 + (2 * Math.PI * k) / 96);
+    values.push(NaN, Infinity, isLength ? -v0 : 1e7);
+    return values;
+  }
+
+  // The interpreter is the path where a Content-Security-Policy forbids code generation;
+  // a second plan of the same linkage forced onto it must agree to the last bit.
+  it.each(allLinkages())('%s: bit-identical poses, results and failing operation, before and after setReferencePose', (_name, linkage) => {
+    const generated = compiled(linkage) as PlanInternal;
+    const interpreted = compiled(linkage) as PlanInternal;
+    expect(generated.kernel).not.toBeNull();
+    interpreted.kernel = null;
+    const resized = Float64Array.from(generated.reference, (x, i) => 1.3 * x + (i % 2 === 0 ? 7 : -3));
+    for (const reference of [generated.reference.slice(), resized]) {
+      setReferencePose(generated, reference);
+      setReferencePose(interpreted, reference);
+      const a = Float64Array.from(reference);
+      const b = Float64Array.from(reference);
+      for (const v of driverValues(generated)) {
+        expect(run(generated, v, a)).toBe(run(interpreted, v, b));
+        expect(generated.failedOp).toBe(interpreted.failedOp);
+        expect(bits(a)).toEqual(bits(b));
+      }
+    }
   });
 });

@@ -18,6 +18,7 @@ import {
 } from './plan';
 import { equationParamCount, packEquations, planLinkage, type EquationDraft } from './planner';
 import { setReferencePose } from './params';
+import { specialise } from './specialise';
 import { run } from './run';
 import { REFERENCE_REPRODUCTION_REL_TOL } from './tolerances';
 import { validateMobility, validateReferencePose, validateStructure, type IndexedLinkage } from './validate';
@@ -186,7 +187,9 @@ export function compile(linkage: Linkage): CompileResult {
     newtonTolMm: 0,
     referenceValid: false,
     failedOp: -1,
+    kernel: null,
   };
+  plan.kernel = specialise(plan);
   setReferencePose(plan, reference);
 
   // The plan must give back its own reference pose; a dyad at a dead centre in the

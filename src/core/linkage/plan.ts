@@ -119,4 +119,15 @@ export interface PlanInternal extends Plan {
   referenceValid: boolean;
   /** Operation index at which the last run failed, -1 after a success. */
   failedOp: number;
+  /**
+   * The operations as generated straight-line code (specialise.ts), or null where code
+   * generation is unavailable and run.ts interprets them. Same results either way.
+   */
+  kernel: Kernel | null;
 }
+
+/**
+ * Runs a plan on `pose` at the driver value in its driverValue[0]: -1 on success, else
+ * the index of the operation that failed (run.ts then fills NaN from there on).
+ */
+export type Kernel = (pose: Float64Array) => number;

@@ -34,10 +34,10 @@ const STRIDE = 6 satisfies typeof OP_STRIDE;
 
 export { closureResidualMm } from './closure';
 
-function checkPose(p: PlanInternal, pose: Float64Array, name: string): void {
-  if (pose.length !== 2 * p.slotCount) {
-    throw new RangeError(`${name}: array has ${pose.length} numbers; expected ${2 * p.slotCount} (2 × ${p.slotCount} slots)`);
-  }
+// Callers test the length themselves and call this only on a mismatch: a call that never
+// runs costs the JIT none of its inlining budget, which run's callers need for the kernel.
+function poseLengthError(p: PlanInternal, pose: Float64Array, name: string): RangeError {
+  return new RangeError(`${name}: array has ${pose.length} numbers; expected ${2 * p.slotCount} (2 × ${p.slotCount} slots)`);
 }
 
 /** Marks run failed at operation index `op`: that operation's outputs and all later ones become NaN. */
@@ -68,24 +68,29 @@ function failFrom(p: PlanInternal, op: number, pose: Float64Array): false {
  */
 export function run(plan: Plan, driverValue: number, pose: Float64Array): boolean {
   const p = plan as PlanInternal;
-  // Small enough to inline into a caller's loop; the value crosses into execute through
-  // a Float64Array, since a double passed to a call that is not inlined is boxed: an
-  // allocation per run.
+  if (pose.length !== 2 * p.slotCount) throw poseLengthError(p, pose, 'run: pose');
+  // Small enough to inline into a caller's loop, and the plan's kernel into it; the
+  // value crosses into the kernel through a Float64Array, since a double passed to a
+  // call that is not inlined is boxed: an allocation per run.
   p.driverValue[0] = driverValue;
-  return execute(p, pose);
+  const kernel = p.kernel;
+  const failed = kernel === null ? interpret(p, pose) : kernel(pose);
+  if (failed >= 0) return failFrom(p, failed, pose);
+  p.failedOp = -1;
+  return true;
 }
 
-function execute(p: PlanInternal, pose: Float64Array): boolean {
-  checkPose(p, pose, 'run: pose');
+/** The operations interpreted, where specialise.ts could not generate a kernel; returns as a Kernel does. */
+function interpret(p: PlanInternal, pose: Float64Array): number {
   const driverValue = p.driverValue[0];
   const ops = p.ops;
   const prm = p.params;
   if (p.driverIsLength) {
-    if (!(driverValue > 0 && driverValue < Infinity && p.referenceValid)) return failFrom(p, 0, pose);
+    if (!(driverValue > 0 && driverValue < Infinity && p.referenceValid)) return 0;
     const driverParams = p.driverParams;
     for (let k = 0; k < driverParams.length; k++) prm[driverParams[k]] = driverValue;
   } else if (!(Math.abs(driverValue) < Infinity && p.referenceValid)) {
-    return failFrom(p, 0, pose);
+    return 0;
   }
   // Prologue, without dispatch: the frame's positions, then the rotation driver's tip.
   let o = 0;
@@ -122,7 +127,7 @@ function execute(p: PlanInternal, pose: Float64Array): boolean {
         const b = ops[o + 2];
         const q = ops[o + 5];
         if (!circleCircleIntersectInto(pose[a], pose[a + 1], prm[q], pose[b], pose[b + 1], prm[q + 1], prm[q + 2], pose, ops[o + 3])) {
-          return failFrom(p, o / STRIDE, pose);
+          return o / STRIDE;
         }
         break;
       }
@@ -130,7 +135,7 @@ function execute(p: PlanInternal, pose: Float64Array): boolean {
         const a = ops[o + 1];
         const q = ops[o + 5];
         if (!circleLineIntersectInto(pose[a], pose[a + 1], prm[q], prm[q + 2], prm[q + 3], prm[q + 4], prm[q + 5], prm[q + 1], pose, ops[o + 3])) {
-          return failFrom(p, o / STRIDE, pose);
+          return o / STRIDE;
         }
         break;
       }
@@ -152,17 +157,16 @@ function execute(p: PlanInternal, pose: Float64Array): boolean {
           ex + u * wx - v * wy, ey + u * wy + v * wx, alpha * wx - beta * wy, alpha * wy + beta * wx,
           prm[q + 1], pose, ops[o + 3],
         )) {
-          return failFrom(p, o / STRIDE, pose);
+          return o / STRIDE;
         }
         break;
       }
       case 6 satisfies typeof OP_NEWTON:
-        if (!solveBlock(p, ops[o + 1], pose)) return failFrom(p, o / STRIDE, pose);
+        if (!solveBlock(p, ops[o + 1], pose)) return o / STRIDE;
         break;
     }
   }
-  p.failedOp = -1;
-  return true;
+  return -1;
 }
 
 /**
@@ -173,7 +177,7 @@ function execute(p: PlanInternal, pose: Float64Array): boolean {
  */
 export function runWithRates(plan: Plan, driverValue: number, pose: Float64Array, rates: Float64Array): boolean {
   const p = plan as PlanInternal;
-  checkPose(p, rates, 'runWithRates: rates');
+  if (rates.length !== 2 * p.slotCount) throw poseLengthError(p, rates, 'runWithRates: rates');
   if (!run(plan, driverValue, pose)) {
     rates.fill(NaN);
     return false;
