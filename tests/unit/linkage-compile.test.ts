@@ -150,6 +150,14 @@ describe('compile: a reference pose that violates its own constraints', () => {
     const toggled = fourBar({ A0: { x: 0, y: 0 }, B0: { x: 100, y: 0 }, A: { x: 30, y: 0 }, B: { x: 150, y: 0 }, P: { x: 60, y: 30 } });
     expectIssue(toggled, 'joints[3]', /cannot re-solve the reference pose at joint 'B'; a dyad at its dead centre/);
   });
+
+  // Found by the renumbering property test (fast-check seed 809560484): folded links in
+  // line re-solve to the same reference pose on either branch, so the plan compiled, and
+  // the branch it then moved on depended on the order the joints were listed in.
+  it('a dyad whose links are folded in line in the reference pose, which re-solving cannot see', () => {
+    const folded = fourBar({ A0: { x: 0, y: 0 }, B0: { x: 100, y: 0 }, A: { x: -48.658618818030185, y: 0 }, B: { x: 0, y: 0 }, P: { x: 0, y: 0 } });
+    expectIssue(folded, 'joints[3]', /joint 'B' is placed by a dyad whose links are in line in the reference pose \(a dead centre\)/);
+  });
 });
 
 describe('compile: mobility and solvability', () => {

@@ -11,6 +11,7 @@ import {
   EQ_SLIDER_BODY,
   EQ_SLIDER_GROUND,
   EQ_STRIDE,
+  OP_DYAD,
   OP_STRIDE,
   type Plan,
   type PlanBody,
@@ -20,7 +21,7 @@ import { equationParamCount, packEquations, planLinkage, type EquationDraft } fr
 import { setReferencePose } from './params';
 import { specialise } from './specialise';
 import { run } from './run';
-import { REFERENCE_REPRODUCTION_REL_TOL } from './tolerances';
+import { DEAD_CENTRE_SIN_TOL, REFERENCE_REPRODUCTION_REL_TOL } from './tolerances';
 import { validateMobility, validateReferencePose, validateStructure, type IndexedLinkage } from './validate';
 
 export { setReferencePose } from './params';
@@ -208,5 +209,35 @@ export function compile(linkage: Linkage): CompileResult {
     });
     return { ok: false, issues };
   }
+  // With its links exactly in line, a dyad gives the reference pose back whichever
+  // branch it keeps, so reproduction cannot see it; but the branch the motion then
+  // takes would be arbitrary.
+  const toggled = deadCentreDyadJoint(plan, reference);
+  if (toggled >= 0) {
+    issues.push({
+      where: `joints[${toggled}]`,
+      message: `joint '${jointIds[toggled]}' is placed by a dyad whose links are in line in the reference pose (a dead centre), so its assembly branch is undefined; expected the reference pose off the toggle`,
+    });
+    return { ok: false, issues };
+  }
   return { ok: true, plan };
+}
+
+/** The joint index of the first dyad at a dead centre in `pose` (|sin| of the angle between its links below DEAD_CENTRE_SIN_TOL), or −1. */
+function deadCentreDyadJoint(plan: PlanInternal, pose: Float64Array): number {
+  const ops = plan.ops;
+  for (let o = 0; o < plan.opCount * OP_STRIDE; o += OP_STRIDE) {
+    if (ops[o] !== OP_DYAD) continue;
+    const a = ops[o + 1];
+    const b = ops[o + 2];
+    const c = ops[o + 3];
+    // The angle between the two links at the placed joint: symmetric in the dyad's centres.
+    const ux = pose[a] - pose[c];
+    const uy = pose[a + 1] - pose[c + 1];
+    const vx = pose[b] - pose[c];
+    const vy = pose[b + 1] - pose[c + 1];
+    const sin = Math.abs(ux * vy - uy * vx) / (Math.hypot(ux, uy) * Math.hypot(vx, vy));
+    if (!(sin >= DEAD_CENTRE_SIN_TOL)) return c >> 1;
+  }
+  return -1;
 }
