@@ -1,0 +1,71 @@
+/**
+ * The project's target and settings as the engine's run: one job per family, all on one
+ * problem file (src/core/io/problem.ts), with the budget, seed and checkpoint
+ * interval. Lengths stay mm; the app's degrees become radians here.
+ */
+import type { RunInput } from '../../engine';
+import { PROBLEM_FILE_FORMAT, PROBLEM_FILE_VERSION } from '../../core/io/problem';
+import type { ProblemInput } from '../../core/synthesis';
+import type { Project } from '../state/project';
+
+/** Candidates the run describes at its end and the results table gets. */
+export const CANDIDATES_SHOWN = 20;
+/** A running search checkpoints this often (wall time); the brief asks for at most 30 s. */
+export const CHECKPOINT_EVERY_MS = 10_000;
+
+const DEG = Math.PI / 180;
+
+export function problemInputOf(project: Project): ProblemInput {
+  const { target, settings } = project;
+  const c = settings.constraints;
+  const timing: ProblemInput['timing'] =
+    target.timing === 'prescribed'
+      ? { mode: 'prescribed', driverValues: target.points.map((p) => (p.driverDeg ?? 0) * DEG) }
+      : target.timing === 'free'
+        ? { mode: 'free', wrap: true, refine: true }
+        : { mode: 'unprescribed' };
+  return {
+    name: project.name,
+    target: { points: target.points.map((p) => [p.x, p.y]), closed: target.closed },
+    timing,
+    placement: settings.placement,
+    families: [...settings.families],
+    bounds: settings.bounds,
+    constraints: {
+      fullTurnCrank: c.fullTurnCrank,
+      ...(c.minTransmissionDeg === null ? {} : { minTransmissionRad: c.minTransmissionDeg * DEG }),
+      ...(c.linkLengthMm === null ? {} : { linkLengthMm: [c.linkLengthMm[0], c.linkLengthMm[1]] as const }),
+      ...(c.keepOut.length === 0 ? {} : { keepOut: c.keepOut.map((k) => ({ x: k.x, y: k.y, r: k.r })) }),
+    },
+    measure: settings.measure,
+  };
+}
+
+/** The project's problem as a problem file (src/core/io/problem.ts), the form a worker reads. */
+export function problemFileOf(project: Project): { readonly format: typeof PROBLEM_FILE_FORMAT; readonly version: typeof PROBLEM_FILE_VERSION } & ProblemInput {
+  return { format: PROBLEM_FILE_FORMAT, version: PROBLEM_FILE_VERSION, ...problemInputOf(project) };
+}
+
+/** Islands per family: enough for every worker to have one, at least one each. */
+export function islandsPerFamily(families: number, workers: number): number {
+  return Math.max(1, Math.ceil(workers / Math.max(1, families)));
+}
+
+export function buildRunInput(project: Project, workers: number): { ok: true; input: RunInput } | { ok: false; reason: string } {
+  const { settings } = project;
+  if (settings.families.length === 0) return { ok: false, reason: 'no mechanism family is chosen' };
+  const problem = problemFileOf(project);
+  const islands = islandsPerFamily(settings.families.length, workers);
+  const input: RunInput = {
+    jobs: settings.families.map((family) => ({
+      id: family,
+      objective: { kind: 'synthesis', problem, family },
+      seed: settings.seed,
+      islands,
+      optimizer: { kind: 'hybrid' },
+    })),
+    budget: settings.budget.mode === 'evaluations' ? { evaluations: settings.budget.evaluations } : { seconds: settings.budget.seconds },
+    checkpointEveryMs: CHECKPOINT_EVERY_MS,
+  };
+  return { ok: true, input };
+}

@@ -1,0 +1,311 @@
+/**
+ * Runs the project's search through the engine: start, pause, resume, stop, and after a
+ * reload, resume from the last checkpoint. The page only orchestrates: every evaluation
+ * happens in the engine's workers. Progress reaches the store at most a few times a
+ * second, so React renders stay small while a search runs.
+ */
+import {
+  createRun,
+  memoryCheckpointStore,
+  restoreRunFromStore,
+  type CheckpointStore,
+  type EngineEnvironment,
+  type RankedCandidate,
+  type Run,
+  type RunProgress,
+  type RunResult,
+} from '../../engine';
+import type { CandidateReport } from '../../core/synthesis';
+import { isActive, snapshotTarget, type Project, type RunState, type TargetSnapshot } from '../state/project';
+import type { Store } from '../state/store';
+import { settingsProblem } from '../state/settings';
+import { targetProblem } from '../state/target';
+import { dropCheckpointsExcept, indexedDbCheckpointStore, type LociDb } from '../storage';
+import { CANDIDATES_SHOWN, buildRunInput } from './runInput';
+import { progressPatch } from './progress';
+import { InterimDescriber, newestReadable, observedStore } from './interimCandidates';
+
+/** Progress reaches the store at most this often, ms. */
+export const PROGRESS_EVERY_MS = 250;
+
+export interface SearchDeps {
+  readonly env: EngineEnvironment;
+  /** Null when the browser gives no IndexedDB: the run then keeps its checkpoints in memory only. */
+  readonly db: LociDb | null;
+  /** Wall clock, ms since 1970 (for "saved 5 s ago"). */
+  readonly wallNow: () => number;
+  readonly newRunId: () => string;
+  /**
+   * Holds the one lock a running search takes (so a second tab does not run the same
+   * search from the same checkpoints) until `released` settles; false when another tab
+   * holds it.
+   */
+  readonly holdRunLock: (released: Promise<void>) => Promise<boolean>;
+}
+
+function reportsOf(candidates: readonly RankedCandidate[]): CandidateReport[] {
+  return candidates.flatMap((c) => (c.detail.kind === 'synthesis' ? [c.detail.candidate] : []));
+}
+
+export class SearchController {
+  private readonly store: Store;
+  private readonly deps: SearchDeps;
+  private run: Run | null = null;
+  /** The run is restored from a checkpoint but not started (it was paused before the reload). */
+  private restoredPaused = false;
+  private runTarget: TargetSnapshot | null = null;
+  private lastDispatchMs = -Infinity;
+  private trailing: ReturnType<typeof setTimeout> | null = null;
+  private unsubscribe: (() => void) | null = null;
+
+  constructor(store: Store, deps: SearchDeps) {
+    this.store = store;
+    this.deps = deps;
+  }
+
+  private get project(): Project {
+    return this.store.getState().project;
+  }
+
+  private update(patch: Partial<RunState>): void {
+    this.store.dispatch({ type: 'run/update', patch });
+  }
+
+  private describer: InterimDescriber | null = null;
+
+  /**
+   * The run's checkpoints: in IndexedDB (in memory when the browser gives none), each one
+   * also handed, in a task of its own, to the describer that keeps the table filled.
+   */
+  private checkpointStore(runId: string): CheckpointStore {
+    this.describer?.close();
+    const describer = new InterimDescriber(this.deps.env, CANDIDATES_SHOWN, (candidates) => {
+      if (this.describer === describer) this.store.dispatch({ type: 'run/candidates', candidates, target: this.runTarget ?? snapshotTarget(this.project.target) });
+    });
+    this.describer = describer;
+    const inner = this.deps.db === null ? memoryCheckpointStore() : indexedDbCheckpointStore(this.deps.db, runId);
+    return observedStore(inner, (text) => setTimeout(() => describer.offerText(text), 0));
+  }
+
+  /** What stops a search from starting now, or null. */
+  startProblem(): string | null {
+    const project = this.project;
+    if (isActive(project.run.status) || project.run.status === 'paused') return 'a search is already running; stop it first';
+    return targetProblem(project.target) ?? settingsProblem(project.settings);
+  }
+
+  async start(): Promise<void> {
+    const problem = this.startProblem();
+    if (problem !== null) {
+      this.update({ message: `Cannot start: ${problem}` });
+      return;
+    }
+    const project = this.project;
+    const runId = this.deps.newRunId();
+    const workers = project.settings.workers ?? this.deps.env.defaultWorkerCount();
+    const built = buildRunInput(project, workers);
+    if (!built.ok) {
+      this.update({ status: 'failed', message: `Cannot start: ${built.reason}` });
+      return;
+    }
+    const made = createRun(this.deps.env, built.input, {
+      workers,
+      store: this.checkpointStore(runId),
+      topK: CANDIDATES_SHOWN,
+    });
+    if (!made.ok) {
+      this.describer?.close();
+      this.describer = null;
+      this.update({ status: 'failed', message: `Cannot start: ${made.reason}` });
+      return;
+    }
+    this.runTarget = snapshotTarget(project.target);
+    this.update({
+      status: 'starting',
+      runId,
+      evaluations: 0,
+      budgetEvaluations: built.input.budget.evaluations ?? null,
+      budgetSeconds: built.input.budget.seconds ?? null,
+      elapsedMs: 0,
+      evaluationsPerSecond: 0,
+      remainingMs: null,
+      bestErrorMm: null,
+      bestFeasible: null,
+      checkpoint: null,
+      resumedFrom: null,
+      stopReason: null,
+      message: null,
+      targetPointCount: project.target.points.length,
+      measure: project.settings.measure,
+    });
+    this.store.dispatch({ type: 'run/candidates', candidates: [], target: this.runTarget });
+    if (this.deps.db !== null) await dropCheckpointsExcept(this.deps.db, [runId]).catch(() => {});
+    await this.drive(made.run, false);
+  }
+
+  /** Follows a run to its end: progress into the store, then the ranked candidates. */
+  private async drive(run: Run, resumed: boolean): Promise<void> {
+    let release = () => {};
+    const released = new Promise<void>((resolve) => {
+      release = resolve;
+    });
+    if (!(await this.deps.holdRunLock(released))) {
+      this.describer?.close();
+      this.describer = null;
+      this.run = null;
+      this.update(
+        resumed
+          ? { message: 'This search is running in another Loci tab or window; it goes on there.' }
+          : { status: 'idle', message: 'Another Loci tab or window is running a search; stop it there first.' },
+      );
+      return;
+    }
+    try {
+      await this.follow(run, resumed);
+    } finally {
+      release();
+    }
+  }
+
+  private async follow(run: Run, resumed: boolean): Promise<void> {
+    this.run = run;
+    this.restoredPaused = false;
+    let first = true;
+    this.unsubscribe = run.onProgress((progress) => {
+      if (resumed && first && progress.status === 'running') {
+        first = false;
+        this.update({ resumedFrom: { round: progress.rounds, evaluations: progress.evaluations } });
+      }
+      this.onProgress(progress);
+    });
+    let result: RunResult;
+    try {
+      result = await run.start();
+    } catch (error) {
+      result = { ok: false, reason: error instanceof Error ? error.message : String(error), evaluations: run.progress().evaluations, rounds: run.progress().rounds };
+    }
+    this.finish(run, result);
+  }
+
+  private onProgress(progress: RunProgress): void {
+    const statusNow = this.project.run.status;
+    const status = progress.status === 'running' && statusNow === 'starting' ? 'running' : null;
+    // A new checkpoint goes through at once: its evaluation count is exact only at this report.
+    const checkpointMoved = progress.checkpointRound !== null && progress.checkpointRound !== this.project.run.checkpoint?.round;
+    const statusChanged = status !== null || checkpointMoved || (progress.status === 'paused' && statusNow !== 'paused');
+    const now = performance.now();
+    if (!statusChanged && now - this.lastDispatchMs < PROGRESS_EVERY_MS) {
+      // Keep the latest for a trailing update, so the last numbers are never lost.
+      if (this.trailing === null) {
+        this.trailing = setTimeout(() => {
+          this.trailing = null;
+          if (this.run !== null) this.onProgress(this.run.progress());
+        }, PROGRESS_EVERY_MS);
+      }
+      return;
+    }
+    this.lastDispatchMs = now;
+    const patch = progressPatch(progress, this.project.run, this.deps.wallNow());
+    const current = this.project.run.status;
+    let nextStatus = current;
+    if (progress.status === 'paused' && (current === 'pausing' || current === 'running')) nextStatus = 'paused';
+    if (progress.status === 'running' && (current === 'starting' || current === 'paused')) nextStatus = 'running';
+    this.update({ ...patch, status: nextStatus });
+  }
+
+  private finish(run: Run, result: RunResult): void {
+    if (this.run !== run) return;
+    this.describer?.close();
+    this.describer = null;
+    this.unsubscribe?.();
+    this.unsubscribe = null;
+    if (this.trailing !== null) clearTimeout(this.trailing);
+    this.trailing = null;
+    this.run = null;
+    const target = this.runTarget ?? snapshotTarget(this.project.target);
+    if (result.ok) {
+      const progress = run.progress();
+      this.store.dispatch({
+        type: 'run/ended',
+        patch: { ...progressPatch(progress, this.project.run, this.deps.wallNow()), status: 'finished', stopReason: result.stopReason, remainingMs: 0 },
+        candidates: reportsOf(result.candidates),
+        target,
+      });
+    } else {
+      this.update({ status: 'failed', message: `The search stopped: ${result.reason}` });
+    }
+  }
+
+  async pause(): Promise<void> {
+    const run = this.run;
+    if (run === null || this.project.run.status !== 'running') return;
+    this.update({ status: 'pausing' });
+    await run.pause();
+    if (this.run === run) this.update({ status: 'paused' });
+  }
+
+  resume(): void {
+    const run = this.run;
+    if (run === null || this.project.run.status !== 'paused') return;
+    if (this.restoredPaused) {
+      this.update({ status: 'starting' });
+      void this.drive(run, true);
+      return;
+    }
+    this.update({ status: 'running' });
+    run.resume();
+  }
+
+  stop(): void {
+    const run = this.run;
+    if (run === null) {
+      // Nothing running in this page (a reload with no checkpoint left): just end the run.
+      if (isActive(this.project.run.status) || this.project.run.status === 'paused') this.update({ status: 'finished', stopReason: 'cancelled' });
+      return;
+    }
+    this.update({ status: 'stopping' });
+    run.cancel();
+    if (this.restoredPaused) void this.drive(run, true);
+  }
+
+  /**
+   * After a reload: a run that was running (or paused) goes on from its last checkpoint
+   * that reads back whole; a damaged newer one is skipped, and the user is told.
+   */
+  async restoreAfterReload(): Promise<void> {
+    const project = this.project;
+    const { runId, status } = project.run;
+    if (runId === null || !(isActive(status) || status === 'paused')) return;
+    if (this.deps.db === null) {
+      this.update({ status: 'failed', message: 'The search could not resume: this browser keeps no storage for its checkpoints.' });
+      return;
+    }
+    const store = this.checkpointStore(runId);
+    const restored = await restoreRunFromStore(this.deps.env, store, {
+      workers: project.settings.workers ?? this.deps.env.defaultWorkerCount(),
+      topK: CANDIDATES_SHOWN,
+    });
+    if (!restored.ok) {
+      this.describer?.close();
+      this.describer = null;
+      this.update({ status: 'failed', message: `The search could not resume from a checkpoint: ${restored.reason}` });
+      return;
+    }
+    // The candidates of the checkpoint it goes on from, straight away rather than at the next checkpoint.
+    const describer = this.describer;
+    setTimeout(() => void newestReadable(store).then((payload) => payload !== null && describer?.offer(payload)), 0);
+    this.runTarget = project.candidatesTarget ?? snapshotTarget(project.target);
+    // The engine's reasons carry checksums; the first clause says enough ("checkpoint is corrupt").
+    const why = [...new Set(restored.skipped.map((reason) => reason.split(':')[0]))].join('; ');
+    const n = restored.skipped.length;
+    const skipped = n === 0 ? null : `Skipped ${n} damaged checkpoint${n === 1 ? '' : 's'} (${why}) and went on from the one before.`;
+    if (status === 'paused' || status === 'pausing') {
+      this.run = restored.run;
+      this.restoredPaused = true;
+      this.update({ status: 'paused', message: skipped });
+      return;
+    }
+    this.update({ status: 'starting', message: skipped });
+    await this.drive(restored.run, true);
+  }
+}

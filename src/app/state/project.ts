@@ -1,0 +1,159 @@
+/**
+ * The project: what the user is working on, as plain JSON (it is saved in IndexedDB as
+ * it changes). The target, the search settings, the state of the search and the ranked
+ * candidates. Lengths are mm, angles degrees (the app's units; the problem built for the
+ * engine converts to radians).
+ */
+import type { CandidateReport } from '../../core/synthesis';
+import type { FamilyId } from './families';
+
+export const PROJECT_FORMAT = 'loci-workspace-project';
+export const PROJECT_VERSION = 1;
+
+export type TimingMode = 'prescribed' | 'free' | 'unprescribed';
+
+export interface TargetPoint {
+  /** mm */
+  readonly x: number;
+  readonly y: number;
+  /** Prescribed crank angle at this point, degrees; null when not given. */
+  readonly driverDeg: number | null;
+}
+
+/** A picture under the drawing (a side view, a sketch, a photo), placed and scaled in mm. */
+export interface BackgroundImage {
+  /** Key of the image's bytes in the image store. */
+  readonly imageId: string;
+  readonly name: string;
+  readonly widthPx: number;
+  readonly heightPx: number;
+  /** Where the image's top-left corner is, mm. */
+  readonly leftMm: number;
+  readonly topMm: number;
+  /** Size of one image pixel, mm. */
+  readonly mmPerPx: number;
+  /** 0 … 1 */
+  readonly opacity: number;
+  /** Whether a two-point calibration has set the scale. */
+  readonly calibrated: boolean;
+}
+
+export interface TargetState {
+  readonly points: readonly TargetPoint[];
+  readonly closed: boolean;
+  readonly timing: TimingMode;
+  readonly background: BackgroundImage | null;
+}
+
+/** A circle no ground pivot may lie in, mm. */
+export interface KeepOutRegion {
+  readonly x: number;
+  readonly y: number;
+  readonly r: number;
+}
+
+export type Measure = 'rms' | 'sum-of-squares' | 'max';
+export type Placement = 'free' | 'fixed';
+
+export interface SearchSettings {
+  readonly families: readonly FamilyId[];
+  readonly placement: Placement;
+  readonly measure: Measure;
+  /** Overrides of the default variable bounds, per family and variable name: [lower, upper]. */
+  readonly bounds: Readonly<Partial<Record<FamilyId, Readonly<Record<string, readonly [number, number]>>>>>;
+  readonly constraints: {
+    readonly fullTurnCrank: boolean;
+    /** Minimum transmission angle, degrees; null for none. */
+    readonly minTransmissionDeg: number | null;
+    /** Link length limits, mm; null for none. */
+    readonly linkLengthMm: readonly [number, number] | null;
+    readonly keepOut: readonly KeepOutRegion[];
+  };
+  readonly budget: { readonly mode: 'evaluations' | 'time'; readonly evaluations: number; readonly seconds: number };
+  readonly seed: number;
+  /** Search workers; null for the machine's default (cores − 1, at least 1). */
+  readonly workers: number | null;
+}
+
+export type RunStatus = 'idle' | 'starting' | 'running' | 'pausing' | 'paused' | 'stopping' | 'finished' | 'failed';
+
+export interface RunState {
+  readonly status: RunStatus;
+  /** The run's id, which names its checkpoints in IndexedDB; null before the first run. */
+  readonly runId: string | null;
+  readonly evaluations: number;
+  readonly budgetEvaluations: number | null;
+  readonly budgetSeconds: number | null;
+  readonly elapsedMs: number;
+  readonly evaluationsPerSecond: number;
+  readonly remainingMs: number | null;
+  /** Best error so far in mm (RMS, or maximum when the search minimises the maximum); null before any. */
+  readonly bestErrorMm: number | null;
+  readonly bestFeasible: boolean | null;
+  /** The last checkpoint: its round and the evaluations it holds. */
+  readonly checkpoint: { readonly round: number; readonly evaluations: number; readonly savedAtMs: number } | null;
+  /** Set when this session continued a run from a checkpoint after a reload. */
+  readonly resumedFrom: { readonly round: number; readonly evaluations: number } | null;
+  readonly stopReason: string | null;
+  /** A message about the run for the user (why it failed, what was skipped). */
+  readonly message: string | null;
+  /** Number of target points the run was started with (to turn a sum of squares into RMS). */
+  readonly targetPointCount: number;
+  readonly measure: Measure;
+}
+
+export interface Project {
+  readonly format: typeof PROJECT_FORMAT;
+  readonly version: typeof PROJECT_VERSION;
+  readonly name: string;
+  readonly target: TargetState;
+  readonly settings: SearchSettings;
+  readonly run: RunState;
+  /** Ranked best first. */
+  readonly candidates: readonly CandidateReport[];
+  /** The target the candidates were found for (the target may have changed since). */
+  readonly candidatesTarget: TargetSnapshot | null;
+}
+
+/** A target as the results views take it: points [x, y] in mm, open or closed. */
+export interface TargetSnapshot {
+  readonly points: readonly (readonly [number, number])[];
+  readonly closed: boolean;
+}
+
+export function snapshotTarget(target: TargetState): TargetSnapshot {
+  return { points: target.points.map((p) => [p.x, p.y] as const), closed: target.closed };
+}
+
+export function sameTarget(a: TargetSnapshot, b: TargetSnapshot): boolean {
+  return a.closed === b.closed && a.points.length === b.points.length && a.points.every((p, i) => p[0] === b.points[i][0] && p[1] === b.points[i][1]);
+}
+
+export const IDLE_RUN: RunState = {
+  status: 'idle',
+  runId: null,
+  evaluations: 0,
+  budgetEvaluations: null,
+  budgetSeconds: null,
+  elapsedMs: 0,
+  evaluationsPerSecond: 0,
+  remainingMs: null,
+  bestErrorMm: null,
+  bestFeasible: null,
+  checkpoint: null,
+  resumedFrom: null,
+  stopReason: null,
+  message: null,
+  targetPointCount: 0,
+  measure: 'rms',
+};
+
+/** Target and settings stay as they are while a search runs on them or is paused. */
+export function isLocked(status: RunStatus): boolean {
+  return isActive(status) || status === 'paused';
+}
+
+/** A run in one of these states has workers or will have them after a reload. */
+export function isActive(status: RunStatus): boolean {
+  return status === 'starting' || status === 'running' || status === 'pausing' || status === 'stopping';
+}

@@ -1,0 +1,38 @@
+/**
+ * The engine's CheckpointStore on IndexedDB: each run's checkpoints under its run id,
+ * the newest `keep` of them. A save adds the new one and drops the oldest in one
+ * transaction, so a crash mid-save leaves the previous set whole. `load` gives them
+ * newest first; the engine takes the first whose checksum holds, so a corrupt latest
+ * checkpoint is skipped for the one before it.
+ */
+import type { CheckpointStore } from '../../engine';
+import type { LociDb } from './db';
+
+/** Checkpoints kept per run: the latest and two before it. */
+export const CHECKPOINTS_KEPT = 3;
+
+export function indexedDbCheckpointStore(db: LociDb, runId: string, keep = CHECKPOINTS_KEPT): CheckpointStore {
+  return {
+    async save(text) {
+      const tx = db.transaction('checkpoints', 'readwrite');
+      const index = tx.store.index('byRun');
+      const keys = (await index.getAllKeys(runId)).sort((a, b) => a[1] - b[1]);
+      const seq = keys.length === 0 ? 1 : keys[keys.length - 1][1] + 1;
+      await tx.store.put({ runId, seq, text, savedAt: Date.now() });
+      for (const key of keys.slice(0, Math.max(0, keys.length + 1 - keep))) await tx.store.delete(key);
+      await tx.done;
+    },
+    async load() {
+      const records = await db.getAllFromIndex('checkpoints', 'byRun', runId);
+      return records.sort((a, b) => b.seq - a.seq).map((r) => r.text);
+    },
+  };
+}
+
+/** Removes every checkpoint of the runs not in `keepRunIds` (an old run's are of no use once a new one starts). */
+export async function dropCheckpointsExcept(db: LociDb, keepRunIds: readonly string[]): Promise<void> {
+  const tx = db.transaction('checkpoints', 'readwrite');
+  const keys = await tx.store.getAllKeys();
+  for (const key of keys) if (!keepRunIds.includes(key[0])) await tx.store.delete(key);
+  await tx.done;
+}

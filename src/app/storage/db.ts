@@ -1,0 +1,40 @@
+/**
+ * Loci's IndexedDB database: the project, the run checkpoints and the background images.
+ * Every write goes through a transaction (idb wraps each call in one, or we open one
+ * across stores where two writes must land together).
+ */
+import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
+
+export const DB_NAME = 'loci';
+export const DB_VERSION = 1;
+/** The key of the project the workspace opens. */
+export const CURRENT_PROJECT_KEY = 'current';
+
+export interface CheckpointRecord {
+  readonly runId: string;
+  /** Increases with every checkpoint of a run. */
+  readonly seq: number;
+  readonly text: string;
+  /** Wall-clock time of the save, ms since 1970 (for the user; ordering uses seq). */
+  readonly savedAt: number;
+}
+
+export interface LociSchema extends DBSchema {
+  projects: { key: string; value: unknown };
+  checkpoints: { key: [string, number]; value: CheckpointRecord; indexes: { byRun: string } };
+  images: { key: string; value: { readonly imageId: string; readonly blob: Blob; readonly name: string } };
+}
+
+export type LociDb = IDBPDatabase<LociSchema>;
+
+/** Opens (creating or upgrading) the database; rejects when the browser gives no IndexedDB. */
+export function openLociDb(): Promise<LociDb> {
+  return openDB<LociSchema>(DB_NAME, DB_VERSION, {
+    upgrade(db) {
+      db.createObjectStore('projects');
+      const checkpoints = db.createObjectStore('checkpoints', { keyPath: ['runId', 'seq'] });
+      checkpoints.createIndex('byRun', 'runId');
+      db.createObjectStore('images', { keyPath: 'imageId' });
+    },
+  });
+}

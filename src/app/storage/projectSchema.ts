@@ -1,0 +1,97 @@
+/**
+ * What a saved project must look like to be opened again: checked once when it is read
+ * back from storage (an older or damaged record opens the demo instead, with a message).
+ */
+import { z } from 'zod';
+import type { CandidateReport } from '../../core/synthesis';
+import { FAMILY_CHOICES, type FamilyId } from '../state/families';
+import { PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../state/project';
+
+const finite = z.number().refine(Number.isFinite, 'expected a finite number');
+const familyIds = FAMILY_CHOICES.map((f) => f.id) as [FamilyId, ...FamilyId[]];
+const range = z.tuple([finite, finite]);
+
+const point = z.object({ x: finite, y: finite, driverDeg: finite.nullable() });
+const background = z.object({
+  imageId: z.string(),
+  name: z.string(),
+  widthPx: z.number().positive(),
+  heightPx: z.number().positive(),
+  leftMm: finite,
+  topMm: finite,
+  mmPerPx: z.number().positive(),
+  opacity: z.number().min(0).max(1),
+  calibrated: z.boolean(),
+});
+const target = z.object({
+  points: z.array(point).max(5000),
+  closed: z.boolean(),
+  timing: z.enum(['prescribed', 'free', 'unprescribed']),
+  background: background.nullable(),
+});
+const settings = z.object({
+  families: z.array(z.enum(familyIds)),
+  placement: z.enum(['free', 'fixed']),
+  measure: z.enum(['rms', 'sum-of-squares', 'max']),
+  bounds: z.partialRecord(z.enum(familyIds), z.record(z.string(), range)),
+  constraints: z.object({
+    fullTurnCrank: z.boolean(),
+    minTransmissionDeg: finite.nullable(),
+    linkLengthMm: range.nullable(),
+    keepOut: z.array(z.object({ x: finite, y: finite, r: z.number().positive() })),
+  }),
+  budget: z.object({ mode: z.enum(['evaluations', 'time']), evaluations: z.number().int().positive(), seconds: z.number().positive() }),
+  seed: z.number().int().min(0),
+  workers: z.number().int().min(1).nullable(),
+});
+const run = z.object({
+  status: z.enum(['idle', 'starting', 'running', 'pausing', 'paused', 'stopping', 'finished', 'failed']),
+  runId: z.string().nullable(),
+  evaluations: z.number().min(0),
+  budgetEvaluations: z.number().nullable(),
+  budgetSeconds: z.number().nullable(),
+  elapsedMs: z.number().min(0),
+  evaluationsPerSecond: z.number().min(0),
+  remainingMs: z.number().nullable(),
+  bestErrorMm: z.number().nullable(),
+  bestFeasible: z.boolean().nullable(),
+  checkpoint: z.object({ round: z.number(), evaluations: z.number(), savedAtMs: z.number() }).nullable(),
+  resumedFrom: z.object({ round: z.number(), evaluations: z.number() }).nullable(),
+  stopReason: z.string().nullable(),
+  message: z.string().nullable(),
+  targetPointCount: z.number().int().min(0),
+  measure: z.enum(['rms', 'sum-of-squares', 'max']),
+});
+// Candidates come from our own search; the check guards what the views read first.
+const candidate = z.looseObject({
+  family: z.string(),
+  x: z.array(z.number()),
+  error: z.looseObject({ rmsMm: z.number(), maxMm: z.number(), sumSquares: z.number(), perPointMm: z.array(z.number()) }),
+  feasible: z.boolean(),
+  linkage: z.looseObject({ joints: z.array(z.unknown()), bodies: z.array(z.unknown()) }),
+});
+const snapshot = z.object({ points: z.array(z.tuple([finite, finite])), closed: z.boolean() });
+
+const project = z.object({
+  format: z.literal(PROJECT_FORMAT),
+  version: z.literal(PROJECT_VERSION),
+  name: z.string(),
+  target,
+  settings,
+  run,
+  candidates: z.array(candidate),
+  candidatesTarget: snapshot.nullable(),
+});
+
+export type ReadProject = { readonly ok: true; readonly project: Project } | { readonly ok: false; readonly reason: string };
+
+export function readProject(value: unknown): ReadProject {
+  const parsed = project.safeParse(value);
+  if (parsed.success) {
+    const data = parsed.data;
+    return { ok: true, project: { ...data, candidates: data.candidates as unknown as CandidateReport[] } as Project };
+  }
+  const first = parsed.error.issues[0];
+  const where = first.path.length > 0 ? first.path.join('.') : 'the record';
+  return { ok: false, reason: `${where}: ${first.message}` };
+}

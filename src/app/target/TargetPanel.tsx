@@ -1,0 +1,119 @@
+/** Target entry: paste or import CSV, the point table, open or closed, timing, resampling, and the background image. */
+import { useId, useState } from 'react';
+import { formatPointsCsv } from '../../core/io/pointsCsv';
+import { isLocked, type TimingMode } from '../state/project';
+import { useDispatch, useStore, useWorkspace } from '../state/store';
+import { BackgroundControls } from './BackgroundControls';
+import { fileTooLarge, importCsvAction } from './csvImport';
+import { NoticeBox } from './NoticeBox';
+import { PointTable } from './PointTable';
+import { MAX_RESAMPLE_POINTS, MIN_RESAMPLE_POINTS } from './resample';
+
+const TIMING: readonly { mode: TimingMode; label: string; note: string }[] = [
+  { mode: 'unprescribed', label: 'Unprescribed', note: 'each point is matched to the nearest point of the curve, in order' },
+  { mode: 'free', label: 'Free', note: 'the crank angle at each point is searched too, in order' },
+  { mode: 'prescribed', label: 'Prescribed', note: 'each point has a crank angle you give' },
+];
+
+function download(name: string, text: string) {
+  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv' }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = name;
+  a.click();
+  setTimeout(() => URL.revokeObjectURL(url), 0);
+}
+
+export function TargetPanel() {
+  const store = useStore();
+  const dispatch = useDispatch();
+  const target = useWorkspace((s) => s.project.target);
+  const notice = useWorkspace((s) => s.ui.targetNotice);
+  const locked = useWorkspace((s) => isLocked(s.project.run.status));
+  const [csv, setCsv] = useState('');
+  const [count, setCount] = useState(String(Math.max(MIN_RESAMPLE_POINTS, target.points.length || 24)));
+  const id = useId();
+
+  const readPasted = () => dispatch(importCsvAction(csv, 'the pasted text', store.getState().project.target));
+  const readFile = async (file: File) => {
+    const refused = fileTooLarge(file);
+    if (refused !== null) {
+      dispatch(refused);
+      return;
+    }
+    dispatch(importCsvAction(await file.text(), `file ${file.name}`, store.getState().project.target));
+  };
+
+  return (
+    <section className="panel target-panel" aria-labelledby={`${id}-h`}>
+      <h2 id={`${id}-h`}>Target path</h2>
+      <p className="panel-note">
+        {target.points.length} points, {target.closed ? 'closed loop' : 'open path'}; all lengths in mm.
+      </p>
+      <NoticeBox notice={notice} onClose={() => dispatch({ type: 'target/notice', notice: null })} />
+      {locked && <p className="panel-note">The target is fixed while a search runs or is paused.</p>}
+
+      {/* One fieldset disables every control below while a search runs, without re-rendering them. */}
+      <fieldset className="plain-fieldset" disabled={locked}>
+        <div className="field-row">
+          <label>
+            <input type="checkbox" checked={target.closed} onChange={(e) => dispatch({ type: 'target/closed', closed: e.target.checked })} /> Closed path (a
+            loop, once per crank turn)
+          </label>
+        </div>
+        <fieldset className="timing">
+          <legend>Timing</legend>
+          {TIMING.map((t) => (
+            <label key={t.mode} title={t.note}>
+              <input type="radio" name={`${id}-timing`} checked={target.timing === t.mode} onChange={() => dispatch({ type: 'target/timing', timing: t.mode })} /> {t.label}
+              <span className="option-note"> — {t.note}</span>
+            </label>
+          ))}
+        </fieldset>
+
+        <PointTable />
+
+        <details className="csv-entry" open={target.points.length === 0}>
+          <summary>Paste or import CSV</summary>
+          <label htmlFor={`${id}-csv`} className="block-label">
+            Rows of x, y in mm (and a crank angle in degrees, optional); comma, semicolon or tab; a header row is optional.
+          </label>
+          <textarea id={`${id}-csv`} rows={6} value={csv} spellCheck={false} onChange={(e) => setCsv(e.target.value)} placeholder={'x;y\n0;0\n10,5;2\n…'} />
+          <div className="row-actions">
+            <button type="button" onClick={readPasted} disabled={csv.trim().length === 0}>
+              Read pasted points
+            </button>
+            <label className="file-button">
+              Import CSV file…
+              <input
+                type="file"
+                accept=".csv,.tsv,.txt,text/csv,text/plain"
+                onChange={(e) => {
+                  const file = e.target.files?.[0];
+                  e.target.value = '';
+                  if (file !== undefined) void readFile(file);
+                }}
+              />
+            </label>
+            <button type="button" disabled={target.points.length === 0} onClick={() => download('target.csv', formatPointsCsv(target.points))}>
+              Export CSV
+            </button>
+          </div>
+        </details>
+
+        <div className="field-row resample">
+          <label>
+            Resample to{' '}
+            <input type="number" min={MIN_RESAMPLE_POINTS} max={MAX_RESAMPLE_POINTS} step={1} value={count} onChange={(e) => setCount(e.target.value)} aria-label="Number of points after resampling" />{' '}
+            evenly spaced points
+          </label>
+          <button type="button" disabled={target.points.length < 2} onClick={() => dispatch({ type: 'target/resample', count: Number(count) })}>
+            Resample
+          </button>
+        </div>
+
+        <BackgroundControls />
+      </fieldset>
+    </section>
+  );
+}

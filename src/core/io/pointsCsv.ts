@@ -1,0 +1,267 @@
+/**
+ * Target points from CSV text: x and y in mm, and optionally a crank angle per point
+ * (prescribed timing) and a weight. Reads what spreadsheets and measuring tools write:
+ * with or without a header row; comma, semicolon or tab between values; a decimal
+ * comma where the separator is not a comma; a byte-order mark; blank lines.
+ *
+ * Expected failures are values: `{ ok: false, issues }`, each issue naming the row (as
+ * a spreadsheet numbers it, header included) and what is wrong, so the caller can keep
+ * the current target and show the messages.
+ */
+import Papa from 'papaparse';
+
+/** A target file larger than this is refused before it is parsed (characters, about bytes). */
+export const MAX_POINTS_CSV_CHARS = 1_000_000;
+/** A target has at most this many points; a path needs far fewer. */
+export const MAX_TARGET_POINTS = 5000;
+/** And at least this many (three points fix a circle; a path needs more). */
+export const MIN_TARGET_POINTS = 3;
+/** Two points closer than this (mm) are the same point. */
+export const REPEATED_POINT_TOL_MM = 1e-6;
+/** At most this many issues are listed; the rest are counted. */
+export const MAX_LISTED_ISSUES = 12;
+
+export type CsvDelimiter = ',' | ';' | '\t';
+
+export interface CsvIssue {
+  /** 1-based row of the file (header included, blank lines counted); 0 for the file as a whole. */
+  readonly row: number;
+  readonly message: string;
+}
+
+export interface PointsTable {
+  /** x, y in mm, in file order. */
+  readonly points: readonly { readonly x: number; readonly y: number }[];
+  /** Crank angle of each point in degrees, when the file has a timing column. */
+  readonly driverDeg: readonly number[] | null;
+  /** Weight of each point, when the file has a weight column. */
+  readonly weights: readonly number[] | null;
+  /** The last row repeated the first: it was dropped, and the path is closed. */
+  readonly closedByRepeat: boolean;
+  readonly delimiter: CsvDelimiter;
+  readonly decimalComma: boolean;
+  /** The header row as written, or null when the file has none. */
+  readonly header: readonly string[] | null;
+}
+
+export type PointsCsvResult = ({ readonly ok: true } & PointsTable) | { readonly ok: false; readonly issues: readonly CsvIssue[] };
+
+type ColumnRole = 'x' | 'y' | 'driver' | 'weight';
+
+interface Columns {
+  readonly x: number;
+  readonly y: number;
+  readonly driver: number;
+  readonly weight: number;
+  /** The driver column is in radians (its header says so); degrees otherwise. */
+  readonly driverRad: boolean;
+}
+
+const DELIMITER_NAMES: Record<CsvDelimiter, string> = { ',': 'comma', ';': 'semicolon', '\t': 'tab' };
+
+// One number: optional sign, digits with one decimal point or comma, optional exponent.
+const NUMBER_PATTERN = /^[+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?$/;
+
+function parseNumber(cell: string): number | null {
+  const text = cell.trim();
+  if (!NUMBER_PATTERN.test(text)) return null;
+  const value = Number(text.replace(',', '.'));
+  return Number.isFinite(value) ? value : null;
+}
+
+/** The separator the file uses: a tab anywhere wins, then a semicolon, else a comma. */
+function detectDelimiter(text: string): CsvDelimiter {
+  if (text.includes('\t')) return '\t';
+  if (text.includes(';')) return ';';
+  return ',';
+}
+
+function roleOfHeader(name: string): ColumnRole | null {
+  const n = name.trim().toLowerCase();
+  // "x", "x_mm", "x (mm)", "X [mm]", but not "xpos".
+  if (/^x(?![a-z])/.test(n)) return 'x';
+  if (/^y(?![a-z])/.test(n)) return 'y';
+  if (/angle|theta|crank|driver|timing|input|\bdeg|\brad/.test(n)) return 'driver';
+  if (/weight|^w$/.test(n)) return 'weight';
+  return null;
+}
+
+function isRadians(name: string): boolean {
+  return /\brad|\(rad\)|_rad\b|radian/.test(name.trim().toLowerCase());
+}
+
+function show(cell: string): string {
+  const t = cell.trim();
+  return t.length > 24 ? `"${t.slice(0, 24)}…"` : `"${t}"`;
+}
+
+function columnsFromHeader(header: readonly string[], row: number): { ok: true; columns: Columns } | { ok: false; issue: CsvIssue } {
+  const index: Record<ColumnRole, number> = { x: -1, y: -1, driver: -1, weight: -1 };
+  header.forEach((name, k) => {
+    const role = roleOfHeader(name);
+    if (role !== null && index[role] === -1) index[role] = k;
+  });
+  if (index.x === -1 && index.y === -1 && header.length >= 2) {
+    // A header with names we do not know ("a;b"): the first two columns are x and y.
+    index.x = 0;
+    index.y = 1;
+  }
+  if (index.x === -1 || index.y === -1) {
+    return {
+      ok: false,
+      issue: { row, message: `the header row names no ${index.x === -1 ? 'x' : 'y'} column; expected columns named x and y (mm), and optionally angle (deg) and weight` },
+    };
+  }
+  const driverRad = index.driver !== -1 && isRadians(header[index.driver]);
+  return { ok: true, columns: { ...index, driverRad } };
+}
+
+function columnsFromWidth(width: number, row: number, delimiter: CsvDelimiter): { ok: true; columns: Columns } | { ok: false; issue: CsvIssue } {
+  if (width === 2) return { ok: true, columns: { x: 0, y: 1, driver: -1, weight: -1, driverRad: false } };
+  if (width === 3) return { ok: true, columns: { x: 0, y: 1, driver: 2, weight: -1, driverRad: false } };
+  return {
+    ok: false,
+    issue: {
+      row,
+      message:
+        `row ${row} has ${width} value${width === 1 ? '' : 's'}; expected 2 (x, y in mm) or 3 (x, y, crank angle in degrees)` +
+        (width === 1 ? ', separated by a comma, semicolon or tab' : ', or a header row naming the columns') +
+        (width === 4 && delimiter === ',' ? '; numbers with a decimal comma need a semicolon or a tab between values' : ''),
+    },
+  };
+}
+
+function isBlank(cells: readonly string[]): boolean {
+  return cells.every((c) => c.trim().length === 0);
+}
+
+/** Reads target points from CSV text; see the module comment for what it accepts. */
+export function parsePointsCsv(input: string): PointsCsvResult {
+  if (input.length > MAX_POINTS_CSV_CHARS) {
+    const kb = Math.round(input.length / 1000);
+    return { ok: false, issues: [{ row: 0, message: `the text is ${kb} kB; a target may be at most ${MAX_POINTS_CSV_CHARS / 1000} kB (${MAX_TARGET_POINTS} points)` }] };
+  }
+  const text = input.charCodeAt(0) === 0xfeff ? input.slice(1) : input;
+  const delimiter = detectDelimiter(text);
+  const parsed = Papa.parse<string[]>(text, { delimiter, skipEmptyLines: false });
+  const rows = parsed.data;
+
+  const issues: CsvIssue[] = [];
+  let more = 0;
+  const report = (issue: CsvIssue) => {
+    if (issues.length < MAX_LISTED_ISSUES) issues.push(issue);
+    else more++;
+  };
+  for (const error of parsed.errors) {
+    if (error.type === 'Quotes') report({ row: (error.row ?? 0) + 1, message: `row ${(error.row ?? 0) + 1} has a quote that is never closed` });
+  }
+
+  const filled: { row: number; cells: string[] }[] = [];
+  rows.forEach((cells, k) => {
+    if (!isBlank(cells)) filled.push({ row: k + 1, cells });
+  });
+  if (filled.length === 0) return { ok: false, issues: [{ row: 0, message: 'there are no points: expected rows of x and y in mm' }] };
+
+  const first = filled[0];
+  // A header is a row of names only; a row mixing numbers and text is a data row with a mistake.
+  const hasHeader =
+    first.cells.some((c) => /\p{L}/u.test(c)) && first.cells.every((c) => c.trim().length === 0 || parseNumber(c) === null);
+  const dataRows = hasHeader ? filled.slice(1) : filled;
+  if (dataRows.length > MAX_TARGET_POINTS) {
+    return { ok: false, issues: [{ row: 0, message: `there are ${dataRows.length} rows of points; a target may have at most ${MAX_TARGET_POINTS} (resample it first)` }] };
+  }
+  const found = hasHeader ? columnsFromHeader(first.cells, first.row) : columnsFromWidth(first.cells.length, first.row, delimiter);
+  if (!found.ok) return { ok: false, issues: [found.issue] };
+  const columns = found.columns;
+  const width = first.cells.length;
+  const needed = Math.max(columns.x, columns.y, columns.driver, columns.weight) + 1;
+
+  const xs: number[] = [];
+  const ys: number[] = [];
+  const driver: number[] = [];
+  const weights: number[] = [];
+  const sourceRows: number[] = [];
+  let decimalComma = false;
+  for (const { row, cells } of dataRows) {
+    if (cells.length !== width) {
+      report({ row, message: `row ${row} has ${cells.length} value${cells.length === 1 ? '' : 's'}; the ${hasHeader ? 'header has' : 'first row has'} ${width}` });
+      continue;
+    }
+    if (cells.length < needed) {
+      report({ row, message: `row ${row} has ${cells.length} values; expected at least ${needed}` });
+      continue;
+    }
+    const read = (k: number, what: string): number | null => {
+      if (k === -1) return 0;
+      const cell = cells[k];
+      if (cell.trim().length === 0) {
+        report({ row, message: `row ${row}: the ${what} value is empty` });
+        return null;
+      }
+      const value = parseNumber(cell);
+      if (value === null) report({ row, message: `row ${row}: ${what} is ${show(cell)}, which is not a number` });
+      else if (cell.includes(',')) decimalComma = true;
+      return value;
+    };
+    const x = read(columns.x, 'x');
+    const y = read(columns.y, 'y');
+    const d = read(columns.driver, 'the crank angle');
+    const w = read(columns.weight, 'the weight');
+    if (x === null || y === null || d === null || w === null) continue;
+    if (columns.weight !== -1 && !(w >= 0)) {
+      report({ row, message: `row ${row}: the weight is ${w}; expected a number ≥ 0` });
+      continue;
+    }
+    xs.push(x);
+    ys.push(y);
+    driver.push(columns.driverRad ? (d * 180) / Math.PI : d);
+    weights.push(w);
+    sourceRows.push(row);
+  }
+  // The last row repeating the first closes the path: a common way to write a loop.
+  let count = xs.length;
+  let closedByRepeat = false;
+  if (count > MIN_TARGET_POINTS && Math.hypot(xs[count - 1] - xs[0], ys[count - 1] - ys[0]) <= REPEATED_POINT_TOL_MM) {
+    closedByRepeat = true;
+    count--;
+  }
+  for (let i = 1; i < count; i++) {
+    for (let j = 0; j < i; j++) {
+      if (Math.hypot(xs[i] - xs[j], ys[i] - ys[j]) <= REPEATED_POINT_TOL_MM) {
+        report({ row: sourceRows[i], message: `row ${sourceRows[i]} repeats the point of row ${sourceRows[j]} (x ${xs[i]}, y ${ys[i]} mm); each point must be different` });
+        break;
+      }
+    }
+  }
+  if (issues.length === 0 && count < MIN_TARGET_POINTS) {
+    report({ row: 0, message: `there ${count === 1 ? 'is 1 point' : `are ${count} points`}; a target needs at least ${MIN_TARGET_POINTS}` });
+  }
+  if (issues.length > 0) {
+    const listed = more > 0 ? [...issues, { row: 0, message: `and ${more} more problem${more === 1 ? '' : 's'}` }] : issues;
+    return { ok: false, issues: listed };
+  }
+  const points = xs.slice(0, count).map((x, i) => ({ x, y: ys[i] }));
+  return {
+    ok: true,
+    points,
+    driverDeg: columns.driver === -1 ? null : driver.slice(0, count),
+    weights: columns.weight === -1 ? null : weights.slice(0, count),
+    closedByRepeat,
+    delimiter,
+    decimalComma,
+    header: hasHeader ? first.cells.map((c) => c.trim()) : null,
+  };
+}
+
+/** The name of a separator, for messages ("semicolon"). */
+export function delimiterName(delimiter: CsvDelimiter): string {
+  return DELIMITER_NAMES[delimiter];
+}
+
+/** Target points as CSV text with a header (x, y in mm, and the crank angle when every point has one). */
+export function formatPointsCsv(points: readonly { readonly x: number; readonly y: number; readonly driverDeg?: number | null }[]): string {
+  const withAngle = points.length > 0 && points.every((p) => typeof p.driverDeg === 'number');
+  const header = withAngle ? 'x_mm,y_mm,angle_deg' : 'x_mm,y_mm';
+  const lines = points.map((p) => (withAngle ? `${p.x},${p.y},${p.driverDeg}` : `${p.x},${p.y}`));
+  return [header, ...lines].join('\n') + '\n';
+}
