@@ -12,6 +12,7 @@
  * the same `{ path, message }` shape.
  */
 import * as z from 'zod';
+import { describeValue, expected, formatPath, strict } from './schemaMessages';
 import { compile } from '../linkage/compile';
 import type { DriverSpec, JointSpec, Linkage, PointSpec, SliderSpec } from '../linkage/model';
 
@@ -30,58 +31,11 @@ export type ParseLinkageFileResult =
   | { readonly ok: false; readonly issues: readonly LinkageFileIssue[] };
 
 // ---------------------------------------------------------------------------------
-// Messages
-
-/** A short, quoted rendering of a wrong value for a message: `"abc"`, `12`, `null`, `an array`. */
-function describeValue(value: unknown): string {
-  if (value === null) return 'null';
-  if (Array.isArray(value)) return 'an array';
-  switch (typeof value) {
-    case 'string':
-      return JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}…` : value);
-    case 'number':
-    case 'boolean':
-      return String(value);
-    case 'object':
-      return 'an object';
-    default:
-      return typeof value;
-  }
-}
-
-function quoteList(words: readonly string[]): string {
-  return words.map((w) => `"${w}"`).join(', ');
-}
-
-/**
- * A zod error function saying what the field should have held. `fields` lists the
- * known fields of an object, for the message about a misspelt one.
- */
-function expected(what: string, fields?: readonly string[]): z.core.$ZodErrorMap {
-  return (issue) => {
-    if (issue.code === 'unrecognized_keys') {
-      const known = fields ? `; the known fields are ${quoteList(fields)}` : '';
-      return `unknown field${issue.keys.length > 1 ? 's' : ''} ${quoteList(issue.keys)} in ${what}${known}`;
-    }
-    if (issue.code === 'invalid_union' && issue.discriminator !== undefined) {
-      const input = issue.input as Record<string, unknown> | undefined;
-      const got = input?.[issue.discriminator];
-      return got === undefined ? `missing; expected ${what}` : `expected ${what}, got ${describeValue(got)}`;
-    }
-    if (issue.input === undefined) return `missing; expected ${what}`;
-    return `expected ${what}, got ${describeValue(issue.input)}`;
-  };
-}
-
-// ---------------------------------------------------------------------------------
 // Schema, version 1
 
 const mm = (what = 'a finite number in mm') => z.number({ error: expected(what) });
 const id = (what: string) => z.string({ error: expected(what) }).min(1, { error: expected(what) });
 
-function strict<T extends z.core.$ZodLooseShape>(what: string, shape: T) {
-  return z.strictObject(shape, { error: expected(what, Object.keys(shape)) });
-}
 
 const jointSchema = strict('a joint { "id", "x", "y", "ground"? }', {
   id: id('a non-empty joint id string'),
@@ -143,19 +97,6 @@ const linkageFileV1Schema = strict('a linkage file', fileShape);
 
 /** A linkage file of the current version, as written by `toLinkageFile`. */
 export type LinkageFileV1 = z.infer<typeof linkageFileV1Schema>;
-
-// ---------------------------------------------------------------------------------
-// Paths
-
-/** `['joints', 2, 'x']` → `joints[2].x`. */
-function formatPath(path: readonly PropertyKey[]): string {
-  let out = '';
-  for (const key of path) {
-    if (typeof key === 'number') out += `[${key}]`;
-    else out += out === '' ? String(key) : `.${String(key)}`;
-  }
-  return out;
-}
 
 // ---------------------------------------------------------------------------------
 // Envelope and migration

@@ -22,6 +22,7 @@
  * then every bound names a variable of its family).
  */
 import * as z from 'zod';
+import { describeValue, expected, formatPath, quoteList, strict } from './schemaMessages';
 import { FAMILY_IDS, createProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue } from '../synthesis';
 
 export const PROBLEM_FILE_FORMAT = 'loci-problem';
@@ -32,46 +33,9 @@ export type ParseProblemFileResult =
   | { readonly ok: true; readonly problem: Problem; readonly description?: string }
   | { readonly ok: false; readonly issues: ProblemIssue[] };
 
-function describeValue(value: unknown): string {
-  if (value === null) return 'null';
-  if (Array.isArray(value)) return 'an array';
-  switch (typeof value) {
-    case 'string':
-      return JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}…` : value);
-    case 'number':
-    case 'boolean':
-      return String(value);
-    case 'object':
-      return 'an object';
-    default:
-      return typeof value;
-  }
-}
 
-function quoteList(words: readonly string[]): string {
-  return words.map((w) => `"${w}"`).join(', ');
-}
 
-/** A zod error function saying what the field should have held. */
-function expected(what: string, fields?: readonly string[]): z.core.$ZodErrorMap {
-  return (issue) => {
-    if (issue.code === 'unrecognized_keys') {
-      const known = fields ? `; the known fields are ${quoteList(fields)}` : '';
-      return `unknown field${issue.keys.length > 1 ? 's' : ''} ${quoteList(issue.keys)} in ${what}${known}`;
-    }
-    if (issue.code === 'invalid_union' && issue.discriminator !== undefined) {
-      const input = issue.input as Record<string, unknown> | undefined;
-      const got = input?.[issue.discriminator];
-      return got === undefined ? `missing; expected ${what}` : `expected ${what}, got ${describeValue(got)}`;
-    }
-    if (issue.input === undefined) return `missing; expected ${what}`;
-    return `expected ${what}, got ${describeValue(issue.input)}`;
-  };
-}
 
-function strict<T extends z.core.$ZodLooseShape>(what: string, shape: T) {
-  return z.strictObject(shape, { error: expected(what, Object.keys(shape)) });
-}
 
 const finite = (what: string) => z.number({ error: expected(what) }).refine(Number.isFinite, { error: expected(what) });
 const pair = (what: string) => z.tuple([finite(what), finite(what)], { error: expected(`[lower, upper], two ${what}s`) });
@@ -144,14 +108,6 @@ const problemFileV1Schema = strict('a problem file', fileShape);
 /** A problem file of the current version. */
 export type ProblemFileV1 = z.infer<typeof problemFileV1Schema>;
 
-function formatPath(path: readonly PropertyKey[]): string {
-  let out = '';
-  for (const key of path) {
-    if (typeof key === 'number') out += `[${key}]`;
-    else out += out === '' ? String(key) : `.${String(key)}`;
-  }
-  return out;
-}
 
 function isPlainObject(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value);

@@ -1,0 +1,61 @@
+/**
+ * Messages for the file schemas: each zod issue becomes a path such as `joints[2].x`
+ * and a sentence saying what the field should have held and what it held.
+ */
+import * as z from 'zod';
+
+/** A short, quoted rendering of a wrong value for a message: `"abc"`, `12`, `null`, `an array`. */
+export function describeValue(value: unknown): string {
+  if (value === null) return 'null';
+  if (Array.isArray(value)) return 'an array';
+  switch (typeof value) {
+    case 'string':
+      return JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}…` : value);
+    case 'number':
+    case 'boolean':
+      return String(value);
+    case 'object':
+      return 'an object';
+    default:
+      return typeof value;
+  }
+}
+
+export function quoteList(words: readonly string[]): string {
+  return words.map((w) => `"${w}"`).join(', ');
+}
+
+/**
+ * A zod error function saying what the field should have held. `fields` lists the
+ * known fields of an object, for the message about a misspelt one.
+ */
+export function expected(what: string, fields?: readonly string[]): z.core.$ZodErrorMap {
+  return (issue) => {
+    if (issue.code === 'unrecognized_keys') {
+      const known = fields ? `; the known fields are ${quoteList(fields)}` : '';
+      return `unknown field${issue.keys.length > 1 ? 's' : ''} ${quoteList(issue.keys)} in ${what}${known}`;
+    }
+    if (issue.code === 'invalid_union' && issue.discriminator !== undefined) {
+      const input = issue.input as Record<string, unknown> | undefined;
+      const got = input?.[issue.discriminator];
+      return got === undefined ? `missing; expected ${what}` : `expected ${what}, got ${describeValue(got)}`;
+    }
+    if (issue.input === undefined) return `missing; expected ${what}`;
+    return `expected ${what}, got ${describeValue(issue.input)}`;
+  };
+}
+
+/** An object schema that rejects unknown fields, naming the known ones. */
+export function strict<T extends z.core.$ZodLooseShape>(what: string, shape: T) {
+  return z.strictObject(shape, { error: expected(what, Object.keys(shape)) });
+}
+
+/** `['joints', 2, 'x']` → `joints[2].x`. */
+export function formatPath(path: readonly PropertyKey[]): string {
+  let out = '';
+  for (const key of path) {
+    if (typeof key === 'number') out += `[${key}]`;
+    else out += out === '' ? String(key) : `.${String(key)}`;
+  }
+  return out;
+}
