@@ -11,7 +11,7 @@ import {
   MAX_REPORT_STEPS,
   analyzeLinkage,
 } from '../core/linkage/report';
-import { numberOption, parseCommandArgs, type OptionSpec } from './args';
+import { numberOption, parseCommandArgs, singleFile, type OptionSpec } from './args';
 import { EXIT_OK, EXIT_USAGE, type CliIo } from './command';
 import { formatJson } from './formatJson';
 
@@ -51,14 +51,13 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
   };
   const parsed = parseCommandArgs(args, OPTIONS);
   if (!parsed.ok) return usageError(parsed.message);
-  const { positionals, options } = parsed.args;
-  if (options.has('help')) {
+  if (parsed.args.options.has('help')) {
     io.stdout(usage);
     return EXIT_OK;
   }
-  if (positionals.length === 0) return usageError('no linkage file given');
-  if (positionals.length > 1) return usageError(`one linkage file expected, got ${positionals.length}: ${positionals.join(' ')}`);
-  const file = positionals[0];
+  const one = singleFile(parsed.args, 'linkage file');
+  if (!one.ok) return usageError(one.message);
+  const file = one.file;
 
   const from = numberOption(parsed.args, 'from', 'a number (degrees for a rotation driver, mm for a length driver)');
   if (!from.ok) return usageError(from.message);

@@ -19,6 +19,14 @@ export interface ParsedArgs {
 
 export type ParseArgsResult = { readonly ok: true; readonly args: ParsedArgs } | { readonly ok: false; readonly message: string };
 
+/** The one file a command takes (`noun`: "linkage file", "problem file"), or what was given instead. */
+export function singleFile(args: ParsedArgs, noun: string): { readonly ok: true; readonly file: string } | { readonly ok: false; readonly message: string } {
+  const { positionals } = args;
+  if (positionals.length === 0) return { ok: false, message: `no ${noun} given` };
+  if (positionals.length > 1) return { ok: false, message: `one ${noun} expected, got ${positionals.length}: ${positionals.join(' ')}` };
+  return { ok: true, file: positionals[0] };
+}
+
 /** Parses `args` against `specs`; `-h` is `--help`, and `--` ends the options. */
 export function parseCommandArgs(args: readonly string[], specs: readonly OptionSpec[]): ParseArgsResult {
   const byName = new Map(specs.map((s) => [s.name, s]));

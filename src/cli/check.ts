@@ -4,7 +4,7 @@
  * with the field it concerns, and exit code 2.
  */
 import { createObjective, type Problem } from '../core/synthesis';
-import { parseCommandArgs, type OptionSpec } from './args';
+import { parseCommandArgs, singleFile, type OptionSpec } from './args';
 import { EXIT_OK, EXIT_USAGE, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
@@ -95,14 +95,13 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
   };
   const parsed = parseCommandArgs(args, OPTIONS);
   if (!parsed.ok) return usageError(parsed.message);
-  const { positionals, options } = parsed.args;
-  if (options.has('help')) {
+  if (parsed.args.options.has('help')) {
     io.stdout(usage);
     return EXIT_OK;
   }
-  if (positionals.length === 0) return usageError('no problem file given');
-  if (positionals.length > 1) return usageError(`one problem file expected, got ${positionals.length}: ${positionals.join(' ')}`);
-  const file = positionals[0];
+  const one = singleFile(parsed.args, 'problem file');
+  if (!one.ok) return usageError(one.message);
+  const file = one.file;
 
   const read = await readProblemFile(file, io);
   if (!read.ok) {
@@ -110,7 +109,7 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     return EXIT_USAGE;
   }
   const families = searchSummary(read.problem);
-  if (options.has('json')) {
+  if (parsed.args.options.has('json')) {
     const p = read.problem;
     io.stdout(
       `${formatJson({

@@ -17,7 +17,7 @@ import {
   type RunProgress,
 } from '../engine';
 import { fileCheckpointStore, nodeEnvironment, writeFileAtomic } from '../engine/node';
-import { numberOption, parseCommandArgs, type OptionSpec, type ParsedArgs } from './args';
+import { numberOption, parseCommandArgs, singleFile, type OptionSpec, type ParsedArgs } from './args';
 import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
@@ -106,9 +106,8 @@ interface FitSettings {
 }
 
 function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSettings, 'evaluations'> & { evaluations: number | undefined }> {
-  const { positionals } = args;
-  if (positionals.length === 0) return { ok: false, message: 'no problem file given' };
-  if (positionals.length > 1) return { ok: false, message: `one problem file expected, got ${positionals.length}: ${positionals.join(' ')}` };
+  const one = singleFile(args, 'problem file');
+  if (!one.ok) return one;
   const seed = wholeOption(args, 'seed', 0);
   if (!seed.ok) return seed;
   const evals = wholeOption(args, 'evals', 1);
@@ -131,7 +130,7 @@ function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSe
   return {
     ok: true,
     value: {
-      file: positionals[0],
+      file: one.file,
       seed: seed.value ?? DEFAULT_SEED,
       evaluations: evals.value,
       seconds: seconds.value ?? null,
