@@ -13,12 +13,13 @@
  * spare (for the reduction), the trial batch, the archive and the success lists. One
  * generation is one batch; the last batch is cut short so the budget is met exactly.
  */
+import { OptimizerBase } from './base';
 import { PointBatch } from './batch';
 import { encodeNumbers, encodeReals, fail, readInteger, readLength, readLiteral, readNumbers, readReals, readViolations } from './codec';
 import type { Prng } from './prng';
 import { BestTracker, canonicalValue, canonicalViolation, precedes, rankInto } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
-import type { BestPoint, DeState, Optimizer, ResolvedDe, StopReason } from './types';
+import type { DeState, Optimizer, ResolvedDe, StopReason } from './types';
 
 /** Cauchy scale of F and normal deviation of CR around a memory entry (Tanabe and Fukunaga, 2014). */
 const F_SCALE = 0.1;
@@ -31,7 +32,7 @@ const FALLBACK_F = 0.5;
 /** Rejection draws for an index distinct from up to three others (each fails with p ≤ 3/4). */
 const PICK_CAP = 64;
 
-export class DifferentialEvolution implements Optimizer {
+export class DifferentialEvolution extends OptimizerBase implements Optimizer {
   readonly dim: number;
   private readonly config: ResolvedDe;
   private readonly rng: Prng;
@@ -62,11 +63,9 @@ export class DifferentialEvolution implements Optimizer {
   private readonly successCR: Float64Array;
   private readonly successGain: Float64Array;
   private phase: 'init' | 'evolve' = 'init';
-  private evaluationsTold: number;
-  private stop: StopReason | null;
-  private readonly bestPoint: BestTracker;
 
   private constructor(config: ResolvedDe, rng: Prng, evaluations: number, stop: StopReason | null, best: BestTracker) {
+    super(evaluations, stop, best);
     const d = config.dim;
     this.dim = d;
     this.config = config;
@@ -97,9 +96,6 @@ export class DifferentialEvolution implements Optimizer {
     this.successF = new Float64Array(successCapacity);
     this.successCR = new Float64Array(successCapacity);
     this.successGain = new Float64Array(successCapacity);
-    this.evaluationsTold = evaluations;
-    this.stop = stop;
-    this.bestPoint = best;
   }
 
   /** A new search; `rng` is owned by it from now on. Draws the initial population uniformly. */
@@ -199,23 +195,6 @@ export class DifferentialEvolution implements Optimizer {
     if (this.stop === null && this.collapsed(xTolerance)) this.stop = 'converged';
     if (this.stop === null) this.prepareGeneration(ranked);
     else batch.clear();
-  }
-
-  best(): BestPoint {
-    const b = this.bestPoint;
-    return { x: Float64Array.from(b.x), value: b.value, violation: b.violation };
-  }
-
-  done(): boolean {
-    return this.stop !== null;
-  }
-
-  stopReason(): StopReason | null {
-    return this.stop;
-  }
-
-  evaluations(): number {
-    return this.evaluationsTold;
   }
 
   exportState(): DeState {

@@ -15,6 +15,7 @@
  * The global search draws from stream 0 of this optimizer's generator and polish k
  * from stream k + 1, so each part is reproducible on its own.
  */
+import { OptimizerBase } from './base';
 import { encodeReal, fail, readInteger, readLength, readLiteral, readNumbers, readObject, readReal } from './codec';
 import { resolveConfig } from './config';
 import { DifferentialEvolution } from './de';
@@ -23,9 +24,9 @@ import { NelderMead } from './nelder-mead';
 import type { Prng } from './prng';
 import { BestTracker, canonicalValue, canonicalViolation } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
-import type { BestPoint, HybridState, Optimizer, ResolvedDe, ResolvedHybrid, ResolvedNelderMead, StopReason } from './types';
+import type { HybridState, Optimizer, ResolvedDe, ResolvedHybrid, ResolvedNelderMead, StopReason } from './types';
 
-export class Hybrid implements Optimizer {
+export class Hybrid extends OptimizerBase implements Optimizer {
   readonly dim: number;
   private readonly config: ResolvedHybrid;
   /** Never drawn from: its streams seed the parts. */
@@ -36,18 +37,13 @@ export class Hybrid implements Optimizer {
   private readonly candidates: DistinctElite;
   private polishIndex = 0;
   private polish: NelderMead | null = null;
-  private evaluationsTold: number;
-  private stop: StopReason | null;
-  private readonly bestPoint: BestTracker;
 
   private constructor(config: ResolvedHybrid, rng: Prng, evaluations: number, stop: StopReason | null, best: BestTracker) {
+    super(evaluations, stop, best);
     this.dim = config.dim;
     this.config = config;
     this.rng = rng;
     this.candidates = new DistinctElite(config.dim, config.polishCount, config.distinctDistance);
-    this.evaluationsTold = evaluations;
-    this.stop = stop;
-    this.bestPoint = best;
   }
 
   static create(config: ResolvedHybrid, rng: Prng): Hybrid {
@@ -142,23 +138,6 @@ export class Hybrid implements Optimizer {
       this.polishIndex = -1;
     }
     this.nextPolish();
-  }
-
-  best(): BestPoint {
-    const b = this.bestPoint;
-    return { x: Float64Array.from(b.x), value: b.value, violation: b.violation };
-  }
-
-  done(): boolean {
-    return this.stop !== null;
-  }
-
-  stopReason(): StopReason | null {
-    return this.stop;
-  }
-
-  evaluations(): number {
-    return this.evaluationsTold;
   }
 
   exportState(): HybridState {

@@ -21,6 +21,7 @@
  * The search is sequential: a batch is one point, except a new simplex (n or n + 1
  * points) and a shrink (n points).
  */
+import { OptimizerBase } from './base';
 import { PointBatch } from './batch';
 import {
   encodeNumbers,
@@ -40,7 +41,7 @@ import {
 import type { Prng } from './prng';
 import { BestTracker, canonicalValue, canonicalViolation, precedes, rankInto } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
-import type { BestPoint, NelderMeadPhase, NelderMeadState, Optimizer, ResolvedNelderMead, StopReason } from './types';
+import type { NelderMeadPhase, NelderMeadState, Optimizer, ResolvedNelderMead, StopReason } from './types';
 
 export interface NelderMeadCoefficients {
   readonly reflection: number;
@@ -71,7 +72,7 @@ export interface EvaluatedStart {
   readonly violation: number;
 }
 
-export class NelderMead implements Optimizer {
+export class NelderMead extends OptimizerBase implements Optimizer {
   readonly dim: number;
   private readonly config: ResolvedNelderMead;
   private readonly rng: Prng;
@@ -95,11 +96,9 @@ export class NelderMead implements Optimizer {
   private restartStep: number;
   private restartBaseValue = Infinity;
   private restartBaseViolation = Infinity;
-  private evaluationsTold: number;
-  private stop: StopReason | null;
-  private readonly bestPoint: BestTracker;
 
   private constructor(config: ResolvedNelderMead, rng: Prng, evaluations: number, stop: StopReason | null, best: BestTracker) {
+    super(evaluations, stop, best);
     const n = config.dim;
     this.dim = n;
     this.config = config;
@@ -116,9 +115,6 @@ export class NelderMead implements Optimizer {
     this.pendingSlots = new Int32Array(n + 1);
     const firstRestartStep = config.initialStep * config.restartStepFactor;
     this.restartStep = firstRestartStep < config.minRestartStep ? config.initialStep : firstRestartStep;
-    this.evaluationsTold = evaluations;
-    this.stop = stop;
-    this.bestPoint = best;
   }
 
   /**
@@ -250,23 +246,6 @@ export class NelderMead implements Optimizer {
         }
         return;
     }
-  }
-
-  best(): BestPoint {
-    const b = this.bestPoint;
-    return { x: Float64Array.from(b.x), value: b.value, violation: b.violation };
-  }
-
-  done(): boolean {
-    return this.stop !== null;
-  }
-
-  stopReason(): StopReason | null {
-    return this.stop;
-  }
-
-  evaluations(): number {
-    return this.evaluationsTold;
   }
 
   exportState(): NelderMeadState {
