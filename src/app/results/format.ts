@@ -2,21 +2,10 @@
  * How the results views write numbers and names: every length in mm, every angle in
  * degrees, with the unit beside the figure, and family ids in the trade's words.
  */
-
-/** Family ids of src/core/synthesis in the words the tables show. */
-const FAMILY_NAMES: Readonly<Record<string, string>> = {
-  'fourbar-lengths': 'four-bar (link lengths)',
-  fourbar: 'four-bar',
-  'slider-crank': 'slider-crank',
-  'watt-i': 'Watt I six-bar',
-  'watt-ii': 'Watt II six-bar',
-  'stephenson-i': 'Stephenson I six-bar',
-  'stephenson-ii': 'Stephenson II six-bar',
-  'stephenson-iii': 'Stephenson III six-bar',
-};
+import { FAMILY_NAMES } from '../../core/synthesis';
 
 export function familyName(family: string): string {
-  return FAMILY_NAMES[family] ?? family;
+  return (FAMILY_NAMES as Readonly<Record<string, string>>)[family] ?? family;
 }
 
 /** Below this (mm) a length is written in exponent form, so a near-exact fit still shows its size. */

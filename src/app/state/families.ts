@@ -1,5 +1,5 @@
 /** The mechanism families the workspace offers, in the trade's words. */
-import type { FamilyId } from '../../core/synthesis';
+import { FAMILY_NAMES, type FamilyId } from '../../core/synthesis';
 
 export type { FamilyId };
 
@@ -11,13 +11,13 @@ export interface FamilyChoice {
 }
 
 export const FAMILY_CHOICES: readonly FamilyChoice[] = [
-  { id: 'fourbar', label: 'four-bar', note: 'crank, coupler and rocker; the coupler carries the point' },
-  { id: 'slider-crank', label: 'slider-crank', note: 'crank and connecting rod; the rod carries the point' },
-  { id: 'watt-i', label: 'Watt I six-bar', note: 'two four-bar loops sharing a ternary link' },
-  { id: 'watt-ii', label: 'Watt II six-bar', note: 'two four-bar loops in series' },
-  { id: 'stephenson-i', label: 'Stephenson I six-bar', note: 'ternary links not joined; point on a ternary link' },
-  { id: 'stephenson-ii', label: 'Stephenson II six-bar', note: 'point on a binary link of the second loop' },
-  { id: 'stephenson-iii', label: 'Stephenson III six-bar', note: 'point on a binary link, driven from a ternary' },
+  { id: 'fourbar', label: FAMILY_NAMES.fourbar, note: 'crank, coupler and rocker; the coupler carries the point' },
+  { id: 'slider-crank', label: FAMILY_NAMES['slider-crank'], note: 'crank and connecting rod; the rod carries the point' },
+  { id: 'watt-i', label: FAMILY_NAMES['watt-i'], note: 'two four-bar loops sharing a ternary link' },
+  { id: 'watt-ii', label: FAMILY_NAMES['watt-ii'], note: 'two four-bar loops in series' },
+  { id: 'stephenson-i', label: FAMILY_NAMES['stephenson-i'], note: 'ternary links not joined, the frame joins both; point on a binary link' },
+  { id: 'stephenson-ii', label: FAMILY_NAMES['stephenson-ii'], note: 'ternary crank; point on the floating ternary link' },
+  { id: 'stephenson-iii', label: FAMILY_NAMES['stephenson-iii'], note: 'ternary frame; point on the floating ternary link' },
 ];
 
 export function familyLabel(id: FamilyId): string {

@@ -4,7 +4,7 @@
  * distinct candidates.
  */
 export type { FamilyId, Timing, Placement, Measure, Branch, Constraints, KeepOutCircle, BoundsOverrides, Problem, ProblemInput, ProblemIssue, ProblemResult } from './problem';
-export { FAMILY_IDS, createProblem, DEFAULT_MATCH_SAMPLES, MIN_MATCH_SAMPLES, MAX_MATCH_SAMPLES } from './problem';
+export { FAMILY_IDS, FAMILY_NAMES, createProblem, DEFAULT_MATCH_SAMPLES, MIN_MATCH_SAMPLES, MAX_MATCH_SAMPLES } from './problem';
 export type { Target } from './target';
 export { validateTarget, MIN_TARGET_POINTS, REPEATED_POINT_TOLERANCE_MM } from './target';
 export type { ErrorSummary } from './measures';

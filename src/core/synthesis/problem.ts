@@ -27,6 +27,18 @@ export const FAMILY_IDS: readonly FamilyId[] = [
   'stephenson-iii',
 ];
 
+/** Each family in the trade's words, as views and reports name it. */
+export const FAMILY_NAMES: Readonly<Record<FamilyId, string>> = {
+  'fourbar-lengths': 'four-bar (link lengths)',
+  fourbar: 'four-bar',
+  'slider-crank': 'slider-crank',
+  'watt-i': 'Watt I six-bar',
+  'watt-ii': 'Watt II six-bar',
+  'stephenson-i': 'Stephenson I six-bar',
+  'stephenson-ii': 'Stephenson II six-bar',
+  'stephenson-iii': 'Stephenson III six-bar',
+};
+
 /**
  * Which driver value goes with each target point. Driver values are rad: for
  * `fourbar-lengths` the crank angle θ2 from the ground line (the literature form); for
