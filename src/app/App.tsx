@@ -20,20 +20,33 @@ import './workspace.css';
 const CAUTION_TEXT =
   'Loci computes kinematics only: no strength, stiffness or fatigue. A frame or walking machine must be checked by a qualified engineer and tested to the applicable standards (for bicycles, the ISO 4210 series) before anyone uses it.';
 
+/**
+ * The results below the workspace. It alone follows the candidates, so a new set (at a
+ * checkpoint, or at the end) re-renders the table and nothing else.
+ */
+function ResultsSection() {
+  const target = useWorkspace((s) => s.project.target);
+  const candidates = useWorkspace((s) => s.project.candidates);
+  const candidatesTarget = useWorkspace((s) => s.project.candidatesTarget);
+  const running = useWorkspace((s) => isActive(s.project.run.status));
+  const resultsTarget = useMemo(() => candidatesTarget ?? snapshotTarget(target), [candidatesTarget, target]);
+  // The table renders new candidates in React's deferred, interruptible pass: a new set
+  // never holds the main thread in one long task.
+  const shownCandidates = useDeferredValue(candidates);
+  const shownTarget = useDeferredValue(resultsTarget);
+  return (
+    <div className="workspace-results">
+      <ResultsView target={shownTarget} candidates={shownCandidates} running={running} />
+    </div>
+  );
+}
+
 function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
   const name = useWorkspace((s) => s.project.name);
   const target = useWorkspace((s) => s.project.target);
   const settings = useWorkspace((s) => s.project.settings);
-  const candidates = useWorkspace((s) => s.project.candidates);
-  const candidatesTarget = useWorkspace((s) => s.project.candidatesTarget);
-  const running = useWorkspace((s) => isActive(s.project.run.status));
   const { familyBounds, regions } = useFamilyBounds();
   const startProblem = targetProblem(target) ?? settingsProblem(settings);
-  const resultsTarget = useMemo(() => candidatesTarget ?? snapshotTarget(target), [candidatesTarget, target]);
-  // The table renders new candidates in React's deferred, interruptible pass: a new set
-  // (at a checkpoint, or at the end) never holds the main thread in one long task.
-  const shownCandidates = useDeferredValue(candidates);
-  const shownTarget = useDeferredValue(resultsTarget);
   return (
     <>
       <p className="project-name" data-testid="project-name">
@@ -49,9 +62,7 @@ function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
           <TargetDrawing regions={regions} />
         </div>
       </div>
-      <div className="workspace-results">
-        <ResultsView target={shownTarget} candidates={shownCandidates} running={running} />
-      </div>
+      <ResultsSection />
     </>
   );
 }

@@ -77,12 +77,13 @@ async function boot(): Promise<Workspace> {
     store.subscribe(() => {
       const now = store.getState().project;
       if (now === saved) return;
-      // A search starting, pausing or ending, and new candidates, are written at once: a
-      // reload a moment later must not find a finished search still marked as running.
+      // A search starting, pausing or ending, and new candidates, are written straight
+      // away (a reload a moment later must not find a finished search still marked as
+      // running), in a task after the re-render the change causes, not inside it.
       const urgent = now.run.status !== saved.run.status || now.candidates !== saved.candidates || now.run.checkpoint !== saved.run.checkpoint;
       saved = now;
       saver.changed(now);
-      if (urgent) void saver.flush();
+      if (urgent) setTimeout(() => void saver.flush(), 0);
     });
     // A page being hidden may be a page being closed: write what is pending.
     document.addEventListener('visibilitychange', () => {

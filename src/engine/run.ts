@@ -79,6 +79,11 @@ export interface RunOptions {
   readonly callTimeoutMs?: number;
   /** Restarts without a checkpoint in between before the run gives up; default 3. */
   readonly maxRestarts?: number;
+  /**
+   * Told of each checkpoint once it is saved, in a task of its own, with the payload the
+   * text was made from (the app describes the best designs so far without parsing it back).
+   */
+  readonly onCheckpoint?: (payload: CheckpointPayload) => void;
 }
 
 export interface Run {
@@ -174,6 +179,7 @@ class Engine implements Run {
   private readonly topK: number;
   private readonly callTimeoutMs: number;
   private readonly maxRestarts: number;
+  private readonly onCheckpoint: ((payload: CheckpointPayload) => void) | null;
   private readonly workerCount: number;
   private readonly islands: IslandView[];
   private readonly listeners = new Set<(progress: RunProgress) => void>();
@@ -212,6 +218,7 @@ class Engine implements Run {
     this.topK = options.topK ?? DEFAULT_TOP_K;
     this.callTimeoutMs = options.callTimeoutMs ?? DEFAULT_CALL_TIMEOUT_MS;
     this.maxRestarts = options.maxRestarts ?? DEFAULT_MAX_RESTARTS;
+    this.onCheckpoint = options.onCheckpoint ?? null;
     const plans = planIslands(spec);
     this.workerCount = Math.min(plans.length, options.workers ?? env.defaultWorkerCount());
     this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null }));
@@ -297,12 +304,19 @@ class Engine implements Run {
       await this.launch();
       this.beginActive();
       const stopReason = await this.loop();
+      // The end is several steps of main-thread work (encode, save, describe, report);
+      // each gets a task of its own, so a page running the engine never stalls on one.
       const payload = await this.collect();
       this.finalPayload = payload;
-      await this.save(payload);
-      const finalText = encodeCheckpoint(payload);
-      for (const request of this.exportRequests.splice(0)) request.resolve(finalText);
+      await nextTask();
+      const finalText = await this.save(payload);
+      if (this.exportRequests.length > 0) {
+        const text = finalText ?? encodeCheckpoint(payload);
+        for (const request of this.exportRequests.splice(0)) request.resolve(text);
+      }
+      await nextTask();
       const candidates = await this.describeTop();
+      await nextTask();
       this.endActive();
       this.state = 'finished';
       this.emit();
@@ -545,8 +559,16 @@ class Engine implements Run {
     };
   }
 
-  private async save(payload: CheckpointPayload): Promise<void> {
-    if (this.store !== null) await this.store.save(encodeCheckpoint(payload));
+  /** Saves the checkpoint to the store, if any, and returns its text (null with no store). */
+  private async save(payload: CheckpointPayload): Promise<string | null> {
+    let text: string | null = null;
+    if (this.store !== null) {
+      text = encodeCheckpoint(payload);
+      await this.store.save(text);
+    }
+    const listener = this.onCheckpoint;
+    if (listener !== null) setTimeout(() => listener(payload), 0);
+    return text;
   }
 
   private async checkpoint(): Promise<void> {
@@ -668,6 +690,11 @@ class Engine implements Run {
     const progress = this.progress();
     for (const listener of this.listeners) listener(progress);
   }
+}
+
+/** Resolves in a task of its own, after whatever else is queued (renders, input, timers). */
+function nextTask(): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, 0));
 }
 
 /** The values of settled calls, or the first failure (a lost worker before anything else). */

@@ -16,6 +16,7 @@ import {
   memoryCheckpointStore,
   restoreRun,
   restoreRunFromStore,
+  type CheckpointPayload,
   type RunInput,
   type RunProgress,
   type RunResult,
@@ -110,9 +111,15 @@ describe('pause, resume, checkpoint export and import, cancel', () => {
   let pausedCheckpoint = '';
   let cancelled: Finished;
   const store = memoryCheckpointStore(2);
+  const saved: string[] = [];
+  const told: CheckpointPayload[] = [];
 
   beforeAll(async () => {
-    const made = createRun(nodeEnvironment(), SPEC, { workers: 2, store });
+    const made = createRun(nodeEnvironment(), SPEC, {
+      workers: 2,
+      store: { save: (text) => (saved.push(text), store.save(text)), load: () => store.load() },
+      onCheckpoint: (payload) => told.push(payload),
+    });
     if (!made.ok) throw new Error(made.reason);
     const run = made.run;
     let pausedAt: Promise<void> | null = null;
@@ -141,6 +148,18 @@ describe('pause, resume, checkpoint export and import, cancel', () => {
     expect(decoded.ok).toBe(true);
     const paused = decodeCheckpoint(pausedCheckpoint);
     expect(paused.ok && paused.payload.rounds).toBeGreaterThanOrEqual(3);
+  });
+
+  it('tells of each checkpoint after it is saved, with the payload its text was made from', async () => {
+    await new Promise((resolve) => setTimeout(resolve, 0));
+    // At least the one at launch, the one on pause and the final one; one call per save, in order.
+    expect(told.length).toBeGreaterThanOrEqual(3);
+    expect(told.length).toBe(saved.length);
+    for (const [k, payload] of told.entries()) {
+      const decoded = decodeCheckpoint(saved[k]);
+      if (!decoded.ok) throw new Error(decoded.reason);
+      expect({ ...decoded.payload, spec: null }).toEqual({ ...payload, spec: null });
+    }
   });
 
   it('stops on cancel, before its budget, saying so', () => {

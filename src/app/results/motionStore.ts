@@ -4,7 +4,7 @@
  * run in idle time, a slice at a time, and only while the row is still on screen. The
  * detail and compare views ask for theirs at once.
  */
-import { useEffect, useMemo, useSyncExternalStore } from 'react';
+import { startTransition, useEffect, useMemo, useState } from 'react';
 import type { CandidateReport } from '../../core/synthesis';
 import { computeMotion, type MotionResult } from './motion';
 import { candidateKey } from './state';
@@ -119,14 +119,26 @@ export function motionNow(candidate: CandidateReport, steps: number): MotionResu
   return motionStore.getOrCompute(motionId(candidate, steps), computeFor(candidate, steps));
 }
 
-/** The motion once computed in idle time; undefined until then (table rows). */
+/**
+ * The motion once computed in idle time; undefined until then (table rows). A finished
+ * sweep re-renders its row in a transition, which React may interrupt, so twenty rows
+ * arriving at once never make one long task. A computed motion never changes, so
+ * reading the store during render shows no tearing.
+ */
 export function useLazyMotion(candidate: CandidateReport, steps: number): MotionResult | undefined {
   const id = motionId(candidate, steps);
-  const subscribe = useMemo(() => (listener: Listener) => motionStore.subscribe(id, listener), [id]);
-  const motion = useSyncExternalStore(subscribe, () => motionStore.get(id));
+  const [, setArrivals] = useState(0);
+  const motion = motionStore.get(id);
+  const missing = motion === undefined;
   useEffect(() => {
-    if (motion === undefined) motionStore.request(id, computeFor(candidate, steps));
-  }, [id, motion, candidate, steps]);
+    if (!missing) return;
+    const arrived = () => startTransition(() => setArrivals((n) => n + 1));
+    const unsubscribe = motionStore.subscribe(id, arrived);
+    // Swept between the render and this effect: nothing will call, so look now.
+    if (motionStore.get(id) !== undefined) arrived();
+    else motionStore.request(id, computeFor(candidate, steps));
+    return unsubscribe;
+  }, [id, missing, candidate, steps]);
   return motion;
 }
 

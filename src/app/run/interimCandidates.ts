@@ -26,17 +26,6 @@ export function bestArchived(payload: Pick<CheckpointPayload, 'archive'>, count:
   return pool.slice(0, count);
 }
 
-/** A checkpoint store that also hands each checkpoint it saves to `onSaved`. */
-export function observedStore(inner: CheckpointStore, onSaved: (text: string) => void): CheckpointStore {
-  return {
-    async save(text) {
-      await inner.save(text);
-      onSaved(text);
-    },
-    load: () => inner.load(),
-  };
-}
-
 /** The newest checkpoint in a store that reads back whole, or null. */
 export async function newestReadable(store: CheckpointStore): Promise<CheckpointPayload | null> {
   for (const text of await store.load()) {
@@ -65,21 +54,7 @@ export class InterimDescriber {
     this.onCandidates = onCandidates;
   }
 
-  /**
-   * Describes the best designs of a checkpoint the engine has just written (the latest
-   * wins if one is already in hand). The engine made the text a moment ago, so it is only
-   * parsed, not checked again: its checksum costs more main-thread time than the rest.
-   */
-  offerText(text: string): void {
-    let payload: CheckpointPayload | null;
-    try {
-      payload = (JSON.parse(text) as { payload?: CheckpointPayload }).payload ?? null;
-    } catch {
-      payload = null;
-    }
-    if (payload !== null && Array.isArray(payload.archive) && Array.isArray(payload.spec?.jobs)) this.offer(payload);
-  }
-
+  /** Describes the best designs of a checkpoint (the latest wins if one is already in hand). */
   offer(payload: CheckpointPayload): void {
     if (this.closed) return;
     if (bestArchived(payload, 1).length === 0) return;

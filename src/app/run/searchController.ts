@@ -23,7 +23,7 @@ import { targetProblem } from '../state/target';
 import { dropCheckpointsExcept, indexedDbCheckpointStore, type LociDb } from '../storage';
 import { CANDIDATES_SHOWN, buildRunInput } from './runInput';
 import { progressPatch } from './progress';
-import { InterimDescriber, newestReadable, observedStore } from './interimCandidates';
+import { InterimDescriber, newestReadable } from './interimCandidates';
 
 /** Progress reaches the store at most this often, ms. */
 export const PROGRESS_EVERY_MS = 250;
@@ -73,18 +73,19 @@ export class SearchController {
 
   private describer: InterimDescriber | null = null;
 
-  /**
-   * The run's checkpoints: in IndexedDB (in memory when the browser gives none), each one
-   * also handed, in a task of its own, to the describer that keeps the table filled.
-   */
+  /** The run's checkpoints: in IndexedDB, or in memory when the browser gives none. */
   private checkpointStore(runId: string): CheckpointStore {
+    return this.deps.db === null ? memoryCheckpointStore() : indexedDbCheckpointStore(this.deps.db, runId);
+  }
+
+  /** A fresh describer, which keeps the table filled from each checkpoint of the run. */
+  private newDescriber(): InterimDescriber {
     this.describer?.close();
     const describer = new InterimDescriber(this.deps.env, CANDIDATES_SHOWN, (candidates) => {
       if (this.describer === describer) this.store.dispatch({ type: 'run/candidates', candidates, target: this.runTarget ?? snapshotTarget(this.project.target) });
     });
     this.describer = describer;
-    const inner = this.deps.db === null ? memoryCheckpointStore() : indexedDbCheckpointStore(this.deps.db, runId);
-    return observedStore(inner, (text) => setTimeout(() => describer.offerText(text), 0));
+    return describer;
   }
 
   /** What stops a search from starting now, or null. */
@@ -108,10 +109,12 @@ export class SearchController {
       this.update({ status: 'failed', message: `Cannot start: ${built.reason}` });
       return;
     }
+    const describer = this.newDescriber();
     const made = createRun(this.deps.env, built.input, {
       workers,
       store: this.checkpointStore(runId),
       topK: CANDIDATES_SHOWN,
+      onCheckpoint: (payload) => describer.offer(payload),
     });
     if (!made.ok) {
       this.describer?.close();
@@ -213,6 +216,12 @@ export class SearchController {
     this.update({ ...patch, status: nextStatus });
   }
 
+  /**
+   * The final candidates, then, in a task of their own, the end of the run (which unlocks
+   * the target and settings): each is a re-render and a save, and together they could
+   * hold the main thread too long. A reload between the two finds the run still running
+   * and ends it again from its final checkpoint.
+   */
   private finish(run: Run, result: RunResult): void {
     if (this.run !== run) return;
     this.describer?.close();
@@ -222,18 +231,16 @@ export class SearchController {
     if (this.trailing !== null) clearTimeout(this.trailing);
     this.trailing = null;
     this.run = null;
-    const target = this.runTarget ?? snapshotTarget(this.project.target);
-    if (result.ok) {
-      const progress = run.progress();
-      this.store.dispatch({
-        type: 'run/ended',
-        patch: { ...progressPatch(progress, this.project.run, this.deps.wallNow()), status: 'finished', stopReason: result.stopReason, remainingMs: 0 },
-        candidates: reportsOf(result.candidates),
-        target,
-      });
-    } else {
+    if (!result.ok) {
       this.update({ status: 'failed', message: `The search stopped: ${result.reason}` });
+      return;
     }
+    const target = this.runTarget ?? snapshotTarget(this.project.target);
+    this.store.dispatch({ type: 'run/candidates', candidates: reportsOf(result.candidates), target });
+    setTimeout(() => {
+      if (this.run !== null) return;
+      this.update({ ...progressPatch(run.progress(), this.project.run, this.deps.wallNow()), status: 'finished', stopReason: result.stopReason, remainingMs: 0 });
+    }, 0);
   }
 
   async pause(): Promise<void> {
@@ -281,9 +288,11 @@ export class SearchController {
       return;
     }
     const store = this.checkpointStore(runId);
+    const describer = this.newDescriber();
     const restored = await restoreRunFromStore(this.deps.env, store, {
       workers: project.settings.workers ?? this.deps.env.defaultWorkerCount(),
       topK: CANDIDATES_SHOWN,
+      onCheckpoint: (payload) => describer.offer(payload),
     });
     if (!restored.ok) {
       this.describer?.close();
@@ -292,8 +301,7 @@ export class SearchController {
       return;
     }
     // The candidates of the checkpoint it goes on from, straight away rather than at the next checkpoint.
-    const describer = this.describer;
-    setTimeout(() => void newestReadable(store).then((payload) => payload !== null && describer?.offer(payload)), 0);
+    setTimeout(() => void newestReadable(store).then((payload) => payload !== null && describer.offer(payload)), 0);
     this.runTarget = project.candidatesTarget ?? snapshotTarget(project.target);
     // The engine's reasons carry checksums; the first clause says enough ("checkpoint is corrupt").
     const why = [...new Set(restored.skipped.map((reason) => reason.split(':')[0]))].join('; ');

@@ -74,9 +74,7 @@ export type Action =
   | { readonly type: 'settings/seed'; readonly seed: number }
   | { readonly type: 'settings/workers'; readonly workers: number | null }
   | { readonly type: 'run/update'; readonly patch: Partial<RunState> }
-  | { readonly type: 'run/candidates'; readonly candidates: readonly CandidateReport[]; readonly target: TargetSnapshot }
-  /** A search has ended: its last figures and its ranked candidates, in one change (and one save). */
-  | { readonly type: 'run/ended'; readonly patch: Partial<RunState>; readonly candidates: readonly CandidateReport[]; readonly target: TargetSnapshot };
+  | { readonly type: 'run/candidates'; readonly candidates: readonly CandidateReport[]; readonly target: TargetSnapshot };
 
 function withTarget(state: WorkspaceState, target: TargetState, ui: Partial<UiState> = {}): WorkspaceState {
   if (target === state.project.target) return Object.keys(ui).length === 0 ? state : { ...state, ui: { ...state.ui, ...ui } };
@@ -225,11 +223,6 @@ export function reduce(state: WorkspaceState, action: Action): WorkspaceState {
       return { ...state, project: { ...state.project, run: { ...state.project.run, ...action.patch } } };
     case 'run/candidates':
       return { ...state, project: { ...state.project, candidates: action.candidates, candidatesTarget: action.target } };
-    case 'run/ended':
-      return {
-        ...state,
-        project: { ...state.project, run: { ...state.project.run, ...action.patch }, candidates: action.candidates, candidatesTarget: action.target },
-      };
     default:
       return state;
   }
