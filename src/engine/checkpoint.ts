@@ -11,7 +11,7 @@
  * edit) shows up as a mismatch.
  */
 import type { Individual, IslandState } from '../../workers/api';
-import { fnv1a64Hex } from './checksum';
+import { Fnv1a64, fnv1a64Hex } from './checksum';
 import { defineRun, planIslands, type RunSpec } from './runSpec';
 
 export const CHECKPOINT_FORMAT = 'loci-run-checkpoint';
@@ -36,11 +36,52 @@ export interface CheckpointPayload {
 
 export type DecodeResult = { readonly ok: true; readonly payload: CheckpointPayload } | { readonly ok: false; readonly reason: string };
 
+/** Characters of the body hashed in one step of `encodeSteps`: a few ms even before the JIT warms up. */
+const HASH_STEP_CHARS = 128 * 1024;
+
+/**
+ * Builds the checkpoint text in steps, yielding between them: the counters, each island,
+ * the archives, then the checksum a slice of bytes at a time. The body is exactly
+ * `JSON.stringify(payload)` (same keys in the same order), made of pieces, so no step
+ * holds a thread for long however many islands there are.
+ */
+function* encodeSteps(payload: CheckpointPayload): Generator<void, string, void> {
+  const { islands, archive, ...counters } = payload;
+  const head = JSON.stringify(counters);
+  const pieces = [head.length > 2 ? `${head.slice(0, -1)},"islands":[` : '{"islands":['];
+  for (const [k, island] of islands.entries()) {
+    yield;
+    pieces.push(k === 0 ? JSON.stringify(island) : `,${JSON.stringify(island)}`);
+  }
+  yield;
+  pieces.push(`],"archive":${JSON.stringify(archive)}}`);
+  const body = pieces.join('');
+  const hash = new Fnv1a64();
+  for (let from = 0; from < body.length; ) {
+    yield;
+    from = hash.updateText(body, from, from + HASH_STEP_CHARS);
+  }
+  const checksum = CHECKSUM_PREFIX + hash.hex();
+  return `{"format":${JSON.stringify(CHECKPOINT_FORMAT)},"version":${CHECKPOINT_VERSION},"checksum":${JSON.stringify(checksum)},"payload":${body}}`;
+}
+
 /** The checkpoint as text. */
 export function encodeCheckpoint(payload: CheckpointPayload): string {
-  const body = JSON.stringify(payload);
-  const checksum = CHECKSUM_PREFIX + fnv1a64Hex(body);
-  return `{"format":${JSON.stringify(CHECKPOINT_FORMAT)},"version":${CHECKPOINT_VERSION},"checksum":${JSON.stringify(checksum)},"payload":${body}}`;
+  const steps = encodeSteps(payload);
+  let step = steps.next();
+  while (step.done !== true) step = steps.next();
+  return step.value;
+}
+
+/** The checkpoint as text, each step of the encoding after `pause()` (the engine passes "the next task"). */
+export async function encodeCheckpointInSteps(payload: CheckpointPayload, pause: () => Promise<void>): Promise<string> {
+  const steps = encodeSteps(payload);
+  let step = steps.next();
+  while (step.done !== true) {
+    await pause();
+    step = steps.next();
+  }
+  return step.value;
 }
 
 function isObject(v: unknown): v is Record<string, unknown> {

@@ -14,7 +14,7 @@
 import { precedes } from '../core/optimize';
 import type { DescribedCandidate, IslandInfo, IslandProgress, IslandState, IslandStopReason, StepSlice } from '../../workers/api';
 import { CandidateArchive } from '../../workers/archive';
-import { decodeCheckpoint, encodeCheckpoint, type CheckpointPayload } from './checkpoint';
+import { decodeCheckpoint, encodeCheckpointInSteps, type CheckpointPayload } from './checkpoint';
 import type { CheckpointStore } from './checkpointStore';
 import type { EngineEnvironment } from './environment';
 import { defineRun, planIslands, type IslandPlan, type RunInput, type RunSpec } from './runSpec';
@@ -289,8 +289,8 @@ class Engine implements Run {
   }
 
   exportCheckpoint(): Promise<string> {
-    if (this.finalPayload !== null) return Promise.resolve(encodeCheckpoint(this.finalPayload));
-    if (this.state === 'paused') return this.collect().then(encodeCheckpoint);
+    if (this.finalPayload !== null) return encodeInTasks(this.finalPayload);
+    if (this.state === 'paused') return this.collect().then(encodeInTasks);
     if (this.state === 'idle') return Promise.reject(new Error('exportCheckpoint: the run has not started'));
     if (this.state === 'failed') return Promise.reject(new Error('exportCheckpoint: the run failed; its last checkpoint is the one in its store'));
     return new Promise((resolve, reject) => this.exportRequests.push({ resolve, reject }));
@@ -311,7 +311,7 @@ class Engine implements Run {
       await nextTask();
       const finalText = await this.save(payload);
       if (this.exportRequests.length > 0) {
-        const text = finalText ?? encodeCheckpoint(payload);
+        const text = finalText ?? (await encodeInTasks(payload));
         for (const request of this.exportRequests.splice(0)) request.resolve(text);
       }
       await nextTask();
@@ -563,7 +563,7 @@ class Engine implements Run {
   private async save(payload: CheckpointPayload): Promise<string | null> {
     let text: string | null = null;
     if (this.store !== null) {
-      text = encodeCheckpoint(payload);
+      text = await encodeInTasks(payload);
       await this.store.save(text);
     }
     const listener = this.onCheckpoint;
@@ -582,7 +582,7 @@ class Engine implements Run {
 
   private async answerExports(): Promise<void> {
     if (this.exportRequests.length === 0) return;
-    const text = encodeCheckpoint(await this.collect());
+    const text = await encodeInTasks(await this.collect());
     for (const request of this.exportRequests.splice(0)) request.resolve(text);
   }
 
@@ -695,6 +695,11 @@ class Engine implements Run {
 /** Resolves in a task of its own, after whatever else is queued (renders, input, timers). */
 function nextTask(): Promise<void> {
   return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
+/** A checkpoint's text, encoded in short tasks: on the page's thread, no step is a long task. */
+function encodeInTasks(payload: CheckpointPayload): Promise<string> {
+  return encodeCheckpointInSteps(payload, nextTask);
 }
 
 /** The values of settled calls, or the first failure (a lost worker before anything else). */

@@ -8,10 +8,12 @@
  * a deterministic run must end bit for bit the same however it was paused, exported,
  * restored on another number of workers, or had a worker killed under it.
  */
+import fc from 'fast-check';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
   createRun,
   decodeCheckpoint,
+  encodeCheckpoint,
   fnv1a64Hex,
   memoryCheckpointStore,
   restoreRun,
@@ -21,6 +23,8 @@ import {
   type RunProgress,
   type RunResult,
 } from '../../src/engine';
+import { encodeCheckpointInSteps } from '../../src/engine/checkpoint';
+import { Fnv1a64 } from '../../src/engine/checksum';
 import { nodeEnvironment, spawnNodeSearchWorker, type NodeWorkerHandle } from '../../src/engine/node';
 import type { DeState } from '../../src/core/optimize';
 import { createSearchWorkerApi } from '../../workers/searchWorkerApi';
@@ -54,6 +58,7 @@ function fingerprint(result: Finished) {
 
 let reference: Finished;
 let referenceEvents: RunProgress[];
+let referenceCheckpoint: string;
 
 beforeAll(async () => {
   const made = createRun(nodeEnvironment(), SPEC, { workers: 2 });
@@ -61,6 +66,7 @@ beforeAll(async () => {
   referenceEvents = [];
   made.run.onProgress((p) => referenceEvents.push(p));
   reference = finished(await made.run.start());
+  referenceCheckpoint = await made.run.exportCheckpoint();
 });
 
 describe('a deterministic run', () => {
@@ -319,6 +325,50 @@ describe('checkpoint checksum', () => {
     expect(fnv1a64Hex('')).toBe('cbf29ce484222325');
     expect(fnv1a64Hex('a')).toBe('af63dc4c8601ec8c');
     expect(fnv1a64Hex('foobar')).toBe('85944171f73967e8');
+  });
+
+  it('hashed a piece at a time gives the hash of the whole, surrogate pairs and lone surrogates included', () => {
+    const hash = new Fnv1a64();
+    for (let from = 0; from < 6; ) from = hash.updateText('foobar', from, from + 4);
+    expect(hash.hex()).toBe('85944171f73967e8');
+    // Against the UTF-8 bytes TextEncoder gives (a lone surrogate becomes U+FFFD), pieces of 1 to 5 code units.
+    const encoder = new TextEncoder();
+    const inPieces = (text: string, size: number) => {
+      const pieces = new Fnv1a64();
+      for (let from = 0; from < text.length; ) from = pieces.updateText(text, from, from + size);
+      return pieces.hex();
+    };
+    // A pair split by a piece's end, a lone high and a lone low surrogate: stated, not left to chance.
+    const edgy = 'a\ud83d\ude00b\ud800c\udc00';
+    const edgyBytes = encoder.encode(edgy);
+    const edgyWhole = new Fnv1a64();
+    edgyWhole.update(edgyBytes, 0, edgyBytes.length);
+    for (const size of [1, 2, 3]) expect(inPieces(edgy, size)).toBe(edgyWhole.hex());
+    fc.assert(
+      fc.property(fc.string({ unit: 'binary', maxLength: 40 }), fc.integer({ min: 1, max: 5 }), (text, size) => {
+        const whole = new Fnv1a64();
+        const bytes = encoder.encode(text);
+        whole.update(bytes, 0, bytes.length);
+        return inPieces(text, size) === whole.hex() && fnv1a64Hex(text) === whole.hex();
+      }),
+    );
+  });
+
+  it('is taken over JSON.stringify(payload), whether the text is encoded at once or in steps', async () => {
+    const decoded = decodeCheckpoint(referenceCheckpoint);
+    if (!decoded.ok) throw new Error(decoded.reason);
+    const payload = decoded.payload;
+    const body = JSON.stringify(payload);
+    const whole = `{"format":"loci-run-checkpoint","version":1,"checksum":"fnv1a64:${fnv1a64Hex(body)}","payload":${body}}`;
+    expect(encodeCheckpoint(payload)).toBe(whole);
+    let pauses = 0;
+    const stepped = await encodeCheckpointInSteps(payload, () => {
+      pauses++;
+      return Promise.resolve();
+    });
+    expect(stepped).toBe(whole);
+    // One pause before each island, one before the archives, one before each slice of the hash.
+    expect(pauses).toBeGreaterThanOrEqual(payload.islands.length + 2);
   });
 });
 
