@@ -5,6 +5,7 @@
  * reload, a search a reload interrupted going on from its checkpoint (a damaged newest
  * checkpoint skipped for the one before), and no request to any other origin.
  */
+import { readFile } from 'node:fs/promises';
 import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
@@ -313,6 +314,12 @@ describeBrowser('workspace', () => {
     const first = await waitForCheckpointAfter(page, 0);
     expect(first.evaluations).toBeGreaterThan(0);
     await saveScreenshot(page, 'workspace-search-running');
+    // The target is locked, but it can still be saved while the search runs on it.
+    expect(await page.getByLabel('Closed path (a loop, once per crank turn)').isDisabled()).toBe(true);
+    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export target as CSV' }).click()]);
+    expect(file.suggestedFilename()).toBe('target.csv');
+    const csvRows = (await readFile(await file.path(), 'utf8')).trim().split(/\r?\n/);
+    expect(csvRows.length).toBe(1 + 24);
     const second = await waitForCheckpointAfter(page, first.round);
     expect(second.evaluations).toBeGreaterThan(first.evaluations);
 

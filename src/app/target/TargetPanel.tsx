@@ -95,9 +95,6 @@ export function TargetPanel() {
                 }}
               />
             </label>
-            <button type="button" disabled={target.points.length === 0} onClick={() => download('target.csv', formatPointsCsv(target.points))}>
-              Export CSV
-            </button>
           </div>
         </details>
 
@@ -114,6 +111,12 @@ export function TargetPanel() {
 
         <BackgroundControls />
       </fieldset>
+      {/* Outside the fieldset: the target can be saved while a search runs on it. */}
+      <div className="row-actions">
+        <button type="button" disabled={target.points.length === 0} onClick={() => download('target.csv', formatPointsCsv(target.points))}>
+          Export target as CSV
+        </button>
+      </div>
     </section>
   );
 }
