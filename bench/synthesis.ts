@@ -17,7 +17,8 @@
  * Peers get the same objective and the same budgets, counted by a wrapper that throws a
  * sentinel once the budget is spent: `rs_minimize` and `minimize_Powell` of
  * optimization-js (bench/peers) and `nelderMead` of fmin. They search our unit box
- * [0, 1]^dim (the affine map to the real bounds the islands use) and minimise
+ * [0, 1]^dim through the map to designs the islands use (the problem file's search map,
+ * affine unless it names one) and minimise
  * value + PENALTY_WEIGHT × violation; points outside the box count as infeasible through
  * the objective's own bounds violation. Every optimizer is scored alike: the value of
  * the best feasible design it evaluated.
@@ -34,7 +35,7 @@ import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { Worker } from 'node:worker_threads';
 import { parseProblemFile } from '../src/core/io/problem';
-import { Prng, fromUnitBoxInto } from '../src/core/optimize';
+import { Prng } from '../src/core/optimize';
 import { createObjective, type Objective } from '../src/core/synthesis';
 import { createRun } from '../src/engine';
 import { nodeEnvironment } from '../src/engine/node';
@@ -151,7 +152,7 @@ class CountedObjective {
     this.count++;
     const { objective, unit, real, out } = this;
     for (let j = 0; j < objective.dim; j++) unit[j] = x[j];
-    objective.evaluate(fromUnitBoxInto(unit, objective.lower, objective.upper, real), out);
+    objective.evaluate(objective.fromSearchBoxInto(unit, real), out);
     const value = out[0];
     const violation = out[1] > 0 ? out[1] : 0;
     if (violation <= 0 && value < this.bestFeasible) this.bestFeasible = value;

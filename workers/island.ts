@@ -8,10 +8,8 @@ import {
   canonicalValue,
   canonicalViolation,
   createOptimizer,
-  fromUnitBoxInto,
   MAX_STREAM,
   restoreOptimizer,
-  toUnitBoxInto,
   type Optimizer,
   type OptimizerConfig,
 } from '../src/core/optimize';
@@ -197,7 +195,7 @@ export class Island {
     const best = opt.best();
     const seen = opt.evaluations() > 0 && best.value < Infinity;
     let bestX: number[] | null = null;
-    if (seen) bestX = Array.from(fromUnitBoxInto(best.x, this.objective.lower, this.objective.upper, this.real));
+    if (seen) bestX = Array.from(this.objective.fromSearchBoxInto(best.x, this.real));
     return {
       islandId: this.config.islandId,
       evaluations: opt.evaluations(),
@@ -276,7 +274,7 @@ export class Island {
 
   private evaluateInto(u: Float64Array, k: number, values: Float64Array, violations: Float64Array): void {
     const o = this.objective;
-    const x = fromUnitBoxInto(u, o.lower, o.upper, this.real);
+    const x = o.fromSearchBoxInto(u, this.real);
     o.evaluate(x, this.out);
     const value = canonicalValue(this.out[0]);
     const violation = canonicalViolation(this.out[1], value);
@@ -291,7 +289,7 @@ export class Island {
     if (this.immigrants.length === 0) return 0;
     const o = this.objective;
     const unitImmigrants: UnitImmigrant[] = this.immigrants.map((individual) => {
-      const u = toUnitBoxInto(individual.x, o.lower, o.upper, new Float64Array(o.dim));
+      const u = o.toSearchBoxInto(individual.x, new Float64Array(o.dim));
       for (let j = 0; j < u.length; j++) u[j] = Math.min(1, Math.max(0, u[j]));
       return { u, value: individual.value, violation: individual.violation };
     });

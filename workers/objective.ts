@@ -15,6 +15,10 @@ export interface SearchObjective {
   readonly lower: Float64Array;
   readonly upper: Float64Array;
   readonly variableNames: readonly string[];
+  /** The design a point u of the optimizer's box [0, 1]^dim stands for (affine unless the objective maps otherwise); no allocation. */
+  fromSearchBoxInto(u: ArrayLike<number>, x: Float64Array): Float64Array;
+  /** A box point standing for design x: how immigrants re-enter the search. */
+  toSearchBoxInto(x: ArrayLike<number>, u: Float64Array): Float64Array;
   /** out[0] = value, out[1] = violation (0 feasible). May write a repaired x back. No allocation. */
   evaluate(x: Float64Array, out: Float64Array): void;
   /** A full report of one design (allocates). */
@@ -45,7 +49,13 @@ function synthesisObjective(problemFile: unknown, family: unknown): ObjectiveRes
     const issues = parsed.issues.map((issue) => (issue.path === '' ? issue.message : `${issue.path}: ${issue.message}`));
     return { ok: false, reason: `problem: ${issues.join('; ')}` };
   }
-  const objective = createObjective(parsed.problem, family as FamilyId);
+  let objective: ReturnType<typeof createObjective>;
+  try {
+    objective = createObjective(parsed.problem, family as FamilyId);
+  } catch (error) {
+    if (error instanceof RangeError) return { ok: false, reason: error.message };
+    throw error;
+  }
   return {
     ok: true,
     objective: {
@@ -53,6 +63,8 @@ function synthesisObjective(problemFile: unknown, family: unknown): ObjectiveRes
       lower: objective.lower,
       upper: objective.upper,
       variableNames: objective.variableNames,
+      fromSearchBoxInto: objective.fromSearchBoxInto,
+      toSearchBoxInto: objective.toSearchBoxInto,
       evaluate: objective.evaluate,
       describe: (x) => ({ kind: 'synthesis', candidate: objective.describe(x) }),
     },

@@ -4,6 +4,7 @@
  * linkage in the loop. Definitions and domains from Jamil and Yang (2013), "A literature
  * survey of benchmark functions for global optimization problems".
  */
+import { fromUnitBoxInto, toUnitBoxInto } from '../src/core/optimize';
 import type { SearchObjective } from './objective';
 
 export const TEST_FUNCTION_NAMES = ['rosenbrock'] as const;
@@ -58,10 +59,14 @@ export function testFunctionObjective(
   if (!(typeof dim === 'number' && Number.isInteger(dim) && dim >= f.minDim && dim <= MAX_TEST_FUNCTION_DIM)) {
     return { ok: false, reason: `dim of ${name} is ${JSON.stringify(dim)}; expected an integer in [${f.minDim}, ${MAX_TEST_FUNCTION_DIM}]` };
   }
+  const lower = new Float64Array(dim).fill(f.lower);
+  const upper = new Float64Array(dim).fill(f.upper);
   const objective: SearchObjective = {
     dim,
-    lower: new Float64Array(dim).fill(f.lower),
-    upper: new Float64Array(dim).fill(f.upper),
+    lower,
+    upper,
+    fromSearchBoxInto: (u, x) => fromUnitBoxInto(u, lower, upper, x),
+    toSearchBoxInto: (x, u) => toUnitBoxInto(x, lower, upper, u),
     variableNames: Array.from({ length: dim }, (_, i) => `x${i + 1}`),
     evaluate(x, out) {
       out[0] = f.value(x);

@@ -13,6 +13,7 @@
  *     "constraints"?: { "fullTurnCrank"?, "grashofTolerance"?, "minTransmissionRad"?,
  *                       "linkLengthMm"?, "keepOut"?, "branch"? },
  *     "measure"?: "sum-of-squares" | "rms" | "max",
+ *     "searchMaps"?: { "fourbar-lengths": "fourbar-boundary" },
  *     "description"?: "…" }
  *
  * Lengths in mm, angles in rad (prescribed driver values may be given in degrees with
@@ -23,7 +24,7 @@
  */
 import * as z from 'zod';
 import { describeValue, expected, formatPath, quoteList, strict } from './schemaMessages';
-import { FAMILY_IDS, createProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue } from '../synthesis';
+import { FAMILY_IDS, SEARCH_MAP_KINDS, createProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue } from '../synthesis';
 
 export const PROBLEM_FILE_FORMAT = 'loci-problem';
 /** The version this code writes, and the newest it reads. */
@@ -102,6 +103,11 @@ const fileShape = {
     .optional(),
   constraints: constraintsSchema.optional(),
   measure: z.enum(['sum-of-squares', 'rms', 'max'], { error: expected('"sum-of-squares", "rms" or "max"') }).optional(),
+  searchMaps: z
+    .partialRecord(familyEnum, z.enum(SEARCH_MAP_KINDS, { error: expected(`a search map, one of ${quoteList(SEARCH_MAP_KINDS)}`) }), {
+      error: expected('an object of family → search map'),
+    })
+    .optional(),
 };
 const problemFileV1Schema = strict('a problem file', fileShape);
 
@@ -153,6 +159,7 @@ export function parseProblemFile(json: unknown): ParseProblemFileResult {
     ...(file.bounds === undefined ? {} : { bounds: file.bounds }),
     ...(file.constraints === undefined ? {} : { constraints: file.constraints }),
     ...(file.measure === undefined ? {} : { measure: file.measure }),
+    ...(file.searchMaps === undefined ? {} : { searchMaps: file.searchMaps }),
   });
   if (!created.ok) return created;
   const problem = created.problem;

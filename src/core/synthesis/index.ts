@@ -10,6 +10,8 @@ export { validateTarget, MIN_TARGET_POINTS, REPEATED_POINT_TOLERANCE_MM } from '
 export type { ErrorSummary } from './measures';
 export { MEASURES, errorSummary, measureValue } from './measures';
 export type { CandidateReport, Objective } from './objective';
+export type { SearchMap, SearchMapKind } from './searchMap';
+export { createSearchMap, LOG_SCALE_RATE, SEARCH_MAP_KINDS, searchMapMisfit } from './searchMap';
 export { createObjective, objectiveVariableNames, REFINE_ITERATIONS, FREE_REFINE_MAX_STEP_RAD } from './objective';
 export type { Ranked } from './ranking';
 export { compareCandidates, compareRanks } from './ranking';

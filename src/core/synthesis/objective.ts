@@ -38,6 +38,7 @@ import { errorSummary, measureValue, type ErrorSummary } from './measures';
 import { createPoseFamily } from './poseFamilies';
 import { DEFAULT_MATCH_SAMPLES, type FamilyId, type Problem } from './problem';
 import { compareRanks } from './ranking';
+import { createSearchMap, type SearchMapKind } from './searchMap';
 import {
   REFINE_HI as REFINE_HI_BINDING,
   REFINE_IO_LENGTH,
@@ -128,6 +129,16 @@ export interface Objective {
    * value is that of the x the caller then holds.
    */
   evaluate(x: Float64Array, out: Float64Array): void;
+  /** Which map takes the search box to designs: the problem's for this family (searchMap.ts). */
+  readonly searchMap: SearchMapKind;
+  /**
+   * The design x that a point u of the search box [0, 1]^dim stands for, inside
+   * [lower, upper]; allocates nothing. With the default 'affine' map this is
+   * `fromUnitBoxInto(u, lower, upper, x)`.
+   */
+  fromSearchBoxInto(u: ArrayLike<number>, x: Float64Array): Float64Array;
+  /** A search-box point standing for design x (the inverse of fromSearchBoxInto where it is one to one). */
+  toSearchBoxInto(x: ArrayLike<number>, u: Float64Array): Float64Array;
   /** Full report of one design (allocates; for the archive and the top candidates). */
   describe(x: Float64Array): CandidateReport;
 }
@@ -187,6 +198,15 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
     }
     if (!matched) throw new RangeError(`bounds.${family}.${name}: no such variable; expected one of ${names.join(', ')}${dim > m ? ` or ${encoding.driverName}` : ''}`);
   }
+
+  const searchMap = createSearchMap(problem.searchMaps[family] ?? 'affine', {
+    family,
+    placement: problem.placement,
+    constraints: problem.constraints,
+    freeDrivers: timing.mode === 'free' ? n : 0,
+    lower,
+    upper,
+  });
 
   // Scratch, allocated once.
   const parts = new Float64Array(V_SLOTS);
@@ -519,7 +539,18 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
     };
   }
 
-  return { family, dim, lower, upper, variableNames: names, evaluate, describe };
+  return {
+    family,
+    dim,
+    lower,
+    upper,
+    variableNames: names,
+    evaluate,
+    searchMap: searchMap.kind,
+    fromSearchBoxInto: searchMap.fromSearchBoxInto,
+    toSearchBoxInto: searchMap.toSearchBoxInto,
+    describe,
+  };
 }
 
 /**

@@ -4,6 +4,7 @@
  * problem file or a worker message carries it) and says what is wrong, field by field.
  */
 
+import { SEARCH_MAP_KINDS, searchMapMisfit, type SearchMapKind } from './searchMap';
 import { validateTarget, type Target } from './target';
 
 export type FamilyId =
@@ -107,7 +108,14 @@ export interface Problem {
   readonly constraints: Constraints;
   /** What the search minimises; all three are reported for every candidate. */
   readonly measure: Measure;
+  /**
+   * How the search's box maps to the designs of a family (searchMap.ts), where it is not
+   * the default 'affine'. The problem, its bounds and its values stay the same.
+   */
+  readonly searchMaps: SearchMaps;
 }
+
+export type SearchMaps = Readonly<Partial<Record<FamilyId, SearchMapKind>>>;
 
 /** The same problem as plain data (a problem file's content after its schema). */
 export interface ProblemInput {
@@ -126,6 +134,7 @@ export interface ProblemInput {
   readonly bounds?: BoundsOverrides;
   readonly constraints?: Constraints;
   readonly measure?: Measure;
+  readonly searchMaps?: SearchMaps;
 }
 
 export interface ProblemIssue {
@@ -216,6 +225,19 @@ export function createProblem(input: ProblemInput): ProblemResult {
   });
   checkBounds(input.bounds, issues);
   checkConstraints(input.constraints, issues);
+  const searchMaps: Partial<Record<FamilyId, SearchMapKind>> = {};
+  for (const [family, kind] of Object.entries(input.searchMaps ?? {})) {
+    const path = `searchMaps.${family}`;
+    if (!input.families.includes(family as FamilyId)) {
+      issues.push({ path, message: `"${family}" is not one of the problem's families (${input.families.join(', ')})` });
+    } else if (!(SEARCH_MAP_KINDS as readonly unknown[]).includes(kind)) {
+      issues.push({ path, message: `is ${JSON.stringify(kind)}; expected one of ${SEARCH_MAP_KINDS.join(', ')}` });
+    } else {
+      const misfit = searchMapMisfit(kind, family, input.placement);
+      if (misfit !== null) issues.push({ path, message: misfit });
+      else searchMaps[family as FamilyId] = kind;
+    }
+  }
   if (issues.length > 0 || target === null) return { ok: false, issues };
 
   const bounds: Partial<Record<FamilyId, Record<string, readonly [number, number]>>> = {};
@@ -244,6 +266,7 @@ export function createProblem(input: ProblemInput): ProblemResult {
       bounds,
       constraints,
       measure: input.measure ?? 'sum-of-squares',
+      searchMaps,
     },
   };
 }

@@ -90,6 +90,20 @@ describe('parseProblemFile', () => {
     expect(issuesOf(file({ placement: 3 }))[0]).toEqual({ path: 'placement', message: 'expected "fixed" or "free", got 3' });
   });
 
+  it('takes a search map per family, and says which map, family or placement does not fit', () => {
+    const mapped = parseProblemFile(file({ searchMaps: { 'fourbar-lengths': 'fourbar-boundary' } }));
+    expect(mapped.ok && mapped.problem.searchMaps).toEqual({ 'fourbar-lengths': 'fourbar-boundary' });
+    const plain = parseProblemFile(file());
+    expect(plain.ok && plain.problem.searchMaps).toEqual({});
+    expect(issuesOf(file({ searchMaps: { 'fourbar-lengths': 'spiral' } }))[0]).toMatchObject({ path: 'searchMaps.fourbar-lengths' });
+    expect(issuesOf(file({ searchMaps: { fourbar: 'fourbar-boundary' } }))).toEqual([
+      { path: 'searchMaps.fourbar', message: '"fourbar" is not one of the problem\'s families (fourbar-lengths)' },
+    ]);
+    expect(issuesOf(file({ placement: 'free', searchMaps: { 'fourbar-lengths': 'fourbar-boundary' } }))).toEqual([
+      { path: 'searchMaps.fourbar-lengths', message: 'search map "fourbar-boundary" is for fourbar-lengths with a fixed placement; got fourbar-lengths with a free placement' },
+    ]);
+  });
+
   it('checks the envelope first', () => {
     expect(issuesOf([1, 2])[0].message).toMatch(/expected a problem file/);
     expect(issuesOf(file({ format: 'loci-linkage' }))[0]).toEqual({ path: 'format', message: 'expected "loci-problem", got "loci-linkage"' });
