@@ -31,6 +31,8 @@ const OPTIONS: readonly OptionSpec[] = [
 interface FamilySummary {
   readonly family: string;
   readonly dim: number;
+  /** How the search's box maps to designs (src/core/synthesis/searchMap.ts). */
+  readonly searchMap: string;
   readonly variables: { readonly name: string; readonly lower: number; readonly upper: number }[];
 }
 
@@ -41,6 +43,7 @@ export function searchSummary(problem: Problem): FamilySummary[] {
     return {
       family,
       dim: objective.dim,
+      searchMap: objective.searchMap,
       variables: objective.variableNames.map((name, j) => ({ name, lower: objective.lower[j], upper: objective.upper[j] })),
     };
   });
@@ -81,7 +84,7 @@ function summaryText(file: string, problem: Problem, families: readonly FamilySu
     `A fit would search ${families.length} famil${families.length === 1 ? 'y' : 'ies'}:`,
   ];
   for (const f of families) {
-    lines.push(`  ${f.family}: ${f.dim} variables`);
+    lines.push(`  ${f.family}: ${f.dim} variables${f.searchMap === 'affine' ? '' : `, searched through the "${f.searchMap}" search map`}`);
     const width = Math.max(...f.variables.map((v) => v.name.length));
     for (const v of f.variables) lines.push(`    ${v.name.padEnd(width)}  ${formatBound(v.lower)} … ${formatBound(v.upper)}`);
   }

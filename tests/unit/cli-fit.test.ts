@@ -76,6 +76,15 @@ describe('loci check', () => {
     expect(summary.families[0].dim).toBe(9);
     expect(summary.families[0].variables.find((v) => v.name === 'x0')).toEqual({ name: 'x0', lower: -5, upper: 5 });
   });
+
+  it('names the search map a problem file asks for', async () => {
+    const mapped = write('timed5-mapped.json', { ...TIMED5, searchMaps: { 'fourbar-lengths': 'fourbar-boundary' } });
+    const r = await loci('check', mapped);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/fourbar-lengths: 9 variables, searched through the "fourbar-boundary" search map/);
+    const json = JSON.parse((await loci('check', '--json', mapped)).stdout) as { families: { searchMap: string }[] };
+    expect(json.families[0].searchMap).toBe('fourbar-boundary');
+  });
 });
 
 describe('loci fit', () => {
