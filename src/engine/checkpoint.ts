@@ -41,7 +41,7 @@ const HASH_STEP_CHARS = 128 * 1024;
 
 /**
  * Builds the checkpoint text in steps, yielding between them: the counters, each island,
- * the archives, then the checksum a slice of bytes at a time. The body is exactly
+ * the archives, then the checksum a slice of characters at a time. The body is exactly
  * `JSON.stringify(payload)` (same keys in the same order), made of pieces, so no step
  * holds a thread for long however many islands there are.
  */
