@@ -11,8 +11,8 @@ import {
   MAX_REPORT_STEPS,
   analyzeLinkage,
 } from '../core/linkage/report';
-import { numberOption, parseCommandArgs, singleFile, type OptionSpec } from './args';
-import { EXIT_OK, EXIT_USAGE, type CliIo } from './command';
+import { numberOption, singleFile, type OptionSpec } from './args';
+import { EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
 
 export const usage = `usage: loci analyze DESIGN.json [--from A --to B] [--steps N]
@@ -45,25 +45,18 @@ const OPTIONS: readonly OptionSpec[] = [
 const RAD_PER_DEG = Math.PI / 180;
 
 export async function run(args: readonly string[], io: CliIo): Promise<number> {
-  const usageError = (message: string): number => {
-    io.stderr(`loci analyze: ${message}\n\n${usage}`);
-    return EXIT_USAGE;
-  };
-  const parsed = parseCommandArgs(args, OPTIONS);
-  if (!parsed.ok) return usageError(parsed.message);
-  if (parsed.args.options.has('help')) {
-    io.stdout(usage);
-    return EXIT_OK;
-  }
-  const one = singleFile(parsed.args, 'linkage file');
+  const start = startCommand('analyze', usage, args, OPTIONS, io);
+  if (typeof start === 'number') return start;
+  const { usageError } = start;
+  const one = singleFile(start.args, 'linkage file');
   if (!one.ok) return usageError(one.message);
   const file = one.file;
 
-  const from = numberOption(parsed.args, 'from', 'a number (degrees for a rotation driver, mm for a length driver)');
+  const from = numberOption(start.args, 'from', 'a number (degrees for a rotation driver, mm for a length driver)');
   if (!from.ok) return usageError(from.message);
-  const to = numberOption(parsed.args, 'to', 'a number (degrees for a rotation driver, mm for a length driver)');
+  const to = numberOption(start.args, 'to', 'a number (degrees for a rotation driver, mm for a length driver)');
   if (!to.ok) return usageError(to.message);
-  const steps = numberOption(parsed.args, 'steps', `a whole number from 2 to ${MAX_REPORT_STEPS}`);
+  const steps = numberOption(start.args, 'steps', `a whole number from 2 to ${MAX_REPORT_STEPS}`);
   if (!steps.ok) return usageError(steps.message);
   if ((from.value === undefined) !== (to.value === undefined)) {
     return usageError(`--from and --to go together; got only --${from.value === undefined ? 'to' : 'from'}`);

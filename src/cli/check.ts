@@ -4,8 +4,8 @@
  * with the field it concerns, and exit code 2.
  */
 import { createObjective, type Problem } from '../core/synthesis';
-import { parseCommandArgs, singleFile, type OptionSpec } from './args';
-import { EXIT_OK, EXIT_USAGE, type CliIo } from './command';
+import { singleFile, type OptionSpec } from './args';
+import { EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
 
@@ -92,17 +92,10 @@ function summaryText(file: string, problem: Problem, families: readonly FamilySu
 }
 
 export async function run(args: readonly string[], io: CliIo): Promise<number> {
-  const usageError = (message: string): number => {
-    io.stderr(`loci check: ${message}\n\n${usage}`);
-    return EXIT_USAGE;
-  };
-  const parsed = parseCommandArgs(args, OPTIONS);
-  if (!parsed.ok) return usageError(parsed.message);
-  if (parsed.args.options.has('help')) {
-    io.stdout(usage);
-    return EXIT_OK;
-  }
-  const one = singleFile(parsed.args, 'problem file');
+  const start = startCommand('check', usage, args, OPTIONS, io);
+  if (typeof start === 'number') return start;
+  const { usageError } = start;
+  const one = singleFile(start.args, 'problem file');
   if (!one.ok) return usageError(one.message);
   const file = one.file;
 
@@ -112,7 +105,7 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     return EXIT_USAGE;
   }
   const families = searchSummary(read.problem);
-  if (parsed.args.options.has('json')) {
+  if (start.args.options.has('json')) {
     const p = read.problem;
     io.stdout(
       `${formatJson({

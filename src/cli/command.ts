@@ -3,6 +3,7 @@
  * of a command module (`usage` and `run`), so main.ts can list and load commands from
  * one table.
  */
+import { parseCommandArgs, type OptionSpec, type ParsedArgs } from './args';
 
 /** Exit codes: 0 done, 1 an unexpected failure (a bug), 2 bad input (file, flags, usage). */
 export const EXIT_OK = 0;
@@ -24,4 +25,28 @@ export interface CliCommandModule {
   readonly usage: string;
   /** Runs with the arguments after the command name; resolves to an exit code. */
   run(args: readonly string[], io: CliIo): Promise<number>;
+}
+
+/** A command's parsed arguments, and how it reports a usage error (its message, then its help; exit 2). */
+export interface CommandStart {
+  readonly args: ParsedArgs;
+  usageError(message: string): number;
+}
+
+/**
+ * The start every command shares: parse `argv` against `specs`, answer --help with the
+ * help text. Returns the exit code when that already ends the command.
+ */
+export function startCommand(name: string, usage: string, argv: readonly string[], specs: readonly OptionSpec[], io: CliIo): CommandStart | number {
+  const usageError = (message: string): number => {
+    io.stderr(`loci ${name}: ${message}\n\n${usage}`);
+    return EXIT_USAGE;
+  };
+  const parsed = parseCommandArgs(argv, specs);
+  if (!parsed.ok) return usageError(parsed.message);
+  if (parsed.args.options.has('help')) {
+    io.stdout(usage);
+    return EXIT_OK;
+  }
+  return { args: parsed.args, usageError };
 }

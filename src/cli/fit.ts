@@ -17,8 +17,8 @@ import {
   type RunProgress,
 } from '../engine';
 import { fileCheckpointStore, nodeEnvironment, writeFileAtomic } from '../engine/node';
-import { numberOption, parseCommandArgs, singleFile, type OptionSpec, type ParsedArgs } from './args';
-import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, type CliIo } from './command';
+import { numberOption, singleFile, type OptionSpec, type ParsedArgs } from './args';
+import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
 
@@ -238,17 +238,10 @@ async function openRun(
 }
 
 export async function run(args: readonly string[], io: CliIo): Promise<number> {
-  const usageError = (message: string): number => {
-    io.stderr(`loci fit: ${message}\n\n${usage}`);
-    return EXIT_USAGE;
-  };
-  const parsed = parseCommandArgs(args, OPTIONS);
-  if (!parsed.ok) return usageError(parsed.message);
-  if (parsed.args.options.has('help')) {
-    io.stdout(usage);
-    return EXIT_OK;
-  }
-  const read = readSettings(parsed.args, nodeEnvironment().defaultWorkerCount());
+  const start = startCommand('fit', usage, args, OPTIONS, io);
+  if (typeof start === 'number') return start;
+  const { usageError } = start;
+  const read = readSettings(start.args, nodeEnvironment().defaultWorkerCount());
   if (!read.ok) return usageError(read.message);
   const problemRead = await readProblemFile(read.value.file, io);
   if (!problemRead.ok) {
