@@ -1,3 +1,4 @@
+import type { PointBatch } from './batch';
 import type { BestTracker } from './ranking';
 import type { BestPoint, StopReason } from './types';
 
@@ -31,5 +32,28 @@ export abstract class OptimizerBase {
 
   evaluations(): number {
     return this.evaluationsTold;
+  }
+}
+
+/**
+ * An optimizer with a pending batch of its own, which `ask` hands out and `tell` takes
+ * back (differential evolution, Nelder–Mead; the hybrid delegates to one of them).
+ */
+export abstract class BatchOptimizerBase extends OptimizerBase {
+  protected readonly batch: PointBatch;
+
+  protected constructor(evaluations: number, stop: StopReason | null, best: BestTracker, batch: PointBatch) {
+    super(evaluations, stop, best);
+    this.batch = batch;
+  }
+
+  ask(): readonly Float64Array[] {
+    return this.batch.points();
+  }
+
+  /** Checks that `points` are the batch asked for, with a value (and violation) each; returns how many. */
+  protected received(points: readonly Float64Array[], values: Float64Array, violations?: Float64Array): number {
+    this.batch.check(points, values, violations);
+    return this.batch.count;
   }
 }

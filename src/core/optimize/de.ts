@@ -13,7 +13,7 @@
  * spare (for the reduction), the trial batch, the archive and the success lists. One
  * generation is one batch; the last batch is cut short so the budget is met exactly.
  */
-import { OptimizerBase } from './base';
+import { BatchOptimizerBase } from './base';
 import { PointBatch } from './batch';
 import { encodeNumbers, encodeReals, fail, readInteger, readLength, readLiteral, readNumbers, readReals, readViolations } from './codec';
 import type { Prng } from './prng';
@@ -32,7 +32,7 @@ const FALLBACK_F = 0.5;
 /** Rejection draws for an index distinct from up to three others (each fails with p ≤ 3/4). */
 const PICK_CAP = 64;
 
-export class DifferentialEvolution extends OptimizerBase implements Optimizer {
+export class DifferentialEvolution extends BatchOptimizerBase implements Optimizer {
   readonly dim: number;
   private readonly config: ResolvedDe;
   private readonly rng: Prng;
@@ -44,7 +44,6 @@ export class DifferentialEvolution extends OptimizerBase implements Optimizer {
   private spareValues: Float64Array;
   private violations: Float64Array;
   private spareViolations: Float64Array;
-  private readonly batch: PointBatch;
   private readonly trialF: Float64Array;
   private readonly trialCR: Float64Array;
   /** One uniform per coordinate for the crossover of one trial, drawn as a block. */
@@ -65,7 +64,8 @@ export class DifferentialEvolution extends OptimizerBase implements Optimizer {
   private phase: 'init' | 'evolve' = 'init';
 
   private constructor(config: ResolvedDe, rng: Prng, evaluations: number, stop: StopReason | null, best: BestTracker) {
-    super(evaluations, stop, best);
+    // One generation is one batch: room for the whole (initial) population.
+    super(evaluations, stop, best, new PointBatch(config.dim, config.kind === 'lshade' ? config.initialPopulation : config.population));
     const d = config.dim;
     this.dim = d;
     this.config = config;
@@ -79,7 +79,6 @@ export class DifferentialEvolution extends OptimizerBase implements Optimizer {
     this.spareValues = new Float64Array(capacity);
     this.violations = new Float64Array(capacity).fill(Infinity);
     this.spareViolations = new Float64Array(capacity);
-    this.batch = new PointBatch(d, capacity);
     this.trialF = new Float64Array(capacity);
     this.trialCR = new Float64Array(capacity);
     this.uniforms = new Float64Array(d);
@@ -146,15 +145,10 @@ export class DifferentialEvolution extends OptimizerBase implements Optimizer {
     return de;
   }
 
-  ask(): readonly Float64Array[] {
-    return this.batch.points();
-  }
-
   tell(points: readonly Float64Array[], values: Float64Array, violations?: Float64Array): void {
-    const batch = this.batch;
-    batch.check(points, values, violations);
-    const count = batch.count;
+    const count = this.received(points, values, violations);
     if (count === 0) return;
+    const batch = this.batch;
     const d = this.dim;
     const trials = batch.data;
     const pop = this.population;

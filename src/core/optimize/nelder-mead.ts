@@ -21,7 +21,7 @@
  * The search is sequential: a batch is one point, except a new simplex (n or n + 1
  * points) and a shrink (n points).
  */
-import { OptimizerBase } from './base';
+import { BatchOptimizerBase } from './base';
 import { PointBatch } from './batch';
 import {
   encodeNumbers,
@@ -72,7 +72,7 @@ export interface EvaluatedStart {
   readonly violation: number;
 }
 
-export class NelderMead extends OptimizerBase implements Optimizer {
+export class NelderMead extends BatchOptimizerBase implements Optimizer {
   readonly dim: number;
   private readonly config: ResolvedNelderMead;
   private readonly rng: Prng;
@@ -87,7 +87,6 @@ export class NelderMead extends OptimizerBase implements Optimizer {
   private readonly reflected: Float64Array;
   private reflectedValue = Infinity;
   private reflectedViolation = Infinity;
-  private readonly batch: PointBatch;
   /** For 'simplex' and 'shrink': the vertex slot each pending row refills. */
   private readonly pendingSlots: Int32Array;
   private phase: NelderMeadPhase = 'simplex';
@@ -98,7 +97,8 @@ export class NelderMead extends OptimizerBase implements Optimizer {
   private restartBaseViolation = Infinity;
 
   private constructor(config: ResolvedNelderMead, rng: Prng, evaluations: number, stop: StopReason | null, best: BestTracker) {
-    super(evaluations, stop, best);
+    // At most a new simplex (n + 1 points) at once.
+    super(evaluations, stop, best, new PointBatch(config.dim, config.dim + 1));
     const n = config.dim;
     this.dim = n;
     this.config = config;
@@ -111,7 +111,6 @@ export class NelderMead extends OptimizerBase implements Optimizer {
     this.orderScratch = new Int32Array(n + 1);
     this.centroid = new Float64Array(n);
     this.reflected = new Float64Array(n);
-    this.batch = new PointBatch(n, n + 1);
     this.pendingSlots = new Int32Array(n + 1);
     const firstRestartStep = config.initialStep * config.restartStepFactor;
     this.restartStep = firstRestartStep < config.minRestartStep ? config.initialStep : firstRestartStep;
@@ -174,15 +173,10 @@ export class NelderMead extends OptimizerBase implements Optimizer {
     return nm;
   }
 
-  ask(): readonly Float64Array[] {
-    return this.batch.points();
-  }
-
   tell(points: readonly Float64Array[], values: Float64Array, violations?: Float64Array): void {
-    const batch = this.batch;
-    batch.check(points, values, violations);
-    const count = batch.count;
+    const count = this.received(points, values, violations);
     if (count === 0) return;
+    const batch = this.batch;
     const n = this.dim;
     const rows = batch.data;
     this.evaluationsTold += count;
