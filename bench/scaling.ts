@@ -10,6 +10,7 @@
  * separate warm-up run: every run starts fresh workers, so their JIT warm-up falls
  * inside both measurements alike, and a warm-up run would only add a worker start-up.
  */
+import { readFileSync } from 'node:fs';
 import { createRun, type RunInput } from '../src/engine';
 import { nodeEnvironment } from '../src/engine/node';
 
@@ -20,20 +21,10 @@ const EVALUATIONS = 1_500_000;
 
 /**
  * A real synthesis workload: the five-point prescribed-timing four-bar problem of
- * Cabrera, Simon and Prado (2002), as in /work/shared/reference/path-synthesis.json
- * ("timed5"), with bounds of our own that contain its optimum.
+ * Cabrera, Simon and Prado (2002), in the problem file the reference tests and the
+ * synthesis bench read.
  */
-const TIMED5 = {
-  format: 'loci-problem',
-  version: 1,
-  name: 'timed5',
-  target: { points: [[3, 3], [2.759, 3.363], [2.372, 3.663], [1.89, 3.862], [1.355, 3.943]], closed: false },
-  timing: { mode: 'prescribed', driverValues: [30, 45, 60, 75, 90], unit: 'deg' },
-  placement: 'fixed',
-  families: ['fourbar-lengths'],
-  bounds: { 'fourbar-lengths': { r1: [0.5, 6], r2: [0.5, 6], r3: [0.5, 6], r4: [0.5, 6], rcx: [-5, 5], rcy: [-5, 5], x0: [-5, 5], y0: [-5, 5] } },
-  constraints: { fullTurnCrank: true },
-};
+const TIMED5: unknown = JSON.parse(readFileSync(new URL('../tests/reference/problems/timed5.json', import.meta.url), 'utf8'));
 
 function spec(evaluations: number): RunInput {
   return {

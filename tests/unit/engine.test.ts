@@ -263,6 +263,19 @@ describe('a time budget', () => {
   });
 });
 
+/** An L-SHADE island on the 4-d Rosenbrock function, with the fields a test sets. */
+function rosenbrockIsland(fields: Pick<IslandConfig, 'seed' | 'maxEvaluations'>): IslandConfig {
+  return {
+    islandId: 'a',
+    objective: { kind: 'test-function', name: 'rosenbrock', dim: 4 },
+    stream: 0,
+    optimizer: { kind: 'lshade' },
+    archiveCapacity: 4,
+    archiveDistance: 0.01,
+    ...fields,
+  };
+}
+
 describe('run input and the island API', () => {
   it('rejects bad input with the field named', () => {
     const env = nodeEnvironment();
@@ -274,16 +287,7 @@ describe('run input and the island API', () => {
 
   it('an island refuses a bad configuration as a value, naming the field', () => {
     const api = createSearchWorkerApi(() => performance.now());
-    const config: IslandConfig = {
-      islandId: 'a',
-      objective: { kind: 'test-function', name: 'rosenbrock', dim: 4 },
-      seed: 1,
-      stream: 0,
-      optimizer: { kind: 'lshade' },
-      maxEvaluations: 1000,
-      archiveCapacity: 4,
-      archiveDistance: 0.01,
-    };
+    const config = rosenbrockIsland({ seed: 1, maxEvaluations: 1000 });
     expect(api.init({ ...config, maxEvaluations: 0 })).toEqual({ ok: false, reason: 'maxEvaluations is 0; expected an integer ≥ 1' });
     const badDim = api.init({ ...config, objective: { kind: 'test-function', name: 'rosenbrock', dim: 1 } });
     expect(!badDim.ok && badDim.reason).toMatch(/dim of rosenbrock is 1/);
@@ -292,16 +296,7 @@ describe('run input and the island API', () => {
 
   it('an island takes an immigrant better than its worst member into its population, and it becomes its best', () => {
     const api = createSearchWorkerApi(() => performance.now());
-    const base: IslandConfig = {
-      islandId: 'a',
-      objective: { kind: 'test-function', name: 'rosenbrock', dim: 4 },
-      seed: 7,
-      stream: 0,
-      optimizer: { kind: 'lshade' },
-      maxEvaluations: 50_000,
-      archiveCapacity: 4,
-      archiveDistance: 0.01,
-    };
+    const base = rosenbrockIsland({ seed: 7, maxEvaluations: 50_000 });
     expect(api.init(base).ok).toBe(true);
     expect(api.init({ ...base, islandId: 'b', stream: 1 }).ok).toBe(true);
     api.step('a', { evaluations: 20_000 });
