@@ -44,7 +44,7 @@ import { fmin } from '../tests/support/fmin';
 import { Island } from '../workers/island';
 
 /**
- * The cases of /work/shared/reference/path-synthesis.json with its `reference_best`.
+ * The cases of tests/reference/data/path-synthesis.json with its `reference_best`.
  * That file says what each is: line6 and closed18 the best an independent implementation
  * reached (not literature values), timed5 the floor the 3-decimal rounding of the
  * published points sets (Cabrera, Simon and Prado, 2002).

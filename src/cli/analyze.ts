@@ -88,6 +88,6 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     return EXIT_USAGE;
   }
   const output = loaded.name === undefined ? result.report : { name: loaded.name, ...result.report };
-  io.stdout(`${formatJson(output, { exactKeys: ['closureResidualMm'] })}\n`);
+  io.stdout(`${formatJson(output)}\n`);
   return EXIT_OK;
 }

@@ -311,7 +311,7 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     workerRestarts: result.restarts,
     candidates: result.candidates.map((c) => candidateJson(c, problem)),
   };
-  const text = `${formatJson(output, { exactKeys: ['candidates', 'evaluations', 'evaluationsByFamily'] })}\n`;
+  const text = `${formatJson(output)}\n`;
   if (settings.out !== undefined) {
     try {
       await writeFileAtomic(settings.out, text);

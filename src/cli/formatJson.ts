@@ -3,22 +3,13 @@
  * array of numbers (or of short number arrays, such as a path of [x, y] pairs) stays on
  * one line, so a 361-step path is one line, not 1083.
  *
- * Numbers keep `significantDigits` significant digits (9: a nanometre at a metre) and
- * print as 0 below `zeroBelow` in magnitude (1e-9: rounding noise such as 30 cos 90° =
- * 1.8e-15 mm), except under the keys in `exactKeys` (a closure residual of 1.4e-14 mm is
- * the figure itself), which print every digit.
+ * Every number prints in full: the shortest decimal that reads back to the same double.
+ * Rounding to a fixed count of significant digits loses what a user needs to rebuild a
+ * figure (a joint placed at 1e7 mm loses 0.07 mm at 9 digits), and no fixed absolute
+ * floor suits both micrometre offsets and kilometre frames.
  */
-export interface FormatJsonOptions {
-  readonly significantDigits: number;
-  readonly zeroBelow: number;
-  readonly exactKeys: readonly string[];
-}
-
-const DEFAULT_FORMAT: FormatJsonOptions = { significantDigits: 9, zeroBelow: 1e-9, exactKeys: [] };
-
-export function formatJson(value: unknown, options: Partial<FormatJsonOptions> = {}): string {
-  const opts = { ...DEFAULT_FORMAT, ...options };
-  return format(value, '', opts, false);
+export function formatJson(value: unknown): string {
+  return format(value, '');
 }
 
 function isInline(value: unknown): boolean {
@@ -27,25 +18,18 @@ function isInline(value: unknown): boolean {
   return value.every((v) => v === null || typeof v !== 'object' || (Array.isArray(v) && v.every((w) => w === null || typeof w !== 'object')));
 }
 
-function format(value: unknown, indent: string, opts: FormatJsonOptions, exact: boolean): string {
-  if (typeof value === 'number') return formatNumber(value, opts, exact);
+function format(value: unknown, indent: string): string {
+  if (typeof value === 'number') return Number.isFinite(value) ? JSON.stringify(value) : 'null';
   if (value === null || typeof value !== 'object') return JSON.stringify(value) ?? 'null';
   if (Array.isArray(value)) {
     if (value.length === 0) return '[]';
-    if (isInline(value)) return `[${value.map((v) => format(v, '', opts, exact)).join(', ')}]`;
+    if (isInline(value)) return `[${value.map((v) => format(v, '')).join(', ')}]`;
     const inner = `${indent}  `;
-    return `[\n${value.map((v) => inner + format(v, inner, opts, exact)).join(',\n')}\n${indent}]`;
+    return `[\n${value.map((v) => inner + format(v, inner)).join(',\n')}\n${indent}]`;
   }
   const entries = Object.entries(value).filter(([, v]) => v !== undefined);
   if (entries.length === 0) return '{}';
   const inner = `${indent}  `;
-  const lines = entries.map(([k, v]) => `${inner}${JSON.stringify(k)}: ${format(v, inner, opts, exact || opts.exactKeys.includes(k))}`);
+  const lines = entries.map(([k, v]) => `${inner}${JSON.stringify(k)}: ${format(v, inner)}`);
   return `{\n${lines.join(',\n')}\n${indent}}`;
-}
-
-function formatNumber(value: number, opts: FormatJsonOptions, exact: boolean): string {
-  if (!Number.isFinite(value)) return 'null';
-  if (exact) return JSON.stringify(value);
-  if (Math.abs(value) < opts.zeroBelow) return '0';
-  return JSON.stringify(Number(value.toPrecision(opts.significantDigits)));
 }

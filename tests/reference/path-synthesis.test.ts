@@ -1,5 +1,5 @@
 /**
- * Published four-bar path-synthesis benchmarks (shared/reference/path-synthesis.json),
+ * Published four-bar path-synthesis benchmarks (tests/reference/data/path-synthesis.json),
  * posed as the papers pose them: the literature variables r1 … r4, rcx, rcy, θ0, x0, y0
  * and, where timing is free, one crank angle θ2_i per point; their boxes; the objective
  * Σ |C(θ2_i) − Q_i|² (no mean, no root); Grashof with the crank r2 shortest; θ2_i
@@ -79,8 +79,8 @@ import { createOptimizer, type HybridConfig } from '../../src/core/optimize';
 import { createObjective, type SearchMapKind } from '../../src/core/synthesis';
 
 const repoRoot = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
-// shared/ sits beside the repository (in a clean clone as in this work tree).
-const referencePath = resolve(repoRoot, '../shared/reference/path-synthesis.json');
+// The published cases with their sources and confidence tags, kept in the repository.
+const referencePath = resolve(repoRoot, 'tests/reference/data/path-synthesis.json');
 
 interface ReferenceCase {
   id: string;

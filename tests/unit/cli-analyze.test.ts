@@ -218,10 +218,11 @@ describe('loci analyze on the example files', () => {
     expect(report.mobility).toMatchObject({ mobility: 1, links: 6, fullJoints: 7 });
     // The only four-link loop is ground–rockerA–coupler–rockerB, lengths (120, 70.71, 100.50,
     // 80.62): s + l = 190.71 > p + q = 181.12, non-Grashof with ground longest: Barker
-    // type 6, RRR2 (Barker 1985, from memory).
+    // type 5, RRR1 (Barker 1985, as tabulated in Norton, Design of Machinery; from memory).
     expect(report.fourBarLoops).toHaveLength(1);
     expect(report.fourBarLoops[0].grashof).toBe('non-grashof');
-    expect(report.fourBarLoops[0].barker?.type).toBe(6);
+    expect(report.fourBarLoops[0].barker?.type).toBe(5);
+    expect(report.fourBarLoops[0].barker?.code).toBe('RRR1');
     expect(report.driver.steps).toBe(121);
     expect(report.assembled.every(Boolean)).toBe(true);
     expect(report.closureResidualMm.max).toBeLessThan(1e-6);

@@ -4,7 +4,7 @@
  *
  * The fitted problem is the five-point prescribed-timing four-bar problem of Cabrera,
  * Simon and Prado (2002, Mech. Mach. Theory 37:1165-1177): target points and crank
- * angles 30°, 45°, …, 90° from /work/shared/reference/path-synthesis.json ("timed5"),
+ * angles 30°, 45°, …, 90° from tests/reference/data/path-synthesis.json ("timed5"),
  * Grashof crank required. Its floor is 2.711e-7 (the 3-decimal rounding of the
  * published points; independent computation noted there).
  */

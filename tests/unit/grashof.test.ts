@@ -29,25 +29,27 @@ function revolvingJoints(l: Lengths, marginMm: number): boolean[] {
 
 describe('classifyFourBar: one case per Barker type', () => {
   // Barker, "A complete classification of planar four-bar linkages", Mech. Mach. Theory
-  // 20(6), 1985. Type numbers and codes from memory; the cases marked README are the
-  // ones listed in /work/shared/reference/README.md (from memory there too). The other
-  // cases are ours, built so that the named link is the shortest (Grashof, change
-  // point) or the longest (non-Grashof) and s + l − p − q has the stated sign.
+  // 20(6), 1985, as tabulated in Norton, Design of Machinery (from memory): type numbers
+  // and codes. The non-Grashof types follow the longest link: 5 RRR1 ground, 6 RRR2
+  // input, 7 RRR3 coupler, 8 RRR4 output. The cases marked "ref" are the reference list's
+  // (from memory there too). The other cases are ours, built so that the named link is
+  // the shortest (Grashof, change point) or the longest (non-Grashof) and s + l − p − q
+  // has the stated sign.
   const cases: { lengths: Lengths; type: number; code: string; grashof: string; name: RegExp; note: string }[] = [
-    { lengths: [40, 100, 120, 80], type: 1, code: 'GCCC', grashof: 'grashof', name: /double crank/, note: 'README, from memory' },
-    { lengths: [100, 40, 120, 80], type: 2, code: 'GCRR', grashof: 'grashof', name: /^crank-rocker$/, note: 'README, from memory' },
-    { lengths: [100, 120, 40, 80], type: 3, code: 'GRCR', grashof: 'grashof', name: /double rocker/, note: 'README, from memory' },
-    { lengths: [100, 80, 120, 40], type: 4, code: 'GRRC', grashof: 'grashof', name: /^rocker-crank$/, note: 'README, from memory' },
-    { lengths: [60, 100, 50, 80], type: 5, code: 'RRR1', grashof: 'non-grashof', name: /triple rocker \(input longest\)/, note: 'README (triple rocker), type from memory' },
-    { lengths: [100, 60, 50, 80], type: 6, code: 'RRR2', grashof: 'non-grashof', name: /triple rocker \(ground longest\)/, note: 'README (triple rocker), type from memory' },
-    { lengths: [60, 50, 80, 100], type: 7, code: 'RRR3', grashof: 'non-grashof', name: /triple rocker \(output longest\)/, note: 'ours, type from memory' },
-    { lengths: [60, 50, 100, 80], type: 8, code: 'RRR4', grashof: 'non-grashof', name: /triple rocker \(coupler longest\)/, note: 'ours, type from memory' },
+    { lengths: [40, 100, 120, 80], type: 1, code: 'GCCC', grashof: 'grashof', name: /double crank/, note: 'ref, from memory' },
+    { lengths: [100, 40, 120, 80], type: 2, code: 'GCRR', grashof: 'grashof', name: /^crank-rocker$/, note: 'ref, from memory' },
+    { lengths: [100, 120, 40, 80], type: 3, code: 'GRCR', grashof: 'grashof', name: /double rocker/, note: 'ref, from memory' },
+    { lengths: [100, 80, 120, 40], type: 4, code: 'GRRC', grashof: 'grashof', name: /^rocker-crank$/, note: 'ref, from memory' },
+    { lengths: [100, 60, 50, 80], type: 5, code: 'RRR1', grashof: 'non-grashof', name: /triple rocker \(ground longest\)/, note: 'ref, from memory' },
+    { lengths: [60, 100, 50, 80], type: 6, code: 'RRR2', grashof: 'non-grashof', name: /triple rocker \(input longest\)/, note: 'ref, from memory' },
+    { lengths: [60, 50, 100, 80], type: 7, code: 'RRR3', grashof: 'non-grashof', name: /triple rocker \(coupler longest\)/, note: 'ours, type from memory' },
+    { lengths: [60, 50, 80, 100], type: 8, code: 'RRR4', grashof: 'non-grashof', name: /triple rocker \(output longest\)/, note: 'ours, type from memory' },
     { lengths: [50, 100, 120, 70], type: 9, code: 'SCCC', grashof: 'change-point', name: /change-point double crank/, note: 'ours, type from memory' },
-    { lengths: [100, 50, 120, 70], type: 10, code: 'SCRR', grashof: 'change-point', name: /change-point crank-rocker/, note: 'README, from memory' },
+    { lengths: [100, 50, 120, 70], type: 10, code: 'SCRR', grashof: 'change-point', name: /change-point crank-rocker/, note: 'ref, from memory' },
     { lengths: [100, 120, 50, 70], type: 11, code: 'SRCR', grashof: 'change-point', name: /change-point double rocker/, note: 'ours, type from memory' },
     { lengths: [100, 70, 120, 50], type: 12, code: 'SRRC', grashof: 'change-point', name: /change-point rocker-crank/, note: 'ours, type from memory' },
-    { lengths: [100, 40, 100, 40], type: 13, code: 'S2X', grashof: 'change-point', name: /parallelogram/, note: 'README (parallelogram), from memory' },
-    { lengths: [50, 50, 50, 50], type: 14, code: 'S3X', grashof: 'change-point', name: /triple change point/, note: 'README (square), from memory' },
+    { lengths: [100, 40, 100, 40], type: 13, code: 'S2X', grashof: 'change-point', name: /parallelogram/, note: 'ref (parallelogram), from memory' },
+    { lengths: [50, 50, 50, 50], type: 14, code: 'S3X', grashof: 'change-point', name: /triple change point/, note: 'ref (square), from memory' },
   ];
   for (const c of cases) {
     it(`(${c.lengths.join(', ')}) is type ${c.type} ${c.code} (${c.note})`, () => {
@@ -151,7 +153,7 @@ describe('classifyFourBar: invariants', () => {
 
   // Swapping input and output exchanges crank-rocker (2) with rocker-crank (4) and the
   // classes that mirror them; the rest map to themselves (the table's symmetry).
-  const mirror: Record<number, number> = { 1: 1, 2: 4, 3: 3, 4: 2, 5: 7, 6: 6, 7: 5, 8: 8, 9: 9, 10: 12, 11: 11, 12: 10, 13: 13, 14: 14 };
+  const mirror: Record<number, number> = { 1: 1, 2: 4, 3: 3, 4: 2, 5: 5, 6: 8, 7: 7, 8: 6, 9: 9, 10: 12, 11: 11, 12: 10, 13: 13, 14: 14 };
 
   it('does not change under uniform scaling (theorem: the class is a property of shape)', () => {
     fc.assert(

@@ -107,7 +107,7 @@ function shockRocker(): Linkage {
 
 describe('run: Freudenstein’s equation holds at solved four-bar poses', () => {
   // Freudenstein, "Approximate synthesis of four-bar linkages", Trans. ASME 77, 1955 (form
-  // from memory, /work/shared/reference/README.md): input a = |A0A|, coupler b = |AB|,
+  // from memory, tests/reference/data/README.md): input a = |A0A|, coupler b = |AB|,
   // output c = |B0B|, ground d = |A0B0|, K1 = d/a, K2 = d/c, K3 = (a² − b² + c² + d²)/(2ac):
   //   K1 cos θ4 − K2 cos θ2 + K3 = cos(θ2 − θ4).
   // Sign convention: the ground runs from the crank pivot A0 to the rocker pivot B0, and θ2
@@ -202,7 +202,7 @@ describe('run: exact and near straight lines', () => {
   });
 
   it('the Chebyshev–Hoeken four-bar: (−2, 4) at 0, speed 4/3, (−2, 2√6) at 180°, and a straightness bound', () => {
-    // Proportions and values from /work/shared/reference/README.md (from memory; the
+    // Proportions and values from tests/reference/data/README.md (from memory; the
     // values at 0 and 180° are theorems from the proportions): crank 1 about (0, 0),
     // rocker 2.5 about (−2, 0), coupler 2.5 from crank pin to rocker joint, tracing point
     // 5 from the crank pin on the coupler extended.

@@ -11,7 +11,7 @@ const DEG = 180 / Math.PI;
 const S = 20;
 
 /**
- * The straight-line four-bar of Chebyshev–Hoeken proportions (shared/reference/README.md,
+ * The straight-line four-bar of Chebyshev–Hoeken proportions (tests/reference/data/README.md,
  * from memory): crank 1, ground 2, rocker 2.5, coupler 2.5 from crank pin to rocker joint,
  * tracing point on the coupler extended to 5 from the crank pin; crank pivot (0, 0),
  * rocker pivot (−2, 0), rocker joint above the ground line. At crank angle 0 the point is
@@ -170,7 +170,7 @@ describe('paths CSV of a design', () => {
 
   it('leaves cells empty where the linkage does not assemble', () => {
     // Ground 100, input 60, coupler 50, output 80 (mm): a non-Grashof triple rocker
-    // (Barker's classification, shared/reference/README.md). Its input cannot pass the
+    // (Barker's classification, tests/reference/data/README.md). Its input cannot pass the
     // angle where |A − B0| = coupler + output = 130 mm, cos θ = (13600 − 16900) / 12000,
     // about 106° (law of cosines); target values up to 2.5 rad (143°) run into that lock.
     const A = { x: 0, y: 60 };

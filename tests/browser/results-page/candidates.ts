@@ -23,7 +23,7 @@ export const HOEKEN_UNIT_MM = 20;
 const S = HOEKEN_UNIT_MM;
 
 /**
- * Chebyshev–Hoeken proportions (shared/reference/README.md, from memory): crank 1, ground 2,
+ * Chebyshev–Hoeken proportions (tests/reference/data/README.md, from memory): crank 1, ground 2,
  * rocker 2.5, coupler 2.5 from crank pin to rocker joint, tracing point at 5 from the crank
  * pin; drawn at crank angle 0, where the tracing point is at (−2, 4).
  */

@@ -11,22 +11,25 @@
  *   s + l = p + q  change point: the linkage can pass through a flat (all-collinear) pose.
  *
  * Barker's fourteen types, over (ground g, input a, coupler b, output c). The numbering
- * and the codes are from memory, as are the characteristic sums T1 = g + c − a − b,
- * T2 = g + b − a − c, T3 = b + c − a − g whose signs Barker tabulates. In a Grashof
- * linkage every pairing that holds the shortest link is the smaller sum, so the signs of
- * (T1, T2, T3) say which link is shortest; in a non-Grashof linkage every pairing that
- * holds the longest link is the larger, so the signs say which link is longest. That is
- * how the rows below follow from the sign rows:
+ * and the codes are from memory (Barker 1985, as tabulated in Norton, Design of
+ * Machinery). The sign columns are of the characteristic sums T1 = g + c − a − b,
+ * T2 = g + b − a − c, T3 = b + c − a − g as defined here; texts define the T's
+ * differently, so their sign rows differ, but the link each row names does not. In a
+ * Grashof linkage every pairing that holds the shortest link is the smaller sum, so the
+ * signs of (T1, T2, T3) say which link is shortest; in a non-Grashof linkage every
+ * pairing that holds the longest link is the larger, so the signs say which link is
+ * longest. The non-Grashof types are numbered by the longest link in Barker's order
+ * (ground, input, coupler, output):
  *
  *   type code  T1 T2 T3  condition      which link              usual name
  *    1   GCCC   −  −  +  Grashof        shortest: ground        double crank (drag link)
  *    2   GCRR   +  +  +  Grashof        shortest: input         crank-rocker
  *    3   GRCR   +  −  −  Grashof        shortest: coupler       double rocker, coupler turns fully
  *    4   GRRC   −  +  −  Grashof        shortest: output        rocker-crank
- *    5   RRR1   −  −  −  non-Grashof    longest: input          triple rocker
- *    6   RRR2   +  +  −  non-Grashof    longest: ground         triple rocker
- *    7   RRR3   +  −  +  non-Grashof    longest: output         triple rocker
- *    8   RRR4   −  +  +  non-Grashof    longest: coupler        triple rocker
+ *    5   RRR1   +  +  −  non-Grashof    longest: ground         triple rocker
+ *    6   RRR2   −  −  −  non-Grashof    longest: input          triple rocker
+ *    7   RRR3   −  +  +  non-Grashof    longest: coupler        triple rocker
+ *    8   RRR4   +  −  +  non-Grashof    longest: output         triple rocker
  *    9   SCCC   one is 0 change point   shortest: ground        change-point double crank
  *   10   SCRR   one is 0 change point   shortest: input         change-point crank-rocker
  *   11   SRCR   one is 0 change point   shortest: coupler       change-point double rocker
@@ -86,10 +89,10 @@ const GRASHOF_BY_SHORTEST: readonly TypeRow[] = [
 
 /** Non-Grashof types indexed by the longest link. */
 const NON_GRASHOF_BY_LONGEST: readonly TypeRow[] = [
-  { barkerType: 6, code: 'RRR2', name: 'triple rocker (ground longest)' },
-  { barkerType: 5, code: 'RRR1', name: 'triple rocker (input longest)' },
-  { barkerType: 8, code: 'RRR4', name: 'triple rocker (coupler longest)' },
-  { barkerType: 7, code: 'RRR3', name: 'triple rocker (output longest)' },
+  { barkerType: 5, code: 'RRR1', name: 'triple rocker (ground longest)' },
+  { barkerType: 6, code: 'RRR2', name: 'triple rocker (input longest)' },
+  { barkerType: 7, code: 'RRR3', name: 'triple rocker (coupler longest)' },
+  { barkerType: 8, code: 'RRR4', name: 'triple rocker (output longest)' },
 ];
 
 /** Single change-point types indexed by the shortest link. */
