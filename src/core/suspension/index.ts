@@ -1,0 +1,43 @@
+/** Rear-suspension analysis: the bicycle, layouts as linkages, and the curves over wheel travel. */
+export {
+  ATMOSPHERE_KPA,
+  BICYCLE_RANGES,
+  DEFAULT_CHAIN_PITCH_MM,
+  GAS_LAW_EXPONENT,
+  validateBicycle,
+} from './bicycle';
+export type { Bicycle, BicycleIssue, BicycleValidation, GasLaw, SpringSpec, ValidBicycle } from './bicycle';
+export { pitchRadiusMm } from './chain';
+export {
+  AXLE_POINT,
+  FRONT_FRAME,
+  SHOCK_EYE,
+  SHOCK_FRAME_EYE,
+  fourBarSeatStayAxle,
+  linkageDrivenSinglePivot,
+  shortLinkFourBar,
+  singlePivot,
+  stephensonSixBar,
+  wattSixBar,
+} from './layouts';
+export type {
+  FourBarSeatStayAxlePositions,
+  LinkageDrivenSinglePivotPositions,
+  ShortLinkFourBarPositions,
+  SinglePivotPositions,
+  StephensonSixBarPositions,
+  WattSixBarPositions,
+} from './layouts';
+export { springForceN, springRateNPerMm, wheelRateNPerMm } from './spring';
+export { LEVERAGE_SLOPE_STEP_MM } from './curves';
+export type { InstantCentreCurve, SuspensionCurves } from './curves';
+export {
+  AXLE_MATCH_TOL_MM,
+  DEFAULT_STEPS,
+  STEPS_RANGE,
+  SUSPENSION_CAUTION,
+  SUSPENSION_CONVENTIONS,
+  suspensionCurves,
+} from './metrics';
+export type { SuspensionOptions, SuspensionPoint, SuspensionReport, SuspensionResult } from './metrics';
+export { DEMO_TRAIL_BIKE, DEMO_LAYOUTS } from './demo';
