@@ -422,6 +422,8 @@ describe('sweep: locks, dead centres, full turns', () => {
     const s = sweep(plan, { from: -3, to: 3, steps: 301 });
     expect(s.deadCentres.length).toBe(1);
     expect(s.deadCentres[0].joint).toBe('B');
+    expect(s.deadCentres[0].kind).toBe('change point');
+    expect(s.locks).toEqual([]);
     expect(Math.abs(s.deadCentres[0].value)).toBeLessThan(1e-6);
   });
 
@@ -433,7 +435,7 @@ describe('sweep: locks, dead centres, full turns', () => {
     expect(s.locks.length).toBe(1);
     expect(s.locks[0].from).toBeCloseTo(reach, 8);
     expect(s.locks[0].to).toBe(160);
-    expect(s.deadCentres).toEqual([{ value: s.locks[0].from, joint: 'S' }]);
+    expect(s.deadCentres).toEqual([{ value: s.locks[0].from, joint: 'S', kind: 'limit' }]);
   });
 
   it('refuses a malformed range', () => {

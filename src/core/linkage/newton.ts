@@ -256,3 +256,48 @@ export function blockRates(p: PlanInternal, block: number, pose: Float64Array, r
   }
   return true;
 }
+
+/**
+ * Sign of det(J) of block `block` at pose (+1 or −1): which assembly branch of the block
+ * the pose is on, since det(J) changes sign only where J is singular, at a fold of the
+ * assembly where two branches meet. 0 when J is singular (a pivot below
+ * SINGULAR_PIVOT_REL_TOL of its largest entry) or not finite. Works in the plan's scratch.
+ */
+export function blockJacobianSign(p: PlanInternal, block: number, pose: Float64Array): number {
+  const n = 2 * p.blockUnknownCount[block];
+  blockResidual(p, block, pose, true, null);
+  const a = p.jacobian;
+  let largest = 0;
+  for (let i = 0; i < n * n; i++) largest = Math.max(largest, Math.abs(a[i]));
+  if (!(largest > 0 && largest < Infinity)) return 0;
+  const tol = SINGULAR_PIVOT_REL_TOL * largest;
+  let sign = 1;
+  for (let k = 0; k < n; k++) {
+    let q = k;
+    let best = Math.abs(a[k * n + k]);
+    for (let i = k + 1; i < n; i++) {
+      const v = Math.abs(a[i * n + k]);
+      if (v > best) {
+        best = v;
+        q = i;
+      }
+    }
+    if (!(best > tol)) return 0;
+    if (q !== k) {
+      sign = -sign;
+      for (let j = k; j < n; j++) {
+        const t = a[k * n + j];
+        a[k * n + j] = a[q * n + j];
+        a[q * n + j] = t;
+      }
+    }
+    const pivot = a[k * n + k];
+    if (pivot < 0) sign = -sign;
+    const inv = 1 / pivot;
+    for (let i = k + 1; i < n; i++) {
+      const f = a[i * n + k] * inv;
+      if (f !== 0) for (let j = k + 1; j < n; j++) a[i * n + j] -= f * a[k * n + j];
+    }
+  }
+  return sign;
+}

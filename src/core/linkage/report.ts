@@ -11,8 +11,8 @@
  */
 import type { DriverSpec } from './model';
 import type { Plan } from './plan';
-import { run, closureResidualMm } from './run';
-import { sweep, type SweepResult } from './sweep';
+import { closureResidualMm } from './run';
+import { sweep, type DeadCentreKind, type SweepDeadCentre, type SweepResult } from './sweep';
 import {
   IC_FINITE,
   IC_INDETERMINATE,
@@ -29,12 +29,8 @@ export const DEFAULT_REPORT_STEPS = 361;
 export const MAX_REPORT_STEPS = 20_000;
 /** A length driver's default range: the reference length ± this share of it. */
 export const LENGTH_DRIVER_DEFAULT_SHARE = 0.1;
-/** Step (rad) of the search for the range a rotation driver assembles in: 0.5°. */
-const ASSEMBLY_SEARCH_STEP_RAD = Math.PI / 360;
-/** Bisection of an assembly limit stops below this bracket width (rad). */
-const ASSEMBLY_LIMIT_TOL_RAD = 1e-10;
-/** Cap on bisection steps (the bracket halves from 0.5° to below 1e-10 rad in 26). */
-const ASSEMBLY_LIMIT_MAX_BISECTIONS = 60;
+/** Samples per turn of the search for the range a rotation driver assembles in: 0.5° apart. */
+const ASSEMBLY_SEARCH_STEPS_PER_TURN = 720;
 /**
  * The default range stops this far (rad) inside an assembly limit: at the limit itself a
  * dyad is at its toggle and rates are infinite; 1e-7 rad inside they are large but finite.
@@ -93,8 +89,12 @@ export interface LinkageReport {
   readonly defects: {
     /** Driver sub-ranges where the linkage cannot assemble, in `driver.unit`. */
     readonly locks: readonly { readonly from: number; readonly to: number }[];
-    /** Dead-centre (toggle) positions of a dyad met in the range, or bounding a default assembly range. */
-    readonly deadCentres: readonly { readonly at: number; readonly joint: string }[];
+    /**
+     * Dead-centre (toggle) positions met in the range or bounding a default assembly
+     * range: `limit` where the motion cannot go on (an edge of a lock or of the assembly
+     * range), `change point` where a dyad reaches its toggle and the motion goes on.
+     */
+    readonly deadCentres: readonly { readonly at: number; readonly joint: string; readonly kind: DeadCentreKind }[];
     readonly unassembledSteps: number;
   };
   readonly closureResidualMm: {
@@ -150,8 +150,8 @@ export type ReportResult =
 /**
  * Analyses `plan` over a driver range. Without `options.range`:
  * - a rotation driver turns a full turn from its reference angle when it can (a crank);
- *   otherwise over the range it assembles in around the reference pose, found by
- *   stepping 0.5° each way from the reference and bisecting each limit;
+ *   otherwise over the range it assembles in around the reference pose, its limits
+ *   found from the assembly condition (assemblyRangeRad);
  * - a length driver moves over its reference length ± LENGTH_DRIVER_DEFAULT_SHARE.
  */
 export function analyzeLinkage(plan: Plan, options: ReportOptions = {}): ReportResult {
@@ -163,13 +163,7 @@ export function analyzeLinkage(plan: Plan, options: ReportOptions = {}): ReportR
 
   const result = sweep(plan, { from: chosen.from, to: chosen.to, steps });
   // An assembly range ends just inside the toggle positions that bound it: name them too.
-  const deadCentres = chosen.rule === 'assembly range'
-    ? [
-        ...deadCentresPast(plan, chosen.from, chosen.from - ASSEMBLY_SEARCH_STEP_RAD),
-        ...result.deadCentres,
-        ...deadCentresPast(plan, chosen.to, chosen.to + ASSEMBLY_SEARCH_STEP_RAD),
-      ]
-    : result.deadCentres;
+  const deadCentres = [...chosen.limits.slice(0, 1), ...result.deadCentres, ...chosen.limits.slice(1)];
   const rotation = plan.linkage.driver.kind === 'rotation';
   const toUnit = rotation ? (v: number) => v * DEG_PER_RAD : (v: number) => v;
   const fullTurn = rotation && result.fullTurn;
@@ -230,7 +224,7 @@ export function analyzeLinkage(plan: Plan, options: ReportOptions = {}): ReportR
       instantCentres: plan.bodies.slice(1).map((body) => centrePath(plan, body.id, result)),
       defects: {
         locks: result.locks.map((lock) => ({ from: toUnit(lock.from), to: toUnit(lock.to) })),
-        deadCentres: deadCentres.map((d) => ({ at: toUnit(d.value), joint: d.joint })),
+        deadCentres: deadCentres.map((d) => ({ at: toUnit(d.value), joint: d.joint, kind: d.kind })),
         unassembledSteps: result.assembled.reduce((n, a) => n + (a === 1 ? 0 : 1), 0),
       },
       closureResidualMm: residuals(plan, result, toUnit),
@@ -259,12 +253,20 @@ function checkOptions(plan: Plan, options: ReportOptions): ReportIssue[] {
 }
 
 type ChosenRange =
-  | { readonly ok: true; readonly from: number; readonly to: number; readonly rule: RangeRule; readonly note: string }
+  | {
+      readonly ok: true;
+      readonly from: number;
+      readonly to: number;
+      readonly rule: RangeRule;
+      readonly note: string;
+      /** The dead centres just outside the range that bound it (an assembly range), from first to last. */
+      readonly limits: readonly SweepDeadCentre[];
+    }
   | { readonly ok: false; readonly message: string };
 
 function chooseRange(plan: Plan, options: ReportOptions): ChosenRange {
   if (options.range) {
-    return { ok: true, from: options.range.from, to: options.range.to, rule: 'given', note: 'the range given' };
+    return { ok: true, from: options.range.from, to: options.range.to, rule: 'given', note: 'the range given', limits: [] };
   }
   const reference = plan.driverReferenceValue;
   if (plan.linkage.driver.kind === 'length') {
@@ -275,87 +277,57 @@ function chooseRange(plan: Plan, options: ReportOptions): ChosenRange {
       to: reference * (1 + share),
       rule: 'share of reference length',
       note: `the reference length ± ${share * 100} %`,
+      limits: [],
     };
   }
   const found = assemblyRangeRad(plan, reference);
   if (!found.ok) return found;
   if (found.fullTurn) {
-    return { ok: true, from: reference, to: reference + 2 * Math.PI, rule: 'full turn', note: 'a full turn from the reference angle: the driven link turns fully' };
+    return {
+      ok: true, from: reference, to: reference + 2 * Math.PI, rule: 'full turn',
+      note: 'a full turn from the reference angle: the driven link turns fully', limits: [],
+    };
   }
   return {
     ok: true,
-    from: found.from + ASSEMBLY_LIMIT_MARGIN_RAD,
-    to: found.to - ASSEMBLY_LIMIT_MARGIN_RAD,
+    from: found.from.value + ASSEMBLY_LIMIT_MARGIN_RAD,
+    to: found.to.value - ASSEMBLY_LIMIT_MARGIN_RAD,
     rule: 'assembly range',
     note: 'the range the linkage assembles in around the reference pose, ending just inside the toggle positions ' +
       'listed in defects.deadCentres (the driven link does not turn fully)',
+    limits: [found.from, found.to],
   };
 }
 
 /**
- * The driver range (rad) a rotation driver assembles in around `reference`: steps of
- * ASSEMBLY_SEARCH_STEP_RAD forward up to a full turn, then backward over what is left,
- * each limit bisected to ASSEMBLY_LIMIT_TOL_RAD.
+ * The driver range (rad) a rotation driver assembles in around `reference`, on the
+ * reference branch: a sweep forward over a full turn and one backward, each of
+ * ASSEMBLY_SEARCH_STEPS_PER_TURN steps; the sweep finds each limit from the assembly
+ * condition itself (a dyad's reach, a Newton block's fold), not from the samples, so a
+ * lock narrower than a step is found too. Each limit comes with its dead centre.
  */
-function assemblyRangeRad(
-  plan: Plan,
-  reference: number,
-): { readonly ok: true; readonly fullTurn: boolean; readonly from: number; readonly to: number } | { readonly ok: false; readonly message: string } {
-  const pose = Float64Array.from(plan.reference);
-  if (!run(plan, reference, pose)) {
-    return { ok: false, message: 'the linkage does not assemble at its own reference driver value' };
+function assemblyRangeRad(plan: Plan, reference: number):
+  | { readonly ok: true; readonly fullTurn: true }
+  | { readonly ok: true; readonly fullTurn: false; readonly from: SweepDeadCentre; readonly to: SweepDeadCentre }
+  | { readonly ok: false; readonly message: string } {
+  const forward = sweep(plan, { from: reference, to: reference + 2 * Math.PI, steps: ASSEMBLY_SEARCH_STEPS_PER_TURN + 1 });
+  if (forward.assembled[0] !== 1) return { ok: false, message: 'the linkage does not assemble at its own reference driver value' };
+  if (forward.fullTurn) return { ok: true, fullTurn: true };
+  const backward = sweep(plan, { from: reference, to: reference - 2 * Math.PI, steps: ASSEMBLY_SEARCH_STEPS_PER_TURN + 1 });
+  const to = firstLimit(forward, reference);
+  const from = firstLimit(backward, reference);
+  if (to === null || from === null) {
+    return { ok: false, message: 'the linkage does not move from its reference driver value: it locks there' };
   }
-  const stepsPerTurn = Math.round((2 * Math.PI) / ASSEMBLY_SEARCH_STEP_RAD);
-  const forward = stepUntilLock(plan, reference, pose, ASSEMBLY_SEARCH_STEP_RAD, stepsPerTurn);
-  if (forward.steps === stepsPerTurn) return { ok: true, fullTurn: true, from: reference, to: reference + 2 * Math.PI };
-  pose.set(plan.reference);
-  run(plan, reference, pose);
-  const backward = stepUntilLock(plan, reference, pose, -ASSEMBLY_SEARCH_STEP_RAD, stepsPerTurn - forward.steps);
-  return { ok: true, fullTurn: false, from: backward.limit, to: forward.limit };
+  return { ok: true, fullTurn: false, from, to };
 }
 
-/**
- * Steps the driver from `start` (where `pose` is solved) by `step` until it fails to
- * assemble or `maxSteps` are taken; returns the steps taken and the last value that
- * assembled, refined by bisection towards the first that did not.
- */
-function stepUntilLock(
-  plan: Plan,
-  start: number,
-  pose: Float64Array,
-  step: number,
-  maxSteps: number,
-): { readonly steps: number; readonly limit: number } {
-  const trial = new Float64Array(pose.length);
-  let good = start;
-  for (let k = 1; k <= maxSteps; k++) {
-    const value = start + k * step;
-    trial.set(pose);
-    if (!run(plan, value, trial)) return { steps: k - 1, limit: bisectLimit(plan, good, value, pose, trial) };
-    pose.set(trial);
-    good = value;
-  }
-  return { steps: maxSteps, limit: good };
-}
-
-/** The last assembling value between `good` (solved in `pose`) and `bad`; `trial` is scratch. */
-function bisectLimit(plan: Plan, good: number, bad: number, pose: Float64Array, trial: Float64Array): number {
-  for (let i = 0; i < ASSEMBLY_LIMIT_MAX_BISECTIONS && Math.abs(bad - good) > ASSEMBLY_LIMIT_TOL_RAD; i++) {
-    const mid = 0.5 * (good + bad);
-    trial.set(pose);
-    if (run(plan, mid, trial)) {
-      pose.set(trial);
-      good = mid;
-    } else {
-      bad = mid;
-    }
-  }
-  return good;
-}
-
-/** The dead centres a two-sample sweep from `inside` (assembles) to `outside` (does not) locates between them. */
-function deadCentresPast(plan: Plan, inside: number, outside: number): SweepResult['deadCentres'] {
-  return sweep(plan, { from: inside, to: outside, steps: 2 }).deadCentres;
+/** The first lock edge a sweep from `reference` meets, with the dead centre there; null when it locks at once. */
+function firstLimit(result: SweepResult, reference: number): SweepDeadCentre | null {
+  const lock = result.locks[0];
+  if (lock === undefined || !(Math.abs(lock.from - reference) >= MIN_SPAN)) return null;
+  const joint = result.deadCentres.find((d) => d.kind === 'limit' && d.value === lock.from)?.joint ?? '';
+  return { value: lock.from, joint, kind: 'limit' };
 }
 
 function slotOf(plan: Plan, id: string): number {

@@ -1,8 +1,16 @@
 /**
- * A sweep runs a plan over a range of driver values, carrying each solved pose (moved
- * on by its rates) into the next step so a Newton block tracks its branch, and reports
- * where the linkage locks, where a dyad passes a dead centre, and whether a rotation
- * driver turns fully.
+ * A sweep runs a plan over a range of driver values on the reference pose's assembly
+ * branch, and reports where the linkage locks, where a dyad reaches a dead centre, and
+ * whether a rotation driver turns fully.
+ *
+ * Newton blocks are tracked by predictor–corrector continuation from the reference pose
+ * (Allgower and Georg, 1990): each step starts from the last pose moved on by its exact
+ * rates, and is refused, then halved, when the solution lies on the other side of a fold
+ * (det J of a block has not the reference pose's sign) or moved further than the rates
+ * allow. Where halving cannot go on, the branch ends there: a lock, with a dead centre.
+ * Dyads are placed on their reference side at every value; a window where a dyad cannot
+ * assemble that falls between two samples is found from the dyad's own assembly
+ * condition (its signed sine, below), not by finer sampling.
  */
 import {
   OP_CIRCLE_BODY_LINE,
@@ -13,13 +21,19 @@ import {
   type Plan,
   type PlanInternal,
 } from './plan';
+import { blockJacobianSign } from './newton';
 import { run, runWithRates } from './run';
 import {
-  DEAD_CENTRE_CANDIDATE_SIN,
   DEAD_CENTRE_SIN_TOL,
   FULL_TURN_TOL_RAD,
+  SWEEP_CORRECTION_FLOOR_REL,
+  SWEEP_CORRECTION_MAX_SHARE,
+  SWEEP_MAX_STEP_RAD,
+  SWEEP_MAX_STEP_REL,
+  SWEEP_MAX_SUBSTEPS,
   SWEEP_REFINE_MAX_STEPS,
   SWEEP_REFINE_REL_TOL,
+  SWEEP_REJOIN_REL_TOL,
 } from './tolerances';
 
 export interface SweepRange {
@@ -30,73 +44,258 @@ export interface SweepRange {
   readonly steps: number;
 }
 
+/**
+ * `limit`: the motion cannot go on past it (an edge of a lock). `change point`: a dyad
+ * reaches its toggle and the motion goes on (its two branches meet there, as at a
+ * four-bar's change point).
+ */
+export type DeadCentreKind = 'limit' | 'change point';
+
+export interface SweepDeadCentre {
+  readonly value: number;
+  readonly joint: string;
+  readonly kind: DeadCentreKind;
+}
+
 export interface SweepResult {
   /** The `steps` driver values. */
   readonly values: Float64Array;
-  /** steps × 2 × slotCount: the pose at each value (NaN where it does not assemble). */
+  /** steps × 2 × slotCount: the pose at each value (all NaN where it does not assemble). */
   readonly poses: Float64Array;
   /** Same layout: d(pose)/d(driver). */
   readonly rates: Float64Array;
-  /** 1 where it assembles. */
+  /** 1 where it assembles on the reference branch. */
   readonly assembled: Uint8Array;
   /**
-   * Driver sub-ranges where it cannot assemble, `from` and `to` in the sweep's direction;
-   * edges inside the range are located to SWEEP_REFINE_REL_TOL of a step.
+   * Driver sub-ranges where it cannot assemble on the reference branch, `from` and `to`
+   * in the sweep's direction; edges inside the range are located to
+   * SWEEP_REFINE_REL_TOL of a step. A lock narrower than the sample spacing, with
+   * assembled samples on both sides, is listed too.
    */
   readonly locks: { readonly from: number; readonly to: number }[];
   /**
-   * Toggle positions of a dyad met in the range: an edge of a lock (named by the joint
-   * whose placement fails there; for a Newton block, its first joint), or a dyad's sine
-   * at its joint (2 × triangle area / (rA rB), the triangle height normalised) dipping
-   * below DEAD_CENTRE_SIN_TOL without locking. In the sweep's order.
+   * Dead centres met in the range, in the sweep's order: each edge of a lock inside the
+   * range (`limit`, named by the joint whose placement fails there; for a Newton block,
+   * its first joint), and each place where a dyad's sine at its joint (2 × triangle area
+   * / (rA rB)) reaches DEAD_CENTRE_SIN_TOL and the motion goes on (`change point`).
    */
-  readonly deadCentres: { readonly value: number; readonly joint: string }[];
+  readonly deadCentres: SweepDeadCentre[];
   /** A rotation driver turned through 2π without locking. */
   readonly fullTurn: boolean;
 }
 
 /** The joint an operation places (for a Newton block its first joint), or -1. */
 function opJoint(p: PlanInternal, op: number): number {
+  if (!(op >= 0)) return -1;
   const o = op * OP_STRIDE;
   if (p.ops[o] === OP_NEWTON) return p.blockUnknowns[p.blockUnknownStart[p.ops[o + 1]]] >> 1;
   return p.ops[o + 3] >> 1;
 }
 
 /**
- * Sine of a dyad's angle at the joint it places, from the pose at poses[at]: for two
- * circles |(J − A) × (J − B)| / (|J − A| |J − B|); for a circle and a line the cosine
- * of the angle between the link and the line. 0 at a dead centre.
+ * A dyad's signed sine at the joint it places, from the positions of the joints it
+ * places it from (so also where it fails): for two circles (radii rA, rB, centres d
+ * apart) sign(h²) √|h²| d² / (rA rB), h² the kernel's own squared height share, which
+ * is |(J − A) × (J − B)| / (rA rB) where J exists and negative where the circles miss;
+ * for a circle and a line sign(r² − h²) √|r² − h²| / r, h the centre's distance from
+ * the line. Zero at a dead centre; NaN where its centres are not placed.
  */
-function dyadSine(p: PlanInternal, o: number, poses: Float64Array, at: number): number {
-  const a = at + p.ops[o + 1];
-  const c = at + p.ops[o + 3];
-  const ex = poses[c] - poses[a];
-  const ey = poses[c + 1] - poses[a + 1];
+function signedDyadSine(p: PlanInternal, o: number, pose: Float64Array): number {
+  const a = p.ops[o + 1];
   const q = p.ops[o + 5];
+  const prm = p.params;
   if (p.ops[o] === OP_DYAD) {
-    const b = at + p.ops[o + 2];
-    const fx = poses[c] - poses[b];
-    const fy = poses[c + 1] - poses[b + 1];
-    return Math.abs(ex * fy - ey * fx) / (Math.hypot(ex, ey) * Math.hypot(fx, fy));
+    const b = p.ops[o + 2];
+    const rA = prm[q];
+    const rB = prm[q + 1];
+    const dx = pose[b] - pose[a];
+    const dy = pose[b + 1] - pose[a + 1];
+    const d2 = dx * dx + dy * dy;
+    const inv = 1 / d2;
+    const k = 0.5 * (rA * rA - rB * rB) * inv + 0.5;
+    const h2 = rA * rA * inv - k * k;
+    return Math.sign(h2) * Math.sqrt(Math.abs(h2)) * d2 / (rA * rB);
   }
+  const r = prm[q];
+  let px: number;
+  let py: number;
   let dx: number;
   let dy: number;
   if (p.ops[o] === OP_CIRCLE_GROUND_LINE) {
-    dx = p.params[q + 4];
-    dy = p.params[q + 5];
+    px = prm[q + 2];
+    py = prm[q + 3];
+    dx = prm[q + 4];
+    dy = prm[q + 5];
   } else {
-    const e = at + p.ops[o + 2];
-    const f = at + p.ops[o + 4];
-    const wx = poses[f] - poses[e];
-    const wy = poses[f + 1] - poses[e + 1];
-    dx = p.params[q + 4] * wx - p.params[q + 5] * wy;
-    dy = p.params[q + 4] * wy + p.params[q + 5] * wx;
+    const e = p.ops[o + 2];
+    const f = p.ops[o + 4];
+    const wx = pose[f] - pose[e];
+    const wy = pose[f + 1] - pose[e + 1];
+    const u = prm[q + 2];
+    const v = prm[q + 3];
+    px = pose[e] + u * wx - v * wy;
+    py = pose[e + 1] + u * wy + v * wx;
+    dx = prm[q + 4] * wx - prm[q + 5] * wy;
+    dy = prm[q + 4] * wy + prm[q + 5] * wx;
   }
-  return Math.abs(ex * dx + ey * dy) / (Math.hypot(ex, ey) * Math.hypot(dx, dy));
+  const h = (dx * (pose[a + 1] - py) - dy * (pose[a] - px)) / Math.sqrt(dx * dx + dy * dy);
+  const disc = r * r - h * h;
+  return Math.sign(disc) * Math.sqrt(Math.abs(disc)) / r;
 }
 
 function isDyadOp(code: number): boolean {
   return code === OP_DYAD || code === OP_CIRCLE_GROUND_LINE || code === OP_CIRCLE_BODY_LINE;
+}
+
+/** A tracked state: the last pose accepted on the reference branch, its rates and driver value. */
+interface Track {
+  value: number;
+  readonly pose: Float64Array;
+  readonly rates: Float64Array;
+  /** The operation that refused the last refused step (-1: none). */
+  refusedOp: number;
+}
+
+/** What every tracked step of one sweep shares: the plan, the reference branch and scratch. */
+interface Tracker {
+  readonly p: PlanInternal;
+  readonly stride: number;
+  /** Sign of det J of each block in the reference pose. */
+  readonly referenceSigns: Int8Array;
+  /** Operation index of each block. */
+  readonly blockOps: Int32Array;
+  readonly maxStep: number;
+  readonly minStep: number;
+  readonly correctionFloorMm: number;
+  readonly pose: Float64Array;
+  readonly rates: Float64Array;
+  readonly predicted: Float64Array;
+}
+
+function newTrack(stride: number): Track {
+  return { value: NaN, pose: new Float64Array(stride), rates: new Float64Array(stride), refusedOp: -1 };
+}
+
+function copyTrack(to: Track, from: Track): void {
+  to.value = from.value;
+  to.pose.set(from.pose);
+  to.rates.set(from.rates);
+  to.refusedOp = from.refusedOp;
+}
+
+/**
+ * Solves at v from `start` (moved on by `startRates` × (v − startValue) when given) into
+ * the tracker's pose and rates. Returns -1 when the solution is on the reference branch
+ * and, with rates, within the correction a continuous motion allows; else the index of
+ * the operation that failed or refused.
+ */
+function trySolve(t: Tracker, start: Float64Array, startRates: Float64Array | null, startValue: number, v: number): number {
+  const { p, stride, pose, predicted } = t;
+  const dv = v - startValue;
+  let motion = 0;
+  for (let i = 0; i < stride; i += 2) {
+    let x = start[i];
+    let y = start[i + 1];
+    if (startRates !== null) {
+      const rx = startRates[i] * dv;
+      const ry = startRates[i + 1] * dv;
+      if (Number.isFinite(rx) && Number.isFinite(ry)) {
+        x += rx;
+        y += ry;
+        motion = Math.max(motion, Math.hypot(rx, ry));
+      }
+    }
+    predicted[i] = x;
+    predicted[i + 1] = y;
+  }
+  pose.set(predicted);
+  if (!runWithRates(p, v, pose, t.rates)) return p.failedOp;
+  const allowed = SWEEP_CORRECTION_MAX_SHARE * motion + t.correctionFloorMm;
+  for (let b = 0; b < p.blockCount; b++) {
+    if (blockJacobianSign(p, b, pose) !== t.referenceSigns[b]) return t.blockOps[b];
+    if (startRates === null) continue;
+    for (let k = 0, first = p.blockUnknownStart[b]; k < p.blockUnknownCount[b]; k++) {
+      const s = p.blockUnknowns[first + k];
+      if (!(Math.hypot(pose[s] - predicted[s], pose[s + 1] - predicted[s + 1]) <= allowed)) return t.blockOps[b];
+    }
+  }
+  return -1;
+}
+
+function accept(t: Tracker, track: Track, v: number): void {
+  track.value = v;
+  track.pose.set(t.pose);
+  track.rates.set(t.rates);
+}
+
+/**
+ * Moves `track` to `target` by accepted steps, each at most maxStep, halving a refused
+ * step and doubling after an accepted one. False when a step below minStep is refused:
+ * the branch ends within that of track.value, which is left at the last value accepted
+ * (track.refusedOp says which operation refused).
+ */
+function advance(t: Tracker, track: Track, target: number): boolean {
+  const distance = Math.abs(target - track.value);
+  const cap = SWEEP_MAX_SUBSTEPS + (t.maxStep < Infinity ? Math.ceil(distance / t.maxStep) : 0);
+  let h = Math.min(distance, t.maxStep);
+  for (let i = 0; i < cap; i++) {
+    const remaining = target - track.value;
+    if (!(Math.abs(remaining) > 0)) return remaining === 0;
+    const v = h >= Math.abs(remaining) ? target : track.value + Math.sign(remaining) * h;
+    const refused = trySolve(t, track.pose, track.rates, track.value, v);
+    if (refused < 0) {
+      accept(t, track, v);
+      if (v === target) return true;
+      h = Math.min(2 * h, t.maxStep);
+    } else {
+      track.refusedOp = refused;
+      h *= 0.5;
+      if (!(h >= t.minStep)) return false;
+    }
+  }
+  return false;
+}
+
+/**
+ * Moves `track` back towards `end` (where the branch was last seen from the other side)
+ * in steps that halve the distance left, so no step can pass over a lock narrower than
+ * itself: false, with track.value at the lock's edge, where the branch ends first; true
+ * when it comes within minStep of `end`.
+ */
+function approach(t: Tracker, track: Track, end: number): boolean {
+  for (let i = 0; i < SWEEP_REFINE_MAX_STEPS; i++) {
+    const half = 0.5 * (track.value - end);
+    if (!(Math.abs(half) >= t.minStep)) return true;
+    if (!advance(t, track, end + half)) return false;
+  }
+  return true;
+}
+
+/** Two tracked poses within SWEEP_REJOIN_REL_TOL of the length scale of each other, joint by joint. */
+function samePose(t: Tracker, a: Track, b: Track): boolean {
+  const tol = SWEEP_REJOIN_REL_TOL * t.p.lengthScaleMm;
+  for (let i = 0; i < t.stride; i += 2) {
+    if (!(Math.hypot(a.pose[i] - b.pose[i], a.pose[i + 1] - b.pose[i + 1]) <= tol)) return false;
+  }
+  return true;
+}
+
+/**
+ * Takes up the reference branch again at v after a lock: from `near` (the last sample
+ * solved, when there is one, a start away from the fold where the branch ended), moved
+ * on by its rates and not, else from the last accepted pose, else from the reference pose.
+ */
+function reacquire(t: Tracker, track: Track, v: number, near: Track | null): boolean {
+  let refused = near === null ? 0 : trySolve(t, near.pose, near.rates, near.value, v);
+  if (refused >= 0 && near !== null) refused = trySolve(t, near.pose, null, near.value, v);
+  if (refused >= 0) refused = trySolve(t, track.pose, null, track.value, v);
+  if (refused >= 0) refused = trySolve(t, t.p.reference, null, track.value, v);
+  if (refused >= 0) {
+    track.refusedOp = refused;
+    return false;
+  }
+  accept(t, track, v);
+  return true;
 }
 
 export function sweep(plan: Plan, range: SweepRange): SweepResult {
@@ -107,129 +306,244 @@ export function sweep(plan: Plan, range: SweepRange): SweepResult {
   }
   const stride = 2 * p.slotCount;
   const values = new Float64Array(steps);
-  const poses = new Float64Array(steps * stride);
-  const rates = new Float64Array(steps * stride);
+  const poses = new Float64Array(steps * stride).fill(NaN);
+  const rates = new Float64Array(steps * stride).fill(NaN);
   const assembled = new Uint8Array(steps);
-  const failedOps = new Int32Array(steps).fill(-1);
   const spacing = steps > 1 ? (to - from) / (steps - 1) : 0;
-  const pose = new Float64Array(stride);
-  const rate = new Float64Array(stride);
-  const lastPose = Float64Array.from(p.reference);
-  const lastRates = new Float64Array(stride);
-  let lastValue = p.driverReferenceValue;
-  let haveRates = false;
-  const tracking = p.blockCount > 0;
+  for (let k = 0; k < steps; k++) values[k] = steps > 1 ? from + spacing * k : from;
+  const direction = to >= from ? 1 : -1;
 
-  for (let k = 0; k < steps; k++) {
-    const v = steps > 1 ? from + spacing * k : from;
-    values[k] = v;
-    // Predictor for the Newton blocks: the last solved pose moved on by its rates.
-    for (let i = 0; i < stride; i++) {
-      const predicted = lastPose[i] + lastRates[i] * (v - lastValue);
-      pose[i] = haveRates && Number.isFinite(predicted) ? predicted : lastPose[i];
-    }
-    let ok = runWithRates(p, v, pose, rate);
-    if (!ok && tracking) {
-      pose.set(lastPose);
-      ok = runWithRates(p, v, pose, rate);
-      if (!ok) {
-        pose.set(p.reference);
-        ok = runWithRates(p, v, pose, rate);
+  const unitStep = p.driverIsLength ? SWEEP_MAX_STEP_REL * p.lengthScaleMm : SWEEP_MAX_STEP_RAD;
+  const blockOps = new Int32Array(p.blockCount);
+  for (let o = 0; o < p.opCount; o++) if (p.ops[o * OP_STRIDE] === OP_NEWTON) blockOps[p.ops[o * OP_STRIDE + 1]] = o;
+  const referenceSigns = new Int8Array(p.blockCount);
+  for (let b = 0; b < p.blockCount; b++) referenceSigns[b] = blockJacobianSign(p, b, p.reference);
+  const t: Tracker = {
+    p,
+    stride,
+    referenceSigns,
+    blockOps,
+    maxStep: p.blockCount > 0 ? unitStep : Infinity,
+    minStep: SWEEP_REFINE_REL_TOL * (spacing !== 0 ? Math.min(Math.abs(spacing), unitStep) : unitStep),
+    correctionFloorMm: SWEEP_CORRECTION_FLOOR_REL * p.lengthScaleMm,
+    pose: new Float64Array(stride),
+    rates: new Float64Array(stride),
+    predicted: new Float64Array(stride),
+  };
+
+  // The reference pose holds at its driver value, and for a rotation driver at any whole
+  // turn from it: start from the copy nearest the range.
+  let anchor = p.driverReferenceValue;
+  if (!p.driverIsLength) {
+    const nearest = Math.min(Math.max(anchor, Math.min(from, to)), Math.max(from, to));
+    anchor += 2 * Math.PI * Math.round((nearest - anchor) / (2 * Math.PI));
+  }
+  const start = newTrack(stride);
+  start.value = anchor;
+  start.pose.set(p.reference);
+  if (!runWithRates(p, anchor, start.pose, start.rates)) {
+    start.pose.set(p.reference);
+    start.rates.fill(NaN);
+  }
+
+  // boundaryEdge[b], boundaryOp[b]: where the branch ends between samples b and b + 1.
+  const boundaryEdge = new Float64Array(Math.max(steps - 1, 0)).fill(NaN);
+  const boundaryOp = new Int32Array(Math.max(steps - 1, 0)).fill(-1);
+  const track = newTrack(stride);
+  const probe = newTrack(stride);
+  const last = newTrack(stride);
+  const edgeTrack = newTrack(stride);
+  const store = (k: number) => {
+    assembled[k] = 1;
+    poses.set(track.pose, k * stride);
+    rates.set(track.rates, k * stride);
+  };
+  const locks: { from: number; to: number }[] = [];
+  const deadCentres: SweepDeadCentre[] = [];
+  const limit = (value: number, op: number) => {
+    const joint = opJoint(p, op);
+    if (joint >= 0) deadCentres.push({ value, joint: p.jointIds[joint], kind: 'limit' });
+  };
+  // Two passes out from the anchor: up the index from the first sample at or past it, down from the one before.
+  let firstUp = 0;
+  while (firstUp < steps && (values[firstUp] - anchor) * direction < 0) firstUp++;
+  for (const step of [1, -1]) {
+    copyTrack(track, start);
+    let alive = true;
+    for (let k = step > 0 ? firstUp : firstUp - 1; k >= 0 && k < steps; k += step) {
+      const previous = k - step;
+      const boundary = step > 0 ? k - 1 : k;
+      const hasBoundary = previous >= 0 && previous < steps;
+      if (alive) {
+        if (advance(t, track, values[k])) {
+          store(k);
+          continue;
+        }
+        edgeTrack.value = track.value;
+        edgeTrack.pose.set(track.pose);
+        const edge = track.value;
+        const edgeOp = track.refusedOp;
+        // The branch ends between samples. If it is back by this sample, and followed back
+        // ends again short of the first end, the lock is narrower than a step; if it comes
+        // back to the pose where it ended, the two meet there: a singular point passed.
+        if (hasBoundary) {
+          last.value = values[previous];
+          last.pose.set(poses.subarray(previous * stride, (previous + 1) * stride));
+          last.rates.set(rates.subarray(previous * stride, (previous + 1) * stride));
+        }
+        if (reacquire(t, track, values[k], hasBoundary ? last : null)) {
+          copyTrack(probe, track);
+          if (!approach(t, probe, edge)) {
+            store(k);
+            locks.push(step > 0 ? { from: edge, to: probe.value } : { from: probe.value, to: edge });
+            limit(edge, edgeOp);
+            limit(probe.value, probe.refusedOp);
+            continue;
+          }
+          if (samePose(t, probe, edgeTrack)) {
+            store(k);
+            const joint = opJoint(p, edgeOp);
+            if (joint >= 0) deadCentres.push({ value: edge, joint: p.jointIds[joint], kind: 'change point' });
+            continue;
+          }
+        }
+        alive = false;
+        if (hasBoundary) {
+          boundaryEdge[boundary] = edge;
+          boundaryOp[boundary] = edgeOp;
+        }
+      } else if (reacquire(t, track, values[k], null)) {
+        store(k);
+        alive = true;
+        // Where the lock ends: follow the branch back towards the sample before.
+        if (hasBoundary) {
+          copyTrack(probe, track);
+          if (!approach(t, probe, values[previous])) {
+            boundaryEdge[boundary] = probe.value;
+            boundaryOp[boundary] = probe.refusedOp;
+          }
+        }
       }
-    }
-    poses.set(pose, k * stride);
-    rates.set(rate, k * stride);
-    if (ok) {
-      assembled[k] = 1;
-      lastPose.set(pose);
-      lastRates.set(rate);
-      lastValue = v;
-      haveRates = true;
-    } else {
-      failedOps[k] = p.failedOp;
     }
   }
 
-  const scratch = new Float64Array(stride);
-  /** Bisects between an assembling and a failing value; returns the edge and the operation that fails past it. */
-  const edge = (good: number, bad: number, goodPoseAt: number, badOp: number): { value: number; op: number } => {
-    const start = poses.slice(goodPoseAt, goodPoseAt + stride);
-    let lo = good;
-    let hi = bad;
-    let op = badOp;
-    const tol = SWEEP_REFINE_REL_TOL * Math.abs(spacing);
-    for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(hi - lo) > tol; i++) {
-      const mid = 0.5 * (lo + hi);
-      scratch.set(start);
-      if (run(p, mid, scratch)) {
-        lo = mid;
-        start.set(scratch);
-      } else {
-        hi = mid;
-        op = p.failedOp;
-      }
-    }
-    return { value: 0.5 * (lo + hi), op };
-  };
-
-  const locks: { from: number; to: number }[] = [];
-  const deadCentres: { value: number; joint: string }[] = [];
   for (let k = 0; k < steps; k++) {
     if (assembled[k] === 1) continue;
     let j = k;
     while (j + 1 < steps && assembled[j + 1] === 0) j++;
     let lockFrom = values[k];
     let lockTo = values[j];
-    if (k > 0) {
-      const found = edge(values[k - 1], values[k], (k - 1) * stride, failedOps[k]);
-      lockFrom = found.value;
-      const joint = opJoint(p, found.op);
-      if (joint >= 0) deadCentres.push({ value: found.value, joint: p.jointIds[joint] });
+    if (k > 0 && Number.isFinite(boundaryEdge[k - 1])) {
+      lockFrom = boundaryEdge[k - 1];
+      limit(lockFrom, boundaryOp[k - 1]);
     }
-    if (j + 1 < steps) {
-      const found = edge(values[j + 1], values[j], (j + 1) * stride, failedOps[j]);
-      lockTo = found.value;
-      const joint = opJoint(p, found.op);
-      if (joint >= 0) deadCentres.push({ value: found.value, joint: p.jointIds[joint] });
+    if (j + 1 < steps && Number.isFinite(boundaryEdge[j])) {
+      lockTo = boundaryEdge[j];
+      limit(lockTo, boundaryOp[j]);
     }
     locks.push({ from: lockFrom, to: lockTo });
     k = j;
   }
 
-  // Dead centres passed without locking: a dyad's sine dips to ~0 between samples.
-  for (let o = 0, end = p.opCount * OP_STRIDE; o < end; o += OP_STRIDE) {
-    if (!isDyadOp(p.ops[o])) continue;
-    for (let k = 1; k + 1 < steps; k++) {
-      if (assembled[k - 1] === 0 || assembled[k] === 0 || assembled[k + 1] === 0) continue;
-      const here = dyadSine(p, o, poses, k * stride);
-      if (!(here < DEAD_CENTRE_CANDIDATE_SIN && here < dyadSine(p, o, poses, (k - 1) * stride) && here <= dyadSine(p, o, poses, (k + 1) * stride))) continue;
-      const found = refineMinimum(p, o, values[k - 1], values[k + 1], poses.subarray(k * stride, (k + 1) * stride), scratch, Math.abs(spacing));
-      if (found.sine < DEAD_CENTRE_SIN_TOL) deadCentres.push({ value: found.value, joint: p.jointIds[p.ops[o + 3] >> 1] });
-    }
-  }
-  deadCentres.sort((a, b) => (to >= from ? a.value - b.value : b.value - a.value));
+  findDyadWindows(p, t, { values, poses, rates, assembled }, locks, deadCentres);
+  const order = (a: number, b: number) => (a - b) * direction;
+  locks.sort((a, b) => order(a.from, b.from));
+  deadCentres.sort((a, b) => order(a.value, b.value));
 
-  const fullTurn = !p.driverIsLength && Math.abs(to - from) >= 2 * Math.PI - FULL_TURN_TOL_RAD && assembled.every((f) => f === 1);
+  const fullTurn = !p.driverIsLength && Math.abs(to - from) >= 2 * Math.PI - FULL_TURN_TOL_RAD &&
+    locks.length === 0 && assembled.every((f) => f === 1);
   return { values, poses, rates, assembled, locks, deadCentres, fullTurn };
 }
 
-/** Golden-section search for the smallest dyad sine on [lo, hi]; a value that does not assemble counts as sine 0. */
-function refineMinimum(
-  p: PlanInternal, o: number, lo: number, hi: number, start: Float64Array, scratch: Float64Array, spacing: number,
+/**
+ * Dyad dead centres between samples: every sampled local minimum of a dyad's signed sine
+ * between assembled samples is refined by golden-section search. A minimum within
+ * DEAD_CENTRE_SIN_TOL of zero is a change point passed; one below it is a lock window,
+ * whose edges are bisected on the assembly condition.
+ */
+function findDyadWindows(
+  p: PlanInternal, t: Tracker,
+  samples: Pick<SweepResult, 'values' | 'poses' | 'rates' | 'assembled'>,
+  locks: { from: number; to: number }[], deadCentres: SweepDeadCentre[],
+): void {
+  const { values, poses, rates, assembled } = samples;
+  const steps = values.length;
+  const stride = t.stride;
+  const sine = new Float64Array(steps);
+  for (let o = 0, end = p.opCount * OP_STRIDE; o < end; o += OP_STRIDE) {
+    if (!isDyadOp(p.ops[o])) continue;
+    for (let k = 0; k < steps; k++) sine[k] = assembled[k] === 1 ? signedDyadSine(p, o, poses.subarray(k * stride, (k + 1) * stride)) : NaN;
+    for (let k = 0; k < steps; k++) {
+      if (assembled[k] === 0 || steps < 2) continue;
+      // A neighbour that does not assemble is a lock already reported.
+      if ((k > 0 && assembled[k - 1] === 0) || (k + 1 < steps && assembled[k + 1] === 0)) continue;
+      const before = k > 0 ? sine[k - 1] : Infinity;
+      const after = k + 1 < steps ? sine[k + 1] : Infinity;
+      if (!(sine[k] < before && sine[k] <= after)) continue;
+      const lo = values[k > 0 ? k - 1 : k];
+      const hi = values[k + 1 < steps ? k + 1 : k];
+      const at = k * stride;
+      const found = goldenMinimum(p, t, o, lo, hi, values[k], poses.subarray(at, at + stride), rates.subarray(at, at + stride));
+      // A minimum at an end of the range is not passed within it.
+      if (Math.abs(found.value - values[0]) <= t.minStep || Math.abs(found.value - values[steps - 1]) <= t.minStep) continue;
+      // A lock the tracking found already (a block's, or one its sub-steps met).
+      if (locks.some((l) => (found.value - l.from) * (found.value - l.to) <= 0)) continue;
+      const joint = p.jointIds[p.ops[o + 3] >> 1];
+      if (Math.abs(found.sine) < DEAD_CENTRE_SIN_TOL) {
+        deadCentres.push({ value: found.value, joint, kind: 'change point' });
+      } else if (found.sine < 0) {
+        // The samples on either side of the window that assemble.
+        const left = (values[k] - found.value) * (hi - lo) < 0 ? k : k - 1;
+        const right = left + 1;
+        const lockFrom = bisectEdge(p, t, values[left], found.value, poses.subarray(left * stride, (left + 1) * stride), rates.subarray(left * stride, (left + 1) * stride));
+        const lockTo = bisectEdge(p, t, values[right], found.value, poses.subarray(right * stride, (right + 1) * stride), rates.subarray(right * stride, (right + 1) * stride));
+        locks.push({ from: lockFrom.value, to: lockTo.value });
+        for (const edge of [lockFrom, lockTo]) {
+          const j = opJoint(p, edge.op);
+          if (j >= 0) deadCentres.push({ value: edge.value, joint: p.jointIds[j], kind: 'limit' });
+        }
+      }
+    }
+  }
+}
+
+/**
+ * Solves at v into t.pose from a sample's pose moved on by its rates. False when it does
+ * not assemble or a block lands on another branch (p.failedOp then names the operation).
+ */
+function solveNear(p: PlanInternal, t: Tracker, v: number, at: number, pose: Float64Array, rates: Float64Array): boolean {
+  for (let i = 0; i < t.stride; i++) {
+    const predicted = pose[i] + rates[i] * (v - at);
+    t.pose[i] = Number.isFinite(predicted) ? predicted : pose[i];
+  }
+  if (!run(p, v, t.pose)) return false;
+  for (let b = 0; b < p.blockCount; b++) {
+    if (blockJacobianSign(p, b, t.pose) !== t.referenceSigns[b]) {
+      p.failedOp = t.blockOps[b];
+      return false;
+    }
+  }
+  return true;
+}
+
+/** Golden-section search (Kiefer, 1953) for the least signed sine of dyad `o` on [lo, hi]. */
+function goldenMinimum(
+  p: PlanInternal, t: Tracker, o: number, lo: number, hi: number, at: number, pose: Float64Array, rates: Float64Array,
 ): { value: number; sine: number } {
-  const invPhi = (Math.sqrt(5) - 1) / 2;
   const sineAt = (v: number) => {
-    scratch.set(start);
-    return run(p, v, scratch) ? dyadSine(p, o, scratch, 0) : 0;
+    // Where the linkage fails (or leaves the branch) before this dyad, its sine is not defined: count it as a lock.
+    if (!solveNear(p, t, v, at, pose, rates) && p.failedOp < o / OP_STRIDE) return -1;
+    const s = signedDyadSine(p, o, t.pose);
+    return Number.isNaN(s) ? -1 : s;
   };
+  const invPhi = (Math.sqrt(5) - 1) / 2;
   let a = lo;
   let b = hi;
   let x1 = b - invPhi * (b - a);
   let x2 = a + invPhi * (b - a);
   let f1 = sineAt(x1);
   let f2 = sineAt(x2);
-  const tol = SWEEP_REFINE_REL_TOL * spacing;
-  for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(b - a) > tol; i++) {
+  for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(b - a) > t.minStep; i++) {
     if (f1 <= f2) {
       b = x2;
       x2 = x1;
@@ -245,4 +559,25 @@ function refineMinimum(
     }
   }
   return f1 <= f2 ? { value: x1, sine: f1 } : { value: x2, sine: f2 };
+}
+
+/** Bisects between `good` (a sample that assembles, pose and rates given) and `bad`; returns the last value that assembles and the operation that fails past it. */
+function bisectEdge(
+  p: PlanInternal, t: Tracker, good: number, bad: number, pose: Float64Array, rates: Float64Array,
+): { value: number; op: number } {
+  const at = good;
+  let lo = good;
+  let hi = bad;
+  let op = -1;
+  for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(hi - lo) > t.minStep; i++) {
+    const mid = 0.5 * (lo + hi);
+    if (solveNear(p, t, mid, at, pose, rates)) {
+      lo = mid;
+    } else {
+      hi = mid;
+      op = p.failedOp;
+    }
+  }
+  if (op < 0 && !solveNear(p, t, bad, at, pose, rates)) op = p.failedOp;
+  return { value: lo, op };
 }

@@ -62,12 +62,9 @@ export const REFERENCE_REPRODUCTION_REL_TOL = 1e-9;
 export const DEAD_CENTRE_SIN_TOL = 1e-6;
 
 /**
- * A sampled local minimum of a dyad's sine below this is refined by golden-section
- * search; a larger one is a near miss, not a toggle worth locating.
+ * Edge and minimum refinements in a sweep stop at this share of the sample spacing (or
+ * of the largest tracking step, when that is smaller).
  */
-export const DEAD_CENTRE_CANDIDATE_SIN = 0.2;
-
-/** Edge and minimum refinements in a sweep stop at this share of the sample spacing. */
 export const SWEEP_REFINE_REL_TOL = 1e-9;
 
 /** Cap on bisection or golden-section steps per refinement (2^-60 of a step, 0.618^60 ≈ 3e-13). */
@@ -75,3 +72,39 @@ export const SWEEP_REFINE_MAX_STEPS = 60;
 
 /** A rotation driver's range turns fully when it spans 2π less at most this (rad). */
 export const FULL_TURN_TOL_RAD = 1e-9;
+
+/**
+ * Largest driver step (rad) a sweep takes when it tracks a Newton block: a predictor
+ * step of 5° keeps the start of each solve well inside its branch's basin.
+ */
+export const SWEEP_MAX_STEP_RAD = Math.PI / 36;
+
+/** The same for a length driver, as a share of the plan's length scale (mm per mm). */
+export const SWEEP_MAX_STEP_REL = 0.05;
+
+/**
+ * A tracked step is refused, and halved, when Newton moves a block joint further than
+ * this share of the step's predicted motion (the largest |rate| × step over all joints)
+ * from where the rates predicted it. Along a smooth branch the correction shrinks as
+ * step², the predicted motion as step, so halving always ends in acceptance; a jump to
+ * another assembly does not shrink and is never accepted.
+ */
+export const SWEEP_CORRECTION_MAX_SHARE = 0.25;
+
+/**
+ * Corrections below this share of the length scale (mm per mm) are always allowed: the
+ * Newton tolerance and rounding, not motion.
+ */
+export const SWEEP_CORRECTION_FLOOR_REL = 1e-9;
+
+/** Cap on tracked sub-steps between two samples (besides one per SWEEP_MAX_STEP of distance). */
+export const SWEEP_MAX_SUBSTEPS = 400;
+
+/**
+ * Where a tracked branch ends (a fold) and the branch taken up again past it leads back
+ * to within this share of the length scale (mm per mm) of the same pose, the two meet
+ * there: a singular point the motion passes, not a lock. At a fold positions move as the
+ * square root of the driver's distance from it, so the edge, located to
+ * SWEEP_REFINE_REL_TOL of a step, leaves them some 1e-6 of the size apart.
+ */
+export const SWEEP_REJOIN_REL_TOL = 1e-4;
