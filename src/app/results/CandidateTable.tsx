@@ -4,7 +4,7 @@
  * search refreshes every second stays cheap.
  */
 import { memo, type Dispatch, type ReactNode } from 'react';
-import { defectsLabel, grashofLabel, transmissionRangeDeg } from './figures';
+import { defectsLabel, grashofLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
 import { familyName, formatDegRange, formatMmValue, formatSize } from './format';
 import { TABLE_STEPS } from './motion';
 import { useLazyMotion } from './motionStore';
@@ -145,7 +145,7 @@ const CandidateRowView = memo(function CandidateRowView({ row, target, selected,
       <td className="results-num">{formatMmValue(candidate.error.maxMm)}</td>
       <td>{grashofLabel(candidate, motion)}</td>
       <td className="results-num">{motion === undefined ? '…' : formatDegRange(transmissionRangeDeg(candidate, motion))}</td>
-      <td className="results-num">{motion === undefined ? '…' : motion.ok ? formatSize(motion.motion.sizeMm, false) : '—'}</td>
+      <td className="results-num">{motion === undefined ? '…' : sizeCell(sizeOverMotionMm(candidate, motion))}</td>
       <td className="results-defects">{defectsLabel(candidate)}</td>
       <td onClick={(event) => event.stopPropagation()}>
         <input
@@ -159,3 +159,7 @@ const CandidateRowView = memo(function CandidateRowView({ row, target, selected,
     </tr>
   );
 }, sameRow);
+
+function sizeCell(size: { widthMm: number; heightMm: number } | undefined): string {
+  return size === undefined ? '—' : formatSize(size, false);
+}

@@ -4,7 +4,7 @@
  */
 import { useMemo, type Dispatch } from 'react';
 import { pointsBox, unionBox, viewBoxAttr, viewOf } from './drawing';
-import { defectsLabel, grashofLabel, transmissionRangeDeg } from './figures';
+import { defectsLabel, grashofLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
 import { familyName, formatDegRange, formatMm, formatMmValue, formatSize } from './format';
 import { DETAIL_STEPS, type MotionResult } from './motion';
 import { motionNow } from './motionStore';
@@ -86,7 +86,10 @@ const FIGURE_ROWS: readonly (readonly [string, (row: CandidateRow, motion: Motio
   ['Sum of squared errors', (r) => `${formatMmValue(r.candidate.error.sumSquares)} mm²`],
   ['Grashof class', (r, m) => grashofLabel(r.candidate, m)],
   ['Transmission angle', (r, m) => formatDegRange(transmissionRangeDeg(r.candidate, m))],
-  ['Size over the motion', (_, m) => (m.ok ? formatSize(m.motion.sizeMm) : '—')],
+  ['Size over the motion', (r, m) => {
+    const size = sizeOverMotionMm(r.candidate, m);
+    return size === undefined ? '—' : formatSize(size);
+  }],
   ['Constraints', (r) => (r.candidate.feasible ? 'all met' : `not met (violation ${r.candidate.violation.toPrecision(3)})`)],
   ['Defects', (r) => defectsLabel(r.candidate)],
 ];

@@ -7,7 +7,7 @@ import { useEffect, useMemo, useState } from 'react';
 import type { CandidateReport } from '../../core/synthesis';
 import { KINEMATICS_ONLY_CAUTION } from './export';
 import { ExportPanel } from './ExportPanel';
-import { defectsLabel, grashofLabel, transmissionRangeDeg } from './figures';
+import { defectsLabel, grashofLabel, referencePoseLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
 import { familyName, formatDegRange, formatDriver, formatMm, formatMmValue, formatSize } from './format';
 import { DETAIL_STEPS, createSolveScratch, driverDisplayValue, driverFromDisplayValue, solveAt, type CandidateMotion } from './motion';
 import { useMotionNow } from './motionStore';
@@ -119,7 +119,7 @@ function Figures({ candidate, motion }: { candidate: CandidateReport; motion: Ca
         <dt>Sum of squared errors</dt><dd>{formatMmValue(candidate.error.sumSquares)} mm²</dd>
         <dt>Grashof class</dt><dd>{grashofLabel(candidate, result)}</dd>
         <dt>Transmission angle</dt><dd>{formatDegRange(transmissionRangeDeg(candidate, result))}</dd>
-        <dt>Size over the motion</dt><dd>{formatSize(motion.sizeMm)}</dd>
+        <dt>Size over the motion</dt><dd>{formatSize(sizeOverMotionMm(candidate, result) ?? motion.sizeMm)}</dd>
         <dt>Motion</dt>
         <dd>
           {formatDriver(driverDisplayValue(motion, motion.driver.from), unit)} to {formatDriver(driverDisplayValue(motion, motion.driver.to), unit)}
@@ -130,7 +130,7 @@ function Figures({ candidate, motion }: { candidate: CandidateReport; motion: Ca
         <dt>Defects</dt><dd>{defectsLabel(candidate)}</dd>
       </dl>
       <details className="results-joints">
-        <summary>Joints in the reference pose (mm)</summary>
+        <summary>{referencePoseLabel(candidate)}</summary>
         <table>
           <thead><tr><th scope="col">joint</th><th scope="col">x (mm)</th><th scope="col">y (mm)</th><th scope="col">kind</th></tr></thead>
           <tbody>

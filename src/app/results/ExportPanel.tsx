@@ -2,6 +2,7 @@
 import type { CandidateReport } from '../../core/synthesis';
 import { downloadText } from './download';
 import { drawingSvg, exportFileStem, linkageFileText, pathsCsv } from './export';
+import { referencePoseNote } from './figures';
 import { familyName } from './format';
 import type { CandidateMotion } from './motion';
 import type { ResultsTarget } from './types';
@@ -25,7 +26,7 @@ export function ExportPanel({
   return (
     <div className="results-exports" role="group" aria-label="Export the selected design">
       <span className="results-exports-label">Export</span>
-      <button type="button" onClick={() => downloadText(linkageFileText(candidate.linkage, title), `${stem}.json`, 'application/json')}>
+      <button type="button" onClick={() => downloadText(linkageFileText(candidate.linkage, `${title}${referencePoseNote(candidate)}`), `${stem}.json`, 'application/json')}>
         Linkage file (JSON)
       </button>
       <button type="button" onClick={() => downloadText(pathsCsv(motion), `${stem}-paths.csv`, 'text/csv')}>

@@ -9,7 +9,7 @@ import { CandidateTable } from './CandidateTable';
 import { CompareView } from './CompareView';
 import { DRAWING_COLOURS } from './export';
 import { DetailView } from './DetailView';
-import { grashofLabel, transmissionRangeDeg } from './figures';
+import { grashofLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
 import { TABLE_STEPS } from './motion';
 import { motionNow } from './motionStore';
 import { ResultsToolbar } from './ResultsToolbar';
@@ -44,10 +44,11 @@ export function ResultsView({ target, candidates, running }: ResultsViewProps) {
     const needsMotion = state.sort.key === 'size' || state.sort.key === 'grashof' || state.sort.key === 'transmission';
     const figures = (row: CandidateRow): RowFigures => {
       const motion = needsMotion ? motionNow(row.candidate, TABLE_STEPS) : undefined;
+      const size = sizeOverMotionMm(row.candidate, motion);
       return {
         grashof: grashofLabel(row.candidate, motion),
         transmissionDeg: transmissionRangeDeg(row.candidate, motion),
-        sizeAreaMm2: motion?.ok ? motion.motion.sizeMm.widthMm * motion.motion.sizeMm.heightMm : undefined,
+        sizeAreaMm2: size === undefined ? undefined : size.widthMm * size.heightMm,
       };
     };
     return sortRows(filtered, state.sort, figures);

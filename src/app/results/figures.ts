@@ -23,14 +23,39 @@ export function grashofLabel(candidate: CandidateReport, motion: MotionResult | 
 }
 
 /**
- * Least and greatest transmission angle (deg) over every four-bar loop, over the motion
- * the views show (a full turn of a crank), so the table says what the detail plot
- * shows; the search's own figure (over the target's span) only where no motion exists.
+ * Least and greatest transmission angle (deg) over every four-bar loop over the
+ * candidate's motion: the candidate's own figure, which `loci analyze` of its linkage file
+ * repeats over that motion. A candidate saved before it carried its motion: the figure
+ * of the motion the views show.
  */
 export function transmissionRangeDeg(candidate: CandidateReport, motion: MotionResult | undefined): { min: number; max: number } | undefined {
+  if (hasOwnMotion(candidate)) return candidate.transmissionDeg;
   if (motion === undefined) return undefined;
   if (!motion.ok) return candidate.transmissionDeg;
   return motionTransmissionDeg(motion.motion);
+}
+
+/** Width and height (mm) of everything the linkage carries over its motion: the candidate's own figure, as transmissionRangeDeg. */
+export function sizeOverMotionMm(candidate: CandidateReport, motion: MotionResult | undefined): { widthMm: number; heightMm: number } | undefined {
+  if (hasOwnMotion(candidate) && candidate.sizeMm !== undefined) return candidate.sizeMm;
+  return motion?.ok ? motion.motion.sizeMm : undefined;
+}
+
+/** Candidates described before they carried their motion (saved projects) lack it. */
+function hasOwnMotion(candidate: CandidateReport): boolean {
+  return (candidate as Partial<CandidateReport>).motion !== undefined;
+}
+
+/** Where the linkage file's reference pose is, for its name: ", pose at target point 1" or nothing. */
+export function referencePoseNote(candidate: CandidateReport): string {
+  return (candidate as Partial<CandidateReport>).referencePose === 'target point 1' ? ', pose at target point 1' : '';
+}
+
+/** Where the exported linkage is drawn, in words for the joint table's title. */
+export function referencePoseLabel(candidate: CandidateReport): string {
+  return (candidate as Partial<CandidateReport>).referencePose === 'target point 1'
+    ? 'Joints in the pose at target point 1 (mm)'
+    : 'Joints in the reference pose (mm)';
 }
 
 export function motionTransmissionDeg(motion: CandidateMotion): { min: number; max: number } | undefined {

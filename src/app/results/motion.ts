@@ -4,9 +4,10 @@
  * the output body relative to ground, the transmission angle of every four-bar loop, and
  * the box the linkage sweeps. Pure: no DOM, so the exporters and the unit tests share it.
  *
- * The range: a rotation driver that turns fully is swept through one turn, starting at
- * the first target point's driver value and turning the way the target is traced; any
- * other driver is swept from the first target point's driver value to the last.
+ * The range: the candidate's own motion (the one its figures were taken over) where it
+ * carries one. Otherwise a rotation driver that turns fully is swept through one turn,
+ * starting at the first target point's driver value and turning the way the target is
+ * traced; any other driver is swept from the first target point's driver value to the last.
  */
 import { GROUND, compile, run, runWithRates, sweep, type Linkage, type Plan, type SweepResult } from '../../core/linkage';
 import {
@@ -36,6 +37,12 @@ export interface MotionInput {
   readonly linkageDriverValues: readonly number[];
   /** The output point at each target point (x0, y0, x1, y1, …, mm), as the search placed it. */
   readonly points?: readonly number[];
+  /**
+   * The motion the candidate's figures were taken over (CandidateReport.motion, in the
+   * linkage's driver frame): the views sweep exactly that. Absent in candidates saved
+   * before it existed; the range is then chosen as described above.
+   */
+  readonly motion?: { readonly from: number; readonly to: number; readonly fullTurn: boolean };
 }
 
 export interface Box {
@@ -124,7 +131,10 @@ export function computeMotion(input: MotionInput, steps: number): MotionResult {
   const rotation = plan.linkage.driver.kind === 'rotation';
   const own = input.linkageDriverValues;
   const driverValues = rotation ? unwrapAngles(own) : [...own];
-  const chosen = chooseSweep(plan, driverValues, steps, rotation);
+  const given = input.motion;
+  const chosen = given !== undefined && Number.isFinite(given.from) && Number.isFinite(given.to) && Math.abs(given.to - given.from) > MIN_DRIVER_SPAN
+    ? { from: given.from, to: given.to, fullTurn: given.fullTurn, result: sweep(plan, { from: given.from, to: given.to, steps }) }
+    : chooseSweep(plan, driverValues, steps, rotation);
   const result = chosen.result;
   const stride = 2 * plan.slotCount;
 

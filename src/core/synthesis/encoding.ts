@@ -8,10 +8,9 @@
 import type { FourBarClass } from '../linkage/analysis';
 import type { Linkage } from '../linkage';
 import type { CurveEvaluator } from './curve';
-import type { FamilyId } from './problem';
 
 export const V_BOUNDS = 0;
-/** A full turn is required and the crank cannot make it (Grashof with the crank shortest). */
+/** A full turn is required and the driver cannot make it (a lock or a change point on the way round). */
 export const V_CRANK = 1;
 /** The mechanism cannot assemble at a target point's driver value. */
 export const V_ASSEMBLY = 2;
@@ -26,7 +25,7 @@ export const V_SLOTS = 8;
 
 export const DEFECT_NAMES: readonly string[] = [
   'variable outside its bounds',
-  'crank cannot turn fully (not Grashof with the crank shortest)',
+  'crank cannot turn fully (a lock or change point on the way round)',
   'cannot assemble at a target point',
   'motion passes a dead centre or lock (branch defect)',
   'driver values out of order (order defect)',
@@ -40,11 +39,16 @@ export interface EncodingReport {
   /** The driver value, in the encoding's frame, at which `linkage` is drawn (its reference pose). */
   readonly drawnAt: number;
   readonly grashof?: FourBarClass;
-  readonly transmissionDeg?: { readonly min: number; readonly max: number };
+  /**
+   * The driver turns fully, found exactly: Grashof's sum for a four-bar, the assembly
+   * margin's minima located by golden section for the other families. A change point
+   * within the classifier's tolerance does not turn fully.
+   */
+  readonly turnsFully: boolean;
 }
 
+// No `family` here: problem.ts imports targetFrame from this module, so this one imports nothing from it.
 export interface MechanismEncoding {
-  readonly family: FamilyId;
   /** The mechanism's variables (the per-point driver variables come after them). */
   readonly names: readonly string[];
   /** Default box of each mechanism variable. */
@@ -62,8 +66,18 @@ export interface MechanismEncoding {
   motion(span: Float64Array, parts: Float64Array): void;
   /** Adds the violations that depend on placement: p ↦ (a −b; b a) p + (tx, ty), `placement` = [a, b, tx, ty]. */
   placed(placement: Float64Array, parts: Float64Array): void;
-  /** The loaded design as a linkage at driver value `t` (reference pose), placed; allocates. */
-  report(t: number, driverValues: Float64Array, sa: number, sb: number, tx: number, ty: number): EncodingReport;
+  /**
+   * The exact lock search behind `load` (a full turn) and `motion` (the spans
+   * spans[2i] … spans[2i + 1], i < count), where those only sampled: locks narrower than
+   * the sample spacing. Adds to the same slots. Costly, so the objective calls it only
+   * for a design that is otherwise feasible; allocates nothing.
+   */
+  verify(spans: Float64Array, count: number, parts: Float64Array): void;
+  /**
+   * The loaded design as a linkage drawn at driver value `t` (its pose there becomes the
+   * linkage's reference pose), placed; allocates.
+   */
+  report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport;
 }
 
 /** Where the target sits and how big it is: the scale of default boxes. */

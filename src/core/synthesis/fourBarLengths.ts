@@ -9,6 +9,7 @@
  */
 import { fourBar } from '../linkage';
 import { classifyFourBar } from '../linkage/analysis';
+import { crankViolation, inputTurnsFully } from './grashofTurn';
 import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, type CurveEvaluator } from './curve';
 import {
   V_BRANCH as V_BRANCH_BINDING,
@@ -99,7 +100,7 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
   }
   const branch: Branch = constraints.branch ?? 'open';
   const fullTurn = constraints.fullTurnCrank === true;
-  const grashofTolerance = constraints.grashofTolerance ?? 0;
+  const grashofSlack = constraints.grashofTolerance ?? 0;
   const cosLimit = transmissionCosLimit(constraints.minTransmissionRad);
   const linkLimits = constraints.linkLengthMm;
   const keepOut = constraints.keepOut ?? [];
@@ -125,7 +126,6 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
   }
 
   const encoding: MechanismEncoding = {
-    family: 'fourbar-lengths',
     names,
     lower,
     upper,
@@ -146,27 +146,13 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       // A link of no length is no four-bar (the published boxes start at 0).
       for (let i = R1; i <= R4; i++) if (!(p[i] > 0)) parts[V_LINK_LENGTH] += 1;
       if (fullTurn) {
-        const r1 = p[R1];
-        const r2 = p[R2];
-        const r3 = p[R3];
-        const r4 = p[R4];
-        const l = Math.max(r1, r2, r3, r4);
-        const s = Math.min(r1, r2, r3, r4);
-        const pq = r1 + r2 + r3 + r4 - s - l;
-        // Grashof with the crank shortest (Grashof, 1883): r2 ≤ min(r1, r3, r4), s + l ≤ p + q (+ slack).
-        const shortest = r2 - Math.min(r1, r3, r4);
-        const grashof = s + l - pq - grashofTolerance * l;
-        let v = 0;
-        if (shortest > 0) v += shortest / l;
-        if (grashof > 0) v += grashof / l;
-        if (!(v >= 0)) v = 1;
-        parts[V_CRANK] += v;
+        parts[V_CRANK] += crankViolation(p[R1], p[R2], p[R3], p[R4], grashofSlack);
         transmissionOver(-1, 1, parts);
       }
     },
     motion(span: Float64Array, parts: Float64Array): void {
-      // With a full turn required, the Grashof test (with its tolerance) stands for the
-      // whole turn, as in the benchmark papers' formulation; otherwise check the travel.
+      // With a full turn required, Grashof's criterion (load) stands for the whole turn;
+      // otherwise check the travel against the loop's closure condition, exactly.
       if (fullTurn) return;
       const a = span[0];
       const b = span[1];
@@ -211,7 +197,10 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
         }
       }
     },
-    report(t: number, driverValues: Float64Array, sa: number, sb: number, tx: number, ty: number): EncodingReport {
+    verify(): void {
+      // Everything above is exact already: Grashof's sum and the loop's closure condition.
+    },
+    report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport {
       fourBarJointsInto(p, 0, t, curve.sign, joints);
       const point = new Float64Array(CURVE_OUT_LENGTH);
       curve.at(t, 0, point);
@@ -230,33 +219,11 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       } catch {
         grashof = undefined;
       }
-      let min = Infinity;
-      let max = -Infinity;
-      const r1 = p[R1];
-      const r2 = p[R2];
-      const r3 = p[R3];
-      const r4 = p[R4];
-      const consider = (c2: number) => {
-        const c = (r3 * r3 + r4 * r4 - r1 * r1 - r2 * r2 + 2 * r1 * r2 * c2) / (2 * r3 * r4);
-        const mu = (Math.acos(Math.max(-1, Math.min(1, c))) * 180) / Math.PI;
-        min = Math.min(min, mu);
-        max = Math.max(max, mu);
-      };
-      if (fullTurn) {
-        consider(1);
-        consider(-1);
-      } else {
-        for (let i = 0; i + 1 < driverValues.length; i++) {
-          cosRangeInto(driverValues[i], Math.max(driverValues[i], driverValues[i + 1]), range);
-          consider(range[0]);
-          consider(range[1]);
-        }
-      }
       return {
         linkage,
         drawnAt: t,
         ...(grashof === undefined ? {} : { grashof }),
-        ...(min <= max ? { transmissionDeg: { min, max } } : {}),
+        turnsFully: inputTurnsFully(p[R1], p[R2], p[R3], p[R4]),
       };
     },
   };

@@ -27,11 +27,14 @@ import {
   DEFECT_NAMES,
   V_ASSEMBLY as V_ASSEMBLY_BINDING,
   V_BOUNDS as V_BOUNDS_BINDING,
+  V_BRANCH as V_BRANCH_BINDING,
+  V_CRANK as V_CRANK_BINDING,
   V_ORDER as V_ORDER_BINDING,
   V_SLOTS as V_SLOTS_BINDING,
   targetFrame,
   type MechanismEncoding,
 } from './encoding';
+import { MOTION_ANALYSIS_STEPS, candidateFigures, type CandidateMotionRange } from './candidateFigures';
 import { createFourBarLengths } from './fourBarLengths';
 import { createJointFit } from './jointFit';
 import { errorSummary, measureValue, type ErrorSummary } from './measures';
@@ -66,6 +69,7 @@ const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
 const V_ASSEMBLY = V_ASSEMBLY_BINDING;
 const V_BOUNDS = V_BOUNDS_BINDING;
+const V_BRANCH = V_BRANCH_BINDING;
 const V_ORDER = V_ORDER_BINDING;
 const V_SLOTS = V_SLOTS_BINDING;
 const REFINE_T = REFINE_T_BINDING;
@@ -85,6 +89,13 @@ export const ALIGNMENT_OFFSETS = 12;
 /** Alternations of matching and fitting in a free placement with matched timing. */
 export const ALIGNMENT_ITERATIONS = 3;
 
+/** The defects that mean a lock on the way: the motion analysis finding one adds none of its own. */
+const LOCK_DEFECTS: readonly string[] = [DEFECT_NAMES[V_CRANK_BINDING], DEFECT_NAMES[V_ASSEMBLY_BINDING], DEFECT_NAMES[V_BRANCH_BINDING]];
+/** Violation counted for a lock only the motion analysis met (the share of a turn of one of its 1° steps). */
+const MISSED_LOCK_VIOLATION = 1 / 360;
+/** A motion shorter than this (rad) is none: the figures are taken over a full turn. */
+const MIN_MOTION_RAD = 1e-9;
+
 export interface CandidateReport {
   readonly family: FamilyId;
   /** The design vector (with refined driver values where evaluate writes them back). */
@@ -97,8 +108,16 @@ export interface CandidateReport {
   readonly feasible: boolean;
   /** The constraints the design breaks, in words. */
   readonly defects: string[];
-  /** The design as a linkage (reference pose, placed), ready for the linkage file. */
+  /**
+   * The design as a linkage, placed, ready for the linkage file. Its reference pose is the
+   * pose at target point 1 (`referencePose`), so its output point sits on the fitted path.
+   */
   readonly linkage: Linkage;
+  /**
+   * Where `linkage` is drawn: 'target point 1' (the pose at the first target point's
+   * driver value), or 'design reference' when the design does not assemble there.
+   */
+  readonly referencePose: 'target point 1' | 'design reference';
   /** The driver value at each target point, in the problem's frame (its timing's variables). */
   readonly driverValues: number[];
   /**
@@ -107,12 +126,22 @@ export interface CandidateReport {
    * point at `points[i]`.
    */
   readonly linkageDriverValues: number[];
+  /**
+   * The motion the figures below are taken over, in the linkage's driver frame: the
+   * range, step count and full-turn finding to give `loci analyze` (analyzeLinkage) to
+   * get the same figures.
+   */
+  readonly motion: CandidateMotionRange;
   /** The output point at each target point, placed (x0, y0, x1, y1, …). */
   readonly points: number[];
   /** The fitted similarity of a free placement: p ↦ s R(θ) p + t. */
   readonly placement?: { readonly scale: number; readonly rotationRad: number; readonly tx: number; readonly ty: number };
+  /** Class of the four-bar loop that holds the driven link (by the motion analysis). */
   readonly grashof?: FourBarClass;
+  /** Least and greatest transmission angle of every four-bar loop over `motion`, deg. */
   readonly transmissionDeg?: { readonly min: number; readonly max: number };
+  /** Bounding box of every joint and point over `motion`, mm. */
+  readonly sizeMm?: { readonly widthMm: number; readonly heightMm: number };
 }
 
 export interface Objective {
@@ -212,6 +241,8 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
   const parts = new Float64Array(V_SLOTS);
   const refineIo = new Float64Array(REFINE_IO_LENGTH);
   const span = new Float64Array(2);
+  /** The motion's spans (from, to) between target points, and back to the first on a closed path. */
+  const spans = new Float64Array(2 * n);
   const buf = new Float64Array(CURVE_OUT_LENGTH);
   const sim = new Float64Array(SIM_LENGTH);
   const branchCount = encoding.branchCount;
@@ -437,16 +468,22 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
       if (cyclic) d -= Math.floor(d / TAU) * TAU;
       unwrapped[i] = unwrapped[i - 1] + d;
     }
+    let spanCount = 0;
     for (let i = 1; i < n; i++) {
       const a = unwrapped[i - 1];
       const b = unwrapped[i];
-      span[0] = Math.min(a, b);
-      span[1] = Math.max(a, b);
-      encoding.motion(span, parts);
+      spans[2 * spanCount] = Math.min(a, b);
+      spans[2 * spanCount + 1] = Math.max(a, b);
+      spanCount++;
     }
     if (closed && unwrapped[n - 1] < unwrapped[0] + TAU) {
-      span[0] = unwrapped[n - 1];
-      span[1] = unwrapped[0] + TAU;
+      spans[2 * spanCount] = unwrapped[n - 1];
+      spans[2 * spanCount + 1] = unwrapped[0] + TAU;
+      spanCount++;
+    }
+    for (let i = 0; i < spanCount; i++) {
+      span[0] = spans[2 * i];
+      span[1] = spans[2 * i + 1];
       encoding.motion(span, parts);
     }
 
@@ -478,6 +515,12 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
     }
     let violation = 0;
     for (let s = 0; s < V_SLOTS; s++) violation += parts[s];
+    if (violation <= 0) {
+      // Otherwise feasible: look for the locks narrower than the samples above.
+      encoding.verify(spans, spanCount, parts);
+      violation = 0;
+      for (let s = 0; s < V_SLOTS; s++) violation += parts[s];
+    }
     evaluation[2 * k] = measureValue(measure, d2, n, weights);
     evaluation[2 * k + 1] = violation;
   }
@@ -503,23 +546,46 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
     const x = Float64Array.from(xIn);
     const best = evaluateAll(x);
     if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
-    // Leave the scratch (points, parts, sim) describing the kept branch.
+    // Leave the scratch (points, parts, sim, unwrapped) describing the kept branch.
     evaluateBranch(x, best);
     const value = evaluation[2 * best];
-    const violation = evaluation[2 * best + 1];
+    let violation = evaluation[2 * best + 1];
     const defects: string[] = [];
     for (let s = 0; s < V_SLOTS; s++) if (parts[s] > 0 || Number.isNaN(parts[s])) defects.push(DEFECT_NAMES[s]);
     const t = times.slice(best * n, best * n + n);
+    const path = unwrapped.slice(0, n);
     const sa = freePlacement ? sim[SIM_A] : 1;
     const sb = freePlacement ? sim[SIM_B] : 0;
     const tx = freePlacement ? sim[SIM_TX] : 0;
     const ty = freePlacement ? sim[SIM_TY] : 0;
-    const part = encoding.report(t[0], t, sa, sb, tx, ty);
+    // Drawn at target point 1, so the exported pose sits on the fitted motion; where that
+    // pose does not compile (it does not assemble there), in the design's own reference.
+    let part = encoding.report(t[0], sa, sb, tx, ty);
+    let compiled = compile(part.linkage);
+    if (!compiled.ok && part.drawnAt !== 0) {
+      part = encoding.report(0, sa, sb, tx, ty);
+      compiled = compile(part.linkage);
+    }
+    if (!compiled.ok) throw new Error(`describe: the reported linkage does not compile: ${compiled.issues[0].message}`);
+    const plan = compiled.plan;
+    // Both frames measure the same input (a rotation about the same pivot; the placement
+    // is a similarity without reflection), so they differ by a constant.
+    const offset = plan.driverReferenceValue - part.drawnAt;
+    const motion = motionRange(path, offset, part.turnsFully);
+    const found = candidateFigures(plan, motion);
+    if (!found.ok) throw new Error(`describe: the motion analysis failed: ${found.reason}`);
+    const figures = found.figures;
+    if (figures.locks.length > 0 && !defects.some((d) => LOCK_DEFECTS.includes(d))) {
+      // The analysis meets a lock the search's checks did not: say so, and count it.
+      defects.push(DEFECT_NAMES[V_BRANCH]);
+      violation += MISSED_LOCK_VIOLATION;
+    }
     const variables: Record<string, number> = {};
     names.forEach((name, j) => {
       variables[name] = x[j];
     });
     const feasible = violation <= 0;
+    const grashof = figures.grashof ?? part.grashof;
     return {
       family,
       x: Array.from(x),
@@ -530,12 +596,15 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
       feasible,
       defects,
       linkage: part.linkage,
+      referencePose: part.drawnAt === t[0] ? 'target point 1' : 'design reference',
       driverValues: Array.from(t),
-      linkageDriverValues: inLinkageFrame(part.linkage, part.drawnAt, t),
+      linkageDriverValues: Array.from(t, (v) => offset + v),
+      motion,
       points: Array.from(points),
       ...(freePlacement ? { placement: { scale: Math.hypot(sa, sb), rotationRad: Math.atan2(sb, sa), tx, ty } } : {}),
-      ...(part.grashof === undefined ? {} : { grashof: part.grashof }),
-      ...(part.transmissionDeg === undefined ? {} : { transmissionDeg: part.transmissionDeg }),
+      ...(grashof === undefined ? {} : { grashof }),
+      ...(figures.transmissionDeg === undefined ? {} : { transmissionDeg: figures.transmissionDeg }),
+      ...(figures.sizeMm === undefined ? {} : { sizeMm: figures.sizeMm }),
     };
   }
 
@@ -554,14 +623,22 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
 }
 
 /**
- * Problem-frame driver values in the linkage's own frame. The reported linkage is drawn
- * at problem-frame value `drawnAt`, and both frames measure the same input (a rotation
- * about the same pivot; the placement is a similarity without reflection), so they
- * differ by a constant.
+ * The motion a candidate makes, in the linkage's frame (problem-frame value + `offset`):
+ * from the first target point's driver value, a full turn the way the target is traced
+ * when the driver turns fully, else to the farthest driver value the target reaches.
  */
-function inLinkageFrame(linkage: Linkage, drawnAt: number, t: Float64Array): number[] {
-  const compiled = compile(linkage);
-  if (!compiled.ok) throw new Error(`describe: the reported linkage does not compile: ${compiled.issues[0].message}`);
-  const offset = compiled.plan.driverReferenceValue - drawnAt;
-  return Array.from(t, (v) => offset + v);
+function motionRange(path: Float64Array, offset: number, turnsFully: boolean): CandidateMotionRange {
+  const first = path[0];
+  const forward = path[path.length - 1] >= first;
+  let lo = first;
+  let hi = first;
+  for (let i = 1; i < path.length; i++) {
+    lo = Math.min(lo, path[i]);
+    hi = Math.max(hi, path[i]);
+  }
+  const from = offset + first;
+  if (turnsFully || !(hi - lo > MIN_MOTION_RAD)) {
+    return { from, to: from + (forward ? TAU : -TAU), fullTurn: turnsFully, steps: MOTION_ANALYSIS_STEPS };
+  }
+  return { from, to: offset + (forward ? hi : lo), fullTurn: false, steps: MOTION_ANALYSIS_STEPS };
 }

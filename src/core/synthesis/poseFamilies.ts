@@ -6,6 +6,12 @@
  * Newton block starts from the previous pose. Driver values are the crank's rotation
  * from its reference-pose angle. The assembly branch of every dyad is the one of the
  * reference pose. A slider's direction stays that of the family's default.
+ *
+ * Locks: the search samples a motion every MOTION_CHECK_STEP_RAD; for a design otherwise
+ * feasible `verify` finds the locks between samples (Grashof's criterion for the
+ * four-bar's full turn, a margin search in lockSearch.ts for the rest). A report draws
+ * the design in its pose at the driver value asked for (the objective asks for target
+ * point 1's), so an exported linkage sits on its fitted motion.
  */
 import {
   compile,
@@ -42,6 +48,8 @@ import {
   type MechanismEncoding,
   type TargetFrame,
 } from './encoding';
+import { crankViolation, inputTurnsFully } from './grashofTurn';
+import { LockSearch, type MarginCurve } from './lockSearch';
 import type { Constraints, FamilyId } from './problem';
 
 // Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
@@ -59,6 +67,10 @@ const V_TRANSMISSION = V_TRANSMISSION_BINDING;
 const TAU = 2 * Math.PI;
 /** Driver step of the lock and transmission checks along a motion: 72 per turn. */
 export const MOTION_CHECK_STEP_RAD = TAU / 72;
+/** Most samples of one lock search (a span of ten turns at MOTION_CHECK_STEP_RAD). */
+const LOCK_SEARCH_MAX_STEPS = 720;
+/** Violation added per lock the exact search finds: the share of a turn of one sample step. */
+const LOCK_SHARE = MOTION_CHECK_STEP_RAD / TAU;
 
 export type PoseFamilyId = Exclude<FamilyId, 'fourbar-lengths'>;
 
@@ -72,21 +84,49 @@ const BUILDERS: Readonly<Record<PoseFamilyId, () => Linkage>> = {
   'stephenson-iii': () => stephensonIII(),
 };
 
-class PlanCurve implements CurveEvaluator {
+class PlanCurve implements CurveEvaluator, MarginCurve {
   readonly secondDerivatives = false;
   readonly plan: Plan;
   readonly pose: Float64Array;
   readonly rates: Float64Array;
   private readonly pSlot: number;
-  constructor(plan: Plan) {
+  private readonly pivotSlot: number;
+  private readonly tipSlot: number;
+  /** Length of the driven link in the reference pose, mm: the scale of the margin. */
+  private crankMm = 1;
+  constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
     this.plan = plan;
     this.pose = new Float64Array(2 * plan.slotCount);
     this.rates = new Float64Array(2 * plan.slotCount);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
+    this.pivotSlot = pivotSlot;
+    this.tipSlot = tipSlot;
   }
   /** Start the next sweep from the reference pose. */
   reset(): void {
-    this.pose.set(this.plan.reference);
+    const ref = this.plan.reference;
+    this.pose.set(ref);
+    this.crankMm = Math.hypot(ref[this.tipSlot] - ref[this.pivotSlot], ref[this.tipSlot + 1] - ref[this.pivotSlot + 1]);
+  }
+  /**
+   * Assembly margin c / (c + max |d(joint)/dt|), c the crank length: every joint's rate
+   * grows without bound as a dyad or a Newton block nears its toggle, so the margin falls
+   * to 0 at a lock's edge; −1 where the plan does not assemble.
+   */
+  marginAt(t: number): number {
+    const plan = this.plan;
+    if (!runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates)) {
+      this.pose.set(plan.reference);
+      return -1;
+    }
+    const rates = this.rates;
+    let fastest = 0;
+    for (let i = 0; i < rates.length; i++) {
+      const r = Math.abs(rates[i]);
+      if (!(r <= fastest)) fastest = r;
+    }
+    const margin = this.crankMm / (this.crankMm + fastest);
+    return margin >= 0 ? margin : -1;
   }
   at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
     const plan = this.plan;
@@ -139,18 +179,33 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     lower[k + 1] = frame.cy - 3 * L;
     upper[k + 1] = frame.cy + 3 * L;
   }
-  const curve = new PlanCurve(plan);
+  const slotOfJoint = (id: string) => 2 * (plan.slotIndex.get(id) ?? 0);
+  const driver = source.driver;
+  const curve = new PlanCurve(plan, slotOfJoint(driver.kind === 'rotation' ? driver.pivot : driver.from), slotOfJoint(driver.kind === 'rotation' ? driver.tip : driver.to));
   const groundSlots = Int32Array.from(
     source.joints.filter((j) => j.ground === true).map((j) => 2 * (plan.slotIndex.get(j.id) ?? 0)),
   );
   const links = linkPairs(plan);
   const loops: FourBarLoop[] = fourBarLoops(plan);
+  const driven = loops.find((l) => l.grounded && l.inputDriven);
+  // The four-bar's full turn is Grashof's criterion on its one loop, exactly; the other
+  // families' needs every loop: a margin search.
+  const grashofLoop = family === 'fourbar' ? driven : undefined;
   const fullTurn = constraints.fullTurnCrank === true;
   const cosLimit = transmissionCosLimit(constraints.minTransmissionRad);
   const linkLimits = constraints.linkLengthMm;
   const keepOut = constraints.keepOut ?? [];
   const reference = new Float64Array(2 * plan.slotCount);
   const point = new Float64Array(6);
+  const lockSearch = new LockSearch(2 * plan.slotCount, LOCK_SEARCH_MAX_STEPS);
+
+  /** Length of side i of a loop in the reference pose (ground, input, coupler, output for a loop through ground). */
+  function loopLength(loop: FourBarLoop, i: number): number {
+    const ref = plan.reference;
+    const a = loop.joints[(i + 3) % 4];
+    const b = loop.joints[i];
+    return Math.hypot(ref[2 * b] - ref[2 * a], ref[2 * b + 1] - ref[2 * a + 1]);
+  }
 
   function transmissionAtPose(parts: Float64Array, share: number): void {
     if (cosLimit >= 1) return;
@@ -163,7 +218,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
 
   /** Runs the driver from a to b in steps of MOTION_CHECK_STEP_RAD; returns the share of a turn that failed. */
   function sweepFailures(a: number, b: number, parts: Float64Array): number {
-    const steps = Math.min(720, Math.max(1, Math.ceil((b - a) / MOTION_CHECK_STEP_RAD)));
+    const steps = Math.min(LOCK_SEARCH_MAX_STEPS, Math.max(1, Math.ceil((b - a) / MOTION_CHECK_STEP_RAD)));
     const h = (b - a) / steps;
     let failed = 0;
     for (let k = 1; k <= steps; k++) {
@@ -173,8 +228,15 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     return (failed * h) / TAU;
   }
 
+  /** Locks met in a full turn from the reference pose, found exactly. */
+  function fullTurnLocks(): number {
+    curve.reset();
+    const locks = lockSearch.count(curve, 0, TAU, MOTION_CHECK_STEP_RAD, true);
+    curve.reset();
+    return locks;
+  }
+
   return {
-    family,
     names,
     lower,
     upper,
@@ -186,6 +248,10 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       setReferencePose(plan, reference);
       curve.reset();
       if (fullTurn) {
+        if (grashofLoop !== undefined) {
+          const g = grashofLoop;
+          parts[V_CRANK] += crankViolation(loopLength(g, 0), loopLength(g, 1), loopLength(g, 2), loopLength(g, 3), 0, true);
+        }
         parts[V_CRANK] += sweepFailures(0, TAU, parts);
         curve.reset();
       }
@@ -197,6 +263,20 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       if (fullTurn || !(b > a)) return;
       curve.at(a, 0, point);
       parts[V_BRANCH] += sweepFailures(a, b, parts);
+    },
+    verify(spans: Float64Array, count: number, parts: Float64Array): void {
+      if (fullTurn) {
+        // Grashof's criterion in load was exact already.
+        if (grashofLoop === undefined) parts[V_CRANK] += LOCK_SHARE * fullTurnLocks();
+        return;
+      }
+      curve.reset();
+      for (let i = 0; i < count; i++) {
+        const a = spans[2 * i];
+        const b = spans[2 * i + 1];
+        parts[V_BRANCH] += LOCK_SHARE * lockSearch.count(curve, a, b, MOTION_CHECK_STEP_RAD, false);
+      }
+      curve.reset();
     },
     placed(placement: Float64Array, parts: Float64Array): void {
       const sa = placement[0];
@@ -224,9 +304,15 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
         }
       }
     },
-    report(_t: number, driverValues: Float64Array, sa: number, sb: number, tx: number, ty: number): EncodingReport {
-      const ref = plan.reference;
-      const place = (s: number) => ({ x: sa * ref[2 * s] - sb * ref[2 * s + 1] + tx, y: sb * ref[2 * s] + sa * ref[2 * s + 1] + ty });
+    report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport {
+      // The pose at t, reached in steps from the reference so a Newton block keeps its branch.
+      curve.reset();
+      const steps = Math.min(LOCK_SEARCH_MAX_STEPS, Math.max(1, Math.ceil(Math.abs(t) / MOTION_CHECK_STEP_RAD)));
+      let assembles = true;
+      for (let k = 1; k <= steps && assembles; k++) assembles = curve.at((t * k) / steps, 0, point) >= 0;
+      const drawnAt = assembles ? t : 0;
+      const pose = assembles ? Float64Array.from(curve.pose) : Float64Array.from(plan.reference);
+      const place = (s: number) => ({ x: sa * pose[2 * s] - sb * pose[2 * s + 1] + tx, y: sb * pose[2 * s] + sa * pose[2 * s + 1] + ty });
       const rotation = Math.atan2(sb, sa);
       const linkage: Linkage = {
         joints: source.joints.map((j) => ({ ...j, ...place(plan.slotIndex.get(j.id) ?? 0) })),
@@ -236,39 +322,24 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
         driver: source.driver,
       };
       const scale = Math.hypot(sa, sb);
-      const driven = loops.find((l) => l.grounded && l.inputDriven);
       let grashof: EncodingReport['grashof'];
       if (driven !== undefined) {
-        const len = (i: number) => {
-          const a = driven.joints[(i + 3) % 4];
-          const b = driven.joints[i];
-          return scale * Math.hypot(ref[2 * b] - ref[2 * a], ref[2 * b + 1] - ref[2 * a + 1]);
-        };
         try {
-          grashof = classifyFourBar(len(0), len(1), len(2), len(3));
+          grashof = classifyFourBar(scale * loopLength(driven, 0), scale * loopLength(driven, 1), scale * loopLength(driven, 2), scale * loopLength(driven, 3));
         } catch {
           grashof = undefined;
         }
       }
-      let min = Infinity;
-      let max = -Infinity;
+      const turnsFully = grashofLoop !== undefined
+        ? inputTurnsFully(loopLength(grashofLoop, 0), loopLength(grashofLoop, 1), loopLength(grashofLoop, 2), loopLength(grashofLoop, 3))
+        : fullTurnLocks() === 0;
       curve.reset();
-      for (let i = 0; i < driverValues.length; i++) {
-        if (curve.at(driverValues[i], 0, point) < 0) continue;
-        for (const loop of loops) {
-          const mu = (transmissionAngleRad(loop, curve.pose) * 180) / Math.PI;
-          if (Number.isFinite(mu)) {
-            min = Math.min(min, mu);
-            max = Math.max(max, mu);
-          }
-        }
-      }
       return {
         linkage,
         // Pose families count the driver as the rotation from the reference pose.
-        drawnAt: 0,
+        drawnAt,
         ...(grashof === undefined ? {} : { grashof }),
-        ...(min <= max ? { transmissionDeg: { min, max } } : {}),
+        turnsFully,
       };
     },
   };

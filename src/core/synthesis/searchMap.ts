@@ -37,7 +37,12 @@
  * It is no default: on line6-untimed and timed5 the logarithmic scale makes the search
  * worse, their optimum links being of the box's own size.
  */
-import type { Constraints, Placement } from './problem';
+// What this module reads of a problem, by shape: problem.ts imports this module, so this
+// one imports nothing from it (no import cycle).
+type Placement = 'fixed' | 'free';
+interface Constraints {
+  readonly grashofTolerance?: number;
+}
 
 export const SEARCH_MAP_KINDS = ['affine', 'fourbar-boundary'] as const;
 export type SearchMapKind = (typeof SEARCH_MAP_KINDS)[number];

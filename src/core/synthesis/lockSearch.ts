@@ -1,0 +1,128 @@
+/**
+ * Locks along a driver range found from an assembly margin rather than from samples
+ * alone: a lock narrower than the sample spacing leaves no failed sample, but the margin
+ * falls towards it from both sides, so every sampled local minimum of the margin is
+ * refined by golden-section search (Kiefer, 1953) until a probe fails to assemble or the
+ * bracket is below LOCK_BRACKET_TOL_RAD. Allocates nothing after construction.
+ */
+
+/**
+ * A refinement stops when its bracket is narrower than this (rad, 6e-6°): a lock narrower
+ * still is below any drive's resolution; 31 golden-section steps from a 10° bracket.
+ */
+export const LOCK_BRACKET_TOL_RAD = 1e-7;
+/** Cap on golden-section steps per minimum (0.618^80 of a 5° bracket is far below LOCK_BRACKET_TOL_RAD). */
+export const LOCK_REFINE_MAX_STEPS = 80;
+/**
+ * A refined minimum of the margin below this is a dead centre within tolerance (a change
+ * point): the margin (see MarginCurve) is below 1e-6 when the joints move more than a
+ * million crank lengths per radian of the driver, which only a toggle pose does.
+ */
+export const DEAD_CENTRE_MARGIN = 1e-6;
+
+export interface MarginCurve {
+  /** Start pose of the next `marginAt`; it leaves the solved pose there. */
+  readonly pose: Float64Array;
+  /**
+   * The assembly margin at driver value `t`: < 0 (or NaN) where the linkage does not
+   * assemble; in (0, 1] where it does, falling to 0 at a toggle (dead centre).
+   */
+  marginAt(t: number): number;
+}
+
+export class LockSearch {
+  private readonly stride: number;
+  private readonly maxSteps: number;
+  private readonly margins: Float64Array;
+  private readonly poses: Float64Array;
+  private readonly start: Float64Array;
+
+  constructor(stride: number, maxSteps: number) {
+    this.stride = stride;
+    this.maxSteps = maxSteps;
+    this.margins = new Float64Array(maxSteps + 1);
+    this.poses = new Float64Array((maxSteps + 1) * stride);
+    this.start = new Float64Array(stride);
+  }
+
+  /**
+   * The number of locks met driving from `a` to `b` ≥ a, sampled at most `stepRad` apart
+   * (capped at maxSteps samples): runs of samples that fail, plus refined minima of the
+   * margin that fail or fall below DEAD_CENTRE_MARGIN. `cyclic`: b = a + 2π and the
+   * samples close up. The curve starts from the pose it holds and is left at the pose of
+   * the last sample.
+   */
+  count(curve: MarginCurve, a: number, b: number, stepRad: number, cyclic: boolean): number {
+    if (!(b > a)) return 0;
+    const steps = Math.min(this.maxSteps, Math.max(2, Math.ceil((b - a) / stepRad)));
+    const h = (b - a) / steps;
+    // Cyclic: samples 0 … steps − 1, the last neighbouring the first; else 0 … steps.
+    const last = cyclic ? steps - 1 : steps;
+    const m = this.margins;
+    const stride = this.stride;
+    for (let k = 0; k <= last; k++) {
+      const v = curve.marginAt(a + k * h);
+      m[k] = v >= 0 ? v : -1;
+      this.poses.set(curve.pose, k * stride);
+    }
+    let locks = 0;
+    for (let k = 0; k <= last; k++) {
+      const here = m[k];
+      const before = k > 0 ? m[k - 1] : cyclic ? m[last] : Infinity;
+      const after = k < last ? m[k + 1] : cyclic ? m[0] : Infinity;
+      if (here < 0) {
+        // A run of failed samples counts once, at its start.
+        if (!(before < 0)) locks++;
+        continue;
+      }
+      if (!(here < before && here <= after)) continue;
+      const lo = k > 0 || cyclic ? a + (k - 1) * h : a;
+      const hi = k < last || cyclic ? a + (k + 1) * h : b;
+      if (this.refine(curve, k, lo, hi)) locks++;
+    }
+    // Every sample failed in a cyclic range: one lock, not a run without a start.
+    if (cyclic && locks === 0 && m[0] < 0) locks = 1;
+    this.copyPose(last, curve.pose);
+    return locks;
+  }
+
+  /** Golden-section search for the least margin on [lo, hi] from the pose of sample k; true when it finds a lock. */
+  private refine(curve: MarginCurve, k: number, lo: number, hi: number): boolean {
+    this.copyPose(k, this.start);
+    const invPhi = (Math.sqrt(5) - 1) / 2;
+    let a = lo;
+    let b = hi;
+    let x1 = b - invPhi * (b - a);
+    let x2 = a + invPhi * (b - a);
+    let f1 = this.probe(curve, x1);
+    let f2 = this.probe(curve, x2);
+    for (let i = 0; i < LOCK_REFINE_MAX_STEPS && b - a > LOCK_BRACKET_TOL_RAD; i++) {
+      if (!(f1 >= 0) || !(f2 >= 0)) return true;
+      if (f1 <= f2) {
+        b = x2;
+        x2 = x1;
+        f2 = f1;
+        x1 = b - invPhi * (b - a);
+        f1 = this.probe(curve, x1);
+      } else {
+        a = x1;
+        x1 = x2;
+        f1 = f2;
+        x2 = a + invPhi * (b - a);
+        f2 = this.probe(curve, x2);
+      }
+    }
+    return !(f1 >= DEAD_CENTRE_MARGIN) || !(f2 >= DEAD_CENTRE_MARGIN);
+  }
+
+  /** Copies the pose of sample k into `out` (a loop: a subarray would allocate). */
+  private copyPose(k: number, out: Float64Array): void {
+    const o = k * this.stride;
+    for (let i = 0; i < this.stride; i++) out[i] = this.poses[o + i];
+  }
+
+  private probe(curve: MarginCurve, t: number): number {
+    curve.pose.set(this.start);
+    return curve.marginAt(t);
+  }
+}
