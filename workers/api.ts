@@ -9,7 +9,7 @@
  */
 import type { OptimizerConfig, OptimizerState } from '../src/core/optimize';
 import type { CandidateReport, FamilyId } from '../src/core/synthesis';
-import type { TestFunctionName } from './testFunctions';
+import type { TestFunctionName } from './testFunctionNames';
 
 export type Failure = { readonly ok: false; readonly reason: string };
 export type Outcome<T> = ({ readonly ok: true } & T) | Failure;
@@ -133,6 +133,8 @@ export interface SearchWorkerApi {
   topCandidates(islandId: string, count: number): Outcome<{ readonly candidates: DescribedCandidate[] }>;
   /** Describes given designs with the island's objective (real coordinates). */
   describe(islandId: string, designs: readonly (readonly number[])[]): Outcome<{ readonly candidates: DescribedCandidate[] }>;
+  /** Describes given designs (real coordinates) with the objective `objective` names, no island needed. */
+  describeDesigns(objective: ObjectiveSpec, designs: readonly (readonly number[])[]): Outcome<{ readonly candidates: DescribedCandidate[] }>;
   /** Forgets an island. */
   drop(islandId: string): Outcome<object>;
 }

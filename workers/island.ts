@@ -26,8 +26,11 @@ import {
   type StepSlice,
 } from './api';
 import { CandidateArchive, MAX_ARCHIVE_CAPACITY } from './archive';
+import { describeWith, type DescribeOutcome } from './describeDesigns';
 import { injectImmigrants, type UnitImmigrant } from './migration';
-import { buildObjective, type SearchObjective } from './objective';
+import { objectiveError } from './objectiveError';
+import { buildObjective, type ObjectiveResult } from './objective';
+import type { SearchObjective } from './searchObjective';
 
 type Made = { readonly ok: true; readonly island: Island } | { readonly ok: false; readonly reason: string };
 
@@ -102,11 +105,12 @@ export class Island {
     this.real = new Float64Array(objective.dim);
   }
 
-  static create(input: IslandConfig): Made {
+  /** `build` makes the objective from its spec; a test may pass one that wraps the real objective. */
+  static create(input: IslandConfig, build: (spec: IslandConfig['objective']) => ObjectiveResult = buildObjective): Made {
     const problem = checkConfig(input);
     if (problem !== null) return { ok: false, reason: problem };
     const config = copyConfig(input);
-    const built = buildObjective(config.objective);
+    const built = build(config.objective);
     if (!built.ok) return { ok: false, reason: `objective: ${built.reason}` };
     const objective = built.objective;
     const made = createOptimizer(optimizerConfig(config, objective.dim));
@@ -185,7 +189,12 @@ export class Island {
       const n = points.length;
       if (n === 0) break;
       const { values, violations } = this.batchBuffers(n);
-      for (let k = 0; k < n; k++) this.evaluateInto(points[k], k, values, violations);
+      try {
+        for (let k = 0; k < n; k++) this.evaluateInto(points[k], k, values, violations);
+      } catch (error) {
+        // this.real holds the design being evaluated when it threw.
+        throw objectiveError(this.config.islandId, this.real, error);
+      }
       opt.tell(points, values, violations);
       stepEvaluations += n;
       if (this.immigrants.length > 0) this.placeImmigrants();
@@ -226,20 +235,8 @@ export class Island {
     return { accepted: this.placeImmigrants() };
   }
 
-  describe(designs: readonly (readonly number[])[]): DescribedCandidate[] | { reason: string } {
-    if (!Array.isArray(designs)) return { reason: 'designs is not an array' };
-    const out: DescribedCandidate[] = [];
-    for (const [k, design] of designs.entries()) {
-      if (!(Array.isArray(design) && design.length === this.objective.dim && design.every((v) => Number.isFinite(v)))) {
-        return { reason: `designs[${k}] is not an array of ${this.objective.dim} finite numbers` };
-      }
-      const x = Float64Array.from(design);
-      this.objective.evaluate(x, this.out);
-      const value = canonicalValue(this.out[0]);
-      const violation = canonicalViolation(this.out[1], value);
-      out.push({ x: Array.from(x), value, violation, detail: this.objective.describe(x) });
-    }
-    return out;
+  describe(designs: readonly (readonly number[])[]): DescribeOutcome {
+    return describeWith(this.objective, designs);
   }
 
   topCandidates(count: number): DescribedCandidate[] {

@@ -5,25 +5,9 @@
  */
 import { parseProblemFile } from '../src/core/io/problem';
 import { createObjective, FAMILY_IDS, type FamilyId } from '../src/core/synthesis';
-import type { CandidateDetail, ObjectiveSpec } from './api';
+import type { ObjectiveSpec } from './api';
+import type { SearchObjective } from './searchObjective';
 import { testFunctionObjective } from './testFunctions';
-
-/** The island's view of an objective; the synthesis `Objective` has this shape. */
-export interface SearchObjective {
-  readonly dim: number;
-  /** Real bounds of each variable. */
-  readonly lower: Float64Array;
-  readonly upper: Float64Array;
-  readonly variableNames: readonly string[];
-  /** The design a point u of the optimizer's box [0, 1]^dim stands for (affine unless the objective maps otherwise); no allocation. */
-  fromSearchBoxInto(u: ArrayLike<number>, x: Float64Array): Float64Array;
-  /** A box point standing for design x: how immigrants re-enter the search. */
-  toSearchBoxInto(x: ArrayLike<number>, u: Float64Array): Float64Array;
-  /** out[0] = value, out[1] = violation (0 feasible). May write a repaired x back. No allocation. */
-  evaluate(x: Float64Array, out: Float64Array): void;
-  /** A full report of one design (allocates). */
-  describe(x: Float64Array): CandidateDetail;
-}
 
 export type ObjectiveResult = { readonly ok: true; readonly objective: SearchObjective } | { readonly ok: false; readonly reason: string };
 

@@ -3,6 +3,7 @@
  * runs the same behind comlink in a worker and directly in one thread (tests, tools).
  */
 import type { DescribedCandidate, IslandProgress, Outcome, SearchWorkerApi } from './api';
+import { createDesignDescriber } from './describeDesigns';
 import { Island } from './island';
 
 const MAX_COUNT = 10_000;
@@ -16,6 +17,7 @@ function countProblem(count: unknown): string | null {
 /** A fresh API with no islands; `nowMs` is the clock `step` slices time with. */
 export function createSearchWorkerApi(nowMs: () => number): SearchWorkerApi {
   const islands = new Map<string, Island>();
+  const describeDesigns = createDesignDescriber();
 
   function withIsland<T>(islandId: string, run: (island: Island) => Outcome<T>): Outcome<T> {
     const island = islands.get(islandId);
@@ -66,10 +68,10 @@ export function createSearchWorkerApi(nowMs: () => number): SearchWorkerApi {
       return withIsland(islandId, (island) => ({ ok: true, candidates: island.topCandidates(count) }));
     },
     describe(islandId, designs) {
-      return withIsland<{ candidates: DescribedCandidate[] }>(islandId, (island) => {
-        const described = island.describe(designs);
-        return 'reason' in described ? { ok: false, reason: described.reason } : { ok: true, candidates: described };
-      });
+      return withIsland<{ candidates: DescribedCandidate[] }>(islandId, (island) => island.describe(designs));
+    },
+    describeDesigns(objective, designs) {
+      return describeDesigns(objective, designs);
     },
     drop(islandId) {
       return islands.delete(islandId) ? { ok: true } : { ok: false, reason: `no island ${JSON.stringify(islandId)} in this worker` };

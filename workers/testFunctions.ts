@@ -5,10 +5,9 @@
  * survey of benchmark functions for global optimization problems".
  */
 import { fromUnitBoxInto, toUnitBoxInto } from '../src/core/optimize';
-import type { SearchObjective } from './objective';
+import type { SearchObjective } from './searchObjective';
+import { TEST_FUNCTION_NAMES, type TestFunctionName } from './testFunctionNames';
 
-export const TEST_FUNCTION_NAMES = ['rosenbrock'] as const;
-export type TestFunctionName = (typeof TEST_FUNCTION_NAMES)[number];
 
 /** The dimensions a test-function objective accepts. */
 export const MAX_TEST_FUNCTION_DIM = 1000;

@@ -5,7 +5,7 @@
  */
 import { parseCommandArgs, type OptionSpec, type ParsedArgs } from './args';
 
-/** Exit codes: 0 done, 1 an unexpected failure (a bug), 2 bad input (file, flags, usage). */
+/** Exit codes: 0 done, 1 the command failed (a failure it explains, such as a search that failed, or a bug), 2 bad input (file, flags, usage). */
 export const EXIT_OK = 0;
 export const EXIT_FAILURE = 1;
 export const EXIT_USAGE = 2;

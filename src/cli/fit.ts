@@ -2,8 +2,12 @@
  * `loci fit PROBLEM.json [...]`: searches every family of a problem file in worker
  * threads (src/engine) and writes the ranked candidates as JSON. Progress goes to
  * stderr. With --checkpoint the run is saved as it goes and resumed from the file when
- * it is there; Ctrl-C stops after the current round, saves, and still writes results.
+ * it is there; Ctrl-C (SIGINT) or SIGTERM stops after the current round, saves, and
+ * still writes results. Where the results and the checkpoint go is checked before the
+ * search starts; a save that fails later is reported and the search goes on, and
+ * results that cannot be written to --out go to stdout.
  */
+import { resolve } from 'node:path';
 import { toLinkageFile } from '../core/io/linkageFile';
 import type { CandidateReport, Problem } from '../core/synthesis';
 import {
@@ -14,9 +18,10 @@ import {
   type RankedCandidate,
   type Run,
   type RunInput,
+  type RunOptions,
   type RunProgress,
 } from '../engine';
-import { fileCheckpointStore, nodeEnvironment, writeFileAtomic } from '../engine/node';
+import { checkFileTarget, checkpointPathsFor, fileCheckpointStore, fsReason, nodeEnvironment, temporaryPathFor, writeFileAtomic } from '../engine/node';
 import { numberOption, singleFile, type OptionSpec, type ParsedArgs } from './args';
 import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
@@ -26,20 +31,29 @@ import { readProblemFile } from './problemInput';
 export const DEFAULT_EVALUATIONS_PER_FAMILY = 50_000;
 export const DEFAULT_TOP = 5;
 export const DEFAULT_SEED = 1;
+/** Seconds between checkpoint saves with --checkpoint, by default, and the range --checkpoint-every takes. */
+export const DEFAULT_CHECKPOINT_EVERY_S = 10;
+/** Below a second, saving (a few ms to a few hundred for many islands) would take a noticeable share of the run. */
+export const MIN_CHECKPOINT_EVERY_S = 1;
+export const MAX_CHECKPOINT_EVERY_S = 86_400;
 /** Progress lines on stderr at most this often, ms. */
 const PROGRESS_EVERY_MS = 1000;
 export const FIT_RESULT_FORMAT = 'loci-fit-result';
 export const FIT_RESULT_VERSION = 1;
 
 export const usage = `usage: loci fit PROBLEM.json [--seed N] [--evals N | --seconds S] [--workers N]
-                [--islands N] [--top K] [--out FILE] [--checkpoint FILE]
+                [--islands N] [--top K] [--out FILE] [--checkpoint FILE
+                [--checkpoint-every S]]
 
 Searches every family of a problem file (format "loci-problem"; see \`loci check\`) and
 writes the best distinct candidates, ranked feasible first and then by the problem's
 measure, as JSON: each with its family, parameters, linkage file (format
-"loci-linkage"), error (sum of squares, RMS, max, per point), Grashof class,
-transmission-angle range and defects, and the evaluations used. A progress line goes
-to stderr about once a second.
+"loci-linkage", drawn in its pose at target point 1, so its output point sits on the
+fitted path), error (sum of squares, RMS, max, per point), the motion its figures are
+taken over (a full turn from target point 1 when the driver turns fully, else target
+point 1 to the last), and over that motion its Grashof class, transmission-angle range
+and size, as \`loci analyze --from --to --steps\` gives them of the linkage file; its
+defects, and the evaluations used. A progress line goes to stderr about once a second.
 
   --seed N         seed of the search, a whole number ≥ 0 (default ${DEFAULT_SEED}).
   --evals N        evaluation budget of the whole search (default ${DEFAULT_EVALUATIONS_PER_FAMILY.toLocaleString('en-GB')} per family).
@@ -54,11 +68,27 @@ to stderr about once a second.
   --out FILE       write the JSON to FILE (atomically) instead of stdout.
   --checkpoint FILE
                    save the run to FILE as it goes (and FILE.prev, the one before);
-                   if FILE holds a checkpoint of the same search, continue it.
+                   if FILE holds a checkpoint of the same search, continue it (from
+                   FILE.prev if FILE is damaged or missing; stderr says which).
+  --checkpoint-every S
+                   seconds between saves with --checkpoint, from ${MIN_CHECKPOINT_EVERY_S} to ${MAX_CHECKPOINT_EVERY_S.toLocaleString('en-GB')}
+                   (default ${DEFAULT_CHECKPOINT_EVERY_S}). A save also happens at the end, and on
+                   Ctrl-C (SIGINT) or SIGTERM.
   --help, -h       this text.
 
-Exit codes: 0 done (also when stopped by Ctrl-C: the results so far are written), 2 bad
-input (file, flags, a checkpoint of another search), 1 the search failed.
+Ctrl-C or SIGTERM stops the search after the current round; the run is saved and the
+results so far are written. A second one stops at once, losing what was searched since
+the last save. --out and --checkpoint are checked before the search starts; a save that
+fails later is reported on stderr and the search goes on.
+
+Exit codes:
+  0  done, or stopped by Ctrl-C or SIGTERM; the results are written.
+  1  the search failed (workers kept failing, or the objective threw: then the best
+     results of the rounds before are still written), or --out could not be written
+     at the end (the results then go to stdout).
+  2  bad input, and nothing was searched: the problem file, the flags, an --out or
+     --checkpoint path that cannot be written (a folder, a missing or read-only folder,
+     a name too long), or a checkpoint of another search or that cannot be read.
 `;
 
 const OPTIONS: readonly OptionSpec[] = [
@@ -70,6 +100,7 @@ const OPTIONS: readonly OptionSpec[] = [
   { name: 'top', kind: 'value' },
   { name: 'out', kind: 'value' },
   { name: 'checkpoint', kind: 'value' },
+  { name: 'checkpoint-every', kind: 'value' },
   { name: 'help', kind: 'flag' },
 ];
 
@@ -103,6 +134,7 @@ interface FitSettings {
   readonly top: number;
   readonly out: string | undefined;
   readonly checkpoint: string | undefined;
+  readonly checkpointEveryS: number;
 }
 
 function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSettings, 'evaluations'> & { evaluations: number | undefined }> {
@@ -126,6 +158,17 @@ function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSe
   if (!out.ok) return out;
   const checkpoint = stringOption(args, 'checkpoint');
   if (!checkpoint.ok) return checkpoint;
+  const every = numberOption(args, 'checkpoint-every', `a number of seconds from ${MIN_CHECKPOINT_EVERY_S} to ${MAX_CHECKPOINT_EVERY_S}`);
+  if (!every.ok) return every;
+  if (every.value !== undefined && !(every.value >= MIN_CHECKPOINT_EVERY_S && every.value <= MAX_CHECKPOINT_EVERY_S)) {
+    return { ok: false, message: `--checkpoint-every: expected a number of seconds from ${MIN_CHECKPOINT_EVERY_S} to ${MAX_CHECKPOINT_EVERY_S}, got ${every.value}` };
+  }
+  if (every.value !== undefined && checkpoint.value === undefined) return { ok: false, message: '--checkpoint-every needs --checkpoint FILE' };
+  const same = (a: string, b: string | undefined) => b !== undefined && resolve(a) === resolve(b);
+  if (out.value !== undefined && same(out.value, checkpoint.value)) return { ok: false, message: '--out and --checkpoint name the same file; give two files' };
+  if (same(one.file, out.value) || same(one.file, checkpoint.value)) {
+    return { ok: false, message: `${one.file} is the problem file; give --out and --checkpoint other files` };
+  }
   const workerCount = workers.value ?? defaultWorkers;
   return {
     ok: true,
@@ -139,6 +182,7 @@ function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSe
       top: top.value ?? DEFAULT_TOP,
       out: out.value,
       checkpoint: checkpoint.value,
+      checkpointEveryS: every.value ?? DEFAULT_CHECKPOINT_EVERY_S,
     },
   };
 }
@@ -183,6 +227,13 @@ export function progressLine(p: RunProgress, unit: string): string {
   return `loci fit: ${evaluations}, ${best}, ${rate}${left}${restarts}`;
 }
 
+/** The motion a candidate's figures are taken over, in degrees as `loci analyze` prints driver values. */
+function motionJson(report: CandidateReport) {
+  const deg = 180 / Math.PI;
+  const m = report.motion;
+  return { fromDeg: m.from * deg, toDeg: m.to * deg, steps: m.steps, fullTurn: m.fullTurn };
+}
+
 function candidateJson(c: RankedCandidate, problem: Problem) {
   if (c.detail.kind !== 'synthesis') throw new Error('fit: a synthesis run described a candidate of another kind');
   const report: CandidateReport = c.detail.candidate;
@@ -196,45 +247,91 @@ function candidateJson(c: RankedCandidate, problem: Problem) {
     violation: report.violation,
     defects: report.defects,
     grashof: report.grashof ?? null,
+    // Taken over `motion` by the analysis `loci analyze` runs, so the two agree.
+    motion: motionJson(report),
     transmissionDeg: report.transmissionDeg ?? null,
+    sizeMm: report.sizeMm ?? null,
+    // The linkage file is drawn in this pose: its output point sits on the fitted path there.
+    referencePose: report.referencePose,
     // Problem frame (the timing variables) and the linkage file's own driver frame.
     driverValues: report.driverValues,
     linkageDriverValues: report.linkageDriverValues,
     ...(report.placement === undefined ? {} : { placement: report.placement }),
     x: report.x,
-    linkage: toLinkageFile(report.linkage, `${problem.name}: ${report.family} #${c.rank}`),
+    linkage: toLinkageFile(report.linkage, `${problem.name}: ${report.family} #${c.rank}${report.referencePose === 'target point 1' ? ', pose at target point 1' : ''}`),
   };
 }
 
-async function openRun(
-  input: RunInput,
-  s: FitSettings,
-  io: CliIo,
-): Promise<{ ok: true; run: Run; resumed: boolean } | { ok: false; message: string; exitCode: number }> {
+/** Why `--out` or `--checkpoint` cannot be written, or null: checked before anything is searched. */
+async function checkTargets(s: FitSettings): Promise<string | null> {
+  if (s.out !== undefined) {
+    const out = await checkFileTarget(s.out, [s.out, temporaryPathFor(s.out)]);
+    if (!out.ok) return `--out: ${out.reason}`;
+  }
+  if (s.checkpoint !== undefined) {
+    const checkpoint = await checkFileTarget(s.checkpoint, checkpointPathsFor(s.checkpoint), true);
+    if (!checkpoint.ok) return `--checkpoint: ${checkpoint.reason}`;
+  }
+  return null;
+}
+
+type Opened = { ok: true; run: Run; resumed: boolean } | { ok: false; message: string; exitCode: number };
+
+/** The run to start: resumed from the checkpoint file when it holds one of this search, else new. */
+async function openRun(input: RunInput, s: FitSettings, io: CliIo, hooks: Pick<RunOptions, 'onSaveError' | 'onCheckpoint'>): Promise<Opened> {
   const env = nodeEnvironment();
   const defined = defineRun(input);
   if (!defined.ok) return { ok: false, message: `loci fit: ${defined.reason}`, exitCode: EXIT_USAGE };
+  const options: RunOptions = { workers: s.workers, topK: s.top, checkpointEveryMs: s.checkpointEveryS * 1000, ...hooks };
   let store: CheckpointStore | undefined;
   if (s.checkpoint !== undefined) {
-    store = fileCheckpointStore(s.checkpoint);
-    const restored = await restoreRunFromStore(env, store, { workers: s.workers, topK: s.top });
+    const path = s.checkpoint;
+    store = fileCheckpointStore(path);
+    let restored;
+    try {
+      restored = await restoreRunFromStore(env, store, options);
+    } catch (error) {
+      return { ok: false, message: `loci fit: cannot read the checkpoint ${path}: ${fsReason(error)}`, exitCode: EXIT_USAGE };
+    }
+    for (const note of restored.notes) io.stderr(`loci fit: ${note}\n`);
     if (restored.ok) {
       if (JSON.stringify(restored.run.spec) !== JSON.stringify(defined.spec)) {
         return {
           ok: false,
-          message: `loci fit: ${s.checkpoint} holds a checkpoint of another search (another problem, families, --seed, budget or --islands); remove it or give another --checkpoint file`,
+          message: `loci fit: ${restored.source} holds a checkpoint of another search (another problem, families, --seed, budget or --islands); remove it or give another --checkpoint file`,
           exitCode: EXIT_USAGE,
         };
       }
-      for (const reason of restored.skipped) io.stderr(`loci fit: skipped a checkpoint in ${s.checkpoint}: ${reason}\n`);
-      io.stderr(`loci fit: resuming from ${s.checkpoint} at round ${restored.run.progress().rounds}\n`);
+      for (const { source, reason } of restored.passedOver) io.stderr(`loci fit: skipped ${source}: ${reason}\n`);
+      const why = restored.source === path ? '' : restored.passedOver.some((p) => p.source === path) ? ` (${path} was skipped)` : ` (${path} is missing)`;
+      io.stderr(`loci fit: resuming from ${restored.source}${why} at round ${restored.run.progress().rounds}\n`);
       return { ok: true, run: restored.run, resumed: true };
     }
-    if (!restored.empty) return { ok: false, message: `loci fit: ${s.checkpoint}: no usable checkpoint: ${restored.reason}`, exitCode: EXIT_USAGE };
+    if (!restored.empty) return { ok: false, message: `loci fit: ${path}: no usable checkpoint: ${restored.reason}`, exitCode: EXIT_USAGE };
   }
-  const made = createRun(env, input, { workers: s.workers, topK: s.top, ...(store === undefined ? {} : { store }) });
+  const made = createRun(env, input, { ...options, ...(store === undefined ? {} : { store }) });
   if (!made.ok) return { ok: false, message: `loci fit: ${made.reason}`, exitCode: EXIT_USAGE };
   return { ok: true, run: made.run, resumed: false };
+}
+
+/** Tells stderr when saving fails, once per distinct reason, and when it works again. */
+function saveReporter(io: CliIo, path: string | undefined) {
+  let failures = 0;
+  let lastReason: string | null = null;
+  return {
+    get failures() {
+      return failures;
+    },
+    onSaveError(reason: string) {
+      failures++;
+      if (reason !== lastReason) io.stderr(`loci fit: could not save the checkpoint to ${path ?? 'its store'}: ${reason}; the search goes on, and its results will still be written\n`);
+      lastReason = reason;
+    },
+    onCheckpoint() {
+      if (lastReason !== null) io.stderr(`loci fit: saved the checkpoint to ${path ?? 'its store'} again\n`);
+      lastReason = null;
+    },
+  };
 }
 
 export async function run(args: readonly string[], io: CliIo): Promise<number> {
@@ -255,8 +352,17 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     return usageError(`--evals: ${evaluations} is fewer than one evaluation per island (${problem.families.length} families × ${read.value.islands} islands)`);
   }
   const settings: FitSettings = { ...read.value, evaluations };
+  const unusable = await checkTargets(settings);
+  if (unusable !== null) {
+    io.stderr(`loci fit: ${unusable}\n`);
+    return EXIT_USAGE;
+  }
 
-  const opened = await openRun(runInput(problemRead.json, problem, settings), settings, io);
+  const saves = saveReporter(io, settings.checkpoint);
+  const opened = await openRun(runInput(problemRead.json, problem, settings), settings, io, {
+    onSaveError: (reason) => saves.onSaveError(reason),
+    onCheckpoint: () => saves.onCheckpoint(),
+  });
   if (!opened.ok) {
     io.stderr(`${opened.message}\n`);
     return opened.exitCode;
@@ -271,22 +377,33 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     lastLineMs = now;
     io.stderr(`${progressLine(p, unit)}\n`);
   });
-  let interrupted = false;
-  const onInterrupt = () => {
-    interrupted = true;
-    io.stderr('loci fit: interrupted; stopping after this round (the results so far will be written)\n');
+  let stoppedBy: NodeJS.Signals | null = null;
+  const onSignal = (signal: NodeJS.Signals) => {
+    stoppedBy = signal;
+    const saving = settings.checkpoint === undefined ? '' : `, saving to ${settings.checkpoint}`;
+    io.stderr(`loci fit: ${signal === 'SIGINT' ? 'interrupted (SIGINT)' : signal}; stopping after this round${saving} and writing the results so far (${signal} again stops at once, unsaved)\n`);
     search.cancel();
   };
-  process.once('SIGINT', onInterrupt);
+  const signals: NodeJS.Signals[] = ['SIGINT', 'SIGTERM'];
+  for (const signal of signals) process.once(signal, onSignal);
   let result;
   try {
     result = await search.start();
   } finally {
-    process.off('SIGINT', onInterrupt);
+    for (const signal of signals) process.off(signal, onSignal);
   }
-  if (!result.ok) {
+  if (!result.ok && result.candidates === undefined) {
     io.stderr(`loci fit: the search failed: ${result.reason}\n`);
     return EXIT_FAILURE;
+  }
+  if (!result.ok) {
+    io.stderr(
+      `loci fit: the search stopped: ${result.reason}. This is a fault in Loci or an input it does not handle; please report it with the problem file. The best candidates of the rounds before are written.\n`,
+    );
+  }
+  const lastSaveError = search.progress().checkpointError;
+  if (settings.checkpoint !== undefined && lastSaveError !== undefined) {
+    io.stderr(`loci fit: ${settings.checkpoint} is older than these results: the last save failed (${lastSaveError}); ${saves.failures} save${saves.failures === 1 ? '' : 's'} failed in all\n`);
   }
   const progress = search.progress();
   const output = {
@@ -303,24 +420,28 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
       optimizer: 'hybrid (L-SHADE, then Nelder–Mead polish)',
       resumed: opened.resumed,
     },
-    stopReason: interrupted ? 'interrupted' : result.stopReason,
+    stopReason: !result.ok ? 'objective-error' : stoppedBy !== null ? 'interrupted' : result.stopReason,
+    ...(result.ok ? {} : { error: result.reason }),
     evaluations: result.evaluations,
-    evaluationsByFamily: Object.fromEntries(result.jobs.map((job) => [job.jobId, job.evaluations])),
-    elapsedS: result.elapsedMs / 1000,
+    evaluationsByFamily: result.ok ? Object.fromEntries(result.jobs.map((job) => [job.jobId, job.evaluations])) : null,
+    elapsedS: progress.elapsedMs / 1000,
     evaluationsPerSecond: progress.evaluationsPerSecond,
-    workerRestarts: result.restarts,
-    candidates: result.candidates.map((c) => candidateJson(c, problem)),
+    workerRestarts: progress.restarts,
+    candidates: (result.candidates ?? []).map((c) => candidateJson(c, problem)),
   };
   const text = `${formatJson(output)}\n`;
-  if (settings.out !== undefined) {
-    try {
-      await writeFileAtomic(settings.out, text);
-    } catch (error) {
-      io.stderr(`loci fit: cannot write ${settings.out}: ${error instanceof Error ? error.message : String(error)}\n`);
-      return EXIT_USAGE;
-    }
-  } else {
+  const done = result.ok ? EXIT_OK : EXIT_FAILURE;
+  if (settings.out === undefined) {
     io.stdout(text);
+    return done;
   }
-  return EXIT_OK;
+  try {
+    await writeFileAtomic(settings.out, text);
+  } catch (error) {
+    // Checked before the search, so something changed since (a full disk, a removed folder): the results must not be lost.
+    io.stderr(`loci fit: cannot write the results to ${settings.out}: ${fsReason(error)}; they follow on standard output instead\n`);
+    io.stdout(text);
+    return EXIT_FAILURE;
+  }
+  return done;
 }

@@ -28,7 +28,7 @@ function usage(): string {
     ...lines,
     '',
     'Run `loci COMMAND --help` for the arguments of one command.',
-    'Exit codes: 0 done, 2 bad input (file, flags or usage), 1 an unexpected failure.',
+    'Exit codes: 0 done, 2 bad input (file, flags or usage), 1 a failure (see the command\'s --help).',
     '',
   ].join('\n');
 }

@@ -4,12 +4,13 @@
  * and checkpoints. Environment-specific parts are in node/ and browser/.
  */
 export { createRun, restoreRun, restoreRunFromStore, DEFAULT_TOP_K } from './run';
-export type { MakeRunResult, RankedCandidate, Run, RunOptions, RunProgress, RunResult, RunStatus, RunStopReason } from './run';
+export type { MakeRunResult, RankedCandidate, RestoreFromStoreResult, Run, RunOptions, RunProgress, RunResult, RunStatus, RunStopReason } from './run';
 export { defineRun, planIslands, DEFAULT_ISLAND_EVALUATIONS } from './runSpec';
 export type { IslandPlan, JobSpec, RunInput, RunSpec } from './runSpec';
 export { CHECKPOINT_FORMAT, CHECKPOINT_VERSION, decodeCheckpoint, encodeCheckpoint } from './checkpoint';
 export type { CheckpointPayload } from './checkpoint';
-export { memoryCheckpointStore, type CheckpointStore } from './checkpointStore';
+export { memoryCheckpointStore, type CheckpointListing, type CheckpointStore, type StoredCheckpoint } from './checkpointStore';
 export type { EngineEnvironment, WorkerHandle } from './environment';
 export { fnv1a64Hex } from './checksum';
+export { DesignDescriber, type DescribeResult } from './designDescriber';
 export type { CandidateDetail, DescribedCandidate, Individual, ObjectiveSpec } from '../../workers/api';

@@ -14,8 +14,9 @@
 import { precedes } from '../core/optimize';
 import type { DescribedCandidate, IslandInfo, IslandProgress, IslandState, IslandStopReason, StepSlice } from '../../workers/api';
 import { CandidateArchive } from '../../workers/archive';
+import { isObjectiveError } from '../../workers/objectiveError';
 import { decodeCheckpoint, encodeCheckpointInSteps, type CheckpointPayload } from './checkpoint';
-import type { CheckpointStore } from './checkpointStore';
+import type { CheckpointListing, CheckpointStore } from './checkpointStore';
 import type { EngineEnvironment } from './environment';
 import { defineRun, planIslands, type IslandPlan, type RunInput, type RunSpec } from './runSpec';
 import { WorkerClient, WorkerLost, WorkerRefused } from './workerClient';
@@ -45,6 +46,8 @@ export interface RunProgress {
   readonly restarts: number;
   /** The round of the last checkpoint taken, or null. */
   readonly checkpointRound: number | null;
+  /** Why the last save to the store failed; absent once a save succeeds (the run goes on either way). */
+  readonly checkpointError?: string;
 }
 
 export interface RankedCandidate extends DescribedCandidate {
@@ -66,7 +69,17 @@ export type RunResult =
       /** The best distinct candidates of all jobs, ranked feasibility first (Deb, 2000). */
       readonly candidates: RankedCandidate[];
     }
-  | { readonly ok: false; readonly reason: string; readonly evaluations: number; readonly rounds: number };
+  | {
+      readonly ok: false;
+      readonly reason: string;
+      readonly evaluations: number;
+      readonly rounds: number;
+      /**
+       * When an objective threw (the workers still answer): the best candidates of the
+       * rounds before, described and ranked as in a finished run. Absent otherwise.
+       */
+      readonly candidates?: RankedCandidate[];
+    };
 
 export interface RunOptions {
   /** Workers to start (never more than islands); default the environment's count. */
@@ -84,6 +97,16 @@ export interface RunOptions {
    * text was made from (the app describes the best designs so far without parsing it back).
    */
   readonly onCheckpoint?: (payload: CheckpointPayload) => void;
+  /**
+   * Milliseconds of wall time between checkpoints; default the spec's `checkpointEveryMs`.
+   * An option, not part of the spec, so a resumed run may save more or less often.
+   */
+  readonly checkpointEveryMs?: number;
+  /**
+   * Told when a save to the store fails, with why. The run goes on (it keeps its last
+   * checkpoint in memory for its own recovery) and tries again at the next checkpoint.
+   */
+  readonly onSaveError?: (reason: string) => void;
 }
 
 export interface Run {
@@ -116,6 +139,9 @@ const MIN_STEP_MS = 1;
 /** A failure the run cannot recover from; its message is the run's `reason`. */
 class RunFailure extends Error {}
 
+/** An objective threw in a worker: the run ends with the best results of the rounds before. */
+class ObjectiveFailure extends RunFailure {}
+
 interface IslandView {
   readonly plan: IslandPlan;
   worker: number;
@@ -124,11 +150,14 @@ interface IslandView {
 }
 
 function checkOptions(options: RunOptions, islands: number, env: EngineEnvironment): string | null {
-  const { workers, topK, callTimeoutMs, maxRestarts } = options;
+  const { workers, topK, callTimeoutMs, maxRestarts, checkpointEveryMs } = options;
   if (workers !== undefined && !(Number.isInteger(workers) && workers >= 1 && workers <= 1024)) return `workers is ${workers}; expected an integer in [1, 1024]`;
   if (topK !== undefined && !(Number.isInteger(topK) && topK >= 0 && topK <= 10_000)) return `topK is ${topK}; expected an integer in [0, 10000]`;
   if (callTimeoutMs !== undefined && !(callTimeoutMs > 0)) return `callTimeoutMs is ${callTimeoutMs}; expected a number > 0`;
   if (maxRestarts !== undefined && !(Number.isInteger(maxRestarts) && maxRestarts >= 0)) return `maxRestarts is ${maxRestarts}; expected an integer ≥ 0`;
+  if (checkpointEveryMs !== undefined && !(checkpointEveryMs > 0 && checkpointEveryMs < Infinity)) {
+    return `checkpointEveryMs is ${checkpointEveryMs}; expected a finite number of milliseconds > 0`;
+  }
   if (islands < 1) return 'the run has no islands';
   if (!(env.defaultWorkerCount() >= 1)) return 'the environment reports no workers';
   return null;
@@ -152,24 +181,42 @@ export function restoreRun(env: EngineEnvironment, checkpointText: string, optio
   return { ok: true, run: new Engine(env, decoded.payload.spec, decoded.payload, options) };
 }
 
-/**
- * The run of the newest checkpoint in `store` that decodes, and what was wrong with
- * newer ones it skipped. `{ ok: false }` when the store holds none, or none that decodes.
- */
-export async function restoreRunFromStore(
-  env: EngineEnvironment,
-  store: CheckpointStore,
-  options: Omit<RunOptions, 'store'> = {},
-): Promise<{ readonly ok: true; readonly run: Run; readonly skipped: string[] } | { readonly ok: false; readonly reason: string; readonly empty: boolean }> {
+export type RestoreFromStoreResult =
+  | {
+      readonly ok: true;
+      readonly run: Run;
+      /** Why each newer checkpoint was passed over, newest first. */
+      readonly skipped: string[];
+      /** Where the checkpoint used came from (a file name for a file store). */
+      readonly source: string;
+      /** Each newer checkpoint passed over, with where it came from and why. */
+      readonly passedOver: readonly { readonly source: string; readonly reason: string }[];
+      /** The store's notes: a newest checkpoint missing, leftovers of an interrupted save removed. */
+      readonly notes: readonly string[];
+    }
+  | { readonly ok: false; readonly reason: string; readonly empty: boolean; readonly notes: readonly string[] };
+
+async function listStore(store: CheckpointStore): Promise<CheckpointListing> {
+  if (store.list !== undefined) return store.list();
   const texts = await store.load();
-  if (texts.length === 0) return { ok: false, reason: 'the store holds no checkpoint', empty: true };
-  const skipped: string[] = [];
-  for (const text of texts) {
+  return { found: texts.map((text, k) => ({ source: `checkpoint ${k + 1} (newest first)`, text })), notes: [] };
+}
+
+/**
+ * The run of the newest checkpoint in `store` that decodes, where it came from, and what
+ * was wrong with newer ones it passed over. `{ ok: false }` when the store holds none,
+ * or none that decodes.
+ */
+export async function restoreRunFromStore(env: EngineEnvironment, store: CheckpointStore, options: Omit<RunOptions, 'store'> = {}): Promise<RestoreFromStoreResult> {
+  const { found, notes } = await listStore(store);
+  if (found.length === 0) return { ok: false, reason: 'the store holds no checkpoint', empty: true, notes };
+  const passedOver: { source: string; reason: string }[] = [];
+  for (const { source, text } of found) {
     const made = restoreRun(env, text, { ...options, store });
-    if (made.ok) return { ok: true, run: made.run, skipped };
-    skipped.push(made.reason);
+    if (made.ok) return { ok: true, run: made.run, skipped: passedOver.map((p) => p.reason), source, passedOver, notes };
+    passedOver.push({ source, reason: made.reason });
   }
-  return { ok: false, reason: skipped.map((reason, k) => `checkpoint ${k + 1} (newest first): ${reason}`).join('; '), empty: false };
+  return { ok: false, reason: passedOver.map((p) => `${p.source}: ${p.reason}`).join('; '), empty: false, notes };
 }
 
 class Engine implements Run {
@@ -179,7 +226,10 @@ class Engine implements Run {
   private readonly topK: number;
   private readonly callTimeoutMs: number;
   private readonly maxRestarts: number;
+  private readonly checkpointEveryMs: number;
   private readonly onCheckpoint: ((payload: CheckpointPayload) => void) | null;
+  private readonly onSaveError: ((reason: string) => void) | null;
+  private saveError: string | null = null;
   private readonly workerCount: number;
   private readonly islands: IslandView[];
   private readonly listeners = new Set<(progress: RunProgress) => void>();
@@ -218,7 +268,9 @@ class Engine implements Run {
     this.topK = options.topK ?? DEFAULT_TOP_K;
     this.callTimeoutMs = options.callTimeoutMs ?? DEFAULT_CALL_TIMEOUT_MS;
     this.maxRestarts = options.maxRestarts ?? DEFAULT_MAX_RESTARTS;
+    this.checkpointEveryMs = options.checkpointEveryMs ?? spec.checkpointEveryMs;
     this.onCheckpoint = options.onCheckpoint ?? null;
+    this.onSaveError = options.onSaveError ?? null;
     const plans = planIslands(spec);
     this.workerCount = Math.min(plans.length, options.workers ?? env.defaultWorkerCount());
     this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null }));
@@ -266,6 +318,7 @@ class Engine implements Run {
       workers: this.workers.length,
       restarts: this.restarts,
       checkpointRound: this.checkpointRound,
+      ...(this.saveError === null ? {} : { checkpointError: this.saveError }),
     };
   }
 
@@ -341,7 +394,11 @@ class Engine implements Run {
       // Anything else is a bug (in the engine, or thrown inside a worker): the caller sees it as thrown.
       if (!(error instanceof RunFailure || error instanceof WorkerLost || error instanceof WorkerRefused)) throw error;
       const reason = error.message;
-      return { ok: false, reason, evaluations: this.progress().evaluations, rounds: this.rounds };
+      const failed = { ok: false, reason, evaluations: this.progress().evaluations, rounds: this.rounds } as const;
+      if (!(error instanceof ObjectiveFailure)) return failed;
+      // The last checkpoint stays as it is (the failing step left an island mid-batch); the run's archive holds the rounds before.
+      const candidates = await this.describeTop().catch(() => null);
+      return candidates === null ? failed : { ...failed, candidates };
     } finally {
       await this.closeWorkers();
       for (const resolve of this.pauseWaiters.splice(0)) resolve();
@@ -363,9 +420,10 @@ class Engine implements Run {
         await this.round();
         this.rounds++;
         if (this.spec.migration.count > 0 && this.rounds % this.spec.migration.everyRounds === 0) await this.migrate();
-        if (this.env.now() - this.lastCheckpointAtMs >= this.spec.checkpointEveryMs) await this.checkpoint();
+        if (this.env.now() - this.lastCheckpointAtMs >= this.checkpointEveryMs) await this.checkpoint();
         await this.answerExports();
       } catch (error) {
+        if (isObjectiveError(error)) throw new ObjectiveFailure(error.message);
         if (!(error instanceof WorkerLost)) throw error;
         await this.recover(error);
       }
@@ -559,12 +617,23 @@ class Engine implements Run {
     };
   }
 
-  /** Saves the checkpoint to the store, if any, and returns its text (null with no store). */
+  /**
+   * Saves the checkpoint to the store, if any, and returns its text (null with no store).
+   * A failed save is told to `onSaveError` and the run goes on: its results matter more
+   * than one checkpoint, and the next save may succeed.
+   */
   private async save(payload: CheckpointPayload): Promise<string | null> {
     let text: string | null = null;
     if (this.store !== null) {
       text = await encodeInTasks(payload);
-      await this.store.save(text);
+      try {
+        await this.store.save(text);
+        this.saveError = null;
+      } catch (error) {
+        this.saveError = error instanceof Error ? error.message : String(error);
+        this.onSaveError?.(this.saveError);
+        return text;
+      }
     }
     const listener = this.onCheckpoint;
     if (listener !== null) setTimeout(() => listener(payload), 0);

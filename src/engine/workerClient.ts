@@ -22,23 +22,24 @@ export class WorkerClient {
   private readonly handle: WorkerHandle;
   private readonly api: Remote<SearchWorkerApi>;
   private lost: string | null = null;
-  private readonly lostSignal: Promise<never>;
+  /**
+   * The calls in flight, each rejected if the worker dies. One entry per call, removed
+   * when it settles: racing every call against one long-lived "lost" promise instead
+   * would keep each call's answer reachable from that promise for the worker's life.
+   */
+  private readonly pending = new Set<(error: WorkerLost) => void>();
   private closing = false;
 
   constructor(index: number, handle: WorkerHandle) {
     this.index = index;
     this.handle = handle;
     this.api = wrap<SearchWorkerApi>(handle.endpoint);
-    let reject: (error: WorkerLost) => void = () => {};
-    this.lostSignal = new Promise<never>((_, rejectLost) => {
-      reject = rejectLost;
-    });
-    // Nobody may be awaiting the signal when the worker dies; that must not be an unhandled rejection.
-    this.lostSignal.catch(() => {});
     handle.onFailure((reason) => {
       if (this.closing || this.lost !== null) return;
       this.lost = reason;
-      reject(new WorkerLost(`worker ${index} failed: ${reason}`));
+      const error = new WorkerLost(`worker ${index} failed: ${reason}`);
+      for (const reject of this.pending) reject(error);
+      this.pending.clear();
     });
   }
 
@@ -53,7 +54,10 @@ export class WorkerClient {
   async call<T>(what: string, timeoutMs: number, run: (api: Remote<SearchWorkerApi>) => Promise<Outcome<T>>): Promise<T> {
     if (this.lost !== null) throw new WorkerLost(`worker ${this.index} failed: ${this.lost}`);
     let timer: ReturnType<typeof setTimeout> | undefined;
-    const timeout = new Promise<never>((_, reject) => {
+    let onLost: ((error: WorkerLost) => void) | undefined;
+    const stopped = new Promise<never>((_, reject) => {
+      onLost = reject;
+      this.pending.add(reject);
       timer = setTimeout(() => {
         // A worker that stops answering is as good as dead: mark it so the engine replaces it.
         if (this.lost === null) this.lost = `no answer to ${what} within ${Math.round(timeoutMs)} ms`;
@@ -61,11 +65,12 @@ export class WorkerClient {
       }, timeoutMs);
     });
     try {
-      const outcome = await Promise.race([run(this.api), this.lostSignal, timeout]);
+      const outcome = await Promise.race([run(this.api), stopped]);
       if (!outcome.ok) throw new WorkerRefused(`worker ${this.index} refused ${what}: ${outcome.reason}`);
       return outcome;
     } finally {
       clearTimeout(timer);
+      if (onLost !== undefined) this.pending.delete(onLost);
     }
   }
 

@@ -1,16 +1,14 @@
 /**
  * Candidates while a search runs: each checkpoint the engine writes holds every job's
  * archive of distinct good designs (real coordinates, value, violation). The best of
- * them, ranked as the engine ranks (feasibility first, Deb 2000), are described in a
- * worker of their own through the search worker's API, so the table fills while the
- * search goes on, and straight after a reload, from the checkpoint it resumes from.
- * The page itself evaluates nothing.
+ * them, ranked as the engine ranks (feasibility first, Deb 2000), are described by the
+ * engine's describer (a worker of its own), so the table fills while the search goes
+ * on, and straight after a reload, from the checkpoint it resumes from. The page itself
+ * evaluates nothing.
  */
-import { wrap, type Remote } from 'comlink';
 import { precedes } from '../../core/optimize';
 import type { CandidateReport } from '../../core/synthesis';
-import { decodeCheckpoint, type CheckpointPayload, type CheckpointStore, type EngineEnvironment, type WorkerHandle } from '../../engine';
-import type { SearchWorkerApi } from '../../../workers/api';
+import { decodeCheckpoint, DesignDescriber, type CheckpointPayload, type CheckpointStore, type EngineEnvironment } from '../../engine';
 
 export interface ArchivedDesign {
   readonly jobIndex: number;
@@ -35,21 +33,16 @@ export async function newestReadable(store: CheckpointStore): Promise<Checkpoint
   return null;
 }
 
-/** A call to the describing worker takes no longer than this, ms. */
-const DESCRIBE_TIMEOUT_MS = 30_000;
-
 export class InterimDescriber {
-  private readonly env: EngineEnvironment;
+  private readonly describer: DesignDescriber;
   private readonly count: number;
   private readonly onCandidates: (candidates: CandidateReport[]) => void;
-  private worker: { handle: WorkerHandle; api: Remote<SearchWorkerApi>; failed: boolean } | null = null;
-  private readonly islands = new Set<string>();
   private busy = false;
   private pending: CheckpointPayload | null = null;
   private closed = false;
 
   constructor(env: EngineEnvironment, count: number, onCandidates: (candidates: CandidateReport[]) => void) {
-    this.env = env;
+    this.describer = new DesignDescriber(env);
     this.count = count;
     this.onCandidates = onCandidates;
   }
@@ -76,72 +69,29 @@ export class InterimDescriber {
     }
   }
 
-  private start() {
-    if (this.worker !== null && !this.worker.failed) return this.worker;
-    const handle = this.env.spawnWorker();
-    const worker = { handle, api: wrap<SearchWorkerApi>(handle.endpoint), failed: false };
-    handle.onFailure(() => {
-      worker.failed = true;
-    });
-    this.islands.clear();
-    this.worker = worker;
-    return worker;
-  }
-
+  /** The best designs of a checkpoint described, best first; null when the engine could not describe them. */
   private async describe(payload: CheckpointPayload): Promise<CandidateReport[] | null> {
     const best = bestArchived(payload, this.count);
-    const worker = this.start();
     const byJob = new Map<number, ArchivedDesign[]>();
     for (const design of best) byJob.set(design.jobIndex, [...(byJob.get(design.jobIndex) ?? []), design]);
     const described = new Map<ArchivedDesign, CandidateReport>();
-    let timer: ReturnType<typeof setTimeout> | undefined;
-    const timeout = new Promise<null>((resolve) => {
-      timer = setTimeout(() => resolve(null), DESCRIBE_TIMEOUT_MS);
-    });
-    const work = (async () => {
-      for (const [jobIndex, designs] of byJob) {
-        const job = payload.spec.jobs[jobIndex];
-        const islandId = `describe:${job.id}`;
-        if (!this.islands.has(islandId)) {
-          const made = await worker.api.init({
-            islandId,
-            objective: job.objective,
-            seed: 0,
-            stream: 0,
-            optimizer: { kind: 'nelder-mead' },
-            maxEvaluations: 1,
-            archiveCapacity: 1,
-            archiveDistance: 0,
-          });
-          if (!made.ok) return null;
-          this.islands.add(islandId);
-        }
-        const answer = await worker.api.describe(islandId, designs.map((d) => [...d.x]));
-        if (!answer.ok) return null;
-        answer.candidates.forEach((c, k) => {
-          if (c.detail.kind === 'synthesis') described.set(designs[k], c.detail.candidate);
-        });
-      }
-      return best.flatMap((d) => {
-        const report = described.get(d);
-        return report === undefined ? [] : [report];
+    for (const [jobIndex, designs] of byJob) {
+      const answer = await this.describer.describe(payload.spec.jobs[jobIndex].objective, designs.map((d) => [...d.x]));
+      if (!answer.ok) return null;
+      answer.candidates.forEach((c, k) => {
+        if (c.detail.kind === 'synthesis') described.set(designs[k], c.detail.candidate);
       });
-    })();
-    try {
-      return await Promise.race([work, timeout]);
-    } catch {
-      return null;
-    } finally {
-      clearTimeout(timer);
     }
+    return best.flatMap((d) => {
+      const report = described.get(d);
+      return report === undefined ? [] : [report];
+    });
   }
 
   /** Stops describing; a result still on its way is dropped. */
   close(): void {
     this.closed = true;
     this.pending = null;
-    const worker = this.worker;
-    this.worker = null;
-    if (worker !== null) void worker.handle.terminate();
+    this.describer.close();
   }
 }
