@@ -7,14 +7,33 @@
  *
  * Reading runs four stages, each stopping on failure so one mistake gives one message:
  * the envelope (`format`, `version`), forward migration to the current version, the
- * schema (every field's type), then `compile`, whose issues (unknown ids, a body with
- * one joint, mobility, a reference pose that breaks its own constraints) come back in
- * the same `{ path, message }` shape.
+ * schema (every field's type and range), then `compile`, whose issues (unknown ids, a
+ * body with one joint, mobility, a reference pose that breaks its own constraints) come
+ * back in the same `{ path, message }` shape. Before them the text's length, and before
+ * the schema the number of joints, bodies, points and sliders, are held to their limits
+ * (model.ts), so a huge file is refused before anything is built from it; a list of
+ * issues is cut at MAX_LISTED_ISSUES, with a count of the rest.
  */
 import * as z from 'zod';
-import { describeValue, expected, formatPath, strict } from './schemaMessages';
+import { capIssues, describeValue, expected, formatPath, strict } from './schemaMessages';
 import { compile } from '../linkage/compile';
-import type { DriverSpec, JointSpec, Linkage, PointSpec, SliderSpec } from '../linkage/model';
+import {
+  MAX_BODIES,
+  MAX_COORDINATE_MM,
+  MAX_ID_LENGTH,
+  MAX_JOINTS,
+  MAX_POINTS,
+  MAX_SLIDER_ANGLE_RAD,
+  MAX_SLIDERS,
+  UNPRINTABLE_ID_CHARS,
+  escapeUnprintable,
+  type DriverSpec,
+  type JointSpec,
+  type Linkage,
+  type PointSpec,
+  type SliderSpec,
+} from '../linkage/model';
+import type { Plan } from '../linkage/plan';
 
 export const LINKAGE_FILE_FORMAT = 'loci-linkage';
 /** The version this code writes, and the newest it reads. */
@@ -26,15 +45,37 @@ export interface LinkageFileIssue {
   readonly message: string;
 }
 
+/**
+ * Largest linkage file, in characters: a linkage at every count limit of model.ts, with
+ * ids of full length and pretty-printed, takes about 2 M. The text is refused before
+ * JSON.parse builds anything from it.
+ */
+export const MAX_LINKAGE_FILE_CHARS = 8_000_000;
+/** Characters of the file's name, which the report prints. */
+export const MAX_NAME_LENGTH = 200;
+
 export type ParseLinkageFileResult =
   | { readonly ok: true; readonly linkage: Linkage; readonly name?: string }
+  | { readonly ok: false; readonly issues: readonly LinkageFileIssue[] };
+
+/** As ParseLinkageFileResult, with the plan the check compiled, for a caller that runs it. */
+export type ReadLinkageFileResult =
+  | { readonly ok: true; readonly linkage: Linkage; readonly name?: string; readonly plan: Plan }
   | { readonly ok: false; readonly issues: readonly LinkageFileIssue[] };
 
 // ---------------------------------------------------------------------------------
 // Schema, version 1
 
-const mm = (what = 'a finite number in mm') => z.number({ error: expected(what) });
-const id = (what: string) => z.string({ error: expected(what) }).min(1, { error: expected(what) });
+const COORDINATE_RANGE = `a finite number in mm within ±${MAX_COORDINATE_MM} mm (1 km, the coordinate limit)`;
+const mm = () => z.number({ error: expected('a finite number in mm') })
+  .min(-MAX_COORDINATE_MM, { error: expected(COORDINATE_RANGE) }).max(MAX_COORDINATE_MM, { error: expected(COORDINATE_RANGE) });
+/** A string of `min` to `max` characters, none of them unprintable (model.ts). */
+const text = (what: string, min: number, max: number) => {
+  const message = `${what} of at most ${max} printable characters (no control or bidirectional-format characters)`;
+  return z.string({ error: expected(message) }).min(min, { error: expected(message) }).max(max, { error: expected(message) })
+    .refine((v) => !UNPRINTABLE_ID_CHARS.test(v), { error: expected(message) });
+};
+const id = (what: string) => text(what, 1, MAX_ID_LENGTH);
 
 
 const jointSchema = strict('a joint { "id", "x", "y", "ground"? }', {
@@ -46,13 +87,15 @@ const jointSchema = strict('a joint { "id", "x", "y", "ground"? }', {
 
 const bodySchema = strict('a body { "id", "joints" }', {
   id: id('a non-empty body id string'),
-  joints: z.array(id('a joint id string'), { error: expected('an array of joint ids') }),
+  joints: z.array(id('a joint id string'), { error: expected('an array of joint ids') })
+    .max(MAX_JOINTS, { error: expected(`an array of at most ${MAX_JOINTS} joint ids (the most joints a linkage has)`) }),
 });
 
 const sliderSchema = strict('a slider { "joint", "body", "angle", "through"? }', {
   joint: id('a joint id string'),
   body: id('a body id string (or "ground")'),
-  angle: z.number({ error: expected('a finite number in radians (the line direction)') }),
+  angle: z.number({ error: expected('a finite number in radians within ±2π (the line direction)') })
+    .min(-MAX_SLIDER_ANGLE_RAD).max(MAX_SLIDER_ANGLE_RAD),
   through: strict('a point { "x", "y" } in mm', { x: mm(), y: mm() }).optional(),
 });
 
@@ -85,7 +128,7 @@ const driverSchema = z.discriminatedUnion(
 const fileShape = {
   format: z.literal(LINKAGE_FILE_FORMAT, { error: expected(`"${LINKAGE_FILE_FORMAT}"`) }),
   version: z.literal(LINKAGE_FILE_VERSION, { error: expected(`${LINKAGE_FILE_VERSION}`) }),
-  name: z.string({ error: expected('a name string') }).optional(),
+  name: text('a name string', 0, MAX_NAME_LENGTH).optional(),
   units: z.literal('mm', { error: expected('"mm" (lengths are in millimetres; angles in radians)') }),
   joints: z.array(jointSchema, { error: expected('an array of joints') }),
   bodies: z.array(bodySchema, { error: expected('an array of bodies') }),
@@ -158,15 +201,29 @@ function fail(path: string, message: string): { ok: false; issues: LinkageFileIs
 
 /** Parses the text of a linkage file: JSON first, then as `parseLinkageFile`. */
 export function parseLinkageFileText(text: string): ParseLinkageFileResult {
+  return withoutPlan(readLinkageFileText(text));
+}
+
+/** As parseLinkageFileText, keeping the compiled plan (`loci analyze` runs it). */
+export function readLinkageFileText(text: string): ReadLinkageFileResult {
+  if (text.length > MAX_LINKAGE_FILE_CHARS) {
+    return fail('', `the file has ${text.length} characters; the limit for a linkage file is ${MAX_LINKAGE_FILE_CHARS}`);
+  }
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   let json: unknown;
   try {
     json = JSON.parse(body);
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);
-    return fail('', `not valid JSON: ${message}${lineAndColumn(body, message)}`);
+    // The parser's message quotes the file's text: escape it, as a message shows any id.
+    return fail('', `not valid JSON: ${escapeUnprintable(message)}${lineAndColumn(body, message)}`);
   }
-  return parseLinkageFile(json);
+  return readLinkageFile(json);
+}
+
+function withoutPlan(read: ReadLinkageFileResult): ParseLinkageFileResult {
+  if (!read.ok) return read;
+  return read.name === undefined ? { ok: true, linkage: read.linkage } : { ok: true, linkage: read.linkage, name: read.name };
 }
 
 /** ` (line 3, column 7)` for a JSON.parse message that gives a character position, else ''. */
@@ -183,23 +240,44 @@ function lineAndColumn(text: string, message: string): string {
  * linkage is a fresh copy that compiles; on failure every issue names its field.
  */
 export function parseLinkageFile(json: unknown): ParseLinkageFileResult {
+  return withoutPlan(readLinkageFile(json));
+}
+
+/** As parseLinkageFile, keeping the compiled plan. */
+export function readLinkageFile(json: unknown): ReadLinkageFileResult {
   const migrated = migrateLinkageFile(json);
   if (!migrated.ok) return migrated;
+  const tooMany = countIssues(migrated.doc);
+  if (tooMany.length > 0) return { ok: false, issues: tooMany };
 
   const parsed = linkageFileV1Schema.safeParse(migrated.doc);
   if (!parsed.success) {
-    return {
-      ok: false,
-      issues: parsed.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })),
-    };
+    return listed(parsed.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })));
   }
 
   const linkage = linkageFromFile(parsed.data);
   const compiled = compile(linkage);
-  if (!compiled.ok) {
-    return { ok: false, issues: compiled.issues.map((issue) => ({ path: issue.where, message: issue.message })) };
+  if (!compiled.ok) return listed(compiled.issues.map((issue) => ({ path: issue.where, message: issue.message })));
+  const plan = compiled.plan;
+  return parsed.data.name === undefined ? { ok: true, linkage, plan } : { ok: true, linkage, name: parsed.data.name, plan };
+}
+
+/** The count limits, checked before the schema looks at a single element. */
+function countIssues(doc: Doc): LinkageFileIssue[] {
+  const issues: LinkageFileIssue[] = [];
+  const limits = [['joints', MAX_JOINTS], ['bodies', MAX_BODIES], ['points', MAX_POINTS], ['sliders', MAX_SLIDERS]] as const;
+  for (const [field, max] of limits) {
+    const value = doc[field];
+    if (Array.isArray(value) && value.length > max) {
+      issues.push({ path: field, message: `the file has ${value.length} ${field}; the limit is ${max}` });
+    }
   }
-  return parsed.data.name === undefined ? { ok: true, linkage } : { ok: true, linkage, name: parsed.data.name };
+  return issues;
+}
+
+/** An issue list of readable length. */
+function listed(issues: readonly LinkageFileIssue[]): { ok: false; issues: LinkageFileIssue[] } {
+  return { ok: false, issues: capIssues(issues, (rest) => ({ path: '', message: `and ${rest} more problem${rest === 1 ? '' : 's'}` })) };
 }
 
 /** The linkage file of a linkage, ready for `JSON.stringify`. Copies everything it keeps. */

@@ -3,6 +3,7 @@
  * and a sentence saying what the field should have held and what it held.
  */
 import * as z from 'zod';
+import { escapeUnprintable } from '../linkage/model';
 
 /** A short, quoted rendering of a wrong value for a message: `"abc"`, `12`, `null`, `an array`. */
 export function describeValue(value: unknown): string {
@@ -10,7 +11,8 @@ export function describeValue(value: unknown): string {
   if (Array.isArray(value)) return 'an array';
   switch (typeof value) {
     case 'string':
-      return JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}…` : value);
+      // JSON escapes the C0 controls; the rest that could steer a terminal are escaped here.
+      return escapeUnprintable(JSON.stringify(value.length > 40 ? `${value.slice(0, 40)}…` : value));
     case 'number':
     case 'boolean':
       return String(value);
@@ -21,8 +23,13 @@ export function describeValue(value: unknown): string {
   }
 }
 
+/** Words a list in a message quotes; the rest are counted (a file may hold any number of unknown fields). */
+const MAX_QUOTED_WORDS = 20;
+
+/** `"a", "b", "c"`: each word quoted and escaped as describeValue does, at most MAX_QUOTED_WORDS of them. */
 export function quoteList(words: readonly string[]): string {
-  return words.map((w) => `"${w}"`).join(', ');
+  const shown = words.slice(0, MAX_QUOTED_WORDS).map(describeValue).join(', ');
+  return words.length > MAX_QUOTED_WORDS ? `${shown}, … (${words.length} in all)` : shown;
 }
 
 /**
@@ -58,4 +65,14 @@ export function formatPath(path: readonly PropertyKey[]): string {
     else out += out === '' ? String(key) : `.${String(key)}`;
   }
   return out;
+}
+
+/** A reader lists at most this many issues and counts the rest, so a bad file gives a readable answer. */
+export const MAX_LISTED_ISSUES = 12;
+
+/** The first MAX_LISTED_ISSUES of `issues`, then one more saying how many were left out. */
+export function capIssues<T>(issues: readonly T[], more: (count: number) => T): T[] {
+  if (issues.length <= MAX_LISTED_ISSUES) return [...issues];
+  const rest = issues.length - MAX_LISTED_ISSUES;
+  return [...issues.slice(0, MAX_LISTED_ISSUES), more(rest)];
 }

@@ -3,7 +3,7 @@
  * operations (see planner.ts) with preallocated scratch. Expected failures come back as
  * issues; compile throws for nothing the caller could pass.
  */
-import { GROUND, type Linkage, type LinkageIssue } from './model';
+import { GROUND, quoteId, type Linkage, type LinkageIssue } from './model';
 import {
   EQ_DIST,
   EQ_FIXED,
@@ -25,6 +25,9 @@ import { DEAD_CENTRE_SIN_TOL, REFERENCE_REPRODUCTION_REL_TOL } from './tolerance
 import { validateMobility, validateReferencePose, validateStructure, type IndexedLinkage } from './validate';
 
 export { setReferencePose } from './params';
+
+/** Unplaced joints a message names; the rest are counted. */
+const MAX_NAMED_UNPLACED = 10;
 
 export type CompileResult = { readonly ok: true; readonly plan: Plan } | { readonly ok: false; readonly issues: LinkageIssue[] };
 
@@ -87,7 +90,8 @@ export function compile(linkage: Linkage): CompileResult {
 
   const outcome = planLinkage(ix, reference);
   if (!outcome.ok) {
-    const names = outcome.unplaced.map((j) => `'${jointIds[j]}'`).join(', ');
+    const named = outcome.unplaced.slice(0, MAX_NAMED_UNPLACED).map((j) => quoteId(jointIds[j])).join(', ');
+    const names = outcome.unplaced.length > MAX_NAMED_UNPLACED ? `${named}, … (${outcome.unplaced.length} in all)` : named;
     issues.push({
       where: 'linkage',
       message: `no plan places joint${outcome.unplaced.length === 1 ? '' : 's'} ${names}: no dyad, slider or solvable Newton block reaches ${outcome.unplaced.length === 1 ? 'it' : 'them'} from the frame and the driver; expected every joint held by exactly enough links (one part of the linkage is over-constrained and another free)`,
@@ -205,7 +209,7 @@ export function compile(linkage: Linkage): CompileResult {
       where: failed >= 0 && failed < jointIds.length ? `joints[${failed}]` : 'linkage',
       message: reproduced
         ? `the plan moves the reference pose by ${worst.toPrecision(3)} mm when it re-solves it; expected it back within ${(REFERENCE_REPRODUCTION_REL_TOL * plan.lengthScaleMm).toPrecision(3)} mm (is a joint at a dead centre in the reference pose?)`
-        : `the plan cannot re-solve the reference pose${failed >= 0 ? ` at joint '${jointIds[failed]}'` : ''}; a dyad at its dead centre (links in line) in the reference pose has no defined branch: move the reference pose off the toggle`,
+        : `the plan cannot re-solve the reference pose${failed >= 0 ? ` at joint ${quoteId(jointIds[failed])}` : ''}; a dyad at its dead centre (links in line) in the reference pose has no defined branch: move the reference pose off the toggle`,
     });
     return { ok: false, issues };
   }
@@ -216,7 +220,7 @@ export function compile(linkage: Linkage): CompileResult {
   if (toggled >= 0) {
     issues.push({
       where: `joints[${toggled}]`,
-      message: `joint '${jointIds[toggled]}' is placed by a dyad whose links are in line in the reference pose (a dead centre), so its assembly branch is undefined; expected the reference pose off the toggle`,
+      message: `joint ${quoteId(jointIds[toggled])} is placed by a dyad whose links are in line in the reference pose (a dead centre), so its assembly branch is undefined; expected the reference pose off the toggle`,
     });
     return { ok: false, issues };
   }

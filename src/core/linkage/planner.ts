@@ -75,19 +75,120 @@ interface Partner {
 
 export type PlanOutcome = { readonly ok: true; readonly draft: PlanDraft } | { readonly ok: false; readonly unplaced: number[] };
 
+/**
+ * Incidence of the indexed linkage, so each step of planning looks only at the bodies
+ * and sliders next to a joint, never at all of them.
+ */
+interface Incidence {
+  /** Bodies carrying each joint, in body order. */
+  readonly jointBodies: readonly number[][];
+  /** Sliders of each joint, in slider order. */
+  readonly jointSliders: readonly number[][];
+  /** Sliders whose line is on each body. */
+  readonly bodySliders: readonly number[][];
+}
+
+function incidenceOf(ix: IndexedLinkage): Incidence {
+  const jointBodies: number[][] = Array.from({ length: ix.jointCount }, () => []);
+  ix.bodies.forEach((body, b) => { for (const j of body.joints) jointBodies[j].push(b); });
+  const jointSliders: number[][] = Array.from({ length: ix.jointCount }, () => []);
+  const bodySliders: number[][] = ix.bodies.map(() => []);
+  ix.sliders.forEach((s, i) => {
+    jointSliders[s.joint].push(i);
+    if (s.body >= 0) bodySliders[s.body].push(i);
+  });
+  return { jointBodies, jointSliders, bodySliders };
+}
+
+/** A min-heap of small non-negative integers, each held at most once. */
+class IndexHeap {
+  private readonly items: number[] = [];
+  private readonly held: Uint8Array;
+  constructor(size: number) { this.held = new Uint8Array(size); }
+  get size(): number { return this.items.length; }
+  push(v: number): void {
+    if (this.held[v] === 1) return;
+    this.held[v] = 1;
+    const a = this.items;
+    a.push(v);
+    for (let i = a.length - 1; i > 0;) {
+      const up = (i - 1) >> 1;
+      if (a[up] <= a[i]) break;
+      [a[up], a[i]] = [a[i], a[up]];
+      i = up;
+    }
+  }
+  peek(): number { return this.items[0]; }
+  pop(): number {
+    const a = this.items;
+    const top = a[0];
+    const last = a.pop()!;
+    if (a.length > 0) {
+      a[0] = last;
+      for (let i = 0; ;) {
+        const l = 2 * i + 1;
+        const r = l + 1;
+        let m = i;
+        if (l < a.length && a[l] < a[m]) m = l;
+        if (r < a.length && a[r] < a[m]) m = r;
+        if (m === i) break;
+        [a[m], a[i]] = [a[i], a[m]];
+        i = m;
+      }
+    }
+    this.held[top] = 0;
+    return top;
+  }
+}
+
+/**
+ * Places in the order of the rule above: bodies by index, pass after pass, while any has
+ * two placed joints; then the lowest-numbered joint a dyad or slider can place; again.
+ * Work lists stand in for the passes and scans, so each placement costs what touches it.
+ */
 export function planLinkage(ix: IndexedLinkage, reference: Float64Array): PlanOutcome {
   const n = ix.jointCount;
   const known = new Uint8Array(n);
+  let placed = 0;
   const bodyDone = new Uint8Array(ix.bodies.length);
+  /** Placed joints of each body, and one of them (the only one while there is one). */
+  const bodyPlaced = new Int32Array(ix.bodies.length);
+  const bodyAnyPlaced = new Int32Array(ix.bodies.length).fill(-1);
   /** Base pair (two placed joints) of each body once it is placed; slider lines on it are local to it. */
   const bodyBase: [number, number][] = ix.bodies.map(() => [-1, -1]);
   const builder = new Builder();
   const driver = ix.driver;
+  const inc = incidenceOf(ix);
+  // Bodies with two placed joints: those after the pass's cursor now, the rest next pass.
+  const readyNow = new IndexHeap(ix.bodies.length);
+  const readyNext = new IndexHeap(ix.bodies.length);
+  let cursor = -1;
+  // Joints whose neighbourhood changed since a dyad or slider was last looked for.
+  const dirty = new IndexHeap(n);
+  for (let j = 0; j < n; j++) dirty.push(j);
+
+  const touch = (j: number) => { if (known[j] === 0) dirty.push(j); };
+  const markKnown = (j: number) => {
+    known[j] = 1;
+    placed++;
+    for (const b of inc.jointBodies[j]) {
+      bodyPlaced[b]++;
+      bodyAnyPlaced[b] = j;
+      if (bodyDone[b] === 0) {
+        if (bodyPlaced[b] === 2) (b > cursor ? readyNow : readyNext).push(b);
+        for (const k of ix.bodies[b].joints) touch(k);
+      }
+    }
+    if (driver.kind === 'length') {
+      if (driver.from === j) touch(driver.to);
+      if (driver.to === j) touch(driver.from);
+    }
+  };
 
   // The prologue run.ts executes without dispatch: every frame position, then the rotation driver.
   for (let j = 0; j < n; j++) {
     if (ix.ground[j] === 1) {
-      known[j] = 1;
+      markKnown(j);
       builder.op(OP_SET, -1, -1, j, -1, 2);
     }
   }
@@ -97,40 +198,58 @@ export function planLinkage(ix: IndexedLinkage, reference: Float64Array): PlanOu
   const setCount = builder.ops.length / OP_STRIDE;
   if (driver.kind === 'rotation') {
     builder.op(OP_ROTATE, driver.pivot, -1, driver.tip, -1, 1);
-    known[driver.tip] = 1;
+    markKnown(driver.tip);
   }
 
-  const placedCount = () => known.reduce((s, k) => s + k, 0);
   const coincide = (a: number, b: number) =>
     !(Math.hypot(reference[2 * a] - reference[2 * b], reference[2 * a + 1] - reference[2 * b + 1]) >= COINCIDENT_JOINT_TOL_MM);
 
+  const completeBody = (b: number) => {
+    const body = ix.bodies[b];
+    let a = -1;
+    let c = -1;
+    for (const j of body.joints) {
+      if (known[j] === 0) continue;
+      if (a < 0) a = j;
+      else if (c < 0) c = j;
+    }
+    bodyDone[b] = 1;
+    bodyBase[b] = [a, c];
+    for (const j of body.joints) {
+      if (known[j] === 0) {
+        builder.op(OP_RIGID, a, c, j, -1, 2);
+        markKnown(j);
+      }
+    }
+    for (const j of body.joints) touch(j);
+    for (const s of inc.bodySliders[b]) touch(ix.sliders[s].joint);
+  };
+
+  /** Completes every ready body, pass by pass; false when there was none. */
   const completeBodies = (): boolean => {
     let progress = false;
-    ix.bodies.forEach((body, b) => {
-      if (bodyDone[b] === 1) return;
-      const placed = body.joints.filter((j) => known[j] === 1);
-      if (placed.length < 2) return;
-      const [a, c] = placed;
-      for (const j of body.joints) {
-        if (known[j] === 0) {
-          builder.op(OP_RIGID, a, c, j, -1, 2);
-          known[j] = 1;
-        }
+    for (let guard = 0; guard <= ix.bodies.length; guard++) {
+      if (readyNow.size === 0) {
+        if (readyNext.size === 0) break;
+        // A new pass: the bodies left behind the cursor come first again.
+        cursor = -1;
+        while (readyNext.size > 0) readyNow.push(readyNext.pop());
       }
-      bodyDone[b] = 1;
-      bodyBase[b] = [a, c];
+      const b = readyNow.pop();
+      cursor = b;
+      if (bodyDone[b] === 1) continue;
+      completeBody(b);
       progress = true;
-    });
+    }
+    cursor = -1;
     return progress;
   };
 
   const partnersOf = (j: number): Partner[] => {
     const partners: Partner[] = [];
-    ix.bodies.forEach((body, b) => {
-      if (bodyDone[b] === 1 || !body.joints.includes(j)) return;
-      const placed = body.joints.filter((k) => known[k] === 1);
-      if (placed.length === 1) partners.push({ joint: placed[0], driven: false });
-    });
+    for (const b of inc.jointBodies[j]) {
+      if (bodyDone[b] === 0 && bodyPlaced[b] === 1) partners.push({ joint: bodyAnyPlaced[b], driven: false });
+    }
     if (driver.kind === 'length') {
       if (driver.from === j && known[driver.to] === 1) partners.push({ joint: driver.to, driven: true });
       if (driver.to === j && known[driver.from] === 1) partners.push({ joint: driver.from, driven: true });
@@ -140,62 +259,71 @@ export function planLinkage(ix: IndexedLinkage, reference: Float64Array): PlanOu
 
   const lineKnown = (body: number) => body === -1 || bodyDone[body] === 1;
 
+  /** Places joint j by a dyad or a slider if it can now; false otherwise. */
+  const placeJoint = (j: number): boolean => {
+    const partners = partnersOf(j);
+    for (let p = 0; p < partners.length; p++) {
+      for (let r = p + 1; r < partners.length; r++) {
+        const first = partners[p];
+        const second = partners[r];
+        if (first.joint === second.joint || coincide(first.joint, second.joint)) continue;
+        const q = builder.op(OP_DYAD, first.joint, second.joint, j, -1, 3);
+        if (first.driven) builder.driverParams.push(q);
+        if (second.driven) builder.driverParams.push(q + 1);
+        markKnown(j);
+        return true;
+      }
+    }
+    if (partners.length === 0) return false;
+    const sliderIndex = inc.jointSliders[j].find((s) => lineKnown(ix.sliders[s].body));
+    if (sliderIndex === undefined) return false;
+    const slider = ix.sliders[sliderIndex];
+    const centre = partners[0];
+    let q: number;
+    if (slider.body === -1) {
+      q = builder.op(OP_CIRCLE_GROUND_LINE, centre.joint, -1, j, -1, 7);
+    } else {
+      const [e, f] = bodyBase[slider.body];
+      q = builder.op(OP_CIRCLE_BODY_LINE, centre.joint, e, j, f, 7);
+    }
+    builder.presets.push({ index: q + 6, value: slider.angle });
+    if (centre.driven) builder.driverParams.push(q);
+    markKnown(j);
+    return true;
+  };
+
+  /**
+   * The lowest joint a dyad or slider places now. A joint whose neighbourhood has not
+   * changed since it was found unplaceable is still unplaceable, so only the dirty ones
+   * are looked at, lowest first.
+   */
   const placeOne = (): boolean => {
-    for (let j = 0; j < n; j++) {
-      if (known[j] === 1) continue;
-      const partners = partnersOf(j);
-      for (let p = 0; p < partners.length; p++) {
-        for (let r = p + 1; r < partners.length; r++) {
-          const first = partners[p];
-          const second = partners[r];
-          if (first.joint === second.joint || coincide(first.joint, second.joint)) continue;
-          const q = builder.op(OP_DYAD, first.joint, second.joint, j, -1, 3);
-          if (first.driven) builder.driverParams.push(q);
-          if (second.driven) builder.driverParams.push(q + 1);
-          known[j] = 1;
-          return true;
-        }
-      }
-      if (partners.length === 0) continue;
-      const slider = ix.sliders.find((s) => s.joint === j && lineKnown(s.body));
-      if (slider === undefined) continue;
-      const centre = partners[0];
-      let q: number;
-      if (slider.body === -1) {
-        q = builder.op(OP_CIRCLE_GROUND_LINE, centre.joint, -1, j, -1, 7);
-      } else {
-        const [e, f] = bodyBase[slider.body];
-        q = builder.op(OP_CIRCLE_BODY_LINE, centre.joint, e, j, f, 7);
-      }
-      builder.presets.push({ index: q + 6, value: slider.angle });
-      if (centre.driven) builder.driverParams.push(q);
-      known[j] = 1;
-      return true;
+    while (dirty.size > 0) {
+      const j = dirty.pop();
+      if (known[j] === 0 && placeJoint(j)) return true;
     }
     return false;
+  };
+
+  const unplacedJoints = () => {
+    const unplaced: number[] = [];
+    for (let j = 0; j < n; j++) if (known[j] === 0) unplaced.push(j);
+    return unplaced;
   };
 
   for (let guard = 0; guard <= n; guard++) {
     while (completeBodies() || placeOne()) {
       // Bodies first, then one dyad at a time: every placement may complete a body.
     }
-    if (placedCount() === n) break;
-    const block = findBlock(ix, known, bodyDone, bodyBase, reference);
-    if (block === null) {
-      const unplaced: number[] = [];
-      for (let j = 0; j < n; j++) if (known[j] === 0) unplaced.push(j);
-      return { ok: false, unplaced };
-    }
+    if (placed === n) break;
+    const block = findBlock(ix, inc, known, bodyDone, bodyBase, reference);
+    if (block === null) return { ok: false, unplaced: unplacedJoints() };
     builder.op(OP_NEWTON, -1, -1, -1, -1, 0);
     builder.ops[builder.ops.length - 5] = builder.blocks.length;
     builder.blocks.push(block);
-    for (const j of block.joints) known[j] = 1;
+    for (const j of block.joints) markKnown(j);
   }
-  if (placedCount() !== n) {
-    const unplaced: number[] = [];
-    for (let j = 0; j < n; j++) if (known[j] === 0) unplaced.push(j);
-    return { ok: false, unplaced };
-  }
+  if (placed !== n) return { ok: false, unplaced: unplacedJoints() };
 
   ix.pointBodies.forEach((body, i) => {
     if (body !== -1) builder.op(OP_RIGID, ix.bodies[body].joints[0], ix.bodies[body].joints[1], n + i, -1, 2);
@@ -214,11 +342,12 @@ export function planLinkage(ix: IndexedLinkage, reference: Float64Array): PlanOu
   };
 }
 
-/** The equations of the joints `inBlock` with the placed joints, or null when they do not match 2 unknowns per joint. */
+/** The equations of the joints `inBlock` (listed in `joints`) with the placed joints, or null when they do not match 2 unknowns per joint. */
 function blockEquations(
-  ix: IndexedLinkage, inBlock: Uint8Array, known: Uint8Array, bodyDone: Uint8Array,
-  bodyBase: readonly (readonly [number, number])[], size: number,
+  ix: IndexedLinkage, inc: Incidence, joints: readonly number[], inBlock: Uint8Array, known: Uint8Array, bodyDone: Uint8Array,
+  bodyBase: readonly (readonly [number, number])[],
 ): EquationDraft[] | null {
+  const size = joints.length;
   const eqs: EquationDraft[] = [];
   let rows = 0;
   const present = (j: number) => inBlock[j] === 1 || known[j] === 1;
@@ -228,9 +357,11 @@ function blockEquations(
     members.sort((a, b) => known[b] - known[a]);
     return members;
   };
-  const touches = (body: number) => ix.bodies[body].joints.some((j) => inBlock[j] === 1);
-  for (let b = 0; b < ix.bodies.length; b++) {
-    if (bodyDone[b] === 1 || !touches(b)) continue;
+  // The bodies that carry a block joint, in body order: only they can touch the block.
+  const touching = [...new Set(joints.flatMap((j) => inc.jointBodies[j]))].sort((a, b) => a - b);
+  const touches = new Set(touching);
+  for (const b of touching) {
+    if (bodyDone[b] === 1) continue;
     const members = membersIn(b);
     if (members.length < 2) continue;
     eqs.push({ type: EQ_DIST, s0: members[0], s1: members[1], s2: -1, angle: 0, driven: false });
@@ -238,8 +369,11 @@ function blockEquations(
     rows += 2 * members.length - 3;
     if (rows > 2 * size) return null;
   }
-  for (const slider of ix.sliders) {
-    const lineTouches = slider.body !== -1 && touches(slider.body);
+  // Sliders of a block joint, or on the line of a touching body, in slider order.
+  const sliderIndices = [...new Set([...joints.flatMap((j) => inc.jointSliders[j]), ...touching.flatMap((b) => inc.bodySliders[b])])].sort((a, b) => a - b);
+  for (const s of sliderIndices) {
+    const slider = ix.sliders[s];
+    const lineTouches = slider.body !== -1 && touches.has(slider.body);
     if (!(inBlock[slider.joint] === 1 || lineTouches) || !present(slider.joint)) continue;
     if (slider.body === -1) {
       eqs.push({ type: EQ_SLIDER_GROUND, s0: slider.joint, s1: -1, s2: -1, angle: slider.angle, driven: false });
@@ -304,7 +438,7 @@ function fullRankAtReference(drafts: readonly EquationDraft[], joints: readonly 
 
 /** The smallest solvable block of unplaced joints, or null. Subsets by increasing size, at most BLOCK_SEARCH_MAX_SUBSETS. */
 function findBlock(
-  ix: IndexedLinkage, known: Uint8Array, bodyDone: Uint8Array,
+  ix: IndexedLinkage, inc: Incidence, known: Uint8Array, bodyDone: Uint8Array,
   bodyBase: readonly (readonly [number, number])[], reference: Float64Array,
 ): { joints: number[]; equations: EquationDraft[] } | null {
   const unplaced: number[] = [];
@@ -318,7 +452,7 @@ function findBlock(
       if (++tried > BLOCK_SEARCH_MAX_SUBSETS) return null;
       const joints = pick.map((i) => unplaced[i]);
       for (const j of joints) inBlock[j] = 1;
-      const eqs = blockEquations(ix, inBlock, known, bodyDone, bodyBase, size);
+      const eqs = blockEquations(ix, inc, joints, inBlock, known, bodyDone, bodyBase);
       for (const j of joints) inBlock[j] = 0;
       if (eqs !== null && eqs.reduce((s, e) => s + equationRows(e.type), 0) === 2 * size && fullRankAtReference(eqs, joints, slotCount, reference)) {
         return { joints, equations: eqs };

@@ -60,16 +60,38 @@ function operationSource(p: PlanInternal, op: number): string {
   }
 }
 
+/**
+ * Operations per generated function. V8's stack use grows with a function's size, and
+ * one of some 20,000 operations overflowed it, when compiled or entered; a longer plan
+ * runs as a sequence of functions of this many operations each (a call per chunk,
+ * nothing per operation), and a plan this short stays one function.
+ */
+export const KERNEL_CHUNK_OPS = 1024;
+
 /** The kernel's body; the driver checks and writes are those of run.ts's interpreter. */
 function kernelSource(p: PlanInternal): string {
-  const lines = ['"use strict";', 'return function kernel(pose) {', 'const d = dv[0];'];
+  const lines = ['"use strict";'];
+  const chunked = p.opCount > KERNEL_CHUNK_OPS;
+  if (chunked) {
+    for (let first = 0, c = 0; first < p.opCount; first += KERNEL_CHUNK_OPS, c++) {
+      lines.push(`function chunk${c}(pose, d) {`);
+      for (let op = first; op < Math.min(first + KERNEL_CHUNK_OPS, p.opCount); op++) lines.push(operationSource(p, op));
+      lines.push('return -1;', '}');
+    }
+  }
+  lines.push('return function kernel(pose) {', 'const d = dv[0];');
   if (p.driverIsLength) {
     lines.push('if (!(d > 0 && d < Infinity && p.referenceValid)) return 0;');
     for (const k of p.driverParams) lines.push(`prm[${k}] = d;`);
   } else {
     lines.push('if (!(Math.abs(d) < Infinity && p.referenceValid)) return 0;');
   }
-  for (let op = 0; op < p.opCount; op++) lines.push(operationSource(p, op));
+  if (chunked) {
+    lines.push('let failed = -1;');
+    for (let c = 0; c * KERNEL_CHUNK_OPS < p.opCount; c++) lines.push(`if ((failed = chunk${c}(pose, d)) >= 0) return failed;`);
+  } else {
+    for (let op = 0; op < p.opCount; op++) lines.push(operationSource(p, op));
+  }
   lines.push('return -1;', '};');
   return lines.join('\n');
 }

@@ -38,6 +38,12 @@ export interface FourBarLoop {
  * Every four-bar loop of `plan`, with lengths measured in `pose` (default: the reference
  * pose; lengths do not change as the linkage moves). Throws for a pose of the wrong
  * length or with a loop joint that is not finite: a solved or reference pose never is.
+ *
+ * The loops are the 4-cycles of the body graph, found from its paths of length two
+ * (Chiba and Nishizeki, 1985, without their degree order): two paths b0–b1–b2 and b0–b3–b2 close a cycle. The work
+ * grows with the sum over pins of the degrees of the bodies they join, so a long chain
+ * of dyads costs in proportion to its length; the order is that of a search over
+ * (b0, b1, b3, b2) and then the pins, b0 the lowest body index and b1 < b3.
  */
 export function fourBarLoops(
   plan: Plan,
@@ -48,35 +54,58 @@ export function fourBarLoops(
     throw new RangeError(`fourBarLoops: pose has ${pose.length} numbers; expected 2 × ${plan.slotCount} slots`);
   }
   const pins = pinsBetweenBodies(plan);
-  const n = plan.bodies.length;
   const driven = drivenBody(plan);
-  const loops: FourBarLoop[] = [];
-  // Each cycle once: b0 is its lowest body index and b1 < b3 fixes the direction.
-  for (let b0 = 0; b0 < n; b0++) {
-    for (let b1 = b0 + 1; b1 < n; b1++) {
-      for (let b3 = b1 + 1; b3 < n; b3++) {
-        for (let b2 = b0 + 1; b2 < n; b2++) {
-          if (b2 === b1 || b2 === b3) continue;
-          for (const j01 of pins[b0][b1]) {
-            for (const j12 of pins[b1][b2]) {
-              if (j12 === j01) continue;
-              for (const j23 of pins[b2][b3]) {
-                if (j23 === j01 || j23 === j12) continue;
-                for (const j30 of pins[b3][b0]) {
-                  if (j30 === j01 || j30 === j12 || j30 === j23) continue;
-                  const reverse = b0 === 0 && b3 === driven && b1 !== driven;
-                  const bodies: Four<number> = reverse ? [b0, b3, b2, b1] : [b0, b1, b2, b3];
-                  const joints: Four<number> = reverse ? [j30, j23, j12, j01] : [j01, j12, j23, j30];
-                  loops.push(makeLoop(plan, bodies, joints, pose, driven, relTol));
-                }
-              }
-            }
-          }
+  const found: Cycle[] = [];
+  // Paths b0–b1–b2 from one b0, bucketed by b2; every body on them is above b0.
+  const paths = new Map<number, Path[]>();
+  for (let b0 = 0; b0 < pins.length; b0++) {
+    paths.clear();
+    for (const first of pins[b0]) {
+      if (first.body <= b0) continue;
+      for (const second of pins[first.body]) {
+        if (second.body <= b0 || second.joint === first.joint) continue;
+        let bucket = paths.get(second.body);
+        if (bucket === undefined) paths.set(second.body, (bucket = []));
+        bucket.push({ b1: first.body, j01: first.joint, j12: second.joint });
+      }
+    }
+    for (const [b2, bucket] of paths) {
+      for (const p of bucket) {
+        for (const q of bucket) {
+          // q runs back from b2 to b0 through b3 = q.b1: j23 = q.j12, j30 = q.j01.
+          if (!(p.b1 < q.b1) || q.j12 === p.j01 || q.j12 === p.j12 || q.j01 === p.j01 || q.j01 === p.j12) continue;
+          found.push([[b0, p.b1, b2, q.b1], [p.j01, p.j12, q.j12, q.j01]]);
         }
       }
     }
   }
-  return loops;
+  found.sort(searchOrder);
+  return found.map(([[b0, b1, b2, b3], [j01, j12, j23, j30]]) => {
+    const reverse = b0 === 0 && b3 === driven && b1 !== driven;
+    const bodies: Four<number> = reverse ? [b0, b3, b2, b1] : [b0, b1, b2, b3];
+    const joints: Four<number> = reverse ? [j30, j23, j12, j01] : [j01, j12, j23, j30];
+    return makeLoop(plan, bodies, joints, pose, driven, relTol);
+  });
+}
+
+interface Path {
+  readonly b1: number;
+  readonly j01: number;
+  readonly j12: number;
+}
+
+/** A pin of a body: the body it joins and the joint slot. */
+interface Pin {
+  readonly body: number;
+  readonly joint: number;
+}
+
+/** A 4-cycle as found: bodies (b0, b1, b2, b3) and pins (j01, j12, j23, j30). */
+type Cycle = readonly [Four<number>, Four<number>];
+
+function searchOrder([ba, ja]: Cycle, [bb, jb]: Cycle): number {
+  return ba[0] - bb[0] || ba[1] - bb[1] || ba[3] - bb[3] || ba[2] - bb[2] ||
+    ja[0] - jb[0] || ja[1] - jb[1] || ja[2] - jb[2] || ja[3] - jb[3];
 }
 
 function makeLoop(
@@ -117,10 +146,10 @@ function makeLoop(
 }
 
 /**
- * pins[a][b]: the joint slots carried by both bodies a and b. A joint that slides on a
- * body (a prismatic pair) is no pin of that body.
+ * pins[a]: every pin of body a, with the body it joins. A joint that slides on a body (a
+ * prismatic pair) is no pin of that body.
  */
-function pinsBetweenBodies(plan: Plan): number[][][] {
+function pinsBetweenBodies(plan: Plan): Pin[][] {
   const n = plan.bodies.length;
   const jointCount = plan.jointIds.length;
   const sliding = new Set<string>();
@@ -134,13 +163,13 @@ function pinsBetweenBodies(plan: Plan): number[][][] {
       carriers[slot].push(b);
     }
   }
-  const pins: number[][][] = Array.from({ length: n }, () => Array.from({ length: n }, () => []));
+  const pins: Pin[][] = Array.from({ length: n }, () => []);
   for (let j = 0; j < jointCount; j++) {
     const on = carriers[j];
     for (let x = 0; x < on.length; x++) {
       for (let y = x + 1; y < on.length; y++) {
-        pins[on[x]][on[y]].push(j);
-        pins[on[y]][on[x]].push(j);
+        pins[on[x]].push({ body: on[y], joint: j });
+        pins[on[y]].push({ body: on[x], joint: j });
       }
     }
   }
