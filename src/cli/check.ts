@@ -3,24 +3,51 @@
  * would search (each family's variables and their bounds), or every issue, one a line
  * with the field it concerns, and exit code 2.
  */
-import { createObjective, type Problem } from '../core/synthesis';
+import { MAX_PROBLEM_FILE_CHARS } from '../core/io/problem';
+import { MAX_LISTED_ISSUES } from '../core/io/schemaMessages';
+import { MAX_DIM } from '../core/optimize/config';
+import { MIN_TARGET_POINTS, createObjective, type Problem } from '../core/synthesis';
+import {
+  MAX_BOUND_MAGNITUDE,
+  MAX_CONSTRAINT_MM,
+  MAX_DRIVER_VALUE_RAD,
+  MAX_TARGET_COORDINATE_MM,
+  MAX_TARGET_POINTS,
+  MAX_WEIGHT,
+  MIN_TARGET_SPAN_MM,
+  MIN_TARGET_SPAN_SHARE,
+} from '../core/synthesis/problem';
 import { singleFile, type OptionSpec } from './args';
 import { EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
+
+const count = (n: number) => n.toLocaleString('en-GB');
 
 export const usage = `usage: loci check PROBLEM.json [--json]
 
 Validates a problem file (format "loci-problem") and prints what \`loci fit\` would
 search: the target, timing, placement, measure and constraints, and for each family
 its variables with their bounds. A file with issues gets one line per issue, naming
-the field, on stderr, and exit code 2.
+the field, on stderr (the first ${MAX_LISTED_ISSUES}, then a count of the rest), and exit
+code 2. A file \`check\` accepts, \`fit\` accepts too.
+
+Limits (each refused with the field and the limit):
+  file             at most ${count(MAX_PROBLEM_FILE_CHARS / 1000)} kB
+  target.points    ${MIN_TARGET_POINTS} to ${count(MAX_TARGET_POINTS)} points, each within ±${count(MAX_TARGET_COORDINATE_MM)} mm;
+                   spanning at least ${MIN_TARGET_SPAN_MM} mm and ${MIN_TARGET_SPAN_SHARE} × the largest |coordinate|;
+                   with free timing, at most ${count(MAX_DIM)} variables in all (points + the
+                   family's own variables)
+  target.weights   0 to ${count(MAX_WEIGHT)}, not all 0
+  timing.driverValues  within ±${MAX_DRIVER_VALUE_RAD} rad (±${Math.floor((MAX_DRIVER_VALUE_RAD * 180) / Math.PI)}°)
+  bounds           lower < upper, each within ±${count(MAX_BOUND_MAGNITUDE)}
+  constraints      lengths and keep-out circles within ${count(MAX_CONSTRAINT_MM)} mm
 
   --json      print the summary as JSON instead of text.
   --help, -h  this text.
 
 Exit codes: 0 valid, 2 bad input (unreadable file, not JSON, issues, bad flags), 1 an
-unexpected failure.
+unexpected failure (a bug).
 `;
 
 const OPTIONS: readonly OptionSpec[] = [
@@ -60,7 +87,6 @@ function constraintsText(problem: Problem): string {
   const c = problem.constraints;
   const parts: string[] = [];
   if (c.fullTurnCrank) parts.push('crank turns fully (Grashof)');
-  if (c.grashofTolerance !== undefined) parts.push(`Grashof tolerance ${c.grashofTolerance}`);
   if (c.minTransmissionRad !== undefined) parts.push(`transmission angle ≥ ${((c.minTransmissionRad * 180) / Math.PI).toFixed(1)}°`);
   if (c.linkLengthMm !== undefined) parts.push(`link lengths ${c.linkLengthMm[0]} to ${c.linkLengthMm[1]} mm`);
   if (c.keepOut !== undefined && c.keepOut.length > 0) parts.push(`${c.keepOut.length} keep-out circle${c.keepOut.length > 1 ? 's' : ''}`);

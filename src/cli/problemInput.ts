@@ -1,5 +1,5 @@
 /** Reading a problem file for `loci fit` and `loci check`: the file, its JSON, then parseProblemFile. */
-import { parseProblemFile } from '../core/io/problem';
+import { MAX_PROBLEM_FILE_CHARS, parseProblemFile } from '../core/io/problem';
 import type { Problem } from '../core/synthesis';
 import type { CliIo } from './command';
 
@@ -11,6 +11,10 @@ export type ReadProblemResult =
 export async function readProblemFile(path: string, io: CliIo): Promise<ReadProblemResult> {
   const read = await io.readTextFile(path);
   if (!read.ok) return { ok: false, lines: [read.message] };
+  if (read.text.length > MAX_PROBLEM_FILE_CHARS) {
+    const kb = Math.round(read.text.length / 1000).toLocaleString('en-GB');
+    return { ok: false, lines: [`${path}: the file is ${kb} kB; a problem file may be at most ${(MAX_PROBLEM_FILE_CHARS / 1000).toLocaleString('en-GB')} kB`] };
+  }
   let json: unknown;
   try {
     json = JSON.parse(read.text.charCodeAt(0) === 0xfeff ? read.text.slice(1) : read.text);

@@ -41,11 +41,14 @@
  *   degenerate r2 → 0 design, value 2.53, that the published box r2 ∈ [0, 50] admits);
  *   with the 'fourbar-boundary' map at 2e5, 10 of 10 (seeds 1 … 10) and 10 of 10
  *   (seeds 11 … 20) reach 1.0032–1.0049 ×.
- * - Grashof tolerance: 0 for line6 and timed5. closed18's best designs sit on the
- *   Grashof boundary (change-point crank-rockers with r1 at its upper bound 50): with
- *   tolerance 0 the best value we found is 3.2423e-3 (1.027 × reference_best); with a
- *   slack of 1e-4 of the longest link (s + l − p − q ≤ 0.005 for l = 50) the search
- *   reaches the reference; the value falls fast with more slack (≈ 2.94e-3 at 3e-4).
+ * - Grashof strictly, in every case: a change point does not turn fully. closed18's
+ *   best designs sit on the Grashof boundary (crank-rockers with r1 at its upper bound
+ *   50): strictly Grashof, the best value found is 3.2425e-3 (1.027 × reference_best),
+ *   hence its 3 % allowance. Earlier, a declared slack of 1e-4 of the longest link
+ *   (s + l − p − q ≤ 0.005 for l = 50) let the search reach the reference, and the value
+ *   fell fast with more slack (≈ 2.94e-3 at 3e-4), but those designs cannot turn fully,
+ *   so the slack is gone; the closed18 figures below that name 1.003 × were measured
+ *   with it.
  * - closed18 at smaller budgets with the affine map (measured, same objective, hybrid
  *   defaults but the share named): at 3e5 evaluations no seed of 1 … 12 reaches the
  *   reference, with globalShare 0.5 (3 end at the degenerate 2.53, the hybrid stopping 'converged' at 1.6–1.8e5 with
@@ -169,13 +172,14 @@ function sumOfSquaresThroughLinkage(objective: ReturnType<typeof createObjective
 }
 
 /** The papers' constraints, checked here on the design itself. */
-function checkPublishedConstraints(x: Float64Array, names: readonly string[], grashofTolerance: number, untimed: boolean): void {
+function checkPublishedConstraints(x: Float64Array, names: readonly string[], untimed: boolean): void {
   const v = (name: string) => x[names.indexOf(name)];
   const r = [v('r1'), v('r2'), v('r3'), v('r4')];
   const s = Math.min(...r);
   const l = Math.max(...r);
   expect(r[1]).toBeLessThanOrEqual(Math.min(r[0], r[2], r[3]));
-  expect(s + l - (r[0] + r[1] + r[2] + r[3] - s - l)).toBeLessThanOrEqual(grashofTolerance * l);
+  // Grashof (1883), strictly: a change point (s + l = p + q) does not turn fully.
+  expect(s + l - (r[0] + r[1] + r[2] + r[3] - s - l)).toBeLessThan(0);
   if (untimed) {
     const theta = names.map((n, j) => (n.startsWith('theta2_') ? x[j] : NaN)).filter((t) => !Number.isNaN(t));
     for (let i = 1; i < theta.length; i++) expect(theta[i]).toBeGreaterThanOrEqual(theta[i - 1]);
@@ -186,7 +190,15 @@ interface CaseSetup {
   id: string;
   wrap?: boolean;
   branch: 'open' | 'crossed' | 'either';
-  grashofTolerance: number;
+  /**
+   * How close to reference_best the search must come: 1 % unless the case says why not.
+   * closed18's reference_best is the best an independent implementation reached, not a
+   * literature value, and its design sits on or just past the Grashof boundary. Loci
+   * requires a full turn strictly (a change point, s + l = p + q, does not turn fully:
+   * Grashof, 1883, as stated by Chang, Lin and Wu, 2005), and the best strictly Grashof
+   * design found is 1.027 × reference_best (seeds 1 … 10 of the map's search; see above).
+   */
+  allowance?: number;
   /** The search map the problem file names (the problem and its reported design are unchanged); default 'affine'. */
   searchMap?: SearchMapKind;
   optimizer: Omit<HybridConfig, 'dim'>;
@@ -197,20 +209,18 @@ const CASES: CaseSetup[] = [
     id: 'line6-untimed',
     wrap: false,
     branch: 'crossed',
-    grashofTolerance: 0,
     optimizer: { kind: 'hybrid', maxEvaluations: 600_000, seed: 2, globalShare: 0.5 },
   },
   {
     id: 'timed5',
     branch: 'open',
-    grashofTolerance: 0,
     optimizer: { kind: 'hybrid', maxEvaluations: 400_000, seed: 1, globalShare: 0.7 },
   },
   {
     id: 'closed18-untimed',
     wrap: false,
     branch: 'crossed',
-    grashofTolerance: 1e-4,
+    allowance: 1.03,
     searchMap: 'fourbar-boundary',
     optimizer: { kind: 'hybrid', maxEvaluations: 200_000, seed: 3 },
   },
@@ -218,7 +228,7 @@ const CASES: CaseSetup[] = [
 
 describe('published four-bar path-synthesis benchmarks', () => {
   for (const setup of CASES) {
-    it(`${setup.id} reaches reference_best within 1 %`, () => {
+    it(`${setup.id} reaches reference_best within ${Math.round(((setup.allowance ?? 1.01) - 1) * 100)} %`, () => {
       const published = referenceCase(setup.id);
       const json = problemFile(setup.id);
 
@@ -239,7 +249,7 @@ describe('published four-bar path-synthesis benchmarks', () => {
       if (Array.isArray(b.rcx_rcy_x0_y0)) for (const n of ['rcx', 'rcy', 'x0', 'y0']) expect(boxes[n]).toEqual(b.rcx_rcy_x0_y0);
       if (Array.isArray(b.theta0)) expect(boxes.theta0).toEqual(b.theta0);
       if (Array.isArray(b.theta2)) expect(boxes.theta2).toEqual(b.theta2);
-      expect(json.constraints).toEqual({ fullTurnCrank: true, grashofTolerance: setup.grashofTolerance, branch: setup.branch });
+      expect(json.constraints).toEqual({ fullTurnCrank: true, branch: setup.branch });
 
       const parsed = parseProblemFile(json);
       if (!parsed.ok) throw new Error(JSON.stringify(parsed.issues));
@@ -255,9 +265,9 @@ describe('published four-bar path-synthesis benchmarks', () => {
           `source: ${published.source}; confidence: ${JSON.stringify(published.confidence)}`,
       );
       expect(result.violation).toBe(0);
-      expect(result.value).toBeLessThanOrEqual(1.01 * published.reference_best);
+      expect(result.value).toBeLessThanOrEqual((setup.allowance ?? 1.01) * published.reference_best);
 
-      checkPublishedConstraints(result.x, objective.variableNames, setup.grashofTolerance, !published.timing.prescribed);
+      checkPublishedConstraints(result.x, objective.variableNames, !published.timing.prescribed);
       const independent = sumOfSquaresThroughLinkage(objective, result.x, published.points);
       expect(Math.abs(independent - result.value)).toBeLessThanOrEqual(1e-9 * published.reference_best + 1e-24);
     });

@@ -3,10 +3,13 @@ import fc from 'fast-check';
 import {
   MAX_POINTS_CSV_CHARS,
   MAX_TARGET_POINTS,
+  REPEATED_POINT_TOL_MM,
+  firstRepeats,
   formatPointsCsv,
   parsePointsCsv,
   type PointsCsvResult,
 } from '../../src/core/io/pointsCsv';
+import { MAX_TARGET_COORDINATE_MM, minTargetSpanMm } from '../../src/core/synthesis/problem';
 
 function ok(result: PointsCsvResult) {
   if (!result.ok) throw new Error(`expected ok, got ${JSON.stringify(result.issues)}`);
@@ -203,10 +206,15 @@ describe('parsePointsCsv: bad input names the row and what is wrong', () => {
 
 describe('formatPointsCsv and parsePointsCsv', () => {
   // Identity: what we write, we read back exactly (JSON-style shortest round-trip of doubles, ECMA-262 Number::toString).
-  it('round-trips any distinct points', () => {
-    const coordinate = fc.double({ min: -1e5, max: 1e5, noNaN: true, noDefaultInfinity: true });
+  it('round-trips any distinct points within the target limits', () => {
+    const coordinate = fc.double({ min: -MAX_TARGET_COORDINATE_MM, max: MAX_TARGET_COORDINATE_MM, noNaN: true, noDefaultInfinity: true });
     fc.assert(
       fc.property(fc.uniqueArray(fc.tuple(coordinate, coordinate), { minLength: 3, maxLength: 40, selector: ([x, y]) => `${Math.round(x)},${Math.round(y)}` }), (pairs) => {
+        // A target too small for its distance from the origin is refused (the span rule), not a round-trip question.
+        const largest = Math.max(...pairs.flat().map(Math.abs));
+        const span = Math.max(...pairs.map(([x]) => x)) - Math.min(...pairs.map(([x]) => x));
+        const spanY = Math.max(...pairs.map(([, y]) => y)) - Math.min(...pairs.map(([, y]) => y));
+        fc.pre(Math.max(span, spanY) >= minTargetSpanMm(largest));
         const points = pairs.map(([x, y]) => ({ x: Object.is(x, -0) ? 0 : x, y: Object.is(y, -0) ? 0 : y }));
         const table = ok(parsePointsCsv(formatPointsCsv(points)));
         expect(table.points).toEqual(points);
@@ -218,5 +226,69 @@ describe('formatPointsCsv and parsePointsCsv', () => {
   it('writes the angle column only when every point has one', () => {
     expect(formatPointsCsv([{ x: 1, y: 2, driverDeg: 3 }])).toBe('x_mm,y_mm,angle_deg\n1,2,3\n');
     expect(formatPointsCsv([{ x: 1, y: 2, driverDeg: 3 }, { x: 4, y: 5, driverDeg: null }])).toBe('x_mm,y_mm\n1,2\n4,5\n');
+  });
+});
+
+// Hostile input (the issue "Hostile input and faults"): each value is held to a
+// problem's limits, with the row it came from.
+describe('parsePointsCsv: limits and the rows it names', () => {
+  it('a crank angle of 1.7e308 rad is refused, not read as Infinity', () => {
+    // 1.7e308 × 180 overflows binary64 (largest finite ≈ 1.798e308; IEEE 754).
+    const found = issues(parsePointsCsv('x,y,angle_rad\n0,0,1.7e308\n1,1,1\n2,0,2\n'));
+    expect(found).toEqual([{ row: 2, message: 'row 2: the crank angle is 1.7e+308 rad; expected an angle from −100 to 100 rad' }]);
+    expect(issues(parsePointsCsv('0,0,0\n1,1,6000\n2,0,2\n'))[0]).toEqual({ row: 2, message: 'row 2: the crank angle is 6000°; expected an angle from −5729 to 5729°' });
+  });
+
+  it('an all-zero weight column is refused; a weight above 1e6 names its row', () => {
+    expect(issues(parsePointsCsv('x,y,weight\n0,0,0\n1,1,0\n2,0,0\n'))).toEqual([{ row: 0, message: 'every weight is 0; expected at least one point with a weight above 0' }]);
+    expect(issues(parsePointsCsv('x,y,weight\n0,0,1\n1,1,1e308\n2,0,0\n'))[0]).toEqual({ row: 3, message: expect.stringMatching(/^row 3: the weight is 1e\+308; expected a number ≥ 0 and at most 1000000/) });
+    expect(ok(parsePointsCsv('x,y,weight\n0,0,0\n1,1,1e6\n2,0,0\n')).weights).toEqual([0, 1e6, 0]);
+  });
+
+  it('a quoted value with a line break: rows are the lines where they start, as a text editor shows them', () => {
+    // Line breaks inside quotes belong to the value. Source: Y. Shafranovich, RFC 4180, 2005, section 2, rule 6.
+    const found = issues(parsePointsCsv('x,y,note\n0,0,a\n1,1,"two\nlines"\n2,x,c\n3,1,d\n'));
+    expect(found).toEqual([{ row: 5, message: 'row 5: y is "x", which is not a number' }]);
+    const crlf = issues(parsePointsCsv('x,y,note\r\n0,0,"a\r\nb"\r\n1,1,c\r\n2,zz,d\r\n'));
+    expect(crlf[0].row).toBe(5);
+  });
+
+  it('reads a header with spaces after the commas around quoted names', () => {
+    const table = ok(parsePointsCsv('"x", "y"\n0, 0\n10, "0"\n10,10\n0,10\n'));
+    expect(table.header).toEqual(['x', 'y']);
+    expect(table.points).toEqual(SQUARE);
+  });
+
+  it('an unclosed quote names the row where it opens', () => {
+    expect(issues(parsePointsCsv('0,0\n1,1\n2,"2\n3,3\n'))[0]).toEqual({ row: 3, message: 'row 3 has a quote (line 3) that is never closed' });
+  });
+
+  it('refuses points far from the origin, and a target too small for its distance', () => {
+    expect(issues(parsePointsCsv('0,0\n1,1\n2e15,0\n'))[0]).toEqual({ row: 3, message: 'row 3: the point (2000000000000000, 0) has a coordinate beyond ±20000 mm; move the target nearer the origin' });
+    expect(issues(parsePointsCsv('0,0\n1e-4,0\n2e-4,1e-4\n'))).toEqual([{ row: 0, message: expect.stringMatching(/span 0\.0002 mm; a target must span at least 0\.001 mm/) }]);
+    expect(issues(parsePointsCsv('19990,19990\n19995,19991\n19999,19990\n'))).toEqual([{ row: 0, message: expect.stringMatching(/span 9 mm; a target must span at least 19\.999 mm/) }]);
+  });
+
+  it('the repeated-point check finds what comparing every pair finds', () => {
+    // Independent method: the definition, every pair compared (O(n²)), written here.
+    const near = fc.integer({ min: -4, max: 4 }).map((k) => k * REPEATED_POINT_TOL_MM * 0.6);
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.integer({ min: 0, max: 3 }), fc.integer({ min: 0, max: 3 }), near, near), { maxLength: 60 }), (raw) => {
+        const xs = raw.map(([i, , dx]) => 1000 + i * 2e-6 + dx);
+        const ys = raw.map(([, j, , dy]) => -500 + j * 2e-6 + dy);
+        const got = firstRepeats(xs, ys, xs.length, REPEATED_POINT_TOL_MM);
+        for (let i = 0; i < xs.length; i++) {
+          let first = -1;
+          for (let j = 0; j < i && first === -1; j++) if (Math.hypot(xs[i] - xs[j], ys[i] - ys[j]) <= REPEATED_POINT_TOL_MM) first = j;
+          expect(got[i]).toBe(first);
+        }
+      }),
+      { seed: 20261203, numRuns: 300 },
+    );
+  });
+
+  it('5,000 points on one vertical line (a sort by x alone would compare every pair) are read', () => {
+    const rows = Array.from({ length: MAX_TARGET_POINTS }, (_, i) => `0,${i * 0.01}`).join('\n');
+    expect(ok(parsePointsCsv(rows)).points).toHaveLength(MAX_TARGET_POINTS);
   });
 });

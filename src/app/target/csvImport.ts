@@ -12,6 +12,7 @@ export function importCsvAction(text: string, source: string, current: TargetSta
   ];
   if (table.closedByRepeat) read.push('The last row repeated the first, so it was dropped and the path is closed.');
   if (table.driverDeg !== null) read.push('Crank angles were read (degrees), so the timing is set to prescribed.');
+  if (table.weights !== null) read.push(weightsLine(table.weights));
   return {
     type: 'target/replace',
     points,
@@ -19,6 +20,12 @@ export function importCsvAction(text: string, source: string, current: TargetSta
     timing: table.driverDeg !== null ? 'prescribed' : current.timing === 'prescribed' ? 'unprescribed' : current.timing,
     notice: { kind: 'info', title: `Read ${points.length} points from ${source}`, lines: read },
   };
+}
+
+/** The page weights every point equally: say so when the file's weights differ, rather than drop them unseen. */
+function weightsLine(weights: readonly number[]): string {
+  if (weights.every((w) => w === weights[0])) return 'The weight column gives every point the same weight, as this page does.';
+  return 'The weight column was read but is not used: this page weights every point equally. To fit with these weights, write them as target.weights in a problem file and run loci fit.';
 }
 
 /** A file too large to be a target is refused before it is read. */

@@ -1,30 +1,41 @@
 /**
  * Target points from CSV text: x and y in mm, and optionally a crank angle per point
  * (prescribed timing) and a weight. Reads what spreadsheets and measuring tools write:
- * with or without a header row; comma, semicolon or tab between values; a decimal
- * comma where the separator is not a comma; a byte-order mark; blank lines.
+ * with or without a header row; comma, semicolon or tab between values; quoted values
+ * (RFC 4180, also with spaces around them and line breaks inside); a decimal comma
+ * where the separator is not a comma; a byte-order mark; blank lines.
  *
- * Expected failures are values: `{ ok: false, issues }`, each issue naming the row (as
- * a spreadsheet numbers it, header included) and what is wrong, so the caller can keep
- * the current target and show the messages.
+ * Expected failures are values: `{ ok: false, issues }`, each issue naming the row (the
+ * line of the text where it starts, as a text editor numbers lines) and what is wrong,
+ * so the caller can keep the current target and show the messages. Every value is held
+ * to the limits of a problem (src/core/synthesis/problem.ts), so what this reads a
+ * search can use.
  */
-import Papa from 'papaparse';
+import { MAX_LISTED_ISSUES } from './schemaMessages';
+import {
+  MAX_TARGET_COORDINATE_MM,
+  MAX_DRIVER_VALUE_RAD,
+  MAX_TARGET_POINTS,
+  MAX_WEIGHT,
+  MIN_TARGET_SPAN_MM,
+  MIN_TARGET_SPAN_SHARE,
+  minTargetSpanMm,
+} from '../synthesis/problem';
+import { MIN_TARGET_POINTS } from '../synthesis/target';
+
+export { MAX_LISTED_ISSUES, MAX_TARGET_POINTS, MIN_TARGET_POINTS };
 
 /** A target file larger than this is refused before it is parsed (characters, about bytes). */
 export const MAX_POINTS_CSV_CHARS = 1_000_000;
-/** A target has at most this many points; a path needs far fewer. */
-export const MAX_TARGET_POINTS = 5000;
-/** And at least this many (three points fix a circle; a path needs more). */
-export const MIN_TARGET_POINTS = 3;
 /** Two points closer than this (mm) are the same point. */
 export const REPEATED_POINT_TOL_MM = 1e-6;
-/** At most this many issues are listed; the rest are counted. */
-export const MAX_LISTED_ISSUES = 12;
+/** Largest |crank angle| in degrees: MAX_DRIVER_VALUE_RAD, rounded down to a whole degree. */
+const MAX_DRIVER_DEG = Math.floor((MAX_DRIVER_VALUE_RAD * 180) / Math.PI);
 
 export type CsvDelimiter = ',' | ';' | '\t';
 
 export interface CsvIssue {
-  /** 1-based row of the file (header included, blank lines counted); 0 for the file as a whole. */
+  /** 1-based line of the text where the row starts (header and blank lines counted); 0 for the file as a whole. */
   readonly row: number;
   readonly message: string;
 }
@@ -109,7 +120,7 @@ function columnsFromHeader(header: readonly string[], row: number): { ok: true; 
   if (index.x === -1 || index.y === -1) {
     return {
       ok: false,
-      issue: { row, message: `the header row names no ${index.x === -1 ? 'x' : 'y'} column; expected columns named x and y (mm), and optionally angle (deg) and weight` },
+      issue: { row, message: `row ${row}, the header, names no ${index.x === -1 ? 'x' : 'y'} column; expected columns named x and y (mm), and optionally angle (deg) and weight` },
     };
   }
   const driverRad = index.driver !== -1 && isRadians(header[index.driver]);
@@ -135,6 +146,109 @@ function isBlank(cells: readonly string[]): boolean {
   return cells.every((c) => c.trim().length === 0);
 }
 
+interface CsvRecord {
+  /** The line of the text where the record starts, 1-based. */
+  readonly line: number;
+  readonly cells: string[];
+}
+
+/**
+ * Splits CSV text into records (RFC 4180, Shafranovich 2005), leniently: spaces around a
+ * quoted value are dropped, and any line end (LF, CRLF, CR) ends a record. Linear in the
+ * text. Stops at a quote that is never closed, or text after a closing quote.
+ */
+function splitRecords(text: string, delimiter: CsvDelimiter): { records: CsvRecord[]; issue: CsvIssue | null } {
+  const records: CsvRecord[] = [];
+  let cells: string[] = [];
+  let cell = '';
+  let line = 1;
+  let recordLine = 1;
+  let i = 0;
+  const n = text.length;
+  const isSpace = (c: string) => c === ' ' || (c === '\t' && delimiter !== '\t');
+  const endRecord = () => {
+    cells.push(cell);
+    records.push({ line: recordLine, cells });
+    cells = [];
+    cell = '';
+  };
+  while (i < n) {
+    const c = text[i];
+    if (c === '"' && cell.trim().length === 0) {
+      // A quoted value: "" inside stands for one quote; line breaks are part of the value.
+      const openLine = line;
+      let value = '';
+      i++;
+      for (;;) {
+        if (i >= n) return { records, issue: { row: recordLine, message: `row ${recordLine} has a quote (line ${openLine}) that is never closed` } };
+        const q = text[i];
+        if (q === '"') {
+          if (text[i + 1] === '"') {
+            value += '"';
+            i += 2;
+            continue;
+          }
+          i++;
+          break;
+        }
+        if (q === '\n' || (q === '\r' && text[i + 1] !== '\n')) line++;
+        value += q;
+        i++;
+      }
+      while (i < n && isSpace(text[i])) i++;
+      if (i < n && text[i] !== delimiter && text[i] !== '\n' && text[i] !== '\r') {
+        return { records, issue: { row: recordLine, message: `row ${recordLine} has text after a closing quote (line ${line}); expected a separator or the end of the line` } };
+      }
+      cell = value;
+      continue;
+    }
+    if (c === delimiter) {
+      cells.push(cell);
+      cell = '';
+    } else if (c === '\n' || c === '\r') {
+      endRecord();
+      if (c === '\r' && text[i + 1] === '\n') i++;
+      line++;
+      recordLine = line;
+    } else {
+      cell += c;
+    }
+    i++;
+  }
+  if (cell.length > 0 || cells.length > 0) endRecord();
+  return { records, issue: null };
+}
+
+/**
+ * For each of the first `count` points, the first earlier point within `tolMm` of it, or
+ * −1. A grid of cells `tolMm` wide: a point within tolMm is in one of the 3 × 3 cells
+ * around, so the check is linear in the points (expected), not quadratic.
+ */
+export function firstRepeats(xs: ArrayLike<number>, ys: ArrayLike<number>, count: number, tolMm: number): Int32Array {
+  const repeats = new Int32Array(count).fill(-1);
+  const cells = new Map<string, number[]>();
+  for (let i = 0; i < count; i++) {
+    const cx = Math.floor(xs[i] / tolMm);
+    const cy = Math.floor(ys[i] / tolMm);
+    let first = -1;
+    for (let dx = -1; dx <= 1; dx++) {
+      for (let dy = -1; dy <= 1; dy++) {
+        const near = cells.get(`${cx + dx},${cy + dy}`);
+        if (near === undefined) continue;
+        for (const j of near) {
+          if ((first === -1 || j < first) && Math.hypot(xs[i] - xs[j], ys[i] - ys[j]) <= tolMm) first = j;
+        }
+      }
+    }
+    repeats[i] = first;
+    const key = `${cx},${cy}`;
+    const own = cells.get(key);
+    if (own === undefined) cells.set(key, [i]);
+    else own.push(i);
+  }
+  return repeats;
+}
+
 /** Reads target points from CSV text; see the module comment for what it accepts. */
 export function parsePointsCsv(input: string): PointsCsvResult {
   if (input.length > MAX_POINTS_CSV_CHARS) {
@@ -143,8 +257,7 @@ export function parsePointsCsv(input: string): PointsCsvResult {
   }
   const text = input.charCodeAt(0) === 0xfeff ? input.slice(1) : input;
   const delimiter = detectDelimiter(text);
-  const parsed = Papa.parse<string[]>(text, { delimiter, skipEmptyLines: false });
-  const rows = parsed.data;
+  const split = splitRecords(text, delimiter);
 
   const issues: CsvIssue[] = [];
   let more = 0;
@@ -152,15 +265,12 @@ export function parsePointsCsv(input: string): PointsCsvResult {
     if (issues.length < MAX_LISTED_ISSUES) issues.push(issue);
     else more++;
   };
-  for (const error of parsed.errors) {
-    if (error.type === 'Quotes') report({ row: (error.row ?? 0) + 1, message: `row ${(error.row ?? 0) + 1} has a quote that is never closed` });
-  }
+  if (split.issue !== null) report(split.issue);
 
-  const filled: { row: number; cells: string[] }[] = [];
-  rows.forEach((cells, k) => {
-    if (!isBlank(cells)) filled.push({ row: k + 1, cells });
-  });
-  if (filled.length === 0) return { ok: false, issues: [{ row: 0, message: 'there are no points: expected rows of x and y in mm' }] };
+  const filled = split.records.filter((r) => !isBlank(r.cells)).map((r) => ({ row: r.line, cells: r.cells }));
+  if (filled.length === 0) {
+    return { ok: false, issues: issues.length > 0 ? issues : [{ row: 0, message: 'there are no points: expected rows of x and y in mm' }] };
+  }
 
   const first = filled[0];
   // A header is a row of names only; a row mixing numbers and text is a data row with a mistake.
@@ -175,6 +285,8 @@ export function parsePointsCsv(input: string): PointsCsvResult {
   const columns = found.columns;
   const width = first.cells.length;
   const needed = Math.max(columns.x, columns.y, columns.driver, columns.weight) + 1;
+  const angleUnit = columns.driverRad ? 'rad' : '°';
+  const angleLimit = columns.driverRad ? MAX_DRIVER_VALUE_RAD : MAX_DRIVER_DEG;
 
   const xs: number[] = [];
   const ys: number[] = [];
@@ -208,8 +320,16 @@ export function parsePointsCsv(input: string): PointsCsvResult {
     const d = read(columns.driver, 'the crank angle');
     const w = read(columns.weight, 'the weight');
     if (x === null || y === null || d === null || w === null) continue;
-    if (columns.weight !== -1 && !(w >= 0)) {
-      report({ row, message: `row ${row}: the weight is ${w}; expected a number ≥ 0` });
+    if (!(Math.abs(x) <= MAX_TARGET_COORDINATE_MM && Math.abs(y) <= MAX_TARGET_COORDINATE_MM)) {
+      report({ row, message: `row ${row}: the point (${x}, ${y}) has a coordinate beyond ±${MAX_TARGET_COORDINATE_MM} mm; move the target nearer the origin` });
+      continue;
+    }
+    if (!(Math.abs(d) <= angleLimit)) {
+      report({ row, message: `row ${row}: the crank angle is ${d}${angleUnit === 'rad' ? ' rad' : '°'}; expected an angle from −${angleLimit} to ${angleLimit}${angleUnit === 'rad' ? ' rad' : '°'}` });
+      continue;
+    }
+    if (columns.weight !== -1 && !(w >= 0 && w <= MAX_WEIGHT)) {
+      report({ row, message: `row ${row}: the weight is ${w}; expected a number ≥ 0${w >= 0 ? ` and at most ${MAX_WEIGHT} (weights are relative: scale them down)` : ''}` });
       continue;
     }
     xs.push(x);
@@ -225,16 +345,35 @@ export function parsePointsCsv(input: string): PointsCsvResult {
     closedByRepeat = true;
     count--;
   }
-  for (let i = 1; i < count; i++) {
-    for (let j = 0; j < i; j++) {
-      if (Math.hypot(xs[i] - xs[j], ys[i] - ys[j]) <= REPEATED_POINT_TOL_MM) {
-        report({ row: sourceRows[i], message: `row ${sourceRows[i]} repeats the point of row ${sourceRows[j]} (x ${xs[i]}, y ${ys[i]} mm); each point must be different` });
-        break;
-      }
-    }
+  const repeats = firstRepeats(xs, ys, count, REPEATED_POINT_TOL_MM);
+  for (let i = 0; i < count; i++) {
+    const j = repeats[i];
+    if (j !== -1) report({ row: sourceRows[i], message: `row ${sourceRows[i]} repeats the point of row ${sourceRows[j]} (x ${xs[i]}, y ${ys[i]} mm); each point must be different` });
   }
   if (issues.length === 0 && count < MIN_TARGET_POINTS) {
     report({ row: 0, message: `there ${count === 1 ? 'is 1 point' : `are ${count} points`}; a target needs at least ${MIN_TARGET_POINTS}` });
+  }
+  if (issues.length === 0) {
+    let largest = 0;
+    let minX = Infinity;
+    let maxX = -Infinity;
+    let minY = Infinity;
+    let maxY = -Infinity;
+    for (let i = 0; i < count; i++) {
+      largest = Math.max(largest, Math.abs(xs[i]), Math.abs(ys[i]));
+      minX = Math.min(minX, xs[i]);
+      maxX = Math.max(maxX, xs[i]);
+      minY = Math.min(minY, ys[i]);
+      maxY = Math.max(maxY, ys[i]);
+    }
+    const span = Math.max(maxX - minX, maxY - minY);
+    const needed = minTargetSpanMm(largest);
+    if (!(span >= needed)) {
+      report({ row: 0, message: `the points span ${span} mm; a target must span at least ${needed} mm (${MIN_TARGET_SPAN_MM} mm, and ${MIN_TARGET_SPAN_SHARE} × its largest coordinate) for its shape to be represented` });
+    }
+    if (columns.weight !== -1 && !weights.slice(0, count).some((w) => w > 0)) {
+      report({ row: 0, message: 'every weight is 0; expected at least one point with a weight above 0' });
+    }
   }
   if (issues.length > 0) {
     const listed = more > 0 ? [...issues, { row: 0, message: `and ${more} more problem${more === 1 ? '' : 's'}` }] : issues;

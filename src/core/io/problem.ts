@@ -20,11 +20,16 @@
  * "unit": "deg"). Reading runs three stages, each stopping on failure: the envelope
  * (`format`, `version`), the schema (every field's type, unknown fields rejected), then
  * the meaning (createProblem: point counts, repeated points, weights, driver values;
- * then every bound names a variable of its family).
+ * then every bound names a variable of its family, and free timing stays within the
+ * optimizers' dimension). Before the schema, a field named `__proto__` anywhere is
+ * refused: a schema would drop it without a word. The limits each value must keep are
+ * in src/core/synthesis/problem.ts; at most MAX_LISTED_ISSUES issues are listed.
  */
 import * as z from 'zod';
-import { describeValue, expected, formatPath, quoteList, strict } from './schemaMessages';
+import { MAX_DIM } from '../optimize/config';
+import { capIssues, describeValue, expected, formatPath, quoteList, strict } from './schemaMessages';
 import { FAMILY_IDS, SEARCH_MAP_KINDS, createProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue } from '../synthesis';
+import { MAX_DRIVER_VALUE_RAD } from '../synthesis/problem';
 
 export const PROBLEM_FILE_FORMAT = 'loci-problem';
 /** The version this code writes, and the newest it reads. */
@@ -32,11 +37,14 @@ export const PROBLEM_FILE_VERSION = 1;
 
 export type ParseProblemFileResult =
   | { readonly ok: true; readonly problem: Problem; readonly description?: string }
+  /** At most MAX_LISTED_ISSUES issues, then one (path '') counting the rest. */
   | { readonly ok: false; readonly issues: ProblemIssue[] };
 
+/** A problem file longer than this (characters, about bytes) is refused before it is parsed: 5,000 points with timing and weights take under 1 MB. */
+export const MAX_PROBLEM_FILE_CHARS = 4_000_000;
 
-
-
+/** A key JSON.parse keeps as an own field but an object literal would take as its prototype: a schema would drop it without a word. */
+const RESERVED_KEY = '__proto__';
 
 const finite = (what: string) => z.number({ error: expected(what) }).refine(Number.isFinite, { error: expected(what) });
 const pair = (what: string) => z.tuple([finite(what), finite(what)], { error: expected(`[lower, upper], two ${what}s`) });
@@ -76,7 +84,6 @@ const familyEnum = z.enum(FAMILY_IDS as [FamilyId, ...FamilyId[]], { error: expe
 
 const constraintsSchema = strict('constraints', {
   fullTurnCrank: z.boolean({ error: expected('true or false') }).optional(),
-  grashofTolerance: finite('a share of the longest link in [0, 1)').optional(),
   minTransmissionRad: finite('an angle in rad').optional(),
   linkLengthMm: pair('length in mm').optional(),
   keepOut: z
@@ -123,6 +130,71 @@ function fail(path: string, message: string): { ok: false; issues: ProblemIssue[
   return { ok: false, issues: [{ path, message }] };
 }
 
+function failWith(issues: readonly ProblemIssue[]): { ok: false; issues: ProblemIssue[] } {
+  return { ok: false, issues: capIssues(issues, (rest) => ({ path: '', message: `and ${rest} more issue${rest === 1 ? '' : 's'}` })) };
+}
+
+/** Every field named `__proto__`, anywhere in the file, shallowest first (walked without recursion, so any depth is safe). */
+function reservedKeyIssues(json: unknown): ProblemIssue[] {
+  const issues: ProblemIssue[] = [];
+  // Each node keeps its parent's index and its own key; a path is built only for an issue.
+  const queue: { value: unknown; parent: number; key: PropertyKey }[] = [{ value: json, parent: -1, key: '' }];
+  const pathOf = (index: number, last: PropertyKey): string => {
+    const path: PropertyKey[] = [last];
+    for (let k = index; k > 0; k = queue[k].parent) path.unshift(queue[k].key);
+    return formatPath(path);
+  };
+  for (let head = 0; head < queue.length; head++) {
+    const value = queue[head].value;
+    if (Array.isArray(value)) {
+      value.forEach((item, i) => {
+        if (typeof item === 'object' && item !== null) queue.push({ value: item, parent: head, key: i });
+      });
+    } else if (typeof value === 'object' && value !== null) {
+      for (const key of Object.keys(value)) {
+        if (key === RESERVED_KEY) {
+          issues.push({ path: pathOf(head, key), message: `"${RESERVED_KEY}" is not a name Loci reads (JavaScript reserves it); remove the field or rename it` });
+          continue;
+        }
+        const item = (value as Record<string, unknown>)[key];
+        if (typeof item === 'object' && item !== null) queue.push({ value: item, parent: head, key });
+      }
+    }
+  }
+  return issues;
+}
+
+/** Prescribed driver values within MAX_DRIVER_VALUE_RAD, checked in the file's own unit before any conversion. */
+function driverValueIssues(values: readonly number[], unit: 'rad' | 'deg'): ProblemIssue[] {
+  const limit = unit === 'deg' ? Math.floor((MAX_DRIVER_VALUE_RAD * 180) / Math.PI) : MAX_DRIVER_VALUE_RAD;
+  const issues: ProblemIssue[] = [];
+  values.forEach((v, i) => {
+    if (!(Math.abs(v) <= limit)) issues.push({ path: `timing.driverValues[${i}]`, message: `is ${v} ${unit}; expected a driver value from −${limit} to ${limit} ${unit}` });
+  });
+  return issues;
+}
+
+/**
+ * Free timing makes each point's driver value a variable: the family's own variables
+ * and the points together must stay within the optimizers' MAX_DIM.
+ */
+function dimensionIssues(problem: Problem): ProblemIssue[] {
+  if (problem.timing.mode !== 'free') return [];
+  const n = problem.target.points.length / 2;
+  const issues: ProblemIssue[] = [];
+  for (const family of problem.families) {
+    const dim = objectiveVariableNames(problem, family).length;
+    if (dim > MAX_DIM) {
+      const most = MAX_DIM - (dim - n);
+      issues.push({
+        path: 'target.points',
+        message: `has ${n} points; with free timing each point's driver value is a variable, so ${family} would have ${dim} variables, and a search takes at most ${MAX_DIM}: at most ${most} points for ${family} (or use prescribed or unprescribed timing)`,
+      });
+    }
+  }
+  return issues;
+}
+
 /** Reads a problem file (already parsed from JSON text). */
 export function parseProblemFile(json: unknown): ParseProblemFileResult {
   if (!isPlainObject(json)) return fail('', `expected a problem file (a JSON object with "format": "${PROBLEM_FILE_FORMAT}"), got ${describeValue(json)}`);
@@ -138,12 +210,18 @@ export function parseProblemFile(json: unknown): ParseProblemFileResult {
   if (version > PROBLEM_FILE_VERSION) {
     return fail('version', `this file is version ${version}, newer than this Loci reads (up to version ${PROBLEM_FILE_VERSION}); open it with a newer Loci`);
   }
+  const reserved = reservedKeyIssues(json);
+  if (reserved.length > 0) return failWith(reserved);
   const parsed = problemFileV1Schema.safeParse(json);
   if (!parsed.success) {
-    return { ok: false, issues: parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })) };
+    return failWith(parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })));
   }
   const file = parsed.data;
   const t = file.timing;
+  if (t.mode === 'prescribed') {
+    const driverIssues = driverValueIssues(t.driverValues, t.unit ?? 'rad');
+    if (driverIssues.length > 0) return failWith(driverIssues);
+  }
   const timing: ProblemInput['timing'] =
     t.mode === 'prescribed'
       ? { mode: 'prescribed', driverValues: t.unit === 'deg' ? t.driverValues.map((d) => (d * Math.PI) / 180) : t.driverValues }
@@ -161,7 +239,7 @@ export function parseProblemFile(json: unknown): ParseProblemFileResult {
     ...(file.measure === undefined ? {} : { measure: file.measure }),
     ...(file.searchMaps === undefined ? {} : { searchMaps: file.searchMaps }),
   });
-  if (!created.ok) return created;
+  if (!created.ok) return failWith(created.issues);
   const problem = created.problem;
   const issues: ProblemIssue[] = [];
   for (const [family, boxes] of Object.entries(problem.bounds)) {
@@ -174,6 +252,8 @@ export function parseProblemFile(json: unknown): ParseProblemFileResult {
       }
     }
   }
-  if (issues.length > 0) return { ok: false, issues };
+  if (issues.length > 0) return failWith(issues);
+  const dimension = dimensionIssues(problem);
+  if (dimension.length > 0) return failWith(dimension);
   return file.description === undefined ? { ok: true, problem } : { ok: true, problem, description: file.description };
 }

@@ -100,7 +100,6 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
   }
   const branch: Branch = constraints.branch ?? 'open';
   const fullTurn = constraints.fullTurnCrank === true;
-  const grashofSlack = constraints.grashofTolerance ?? 0;
   const cosLimit = transmissionCosLimit(constraints.minTransmissionRad);
   const linkLimits = constraints.linkLengthMm;
   const keepOut = constraints.keepOut ?? [];
@@ -146,7 +145,7 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       // A link of no length is no four-bar (the published boxes start at 0).
       for (let i = R1; i <= R4; i++) if (!(p[i] > 0)) parts[V_LINK_LENGTH] += 1;
       if (fullTurn) {
-        parts[V_CRANK] += crankViolation(p[R1], p[R2], p[R3], p[R4], grashofSlack);
+        parts[V_CRANK] += crankViolation(p[R1], p[R2], p[R3], p[R4]);
         transmissionOver(-1, 1, parts);
       }
     },

@@ -37,15 +37,14 @@ export function inputTurnsFully(ground: number, input: number, coupler: number, 
  * How far a four-bar is from a full turn of its input, normalised by the longest link
  * (0: it turns fully). `groundMayBeShortest`: a double crank (ground shortest) counts as
  * turning; without it the input must be the shortest link (the benchmark papers'
- * "Grashof with the crank shortest"). `slackShare`: the problem's declared slack
- * (grashofTolerance, a share of the longest link) by which s + l may exceed the band.
+ * "Grashof with the crank shortest"). A design inside the change-point band is a change
+ * point and counts against a full turn, however little.
  */
 export function crankViolation(
   ground: number,
   input: number,
   coupler: number,
   output: number,
-  slackShare: number,
   groundMayBeShortest = false,
 ): number {
   const l = Math.max(ground, input, coupler, output);
@@ -53,7 +52,7 @@ export function crankViolation(
   const driven = groundMayBeShortest ? Math.min(ground, input) : input;
   let v = 0;
   if (driven > shortestOther) v += (driven - shortestOther) / l;
-  const excess = grashofExcess(ground, input, coupler, output) + changePointBand(ground, input, coupler, output) - slackShare * l;
+  const excess = grashofExcess(ground, input, coupler, output) + changePointBand(ground, input, coupler, output);
   // On the band's edge itself the design is a change point: count it, however little.
   if (!(excess < 0)) v += excess / l + CHANGE_POINT_REL_TOL;
   return v >= 0 ? v : 1;

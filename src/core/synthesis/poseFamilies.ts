@@ -250,7 +250,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       if (fullTurn) {
         if (grashofLoop !== undefined) {
           const g = grashofLoop;
-          parts[V_CRANK] += crankViolation(loopLength(g, 0), loopLength(g, 1), loopLength(g, 2), loopLength(g, 3), 0, true);
+          parts[V_CRANK] += crankViolation(loopLength(g, 0), loopLength(g, 1), loopLength(g, 2), loopLength(g, 3), true);
         }
         parts[V_CRANK] += sweepFailures(0, TAU, parts);
         curve.reset();

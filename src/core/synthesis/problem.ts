@@ -5,6 +5,9 @@
  */
 
 import { SEARCH_MAP_KINDS, searchMapMisfit, type SearchMapKind } from './searchMap';
+import { MAX_COORDINATE_MM, MAX_REACH_OVER_SHORTEST_LINK } from '../linkage/model';
+import { COINCIDENT_JOINT_TOL_MM } from '../linkage/tolerances';
+import { targetFrame } from './encoding';
 import { validateTarget, type Target } from './target';
 
 export type FamilyId =
@@ -73,14 +76,13 @@ export interface KeepOutCircle {
 }
 
 export interface Constraints {
-  /** The crank must turn fully: Grashof with the crank shortest (s + l ≤ p + q). */
-  readonly fullTurnCrank?: boolean;
   /**
-   * Slack of the Grashof test as a share of the longest link: s + l − (p + q) ≤ tol · l
-   * counts as Grashof. Default 0. Change-point designs (s + l = p + q) sit exactly on
-   * the boundary; a small slack lets a search approach them from both sides.
+   * The driver must turn fully. For the four-bars: Grashof with the crank (or, for the
+   * pose four-bar, the ground) shortest, strictly: a change point (s + l = p + q within
+   * the classifier's band) does not turn fully. For the other families: no lock over a
+   * full turn, found exactly, not only at samples.
    */
-  readonly grashofTolerance?: number;
+  readonly fullTurnCrank?: boolean;
   /** Smallest transmission angle allowed, rad (μ and π − μ both at least this). */
   readonly minTransmissionRad?: number;
   /** Every link length within [min, max], mm. */
@@ -145,6 +147,50 @@ export interface ProblemIssue {
 
 export type ProblemResult = { readonly ok: true; readonly problem: Problem } | { readonly ok: false; readonly issues: ProblemIssue[] };
 
+// Limits on what a problem may hold, each checked when it is read so that every value
+// reaching a computation is finite and of a size the computation can use.
+
+/** Most points of a target: every evaluation visits each point. */
+export const MAX_TARGET_POINTS = 5000;
+/**
+ * Largest |x| or |y| of a target point, mm (20 m): a fiftieth of the linkage's own limit
+ * (MAX_COORDINATE_MM, 1 km). A design from the default boxes reaches about 13 spans from
+ * the target's centre (ground pivots 3 spans away, links up to 3 spans, the coupler point
+ * up to 3√2 from its link), and the span is at most twice this limit: 20 m + 13 × 40 m
+ * stays within the linkage's limit, so every candidate of the defaults can be reported.
+ */
+export const MAX_TARGET_COORDINATE_MM = MAX_COORDINATE_MM / 50;
+/**
+ * Smallest span of a target (the larger side of its bounding box), mm. Default link
+ * lengths start at 5 % of the span, and the kinematics takes joints closer than
+ * COINCIDENT_JOINT_TOL_MM (1e-6 mm) for one joint: 1e-3 mm keeps them 50 times apart.
+ */
+export const MIN_TARGET_SPAN_MM = 1000 * COINCIDENT_JOINT_TOL_MM;
+/**
+ * Smallest span of a target as a share of its largest |coordinate| (1e-3). A linkage the
+ * size of the target, with default links from 5 % of the span, has a reach over its
+ * shortest link of about 20 / share: this keeps it five times inside the linkage's
+ * MAX_REACH_OVER_SHORTEST_LINK, where rounding still lets the linkage close.
+ */
+export const MIN_TARGET_SPAN_SHARE = 100 / MAX_REACH_OVER_SHORTEST_LINK;
+/** Largest weight of a target point; weights are relative, so this loses nothing. */
+export const MAX_WEIGHT = 1e6;
+/**
+ * Largest |value| of a prescribed driver value, rad (about 16 turns either way). An
+ * evaluation follows the mechanism over the whole range of driver values, so its cost
+ * grows with the range; a range of thousands of turns made a search crawl.
+ */
+export const MAX_DRIVER_VALUE_RAD = 100;
+/** Largest |lower| or |upper| of a variable's bounds (mm, rad or ground-link units, as the variable is): the linkage's coordinate limit. */
+export const MAX_BOUND_MAGNITUDE = MAX_COORDINATE_MM;
+/** Largest |x|, |y| or r of a keep-out circle, and largest link length limit, mm. */
+export const MAX_CONSTRAINT_MM = MAX_COORDINATE_MM;
+
+/** The span a target needs: MIN_TARGET_SPAN_MM, and MIN_TARGET_SPAN_SHARE of its largest |coordinate|. */
+export function minTargetSpanMm(largestCoordinateMm: number): number {
+  return Math.max(MIN_TARGET_SPAN_MM, MIN_TARGET_SPAN_SHARE * largestCoordinateMm);
+}
+
 /** Fewest and most curve samples of an unprescribed match. */
 export const MIN_MATCH_SAMPLES = 16;
 export const MAX_MATCH_SAMPLES = 20000;
@@ -165,30 +211,64 @@ function checkBounds(bounds: BoundsOverrides | undefined, issues: ProblemIssue[]
       const path = `bounds.${family}.${name}`;
       if (!Array.isArray(box) || box.length !== 2 || !finite(box[0]) || !finite(box[1])) {
         issues.push({ path, message: 'expected [lower, upper], two finite numbers' });
-      } else if (!(box[0] < box[1])) {
-        issues.push({ path, message: `lower ${box[0]} is not below upper ${box[1]}` });
+        continue;
+      }
+      const [lo, hi] = box;
+      if (!(Math.abs(lo) <= MAX_BOUND_MAGNITUDE && Math.abs(hi) <= MAX_BOUND_MAGNITUDE)) {
+        issues.push({ path, message: `is [${lo}, ${hi}]; each bound may be at most ${MAX_BOUND_MAGNITUDE} in size (mm, rad or ground-link units, as the variable is)` });
+      } else if (lo > hi) {
+        issues.push({ path, message: `is [${lo}, ${hi}]: the lower bound ${lo} is above the upper bound ${hi}; expected [lower, upper] with lower < upper (did you mean [${hi}, ${lo}]?)` });
+      } else if (!(lo < hi)) {
+        issues.push({ path, message: `is [${lo}, ${hi}]: the lower and upper bounds are equal; expected [lower, upper] with lower < upper, a range to search` });
       }
     }
   }
 }
 
+/** Coordinates within MAX_TARGET_COORDINATE_MM, a span the kinematics can represent, weights within MAX_WEIGHT. */
+function checkTargetRange(target: Target, issues: ProblemIssue[]): void {
+  const p = target.points;
+  const n = p.length / 2;
+  let largest = 0;
+  let outside = false;
+  for (let i = 0; i < n; i++) {
+    const m = Math.max(Math.abs(p[2 * i]), Math.abs(p[2 * i + 1]));
+    if (!(m <= MAX_TARGET_COORDINATE_MM)) {
+      issues.push({ path: `target.points[${i}]`, message: `is [${p[2 * i]}, ${p[2 * i + 1]}]; each coordinate must be within ±${MAX_TARGET_COORDINATE_MM} mm (move the target nearer the origin)` });
+      outside = true;
+    } else if (m > largest) largest = m;
+  }
+  if (!outside) {
+    // The span the default boxes are scaled by (encoding.ts).
+    const spanMm = targetFrame(p).size;
+    const needed = minTargetSpanMm(largest);
+    if (!(spanMm >= needed)) {
+      issues.push({
+        path: 'target.points',
+        message: `span ${spanMm} mm (the larger side of their bounding box); a target must span at least ${needed} mm (${MIN_TARGET_SPAN_MM} mm, and ${MIN_TARGET_SPAN_SHARE} × its largest coordinate) for its shape to be represented`,
+      });
+    }
+  }
+  target.weights?.forEach((w, i) => {
+    if (!(w <= MAX_WEIGHT)) issues.push({ path: `target.weights[${i}]`, message: `is ${w}; expected a weight from 0 to ${MAX_WEIGHT} (weights are relative: scale them down)` });
+  });
+}
+
 function checkConstraints(c: Constraints | undefined, issues: ProblemIssue[]): void {
   if (c === undefined) return;
-  if (c.grashofTolerance !== undefined && !(finite(c.grashofTolerance) && c.grashofTolerance >= 0 && c.grashofTolerance < 1)) {
-    issues.push({ path: 'constraints.grashofTolerance', message: `is ${c.grashofTolerance}; expected a share of the longest link in [0, 1)` });
-  }
   if (c.minTransmissionRad !== undefined && !(finite(c.minTransmissionRad) && c.minTransmissionRad >= 0 && c.minTransmissionRad <= Math.PI / 2)) {
     issues.push({ path: 'constraints.minTransmissionRad', message: `is ${c.minTransmissionRad}; expected an angle in [0, π/2] rad` });
   }
   if (c.linkLengthMm !== undefined) {
     const [lo, hi] = c.linkLengthMm;
-    if (!(finite(lo) && finite(hi) && lo >= 0 && lo < hi)) {
-      issues.push({ path: 'constraints.linkLengthMm', message: `is [${lo}, ${hi}]; expected [min, max] mm with 0 ≤ min < max` });
+    if (!(finite(lo) && finite(hi) && lo >= 0 && lo < hi && hi <= MAX_CONSTRAINT_MM)) {
+      issues.push({ path: 'constraints.linkLengthMm', message: `is [${lo}, ${hi}]; expected [min, max] mm with 0 ≤ min < max ≤ ${MAX_CONSTRAINT_MM}` });
     }
   }
   c.keepOut?.forEach((k, i) => {
-    if (!(finite(k.x) && finite(k.y) && finite(k.r) && k.r > 0)) {
-      issues.push({ path: `constraints.keepOut[${i}]`, message: 'expected a circle { x, y, r } in mm with finite centre and r > 0' });
+    const within = (v: number) => Math.abs(v) <= MAX_CONSTRAINT_MM;
+    if (!(finite(k.x) && finite(k.y) && finite(k.r) && k.r > 0 && within(k.x) && within(k.y) && within(k.r))) {
+      issues.push({ path: `constraints.keepOut[${i}]`, message: `is { x: ${k.x}, y: ${k.y}, r: ${k.r} }; expected a circle in mm with r > 0 and x, y and r each at most ${MAX_CONSTRAINT_MM} in size` });
     }
   });
 }
@@ -196,8 +276,13 @@ function checkConstraints(c: Constraints | undefined, issues: ProblemIssue[]): v
 /** Checks plain problem data and returns the problem with typed-array copies, or every issue found. */
 export function createProblem(input: ProblemInput): ProblemResult {
   const issues: ProblemIssue[] = [];
-  const target = validateTarget(input.target.points, input.target.closed, input.target.weights, issues);
   const n = input.target.points.length;
+  if (n > MAX_TARGET_POINTS) {
+    // Refused before each point is read: the answer is the same, and it is quick.
+    return { ok: false, issues: [{ path: 'target.points', message: `has ${n} points; a target may have at most ${MAX_TARGET_POINTS} (resample it first)` }] };
+  }
+  const target = validateTarget(input.target.points, input.target.closed, input.target.weights, issues);
+  if (target !== null) checkTargetRange(target, issues);
 
   let timing: Timing;
   const t = input.timing;
@@ -206,7 +291,9 @@ export function createProblem(input: ProblemInput): ProblemResult {
       issues.push({ path: 'timing.driverValues', message: `has ${t.driverValues.length} values; expected one per target point (${n})` });
     }
     t.driverValues.forEach((v, i) => {
-      if (!finite(v)) issues.push({ path: `timing.driverValues[${i}]`, message: `is ${v}; expected a finite driver value` });
+      if (!(finite(v) && Math.abs(v) <= MAX_DRIVER_VALUE_RAD)) {
+        issues.push({ path: `timing.driverValues[${i}]`, message: `is ${v} rad; expected a driver value from −${MAX_DRIVER_VALUE_RAD} to ${MAX_DRIVER_VALUE_RAD} rad` });
+      }
     });
     timing = { mode: 'prescribed', driverValues: Float64Array.from(t.driverValues) };
   } else if (t.mode === 'free') {
@@ -221,7 +308,9 @@ export function createProblem(input: ProblemInput): ProblemResult {
 
   if (input.families.length === 0) issues.push({ path: 'families', message: 'is empty; expected at least one family' });
   input.families.forEach((f, i) => {
+    const first = input.families.indexOf(f);
     if (!FAMILY_IDS.includes(f)) issues.push({ path: `families[${i}]`, message: `"${f}" is not a family; expected one of ${FAMILY_IDS.join(', ')}` });
+    else if (first < i) issues.push({ path: `families[${i}]`, message: `"${f}" is listed twice (also families[${first}]); expected each family once` });
   });
   checkBounds(input.bounds, issues);
   checkConstraints(input.constraints, issues);
@@ -249,7 +338,6 @@ export function createProblem(input: ProblemInput): ProblemResult {
   const c = input.constraints ?? {};
   const constraints: Constraints = {
     ...(c.fullTurnCrank === undefined ? {} : { fullTurnCrank: c.fullTurnCrank }),
-    ...(c.grashofTolerance === undefined ? {} : { grashofTolerance: c.grashofTolerance }),
     ...(c.minTransmissionRad === undefined ? {} : { minTransmissionRad: c.minTransmissionRad }),
     ...(c.linkLengthMm === undefined ? {} : { linkLengthMm: [c.linkLengthMm[0], c.linkLengthMm[1]] as const }),
     ...(c.keepOut === undefined ? {} : { keepOut: c.keepOut.map((k) => ({ x: k.x, y: k.y, r: k.r })) }),

@@ -18,9 +18,9 @@
  * - r4 as r1 plus a signed logarithmic offset, clamped to its box: the rocker of a
  *   crank-rocker near change point follows the ground link when r1 moves;
  * - r2 as a share u2 of the largest crank the other three links admit under Grashof's
- *   condition with the crank shortest (Grashof, 1883) and its slack: every u2 gives a
- *   crank that turns fully when any does, and u2 → 1 is the Grashof boundary, where the
- *   best designs of closed18 sit;
+ *   condition with the crank shortest (Grashof, 1883), strictly inside the change-point
+ *   band: every u2 gives a crank that turns fully when any does, and u2 → 1 is the
+ *   Grashof boundary, where the best designs of closed18 sit;
  * - free driver angles as increasing order statistics: t_i is the smallest of n − i + 1
  *   uniforms on [t_{i−1}, upper], drawn by inversion, t_i = t_{i−1} + (upper − t_{i−1})
  *   (1 − (1 − u_i)^{1/(n − i + 1)}) (Devroye, 1986, "Non-Uniform Random Variate
@@ -37,12 +37,13 @@
  * It is no default: on line6-untimed and timed5 the logarithmic scale makes the search
  * worse, their optimum links being of the box's own size.
  */
+import { CHANGE_POINT_REL_TOL as CHANGE_POINT_REL_TOL_BINDING } from '../linkage/analysis/grashof';
+
+const CHANGE_POINT_REL_TOL = CHANGE_POINT_REL_TOL_BINDING;
+
 // What this module reads of a problem, by shape: problem.ts imports this module, so this
 // one imports nothing from it (no import cycle).
 type Placement = 'fixed' | 'free';
-interface Constraints {
-  readonly grashofTolerance?: number;
-}
 
 export const SEARCH_MAP_KINDS = ['affine', 'fourbar-boundary'] as const;
 export type SearchMapKind = (typeof SEARCH_MAP_KINDS)[number];
@@ -80,11 +81,12 @@ const X0 = 7;
 const Y0 = 8;
 const MECHANISM_VARIABLES = 9;
 /**
- * The Grashof slack the map uses, as a share of the problem's, so that rounding never
- * lands a boundary design (u2 = 1) outside. Measured on closed18 (seeds 1 … 10, 2e5
- * evaluations): 0.999 reaches the reference on 10 of 10 seeds, 1 − 1e-9 on 7 of 10.
+ * How far inside the change-point band (CHANGE_POINT_REL_TOL of the sum of the links,
+ * where a four-bar counts as a change point and does not turn fully) the map puts the
+ * largest crank, in bands: r2 ≤ r1 + r3 + r4 so the sum is at most 2 (r1 + r3 + r4),
+ * and two bands leave room for rounding, so u2 = 1 is a crank that turns fully.
  */
-const SLACK_SHARE = 0.999;
+const BOUNDARY_MARGIN_BANDS = 2;
 /** The signed offsets, mapped about their box centres. */
 const SIGNED_OFFSETS: readonly number[] = [RCX, RCY, X0, Y0];
 
@@ -135,7 +137,6 @@ function affine(lower: Float64Array, upper: Float64Array): SearchMap {
 export interface SearchMapContext {
   readonly family: string;
   readonly placement: Placement;
-  readonly constraints: Constraints;
   /** Free driver variables after the mechanism's (0 for prescribed timing). */
   readonly freeDrivers: number;
   readonly lower: Float64Array;
@@ -167,12 +168,11 @@ export function createSearchMap(kind: SearchMapKind, context: SearchMapContext):
       throw new RangeError(`search map '${kind}': the driver angles need one common box`);
     }
   }
-  const slack = (context.constraints.grashofTolerance ?? 0) * SLACK_SHARE;
   const width = (j: number) => upper[j] - lower[j];
-  /** The largest r2 in its box that is the shortest link with s + l ≤ p + q + slack · l; its lower bound when none is. */
+  /** The largest r2 in its box that is the shortest link and turns fully (s + l below p + q by the margin); its lower bound when none is. */
   const largestCrank = (r1: number, r3: number, r4: number): number => {
     const l = Math.max(r1, r3, r4);
-    const top = Math.min(r1, r3, r4, r1 + r3 + r4 - 2 * l + slack * l, upper[R2]);
+    const top = Math.min(r1, r3, r4, r1 + r3 + r4 - 2 * l - BOUNDARY_MARGIN_BANDS * CHANGE_POINT_REL_TOL * 2 * (r1 + r3 + r4), upper[R2]);
     return top >= lower[R2] ? top : lower[R2];
   };
 

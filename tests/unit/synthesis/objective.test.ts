@@ -142,7 +142,7 @@ describe('createObjective, fourbar-lengths', () => {
     expect(report.placement?.rotationRad).toBeCloseTo(DESIGN[6] - Math.PI / 2, 9);
   });
 
-  it('ranks a non-Grashof crank infeasible, and honours the Grashof tolerance', () => {
+  it('ranks a non-Grashof crank infeasible, and a change-point one too', () => {
     const points = pathOf(DESIGN, ANGLES);
     // Lengths 5, 1.5, 3.2, 2.6: s + l = 6.5 > p + q = 5.8, not Grashof.
     const bad = Float64Array.from([5, 1.5, 3.2, 2.6, 2, 1.2, 0.3, 1, -0.5]);
@@ -150,13 +150,13 @@ describe('createObjective, fourbar-lengths', () => {
     strict.evaluate(bad, out);
     expect(out[1]).toBeGreaterThan(0);
     expect(strict.describe(bad).defects.join()).toMatch(/crank cannot turn fully/);
-    // (s + l − p − q) / l = 0.7 / 5 = 0.14: a tolerance of 0.15 of the longest link accepts it as far as Grashof goes.
-    const lax = createObjective(
-      problemOf({ timing: { mode: 'prescribed', driverValues: ANGLES }, constraints: { fullTurnCrank: true, grashofTolerance: 0.15 } }, points),
-      'fourbar-lengths',
-    );
-    lax.evaluate(bad, out);
-    expect(lax.describe(bad).defects.join()).not.toMatch(/crank cannot turn fully/);
+    // Lengths 5, 1.5, 3.2, 3.3: s + l = 6.5 = p + q, a change point, which passes a flat pose
+    // where its motion may change branch: not a full turn (Grashof's criterion as stated by
+    // Chang, Lin and Wu, J. Marine Sci. Technol. 13(4), 2005).
+    const changePoint = Float64Array.from([5, 1.5, 3.2, 3.3, 2, 1.2, 0.3, 1, -0.5]);
+    strict.evaluate(changePoint, out);
+    expect(out[1]).toBeGreaterThan(0);
+    expect(strict.describe(changePoint).defects.join()).toMatch(/crank cannot turn fully/);
   });
 
   it('checks transmission angle, link lengths and keep-out circles', () => {
