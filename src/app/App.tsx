@@ -8,7 +8,9 @@ import { ResultsView } from './results';
 import { RunControls } from './run/RunControls';
 import { ServicesContext } from './services';
 import { SettingsPanel } from './settings/SettingsPanel';
-import { isActive, snapshotTarget } from './state/project';
+import { startIssuesOf } from './run/runInput';
+import { ProjectName } from './settings/ProjectName';
+import { IDLE_RUN, isActive, previousResultsTarget, snapshotTarget, PROJECT_FORMAT, PROJECT_VERSION, type Project } from './state/project';
 import { settingsProblem } from './state/settings';
 import { StoreContext, useWorkspace } from './state/store';
 import { targetProblem } from './state/target';
@@ -29,6 +31,7 @@ function ResultsSection() {
   const candidates = useWorkspace((s) => s.project.candidates);
   const candidatesTarget = useWorkspace((s) => s.project.candidatesTarget);
   const running = useWorkspace((s) => isActive(s.project.run.status));
+  const previous = useWorkspace((s) => previousResultsTarget(s.project));
   const resultsTarget = useMemo(() => candidatesTarget ?? snapshotTarget(target), [candidatesTarget, target]);
   // The table renders new candidates in React's deferred, interruptible pass: a new set
   // never holds the main thread in one long task.
@@ -36,29 +39,48 @@ function ResultsSection() {
   const shownTarget = useDeferredValue(resultsTarget);
   return (
     <div className="workspace-results">
+      {previous !== null && candidates.length > 0 && (
+        <p className="notice notice-stale" role="status" data-testid="results-previous-target">
+          <strong>These results are for the previous target</strong> ({previous.points.length} points, {previous.closed ? 'closed loop' : 'open path'}), not the one in the drawing now.
+          Their errors are measured against that target; start a search to fit this one.
+        </p>
+      )}
       <ResultsView target={shownTarget} candidates={shownCandidates} running={running} />
     </div>
   );
 }
 
-function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
-  const name = useWorkspace((s) => s.project.name);
+/**
+ * Everything that keeps a search from starting, in the user's words: the target, the
+ * fields that hold what they cannot take, then what the problem reader and the engine
+ * would refuse (checked only when the page found nothing itself).
+ */
+function useStartIssues(defaultWorkers: number): readonly string[] {
   const target = useWorkspace((s) => s.project.target);
   const settings = useWorkspace((s) => s.project.settings);
+  const fieldIssues = useWorkspace((s) => s.ui.fieldIssues);
+  return useMemo(() => {
+    // A pair's message (a reversed range) is both fields' issue: listed once.
+    const own = [...new Set([targetProblem(target), settingsProblem(settings), ...Object.values(fieldIssues)])].filter((m): m is string => m !== null);
+    if (own.length > 0) return own;
+    const project: Project = { format: PROJECT_FORMAT, version: PROJECT_VERSION, name: 'start check', target, settings, run: IDLE_RUN, candidates: [], candidatesTarget: null };
+    return startIssuesOf(project, settings.workers ?? defaultWorkers);
+  }, [target, settings, fieldIssues, defaultWorkers]);
+}
+
+function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
   const { familyBounds, regions } = useFamilyBounds();
-  const startProblem = targetProblem(target) ?? settingsProblem(settings);
+  const startIssues = useStartIssues(defaultWorkers);
   return (
     <>
-      <p className="project-name" data-testid="project-name">
-        {name}
-      </p>
+      <ProjectName />
       <div className="workspace-grid">
         <div className="workspace-side">
           <TargetPanel />
           <SettingsPanel defaultWorkers={defaultWorkers} familyBounds={familyBounds} />
         </div>
         <div className="workspace-main">
-          <RunControls canStartProblem={startProblem} />
+          <RunControls startIssues={startIssues} />
           <TargetDrawing regions={regions} />
         </div>
       </div>

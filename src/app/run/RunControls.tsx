@@ -1,7 +1,7 @@
 /** Start, pause, resume and stop the search, and how far it has got: evaluations, best error (mm), rate and time left. */
 import { useEffect, useState } from 'react';
 import { useServices } from '../services';
-import { isActive, type RunState } from '../state/project';
+import { isActive, previousResultsTarget, type RunState, type RunStatus } from '../state/project';
 import { useWorkspace } from '../state/store';
 import { formatDuration, fractionDone } from './progress';
 
@@ -38,10 +38,16 @@ function useSecondsSince(ms: number | null): number | null {
   return ms === null ? null : Math.max(0, Math.round((now - ms) / 1000));
 }
 
-export function RunControls({ canStartProblem }: { canStartProblem: string | null }) {
+/** Whether the note on a run resumed after a reload belongs on screen: only while that run searches on. */
+function showsResumed(status: RunStatus): boolean {
+  return status === 'starting' || status === 'running' || status === 'pausing';
+}
+
+export function RunControls({ startIssues }: { startIssues: readonly string[] }) {
   const { controller } = useServices();
   const run = useWorkspace((s) => s.project.run);
   const candidateCount = useWorkspace((s) => s.project.candidates.length);
+  const previous = useWorkspace((s) => previousResultsTarget(s.project));
   const active = isActive(run.status);
   const since = useSecondsSince(active ? (run.checkpoint?.savedAtMs ?? null) : null);
   const done = fractionDone(run);
@@ -50,7 +56,10 @@ export function RunControls({ canStartProblem }: { canStartProblem: string | nul
   return (
     <section className="panel run-panel" aria-label="Search">
       <div className="run-buttons">
-        <button type="button" className="primary" disabled={active || run.status === 'paused' || canStartProblem !== null} onClick={() => void controller.start()} title={canStartProblem ?? undefined}>
+        <button type="button" className="primary" disabled={active || run.status === 'paused' || startIssues.length > 0}
+          onClick={() => void controller.start()}
+          aria-describedby={startIssues.length > 0 ? 'start-issues' : undefined}
+        >
           Start search
         </button>
         <button type="button" disabled={run.status !== 'running'} onClick={() => void controller.pause()}>
@@ -63,7 +72,16 @@ export function RunControls({ canStartProblem }: { canStartProblem: string | nul
           Stop
         </button>
       </div>
-      {canStartProblem !== null && !active && <p className="panel-note">To start: {canStartProblem}.</p>}
+      {startIssues.length > 0 && !active && run.status !== 'paused' && (
+        <div className="notice notice-error start-issues" id="start-issues" data-testid="start-issues">
+          <p className="notice-head">To start a search, fix {startIssues.length === 1 ? 'this' : `these ${startIssues.length}`}:</p>
+          <ul>
+            {startIssues.map((issue) => (
+              <li key={issue}>{issue}</li>
+            ))}
+          </ul>
+        </div>
+      )}
       <div className="progress" data-testid="run-progress" data-status={run.status}>
         <div
           className="progress-bar"
@@ -78,7 +96,13 @@ export function RunControls({ canStartProblem }: { canStartProblem: string | nul
         <p className="run-status" data-testid="run-status">
           {STATUS_TEXT[run.status]}
           {run.status === 'finished' && run.stopReason !== null ? `: ${STOP_TEXT[run.stopReason] ?? run.stopReason}, ${candidateCount} candidates ranked` : ''}
+          {run.status === 'finished' && candidateCount === 0 ? '. No design within the bounds gave an error that could be ranked: check the variable bounds and the constraints.' : ''}
         </p>
+        {previous !== null && !active && (
+          <p className="panel-note previous-target" data-testid="run-previous-target">
+            These figures are from the search on the previous target ({previous.points.length} points), not the one in the drawing now.
+          </p>
+        )}
         <dl className="run-figures">
           <div>
             <dt>evaluations</dt>
@@ -109,7 +133,7 @@ export function RunControls({ canStartProblem }: { canStartProblem: string | nul
             there.
           </p>
         )}
-        {run.resumedFrom !== null && (
+        {run.resumedFrom !== null && showsResumed(run.status) && (
           <p className="panel-note" data-testid="run-resumed" data-evaluations={run.resumedFrom.evaluations}>
             Resumed after a reload from the checkpoint of round {run.resumedFrom.round} ({formatCount(run.resumedFrom.evaluations)} evaluations).
           </p>

@@ -3,9 +3,10 @@
  * problem file (src/core/io/problem.ts), with the budget, seed and checkpoint
  * interval. Lengths stay mm; the app's degrees become radians here.
  */
-import type { RunInput } from '../../engine';
+import { defineRun, type RunInput } from '../../engine';
 import { PROBLEM_FILE_FORMAT, PROBLEM_FILE_VERSION } from '../../core/io/problem';
-import type { ProblemInput } from '../../core/synthesis';
+import { createProblem, type ProblemInput, type ProblemIssue } from '../../core/synthesis';
+import { familyLabel, type FamilyId } from '../state/families';
 import type { Project } from '../state/project';
 
 /** Candidates the run describes at its end and the results table gets. */
@@ -68,4 +69,45 @@ export function buildRunInput(project: Project, workers: number): { ok: true; in
     checkpointEveryMs: CHECKPOINT_EVERY_MS,
   };
   return { ok: true, input };
+}
+
+/** Where the problem reader found an issue, as the page names that place. */
+function placeOf(path: string): string {
+  const bound = /^bounds\.([^.]+)\.(.+)$/.exec(path);
+  if (bound !== null) return `Variable bounds, ${familyLabel(bound[1] as FamilyId)} ${bound[2]}`;
+  const point = /^target\.points\[(\d+)\]/.exec(path);
+  if (point !== null) return `Target point ${Number(point[1]) + 1}`;
+  const circle = /^constraints\.keepOut\[(\d+)\]/.exec(path);
+  if (circle !== null) return `Keep-out region ${Number(circle[1]) + 1}`;
+  if (path.startsWith('constraints.minTransmission')) return 'Minimum transmission angle';
+  if (path.startsWith('constraints.linkLength')) return 'Link lengths';
+  if (path.startsWith('target')) return 'Target path';
+  return 'Search settings';
+}
+
+/** The engine's fields, as the page names them. */
+const RUN_FIELDS: readonly (readonly [RegExp, string])[] = [
+  [/^budget\.evaluations\b/, 'Budget in evaluations'],
+  [/^budget\.seconds\b/, 'Budget in seconds'],
+  [/^jobs\[\d+\]\.seed\b/, 'Seed'],
+];
+
+function inUserWords(issue: ProblemIssue): string {
+  return `${placeOf(issue.path)}: ${issue.message}`;
+}
+
+/**
+ * What the problem reader and the engine would refuse in this project, in the page's
+ * words: the same checks a search runs at its start, made before Start is offered, so a
+ * search never stops on input the page took.
+ */
+export function startIssuesOf(project: Project, workers: number): string[] {
+  const problem = createProblem(problemInputOf(project));
+  if (!problem.ok) return problem.issues.map(inUserWords);
+  const built = buildRunInput(project, workers);
+  if (!built.ok) return [built.reason];
+  const run = defineRun(built.input);
+  if (run.ok) return [];
+  const field = RUN_FIELDS.find(([pattern]) => pattern.test(run.reason));
+  return [field === undefined ? `Search settings: ${run.reason}` : run.reason.replace(field[0], field[1])];
 }

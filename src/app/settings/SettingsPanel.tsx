@@ -1,12 +1,16 @@
 /** What to search: families, placement, the measure, constraints, budget, seed and workers. */
 import { memo, useId } from 'react';
+import { islandsPerFamily } from '../run/runInput';
 import { FAMILY_CHOICES } from '../state/families';
+import { checkEvaluations, checkSeconds, checkSeed } from '../state/fields';
 import { isLocked, type Measure } from '../state/project';
 import { MAX_WORKERS } from '../state/settings';
 import { useDispatch, useWorkspace } from '../state/store';
 import { BoundsEditor } from './BoundsEditor';
 import type { FamilyBounds } from './boundRegions';
+import { ConstraintFields } from './ConstraintFields';
 import { NumberInput } from './NumberInput';
+import { SetAsideNotice } from './SetAsideNotice';
 
 const MEASURES: readonly { measure: Measure; label: string }[] = [
   { measure: 'rms', label: 'RMS distance (mm)' },
@@ -39,9 +43,13 @@ const SettingsFields = memo(function SettingsFields({ defaultWorkers, familyBoun
   const settings = useWorkspace((s) => s.project.settings);
   const id = useId();
   const { constraints, budget } = settings;
+  const workers = settings.workers ?? defaultWorkers;
+  // The engine asks for at least one evaluation per search island.
+  const islands = settings.families.length * islandsPerFamily(settings.families.length, workers);
 
   return (
     <>
+      <SetAsideNotice />
       <fieldset>
         <legend>Mechanism families (tick several to compare them on this target)</legend>
         {FAMILY_CHOICES.map((f) => (
@@ -75,75 +83,45 @@ const SettingsFields = memo(function SettingsFields({ defaultWorkers, familyBoun
         </select>
       </label>
 
-      <fieldset>
-        <legend>Constraints</legend>
-        <label>
-          <input type="checkbox" checked={constraints.fullTurnCrank} onChange={(e) => dispatch({ type: 'settings/full-turn', on: e.target.checked })} /> The crank turns
-          fully (Grashof crank)
-        </label>
-        <label className="field-row">
-          Minimum transmission angle{' '}
-          <NumberInput
-            value={constraints.minTransmissionDeg}
-            allowEmpty
-            label="Minimum transmission angle (degrees)"
-            onCommit={(v) => dispatch({ type: 'settings/min-transmission', deg: v })}
-          />{' '}
-          ° (empty: none)
-        </label>
-        <label className="field-row">
-          Link lengths from{' '}
-          <NumberInput
-            value={constraints.linkLengthMm?.[0] ?? null}
-            allowEmpty
-            label="Shortest link length (mm)"
-            onCommit={(v) => dispatch({ type: 'settings/link-lengths', range: v === null ? null : [v, constraints.linkLengthMm?.[1] ?? Math.max(v + 1, 500)] })}
-          />{' '}
-          to{' '}
-          <NumberInput
-            value={constraints.linkLengthMm?.[1] ?? null}
-            allowEmpty
-            label="Longest link length (mm)"
-            onCommit={(v) => dispatch({ type: 'settings/link-lengths', range: v === null ? null : [constraints.linkLengthMm?.[0] ?? 0, v] })}
-          />{' '}
-          mm
-        </label>
-        <div className="keep-out-list">
-          <p className="panel-note">Keep-out regions (no ground pivot inside): draw them with the "Keep-out region" tool.</p>
-          {constraints.keepOut.length > 0 && (
-            <ul>
-              {constraints.keepOut.map((r, i) => (
-                <li key={i}>
-                  {i + 1}: centre ({r.x}, {r.y}) mm, radius {r.r} mm{' '}
-                  <button type="button" className="icon" aria-label={`Remove keep-out region ${i + 1}`} onClick={() => dispatch({ type: 'settings/keep-out-remove', index: i })}>
-                    ×
-                  </button>
-                </li>
-              ))}
-            </ul>
-          )}
-        </div>
-      </fieldset>
+      <ConstraintFields constraints={constraints} />
 
       <BoundsEditor familyBounds={familyBounds} />
 
       <fieldset>
         <legend>Budget</legend>
-        <label>
-          <input type="radio" name={`${id}-budget`} checked={budget.mode === 'evaluations'} onChange={() => dispatch({ type: 'settings/budget', patch: { mode: 'evaluations' } })} />{' '}
-          <NumberInput value={budget.evaluations} label="Budget in evaluations" onCommit={(v) => v !== null && dispatch({ type: 'settings/budget', patch: { evaluations: v } })} />{' '}
+        {/* Rows, not labels: a label round the field would give the radio the field's message as its name. */}
+        <div className="field-row budget-row">
+          <input
+            type="radio"
+            name={`${id}-budget`}
+            aria-label="Stop after a number of evaluations"
+            checked={budget.mode === 'evaluations'}
+            onChange={() => dispatch({ type: 'settings/budget', patch: { mode: 'evaluations' } })}
+          />{' '}
+          <NumberInput
+            value={budget.evaluations}
+            label="Budget in evaluations"
+            issueKey="budget-evaluations"
+            check={(text) => checkEvaluations(text, islands)}
+            onCommit={(evaluations) => dispatch({ type: 'settings/budget', patch: { evaluations } })}
+          />{' '}
           evaluations
-        </label>
-        <label>
-          <input type="radio" name={`${id}-budget`} checked={budget.mode === 'time'} onChange={() => dispatch({ type: 'settings/budget', patch: { mode: 'time' } })} />{' '}
-          <NumberInput value={budget.seconds} label="Budget in seconds" onCommit={(v) => v !== null && dispatch({ type: 'settings/budget', patch: { seconds: v } })} /> seconds
-        </label>
+        </div>
+        <div className="field-row budget-row">
+          <input
+            type="radio"
+            name={`${id}-budget`}
+            aria-label="Stop after a time"
+            checked={budget.mode === 'time'}
+            onChange={() => dispatch({ type: 'settings/budget', patch: { mode: 'time' } })}
+          />{' '}
+          <NumberInput value={budget.seconds} label="Budget in seconds" issueKey="budget-seconds" check={checkSeconds} onCommit={(seconds) => dispatch({ type: 'settings/budget', patch: { seconds } })} />{' '}
+          seconds
+        </div>
       </fieldset>
 
       <div className="field-row">
-        <label>
-          Seed <NumberInput value={settings.seed} label="Seed" onCommit={(v) => v !== null && dispatch({ type: 'settings/seed', seed: v })} />
-        </label>{' '}
+        Seed <NumberInput value={settings.seed} label="Seed" issueKey="seed" check={checkSeed} onCommit={(seed) => dispatch({ type: 'settings/seed', seed })} />{' '}
         <label>
           Workers{' '}
           <select

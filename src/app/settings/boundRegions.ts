@@ -23,8 +23,18 @@ export interface FamilyBounds {
 
 const POSITION_NAME = /^(.+?)[._]?([xy])(?:_?mm)?$/i;
 
+/** The unit of a variable as the bounds editor shows it: mm for a position, none for what has no fixed unit. */
+export function variableUnit(name: string): string {
+  return POSITION_NAME.test(name) ? 'mm' : '';
+}
+
+/**
+ * One rectangle per distinct box, whichever families it comes from, so the labels of
+ * several families do not print over each other: "A0, B0 (four-bar, Watt I six-bar);
+ * A0, B0, C0 (Stephenson III six-bar)".
+ */
 export function positionRegions(bounds: readonly FamilyBounds[]): PositionRegion[] {
-  const regions: PositionRegion[] = [];
+  const byBox = new Map<string, { x: [number, number]; y: [number, number]; groups: Map<string, { joints: string[]; families: FamilyId[] }> }>();
   for (const b of bounds) {
     const byJoint = new Map<string, { x?: [number, number]; y?: [number, number] }>();
     b.variableNames.forEach((name, k) => {
@@ -34,18 +44,28 @@ export function positionRegions(bounds: readonly FamilyBounds[]): PositionRegion
       entry[m[2].toLowerCase() as 'x' | 'y'] = [b.lower[k], b.upper[k]];
       byJoint.set(m[1], entry);
     });
-    // Pivots with the same box share one rectangle and one label ("A0, B0").
-    const byBox = new Map<string, { joints: string[]; x: [number, number]; y: [number, number] }>();
+    const jointsByBox = new Map<string, { joints: string[]; x: [number, number]; y: [number, number] }>();
     for (const [joint, { x, y }] of byJoint) {
       if (x === undefined || y === undefined) continue;
       const key = `${x[0]},${x[1]},${y[0]},${y[1]}`;
-      const entry = byBox.get(key);
-      if (entry === undefined) byBox.set(key, { joints: [joint], x, y });
+      const entry = jointsByBox.get(key);
+      if (entry === undefined) jointsByBox.set(key, { joints: [joint], x, y });
       else entry.joints.push(joint);
     }
-    for (const { joints, x, y } of byBox.values()) {
-      regions.push({ key: `${b.family}:${joints.join('+')}`, label: `${joints.join(', ')} (${familyLabel(b.family)})`, minX: x[0], maxX: x[1], minY: y[0], maxY: y[1] });
+    for (const [key, { joints, x, y }] of jointsByBox) {
+      const box = byBox.get(key) ?? { x, y, groups: new Map() };
+      byBox.set(key, box);
+      const group = box.groups.get(joints.join(', '));
+      if (group === undefined) box.groups.set(joints.join(', '), { joints, families: [b.family] });
+      else group.families.push(b.family);
     }
   }
-  return regions;
+  return [...byBox.entries()].map(([key, { x, y, groups }]) => ({
+    key,
+    label: [...groups.values()].map((g) => `${g.joints.join(', ')} (${g.families.map(familyLabel).join(', ')})`).join('; '),
+    minX: x[0],
+    maxX: x[1],
+    minY: y[0],
+    maxY: y[1],
+  }));
 }

@@ -129,6 +129,17 @@ export function sameTarget(a: TargetSnapshot, b: TargetSnapshot): boolean {
   return a.closed === b.closed && a.points.length === b.points.length && a.points.every((p, i) => p[0] === b.points[i][0] && p[1] === b.points[i][1]);
 }
 
+/**
+ * The target the results on screen were found for, when it is not the target now being
+ * edited (a new one was pasted, points were moved): null when the results are this
+ * target's, or there are none.
+ */
+export function previousResultsTarget(project: Project): TargetSnapshot | null {
+  const was = project.candidatesTarget;
+  if (was === null || (project.candidates.length === 0 && !(project.run.evaluations > 0))) return null;
+  return sameTarget(was, snapshotTarget(project.target)) ? null : was;
+}
+
 export const IDLE_RUN: RunState = {
   status: 'idle',
   runId: null,

@@ -8,6 +8,7 @@ import type { CsvIssue } from '../../core/io/pointsCsv';
 import { resamplePath } from '../target/resample';
 import type { FamilyId } from './families';
 import { IDLE_RUN, isLocked, type BackgroundImage, type KeepOutRegion, type Measure, type Placement, type Project, type RunState, type TargetPoint, type TargetSnapshot, type TargetState, type TimingMode } from './project';
+import { checkProjectName } from './fields';
 import * as S from './settings';
 import * as T from './target';
 
@@ -30,6 +31,15 @@ export interface UiState {
   readonly storage: 'loading' | 'ready' | 'unavailable';
   /** Bumped when the drawing should fit its view to the target again (a new target, "Fit view"). */
   readonly fitRequest: number;
+  /** What each field that holds something it cannot take says, by field key; a search cannot start while any is here. */
+  readonly fieldIssues: Readonly<Record<string, string>>;
+  /** The bounds and keep-out regions of the previous target, cleared when a new one came in; they can be brought back. */
+  readonly setAside: SetAside | null;
+}
+
+export interface SetAside extends ReturnType<typeof S.targetBound> {
+  /** What was cleared, in words ("3 variable bounds and 1 keep-out region"). */
+  readonly what: string;
 }
 
 export interface WorkspaceState {
@@ -37,10 +47,11 @@ export interface WorkspaceState {
   readonly ui: UiState;
 }
 
-export const INITIAL_UI: UiState = { tool: 'point', selectedPoint: null, targetNotice: null, calibration: [], storage: 'loading', fitRequest: 0 };
+export const INITIAL_UI: UiState = { tool: 'point', selectedPoint: null, targetNotice: null, calibration: [], storage: 'loading', fitRequest: 0, fieldIssues: {}, setAside: null };
 
 export type Action =
   | { readonly type: 'project/load'; readonly project: Project }
+  | { readonly type: 'project/rename'; readonly name: string }
   | { readonly type: 'storage/status'; readonly storage: UiState['storage'] }
   | { readonly type: 'target/replace'; readonly points: readonly TargetPoint[]; readonly closed?: boolean; readonly timing?: TimingMode; readonly notice?: Notice | null }
   | { readonly type: 'target/add'; readonly x: number; readonly y: number }
@@ -61,6 +72,7 @@ export type Action =
   | { readonly type: 'ui/select'; readonly index: number | null }
   | { readonly type: 'ui/fit' }
   | { readonly type: 'ui/calibration-point'; readonly x: number; readonly y: number }
+  | { readonly type: 'ui/field-issue'; readonly key: string; readonly message: string | null }
   | { readonly type: 'settings/family'; readonly family: FamilyId; readonly on: boolean }
   | { readonly type: 'settings/placement'; readonly placement: Placement }
   | { readonly type: 'settings/measure'; readonly measure: Measure }
@@ -69,6 +81,8 @@ export type Action =
   | { readonly type: 'settings/min-transmission'; readonly deg: number | null }
   | { readonly type: 'settings/link-lengths'; readonly range: readonly [number, number] | null }
   | { readonly type: 'settings/keep-out-add'; readonly region: KeepOutRegion }
+  | { readonly type: 'settings/keep-out-typed'; readonly region: KeepOutRegion }
+  | { readonly type: 'settings/set-aside'; readonly restore: boolean }
   | { readonly type: 'settings/keep-out-remove'; readonly index: number }
   | { readonly type: 'settings/budget'; readonly patch: Partial<Project['settings']['budget']> }
   | { readonly type: 'settings/seed'; readonly seed: number }
@@ -79,6 +93,29 @@ export type Action =
 function withTarget(state: WorkspaceState, target: TargetState, ui: Partial<UiState> = {}): WorkspaceState {
   if (target === state.project.target) return Object.keys(ui).length === 0 ? state : { ...state, ui: { ...state.ui, ...ui } };
   return { project: { ...state.project, target }, ui: { ...state.ui, ...ui } };
+}
+
+function plural(n: number, one: string): string {
+  return `${n} ${one}${n === 1 ? '' : 's'}`;
+}
+
+/**
+ * A new target (pasted, imported, or the points cleared to start again): the bounds and
+ * keep-out regions were set in the old target's frame, so they are cleared and held
+ * aside, and the settings panel offers them back.
+ */
+function newTarget(state: WorkspaceState, target: TargetState, ui: Partial<UiState>): WorkspaceState {
+  const settings = state.project.settings;
+  const kept = S.targetBound(settings);
+  const bounds = Object.values(kept.bounds).reduce((sum, b) => sum + Object.keys(b ?? {}).length, 0);
+  const circles = kept.keepOut.length;
+  const next = withTarget(state, target, ui);
+  if (bounds === 0 && circles === 0) return next;
+  const what = [bounds > 0 ? plural(bounds, 'variable bound') : '', circles > 0 ? plural(circles, 'keep-out region') : ''].filter((w) => w.length > 0).join(' and ');
+  return {
+    project: { ...next.project, settings: S.setTargetBound(settings, { bounds: {}, keepOut: [] }) },
+    ui: { ...next.ui, setAside: { ...kept, what } },
+  };
 }
 
 function withSettings(state: WorkspaceState, settings: Project['settings']): WorkspaceState {
@@ -98,7 +135,7 @@ function reduceTarget(state: WorkspaceState, action: Action): WorkspaceState {
       let next = T.setPoints(target, action.points);
       if (action.closed !== undefined) next = T.setClosed(next, action.closed);
       if (action.timing !== undefined) next = T.setTiming(next, action.timing);
-      return withTarget(state, next, { selectedPoint: null, targetNotice: action.notice ?? null, fitRequest: state.ui.fitRequest + 1 });
+      return newTarget(state, next, { selectedPoint: null, targetNotice: action.notice ?? null, fitRequest: state.ui.fitRequest + 1 });
     }
     case 'target/add':
       return withTarget(state, T.addPoint(target, action.x, action.y), { selectedPoint: target.points.length });
@@ -112,7 +149,7 @@ function reduceTarget(state: WorkspaceState, action: Action): WorkspaceState {
       return withTarget(state, T.deletePoint(target, action.index), { selectedPoint: nextSelected });
     }
     case 'target/clear':
-      return withTarget(state, T.setPoints(target, []), { selectedPoint: null });
+      return newTarget(state, T.setPoints(target, []), { selectedPoint: null });
     case 'target/closed':
       return withTarget(state, T.setClosed(target, action.closed));
     case 'target/timing':
@@ -169,7 +206,15 @@ function reduceSettings(state: WorkspaceState, action: Action): WorkspaceState {
     case 'settings/link-lengths':
       return withSettings(state, S.setLinkLengths(s, action.range));
     case 'settings/keep-out-add':
+      return withSettings(state, S.addDrawnKeepOut(s, action.region));
+    case 'settings/keep-out-typed':
       return withSettings(state, S.addKeepOut(s, action.region));
+    case 'settings/set-aside': {
+      const aside = state.ui.setAside;
+      if (aside === null) return state;
+      const next = action.restore ? withSettings(state, S.setTargetBound(s, aside)) : state;
+      return { ...next, ui: { ...next.ui, setAside: null } };
+    }
     case 'settings/keep-out-remove':
       return withSettings(state, S.removeKeepOut(s, action.index));
     case 'settings/budget':
@@ -181,6 +226,17 @@ function reduceSettings(state: WorkspaceState, action: Action): WorkspaceState {
     default:
       return state;
   }
+}
+
+/**
+ * "Resumed after a reload" belongs to the stretch of searching that followed the reload:
+ * a pause, a stop or the end closes it, so a later Resume or a finished run does not
+ * still claim it.
+ */
+function updateRun(run: RunState, patch: Partial<RunState>): RunState {
+  const next = { ...run, ...patch };
+  const closes = patch.status !== undefined && patch.status !== 'starting' && patch.status !== 'running';
+  return closes && patch.resumedFrom === undefined ? { ...next, resumedFrom: null } : next;
 }
 
 export function reduce(state: WorkspaceState, action: Action): WorkspaceState {
@@ -206,7 +262,20 @@ export function reduce(state: WorkspaceState, action: Action): WorkspaceState {
   }
   switch (action.type) {
     case 'project/load':
-      return { project: action.project, ui: { ...state.ui, selectedPoint: null, calibration: [], fitRequest: state.ui.fitRequest + 1 } };
+      return { project: action.project, ui: { ...state.ui, selectedPoint: null, calibration: [], setAside: null, fitRequest: state.ui.fitRequest + 1 } };
+    case 'project/rename': {
+      const named = checkProjectName(action.name);
+      if (!named.ok || named.value === state.project.name) return state;
+      return { ...state, project: { ...state.project, name: named.value } };
+    }
+    case 'ui/field-issue': {
+      const issues = state.ui.fieldIssues;
+      if ((issues[action.key] ?? null) === action.message) return state;
+      const next = { ...issues };
+      if (action.message === null) delete next[action.key];
+      else next[action.key] = action.message;
+      return { ...state, ui: { ...state.ui, fieldIssues: next } };
+    }
     case 'storage/status':
       return { ...state, ui: { ...state.ui, storage: action.storage } };
     case 'ui/tool':
@@ -220,7 +289,7 @@ export function reduce(state: WorkspaceState, action: Action): WorkspaceState {
       return { ...state, ui: { ...state.ui, calibration } };
     }
     case 'run/update':
-      return { ...state, project: { ...state.project, run: { ...state.project.run, ...action.patch } } };
+      return { ...state, project: { ...state.project, run: updateRun(state.project.run, action.patch) } };
     case 'run/candidates':
       return { ...state, project: { ...state.project, candidates: action.candidates, candidatesTarget: action.target } };
     default:

@@ -1,14 +1,13 @@
-/** Search settings: defaults, limits, and pure updates. */
+/**
+ * Search settings: defaults and pure updates. An update stores the value it is given or,
+ * when the value is one the fields refuse (src/app/state/fields.ts), keeps the settings
+ * as they were: nothing is clamped, rounded or swapped here.
+ */
 import type { FamilyId } from './families';
+import { checkBounds, checkEvaluations, checkKeepOut, checkLinkLengths, checkMinTransmission, checkSeconds, checkSeed } from './fields';
 import type { KeepOutRegion, Measure, Placement, SearchSettings } from './project';
 
-export const MIN_EVALUATIONS = 100;
-export const MAX_EVALUATIONS = 1_000_000_000;
-export const MIN_SECONDS = 1;
-/** A week: longer than anyone leaves a tab open, short enough to keep the numbers sane. */
-export const MAX_SECONDS = 7 * 24 * 3600;
 export const MAX_WORKERS = 64;
-export const MAX_SEED = 2 ** 31 - 1;
 
 export const DEFAULT_SETTINGS: SearchSettings = {
   families: ['fourbar'],
@@ -42,9 +41,10 @@ export function setMeasure(settings: SearchSettings, measure: Measure): SearchSe
 }
 
 export function setBound(settings: SearchSettings, family: FamilyId, variable: string, range: readonly [number, number] | null): SearchSettings {
+  if (range !== null && !checkBounds(variable, '', String(range[0]), String(range[1])).ok) return settings;
   const current = { ...(settings.bounds[family] ?? {}) };
   if (range === null) delete current[variable];
-  else current[variable] = [Math.min(range[0], range[1]), Math.max(range[0], range[1])];
+  else current[variable] = [range[0], range[1]];
   const bounds = { ...settings.bounds, [family]: current };
   if (Object.keys(current).length === 0) delete bounds[family];
   return { ...settings, bounds };
@@ -55,55 +55,60 @@ export function setFullTurnCrank(settings: SearchSettings, on: boolean): SearchS
 }
 
 export function setMinTransmission(settings: SearchSettings, deg: number | null): SearchSettings {
-  const value = deg === null || !Number.isFinite(deg) ? null : Math.max(0, Math.min(90, deg));
-  return { ...settings, constraints: { ...settings.constraints, minTransmissionDeg: value } };
+  if (!checkMinTransmission(deg === null ? '' : String(deg)).ok) return settings;
+  return { ...settings, constraints: { ...settings.constraints, minTransmissionDeg: deg } };
 }
 
 export function setLinkLengths(settings: SearchSettings, range: readonly [number, number] | null): SearchSettings {
-  const value = range === null ? null : ([Math.min(range[0], range[1]), Math.max(range[0], range[1])] as const);
-  return { ...settings, constraints: { ...settings.constraints, linkLengthMm: value } };
+  if (!checkLinkLengths(range === null ? '' : String(range[0]), range === null ? '' : String(range[1])).ok) return settings;
+  return { ...settings, constraints: { ...settings.constraints, linkLengthMm: range === null ? null : [range[0], range[1]] } };
 }
 
+/** A circle dragged out on the drawing is kept to 0.1 mm: the mouse gives no finer size the user meant. */
+const DRAWN_KEEP_OUT_STEP_MM = 0.1;
+
+export function addDrawnKeepOut(settings: SearchSettings, region: KeepOutRegion): SearchSettings {
+  const round = (v: number) => Math.round(v / DRAWN_KEEP_OUT_STEP_MM) / Math.round(1 / DRAWN_KEEP_OUT_STEP_MM);
+  return addKeepOut(settings, { x: round(region.x), y: round(region.y), r: round(region.r) });
+}
+
+/** A circle as typed: kept exactly. */
 export function addKeepOut(settings: SearchSettings, region: KeepOutRegion): SearchSettings {
-  if (!(region.r > 0)) return settings;
-  const r = { x: Math.round(region.x * 10) / 10, y: Math.round(region.y * 10) / 10, r: Math.round(region.r * 10) / 10 };
-  return { ...settings, constraints: { ...settings.constraints, keepOut: [...settings.constraints.keepOut, r] } };
+  if (!checkKeepOut(String(region.x), String(region.y), String(region.r)).ok) return settings;
+  return { ...settings, constraints: { ...settings.constraints, keepOut: [...settings.constraints.keepOut, { x: region.x, y: region.y, r: region.r }] } };
 }
 
 export function removeKeepOut(settings: SearchSettings, index: number): SearchSettings {
   return { ...settings, constraints: { ...settings.constraints, keepOut: settings.constraints.keepOut.filter((_, i) => i !== index) } };
 }
 
-function clampInt(value: number, min: number, max: number): number {
-  return Math.max(min, Math.min(max, Math.round(value)));
+/** The bounds and keep-out regions: what belongs to one target's frame rather than to the search. */
+export function targetBound(settings: SearchSettings): { readonly bounds: SearchSettings['bounds']; readonly keepOut: SearchSettings['constraints']['keepOut'] } {
+  return { bounds: settings.bounds, keepOut: settings.constraints.keepOut };
+}
+
+export function setTargetBound(settings: SearchSettings, kept: ReturnType<typeof targetBound>): SearchSettings {
+  return { ...settings, bounds: kept.bounds, constraints: { ...settings.constraints, keepOut: kept.keepOut } };
 }
 
 export function setBudget(settings: SearchSettings, patch: Partial<SearchSettings['budget']>): SearchSettings {
-  const next = { ...settings.budget, ...patch };
-  return {
-    ...settings,
-    budget: {
-      mode: next.mode,
-      evaluations: Number.isFinite(next.evaluations) ? clampInt(next.evaluations, MIN_EVALUATIONS, MAX_EVALUATIONS) : settings.budget.evaluations,
-      seconds: Number.isFinite(next.seconds) ? clampInt(next.seconds, MIN_SECONDS, MAX_SECONDS) : settings.budget.seconds,
-    },
-  };
+  if (patch.evaluations !== undefined && !checkEvaluations(String(patch.evaluations), 1).ok) return settings;
+  if (patch.seconds !== undefined && !checkSeconds(String(patch.seconds)).ok) return settings;
+  return { ...settings, budget: { ...settings.budget, ...patch } };
 }
 
 export function setSeed(settings: SearchSettings, seed: number): SearchSettings {
-  if (!Number.isFinite(seed)) return settings;
-  return { ...settings, seed: clampInt(seed, 0, MAX_SEED) };
+  if (!checkSeed(String(seed)).ok) return settings;
+  return { ...settings, seed };
 }
 
 export function setWorkers(settings: SearchSettings, workers: number | null): SearchSettings {
-  if (workers !== null && !Number.isFinite(workers)) return settings;
-  return { ...settings, workers: workers === null ? null : clampInt(workers, 1, MAX_WORKERS) };
+  if (workers !== null && !(Number.isInteger(workers) && workers >= 1 && workers <= MAX_WORKERS)) return settings;
+  return { ...settings, workers };
 }
 
 /** What is wrong with the settings for a search, or null. */
 export function settingsProblem(settings: SearchSettings): string | null {
-  if (settings.families.length === 0) return 'no mechanism family is chosen; tick at least one';
-  const links = settings.constraints.linkLengthMm;
-  if (links !== null && !(links[0] >= 0 && links[1] > links[0])) return `the link length limits are ${links[0]}–${links[1]} mm; expected 0 ≤ shortest < longest`;
+  if (settings.families.length === 0) return 'Mechanism families: none is ticked; tick at least one.';
   return null;
 }

@@ -1,4 +1,5 @@
 /** Pure updates of the target: each takes a target and returns a new one. */
+import { REPEATED_POINT_TOL_MM, firstRepeats } from '../../core/io/pointsCsv';
 import type { BackgroundImage, TargetPoint, TargetState, TimingMode } from './project';
 
 export const EMPTY_TARGET: TargetState = { points: [], closed: false, timing: 'unprescribed', background: null };
@@ -113,13 +114,11 @@ export function targetProblem(target: TargetState): string | null {
     const missing = target.points.findIndex((p) => p.driverDeg === null);
     if (missing !== -1) return `point ${missing + 1} has no crank angle; prescribed timing needs one at every point`;
   }
-  for (let i = 1; i < n; i++) {
-    for (let j = 0; j < i; j++) {
-      const a = target.points[i];
-      const b = target.points[j];
-      if (Math.hypot(a.x - b.x, a.y - b.y) < 1e-6) return `points ${j + 1} and ${i + 1} are in the same place; each point must be different`;
-    }
-  }
+  const xs = target.points.map((p) => p.x);
+  const ys = target.points.map((p) => p.y);
+  const repeats = firstRepeats(xs, ys, n, REPEATED_POINT_TOL_MM);
+  const i = repeats.findIndex((j) => j !== -1);
+  if (i !== -1) return `points ${repeats[i] + 1} and ${i + 1} are in the same place; each point must be different`;
   return null;
 }
 
