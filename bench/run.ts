@@ -9,6 +9,7 @@
 import { performance } from 'node:perf_hooks';
 import { benchKernel } from './kernel';
 import { benchScaling } from './scaling';
+import { benchSuspension } from './suspension';
 import { benchSynthesis } from './synthesis';
 
 /** Figure name (with its unit, e.g. `solvesPerS`, `nmOverFminTimeRatio`) -> value; null: not reached. */
@@ -25,6 +26,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'kernel', run: benchKernel },
   { name: 'scaling', run: benchScaling },
   { name: 'synthesis', run: benchSynthesis },
+  { name: 'suspension', run: benchSuspension },
 ];
 
 type Outcome =

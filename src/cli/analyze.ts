@@ -22,6 +22,8 @@ import {
 } from '../core/linkage/report';
 import { numberOption, singleFile, type OptionSpec } from './args';
 import { EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
+import { SUSPENSION_FILE_FORMAT, fileFormatOf } from '../core/io/suspensionFile';
+import { SUSPENSION_USAGE, analyzeSuspensionCommand } from './analyzeSuspension';
 import { formatJson } from './formatJson';
 import { MAX_INPUT_FILE_BYTES } from './nodeIo';
 
@@ -30,7 +32,7 @@ const MAX_DRIVER_ANGLE_DEG = 3600;
 /** A length driver's: the farthest two joints can be apart within ±MAX_COORDINATE_MM (2√2 × 1e6 mm), rounded up. */
 const MAX_DRIVER_LENGTH_MM = 3 * MAX_COORDINATE_MM;
 
-export const usage = `usage: loci analyze DESIGN.json [--from A --to B] [--steps N]
+export const usage = `usage: loci analyze DESIGN.json [--from A --to B] [--steps N] [--travel MM]
 
 Reads a linkage file (format "loci-linkage") and prints a JSON report: the driver range
 used, joint and point paths, mobility, the Grashof class (Barker type and name) and the
@@ -54,12 +56,14 @@ most ${MAX_ID_LENGTH} printable characters. At most ${MAX_LISTED_ISSUES} problem
 
 Exit codes: 0 done, 2 bad input (unreadable or too large file, not JSON, schema or
 compile errors, a limit above, bad flags), 1 an unexpected failure (a bug).
-`;
+
+${SUSPENSION_USAGE}`;
 
 const OPTIONS: readonly OptionSpec[] = [
   { name: 'from', kind: 'value' },
   { name: 'to', kind: 'value' },
   { name: 'steps', kind: 'value' },
+  { name: 'travel', kind: 'value' },
   { name: 'help', kind: 'flag' },
 ];
 
@@ -87,6 +91,12 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
   if (!read.ok) {
     io.stderr(`loci analyze: ${read.message}\n`);
     return EXIT_USAGE;
+  }
+  if (fileFormatOf(read.text) === SUSPENSION_FILE_FORMAT) {
+    return analyzeSuspensionCommand({ file, text: read.text, args: start.args, io, usageError });
+  }
+  if (start.args.options.has('travel')) {
+    return usageError('--travel is for a suspension file (format "loci-suspension"); a linkage file takes --from and --to');
   }
   const loaded = readLinkageFileText(read.text);
   if (!loaded.ok) {

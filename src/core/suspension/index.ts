@@ -41,3 +41,7 @@ export {
 } from './metrics';
 export type { SuspensionOptions, SuspensionPoint, SuspensionReport, SuspensionResult } from './metrics';
 export { DEMO_TRAIL_BIKE, DEMO_LAYOUTS } from './demo';
+export { LAYOUT_KINDS, LAYOUT_NAMES, LAYOUT_PIVOTS, buildLayout, demoAxleBody, demoPivots } from './layoutKinds';
+export type { LayoutAxleBody, LayoutKind } from './layoutKinds';
+export { SIDE_VIEW_STROKE_TOL_MM, sideView } from './sideView';
+export type { SideViewDesign, SideViewPose, SideViewPrimitive, SideViewResult, SideViewRole } from './sideView';
