@@ -260,7 +260,7 @@ describe('parsePointsCsv: limits and the rows it names', () => {
   });
 
   it('an unclosed quote names the row where it opens', () => {
-    expect(issues(parsePointsCsv('0,0\n1,1\n2,"2\n3,3\n'))[0]).toEqual({ row: 3, message: 'row 3 has a quote (line 3) that is never closed' });
+    expect(issues(parsePointsCsv('0,0\n1,1\n2,"2\n3,3\n'))[0]).toEqual({ row: 3, message: 'row 3 has a quote that is never closed' });
   });
 
   it('refuses points far from the origin, and a target too small for its distance', () => {

@@ -11,6 +11,7 @@
  * to the limits of a problem (src/core/synthesis/problem.ts), so what this reads a
  * search can use.
  */
+import Papa from 'papaparse';
 import { MAX_LISTED_ISSUES } from './schemaMessages';
 import {
   MAX_TARGET_COORDINATE_MM,
@@ -152,71 +153,53 @@ interface CsvRecord {
   readonly cells: string[];
 }
 
+/** A cell as written, less the spaces around it and the quotes of a quoted value that had a space before it. */
+function unquoteSpaced(cell: string): string {
+  const t = cell.trim();
+  return t.length >= 2 && t.startsWith('"') && t.endsWith('"') ? t.slice(1, -1).replace(/""/g, '"') : cell;
+}
+
+/** Line breaks (LF, CRLF or a lone CR) in text[from, to). */
+function lineBreaks(text: string, from: number, to: number): number {
+  let count = 0;
+  for (let i = from; i < to; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 10 || (c === 13 && text.charCodeAt(i + 1) !== 10)) count++;
+  }
+  return count;
+}
+
 /**
- * Splits CSV text into records (RFC 4180, Shafranovich 2005), leniently: spaces around a
- * quoted value are dropped, and any line end (LF, CRLF, CR) ends a record. Linear in the
- * text. Stops at a quote that is never closed, or text after a closing quote.
+ * Splits CSV text into records with papaparse (RFC 4180, Shafranovich 2005), numbering
+ * each record by the line of the text it starts on, so a quoted value with a line break
+ * in it does not shift the rows after it. A value quoted after a space (`x, "y"`) is
+ * read as the quoted value. Stops at the first malformed quote.
  */
 function splitRecords(text: string, delimiter: CsvDelimiter): { records: CsvRecord[]; issue: CsvIssue | null } {
   const records: CsvRecord[] = [];
-  let cells: string[] = [];
-  let cell = '';
+  let issue: CsvIssue | null = null;
+  let start = 0;
   let line = 1;
-  let recordLine = 1;
-  let i = 0;
-  const n = text.length;
-  const isSpace = (c: string) => c === ' ' || (c === '\t' && delimiter !== '\t');
-  const endRecord = () => {
-    cells.push(cell);
-    records.push({ line: recordLine, cells });
-    cells = [];
-    cell = '';
-  };
-  while (i < n) {
-    const c = text[i];
-    if (c === '"' && cell.trim().length === 0) {
-      // A quoted value: "" inside stands for one quote; line breaks are part of the value.
-      const openLine = line;
-      let value = '';
-      i++;
-      for (;;) {
-        if (i >= n) return { records, issue: { row: recordLine, message: `row ${recordLine} has a quote (line ${openLine}) that is never closed` } };
-        const q = text[i];
-        if (q === '"') {
-          if (text[i + 1] === '"') {
-            value += '"';
-            i += 2;
-            continue;
-          }
-          i++;
-          break;
-        }
-        if (q === '\n' || (q === '\r' && text[i + 1] !== '\n')) line++;
-        value += q;
-        i++;
+  Papa.parse<string[]>(text, {
+    delimiter,
+    skipEmptyLines: false,
+    step: (result, parser) => {
+      const error = result.errors[0];
+      if (error !== undefined) {
+        const message = error.code === 'MissingQuotes'
+          ? `row ${line} has a quote that is never closed`
+          : `row ${line} has a quote in the wrong place; a quoted value ends with a quote before the separator or the end of the line`;
+        issue = { row: line, message };
+        parser.abort();
+        return;
       }
-      while (i < n && isSpace(text[i])) i++;
-      if (i < n && text[i] !== delimiter && text[i] !== '\n' && text[i] !== '\r') {
-        return { records, issue: { row: recordLine, message: `row ${recordLine} has text after a closing quote (line ${line}); expected a separator or the end of the line` } };
-      }
-      cell = value;
-      continue;
-    }
-    if (c === delimiter) {
-      cells.push(cell);
-      cell = '';
-    } else if (c === '\n' || c === '\r') {
-      endRecord();
-      if (c === '\r' && text[i + 1] === '\n') i++;
-      line++;
-      recordLine = line;
-    } else {
-      cell += c;
-    }
-    i++;
-  }
-  if (cell.length > 0 || cells.length > 0) endRecord();
-  return { records, issue: null };
+      records.push({ line, cells: result.data.map(unquoteSpaced) });
+      const end = result.meta.cursor;
+      line += lineBreaks(text, start, end);
+      start = end;
+    },
+  });
+  return { records, issue };
 }
 
 /**
