@@ -7,6 +7,7 @@
  * how to read them. Benchmarks are not tests: nothing here passes or fails on a time.
  */
 import { performance } from 'node:perf_hooks';
+import { benchAnalyzeChain } from './analyzeChain';
 import { benchKernel } from './kernel';
 import { benchScaling } from './scaling';
 import { benchSuspension } from './suspension';
@@ -27,6 +28,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'scaling', run: benchScaling },
   { name: 'synthesis', run: benchSynthesis },
   { name: 'suspension', run: benchSuspension },
+  { name: 'analyze-chain', run: benchAnalyzeChain },
 ];
 
 type Outcome =

@@ -18,9 +18,10 @@ import {
   IC_INDETERMINATE,
   IC_INFINITE,
   fourBarLoops,
-  instantCentrePath,
   transmissionAngleRange,
+  type InstantCentrePath,
 } from './analysis';
+import { instantCentrePaths } from './analysis/instantCentres';
 import { mobility } from './analysis/mobility';
 
 /** Steps of a report sweep when none are asked for: 1° apart over a full turn, both ends included. */
@@ -221,7 +222,7 @@ export function analyzeLinkage(plan: Plan, options: ReportOptions = {}): ReportR
             : null,
         };
       }),
-      instantCentres: plan.bodies.slice(1).map((body) => centrePath(plan, body.id, result)),
+      instantCentres: centrePaths(plan, result),
       defects: {
         locks: result.locks.map((lock) => ({ from: toUnit(lock.from), to: toUnit(lock.to) })),
         deadCentres: deadCentres.map((d) => ({ at: toUnit(d.value), joint: d.joint, kind: d.kind })),
@@ -347,8 +348,14 @@ function slotPath(plan: Plan, result: SweepResult, slot: number): (Xy | null)[] 
   return path;
 }
 
-function centrePath(plan: Plan, bodyId: string, result: SweepResult): ReportCentrePath {
-  const path = instantCentrePath(plan, bodyId, 0, result);
+/** The instant centre of every moving body relative to ground, over the sweep. */
+function centrePaths(plan: Plan, result: SweepResult): ReportCentrePath[] {
+  const moving = plan.bodies.slice(1);
+  const paths = instantCentrePaths(plan, moving.map((body) => [body.id, 0] as const), result);
+  return moving.map((body, i) => centrePath(plan, body.id, paths[i]));
+}
+
+function centrePath(plan: Plan, bodyId: string, path: InstantCentrePath): ReportCentrePath {
   const kind: CentreKind[] = [];
   const xy: (Xy | null)[] = [];
   for (let k = 0; k < path.kind.length; k++) {

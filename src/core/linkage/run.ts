@@ -74,14 +74,34 @@ export function run(plan: Plan, driverValue: number, pose: Float64Array): boolea
   // call that is not inlined is boxed: an allocation per run.
   p.driverValue[0] = driverValue;
   const kernel = p.kernel;
-  const failed = kernel === null ? interpret(p, pose) : kernel(pose);
+  const failed = kernel === null ? interpret(p, pose, p.opCount) : kernel(pose);
   if (failed >= 0) return failFrom(p, failed, pose);
   p.failedOp = -1;
   return true;
 }
 
-/** The operations interpreted, where specialise.ts could not generate a kernel; returns as a Kernel does. */
-function interpret(p: PlanInternal, pose: Float64Array): number {
+/**
+ * Runs only the operations before `endOp` (0 ≤ endOp ≤ opCount), by the interpreter,
+ * which gives the generated kernel's bits: what depends on those operations alone (a
+ * dyad's inputs, when endOp is the dyad's index) costs the prefix, not the plan. Returns
+ * the index of the operation that failed, or -1. Slots of later operations, and
+ * plan.failedOp, are left as they were.
+ */
+export function runPrefix(plan: Plan, driverValue: number, pose: Float64Array, endOp: number): number {
+  const p = plan as PlanInternal;
+  if (pose.length !== 2 * p.slotCount) throw poseLengthError(p, pose, 'runPrefix: pose');
+  if (!(Number.isInteger(endOp) && endOp >= 0 && endOp <= p.opCount)) {
+    throw new RangeError(`runPrefix: endOp ${endOp}; expected an integer in [0, ${p.opCount}]`);
+  }
+  p.driverValue[0] = driverValue;
+  return interpret(p, pose, endOp);
+}
+
+/**
+ * The operations before `endOp` interpreted, where specialise.ts could not generate a
+ * kernel or only a prefix is wanted; returns as a Kernel does.
+ */
+function interpret(p: PlanInternal, pose: Float64Array, endOp: number): number {
   const driverValue = p.driverValue[0];
   const ops = p.ops;
   const prm = p.params;
@@ -93,19 +113,20 @@ function interpret(p: PlanInternal, pose: Float64Array): number {
     return 0;
   }
   // Prologue, without dispatch: the frame's positions, then the rotation driver's tip.
+  const end = endOp * STRIDE;
   let o = 0;
-  for (const setEnd = p.setCount * STRIDE; o < setEnd; o += STRIDE) {
+  for (const setEnd = Math.min(p.setCount * STRIDE, end); o < setEnd; o += STRIDE) {
     const c = ops[o + 3];
     const q = ops[o + 5];
     pose[c] = prm[q];
     pose[c + 1] = prm[q + 1];
   }
-  if (!p.driverIsLength) {
+  if (!p.driverIsLength && o < end) {
     const a = ops[o + 1];
     polarInto(pose, ops[o + 3], pose[a], pose[a + 1], prm[ops[o + 5]], driverValue);
     o += STRIDE;
   }
-  for (const end = p.opCount * STRIDE; o < end; o += STRIDE) {
+  for (; o < end; o += STRIDE) {
     switch (ops[o]) {
       case 2 satisfies typeof OP_RIGID: {
         const a = ops[o + 1];

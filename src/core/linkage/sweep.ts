@@ -22,7 +22,7 @@ import {
   type PlanInternal,
 } from './plan';
 import { blockJacobianSign } from './newton';
-import { run, runWithRates } from './run';
+import { run, runPrefix, runWithRates } from './run';
 import {
   DEAD_CENTRE_SIN_TOL,
   FULL_TURN_TOL_RAD,
@@ -84,6 +84,48 @@ export interface SweepResult {
   readonly fullTurn: boolean;
 }
 
+/**
+ * A sampled minimum s of a dyad's signed sine is refined only where
+ * s − SWEEP_REFINE_RISE_FACTOR × r < DEAD_CENTRE_SIN_TOL (a pure number), r the largest
+ * change of the sine between neighbour samples within two samples of it, or where
+ * s < SWEEP_REFINE_NEAR_SINE. Near a dead centre the sine falls to zero about linearly
+ * in the driver (V-shaped through a change point, the root of a quadratic about a narrow
+ * window), so a sample next to a zero lies within about one step's change of it; the
+ * factor leaves room for curvature. Like the sampling itself, this takes the sine to
+ * change within a step by not much more than between steps. Refining every minimum would
+ * run the plan up to the dyad for each probe: for all the dyads of a long chain, work
+ * that grows as the square of its length.
+ */
+const SWEEP_REFINE_RISE_FACTOR = 8;
+
+/** Sampled minima of a dyad's signed sine below this (about 3° from a toggle) are refined whatever their rise. */
+const SWEEP_REFINE_NEAR_SINE = 0.05;
+
+/**
+ * Samples further apart than this many of the sweep's unit steps (SWEEP_MAX_STEP_RAD,
+ * or SWEEP_MAX_STEP_REL of the length scale: 40° for a rotation driver) do not resolve
+ * a dyad's sine well enough to judge a minimum by its neighbours: every minimum is
+ * refined (there are few samples, so few minima).
+ */
+const SWEEP_REFINE_SCREEN_MAX_UNIT_STEPS = 8;
+
+/**
+ * Work done by a sweep, counted in plan operations run, for callers that measure it
+ * (bench, tests): a count does not depend on the machine's speed.
+ */
+export interface SweepWork {
+  /** Plan operations run by the tracking: each tracked solve runs the whole plan. */
+  trackOps: number;
+  /** Sampled minima of dyads' signed sines between assembled samples. */
+  minima: number;
+  /** Of those, the ones refined by golden-section search. */
+  refined: number;
+  /** Plan operations run by golden-section probes: each runs the plan up to its dyad. */
+  probeOps: number;
+  /** Plan operations run by bisections of a lock window's edges: each step runs the whole plan. */
+  edgeOps: number;
+}
+
 /** The joint an operation places (for a Newton block its first joint), or -1. */
 function opJoint(p: PlanInternal, op: number): number {
   if (!(op >= 0)) return -1;
@@ -98,14 +140,15 @@ function opJoint(p: PlanInternal, op: number): number {
  * apart) sign(h²) √|h²| d² / (rA rB), h² the kernel's own squared height share, which
  * is |(J − A) × (J − B)| / (rA rB) where J exists and negative where the circles miss;
  * for a circle and a line sign(r² − h²) √|r² − h²| / r, h the centre's distance from
- * the line. Zero at a dead centre; NaN where its centres are not placed.
+ * the line. Zero at a dead centre; NaN where its centres are not placed. The pose is
+ * read from `base`.
  */
-function signedDyadSine(p: PlanInternal, o: number, pose: Float64Array): number {
-  const a = p.ops[o + 1];
+function signedDyadSine(p: PlanInternal, o: number, pose: Float64Array, base: number): number {
+  const a = base + p.ops[o + 1];
   const q = p.ops[o + 5];
   const prm = p.params;
   if (p.ops[o] === OP_DYAD) {
-    const b = p.ops[o + 2];
+    const b = base + p.ops[o + 2];
     const rA = prm[q];
     const rB = prm[q + 1];
     const dx = pose[b] - pose[a];
@@ -127,8 +170,8 @@ function signedDyadSine(p: PlanInternal, o: number, pose: Float64Array): number 
     dx = prm[q + 4];
     dy = prm[q + 5];
   } else {
-    const e = p.ops[o + 2];
-    const f = p.ops[o + 4];
+    const e = base + p.ops[o + 2];
+    const f = base + p.ops[o + 4];
     const wx = pose[f] - pose[e];
     const wy = pose[f + 1] - pose[e + 1];
     const u = prm[q + 2];
@@ -170,6 +213,7 @@ interface Tracker {
   readonly pose: Float64Array;
   readonly rates: Float64Array;
   readonly predicted: Float64Array;
+  readonly work: SweepWork | undefined;
 }
 
 function newTrack(stride: number): Track {
@@ -209,6 +253,7 @@ function trySolve(t: Tracker, start: Float64Array, startRates: Float64Array | nu
     predicted[i + 1] = y;
   }
   pose.set(predicted);
+  if (t.work !== undefined) t.work.trackOps += p.opCount;
   if (!runWithRates(p, v, pose, t.rates)) return p.failedOp;
   const allowed = SWEEP_CORRECTION_MAX_SHARE * motion + t.correctionFloorMm;
   for (let b = 0; b < p.blockCount; b++) {
@@ -298,7 +343,8 @@ function reacquire(t: Tracker, track: Track, v: number, near: Track | null): boo
   return true;
 }
 
-export function sweep(plan: Plan, range: SweepRange): SweepResult {
+/** `work`, when given, has the sweep's work (plan operations run, see SweepWork) added to it. */
+export function sweep(plan: Plan, range: SweepRange, work?: SweepWork): SweepResult {
   const p = plan as PlanInternal;
   const { from, to, steps } = range;
   if (!(Number.isFinite(from) && Number.isFinite(to) && Number.isInteger(steps) && steps >= 1)) {
@@ -329,6 +375,7 @@ export function sweep(plan: Plan, range: SweepRange): SweepResult {
     pose: new Float64Array(stride),
     rates: new Float64Array(stride),
     predicted: new Float64Array(stride),
+    work,
   };
 
   // The reference pose holds at its driver value, and for a rotation driver at any whole
@@ -456,34 +503,43 @@ export function sweep(plan: Plan, range: SweepRange): SweepResult {
 }
 
 /**
- * Dyad dead centres between samples: every sampled local minimum of a dyad's signed sine
- * between assembled samples is refined by golden-section search. A minimum within
- * DEAD_CENTRE_SIN_TOL of zero is a change point passed; one below it is a lock window,
- * whose edges are bisected on the assembly condition.
+ * Dyad dead centres between samples: a sampled local minimum of a dyad's signed sine
+ * between assembled samples that comes near zero for its sampled change
+ * (SWEEP_REFINE_RISE_FACTOR) is refined by golden-section search. A minimum within DEAD_CENTRE_SIN_TOL of zero is a
+ * change point passed; one below it is a lock window, whose edges are bisected on the
+ * assembly condition.
  */
 function findDyadWindows(
   p: PlanInternal, t: Tracker,
   samples: Pick<SweepResult, 'values' | 'poses' | 'rates' | 'assembled'>,
   locks: { from: number; to: number }[], deadCentres: SweepDeadCentre[],
 ): void {
+  const work = t.work;
   const { values, poses, rates, assembled } = samples;
   const steps = values.length;
+  if (steps < 2) return;
   const stride = t.stride;
   const sine = new Float64Array(steps);
+  const written = prefixSlots(p);
+  const unitStep = p.driverIsLength ? SWEEP_MAX_STEP_REL * p.lengthScaleMm : SWEEP_MAX_STEP_RAD;
+  const screen = Math.abs(values[1] - values[0]) <= SWEEP_REFINE_SCREEN_MAX_UNIT_STEPS * unitStep;
   for (let o = 0, end = p.opCount * OP_STRIDE; o < end; o += OP_STRIDE) {
     if (!isDyadOp(p.ops[o])) continue;
-    for (let k = 0; k < steps; k++) sine[k] = assembled[k] === 1 ? signedDyadSine(p, o, poses.subarray(k * stride, (k + 1) * stride)) : NaN;
+    for (let k = 0; k < steps; k++) sine[k] = assembled[k] === 1 ? signedDyadSine(p, o, poses, k * stride) : NaN;
     for (let k = 0; k < steps; k++) {
-      if (assembled[k] === 0 || steps < 2) continue;
+      if (assembled[k] === 0) continue;
       // A neighbour that does not assemble is a lock already reported.
       if ((k > 0 && assembled[k - 1] === 0) || (k + 1 < steps && assembled[k + 1] === 0)) continue;
       const before = k > 0 ? sine[k - 1] : Infinity;
       const after = k + 1 < steps ? sine[k + 1] : Infinity;
       if (!(sine[k] < before && sine[k] <= after)) continue;
+      if (work !== undefined) work.minima++;
+      if (screen && !(sine[k] < SWEEP_REFINE_NEAR_SINE || sine[k] - SWEEP_REFINE_RISE_FACTOR * sampledChange(sine, k) < DEAD_CENTRE_SIN_TOL)) continue;
+      if (work !== undefined) work.refined++;
       const lo = values[k > 0 ? k - 1 : k];
       const hi = values[k + 1 < steps ? k + 1 : k];
       const at = k * stride;
-      const found = goldenMinimum(p, t, o, lo, hi, values[k], poses.subarray(at, at + stride), rates.subarray(at, at + stride));
+      const found = goldenMinimum(p, t, written, o, lo, hi, values[k], poses.subarray(at, at + stride), rates.subarray(at, at + stride));
       // A minimum at an end of the range is not passed within it.
       if (Math.abs(found.value - values[0]) <= t.minStep || Math.abs(found.value - values[steps - 1]) <= t.minStep) continue;
       // A lock the tracking found already (a block's, or one its sub-steps met).
@@ -508,6 +564,64 @@ function findDyadWindows(
 }
 
 /**
+ * The largest change of a sampled sine between neighbour samples from k − 2 to k + 2
+ * (within the range): how much it can fall within a step next to sample k. Infinity
+ * where one of them is not defined, so that the minimum is refined.
+ */
+function sampledChange(sine: Float64Array, k: number): number {
+  let change = 0;
+  for (let j = Math.max(k - 2, 0), end = Math.min(k + 2, sine.length - 1); j < end; j++) {
+    const d = Math.abs(sine[j + 1] - sine[j]);
+    if (!(d <= change)) change = Number.isNaN(d) ? Infinity : d;
+  }
+  return change;
+}
+
+/**
+ * The pose offsets each operation writes, in plan order: operation i writes
+ * slots[start[i] .. start[i + 1]) (a Newton block its unknowns, any other operation its
+ * one slot). Operations read only what earlier ones wrote, so a run of the operations
+ * before i needs only the slots before start[i].
+ */
+interface PrefixSlots {
+  readonly slots: Int32Array;
+  readonly start: Int32Array;
+}
+
+function prefixSlots(p: PlanInternal): PrefixSlots {
+  const start = new Int32Array(p.opCount + 1);
+  for (let i = 0; i < p.opCount; i++) {
+    const o = i * OP_STRIDE;
+    start[i + 1] = start[i] + (p.ops[o] === OP_NEWTON ? p.blockUnknownCount[p.ops[o + 1]] : 1);
+  }
+  const slots = new Int32Array(start[p.opCount]);
+  for (let i = 0; i < p.opCount; i++) {
+    const o = i * OP_STRIDE;
+    if (p.ops[o] !== OP_NEWTON) {
+      slots[start[i]] = p.ops[o + 3];
+      continue;
+    }
+    const b = p.ops[o + 1];
+    for (let k = 0; k < p.blockUnknownCount[b]; k++) slots[start[i] + k] = p.blockUnknowns[p.blockUnknownStart[b] + k];
+  }
+  return { slots, start };
+}
+
+/**
+ * Moves a sample's pose on by its rates to v, for the slots given: the start of a run,
+ * where Newton blocks begin from it.
+ */
+function predictInto(t: Tracker, v: number, at: number, pose: Float64Array, rates: Float64Array, slots: Int32Array, count: number): void {
+  for (let j = 0; j < count; j++) {
+    const i = slots[j];
+    const x = pose[i] + rates[i] * (v - at);
+    const y = pose[i + 1] + rates[i + 1] * (v - at);
+    t.pose[i] = Number.isFinite(x) ? x : pose[i];
+    t.pose[i + 1] = Number.isFinite(y) ? y : pose[i + 1];
+  }
+}
+
+/**
  * Solves at v into t.pose from a sample's pose moved on by its rates. False when it does
  * not assemble or a block lands on another branch (p.failedOp then names the operation).
  */
@@ -526,14 +640,37 @@ function solveNear(p: PlanInternal, t: Tracker, v: number, at: number, pose: Flo
   return true;
 }
 
-/** Golden-section search (Kiefer, 1953) for the least signed sine of dyad `o` on [lo, hi]. */
+/**
+ * solveNear for the operations before `endOp` only (their slots in t.pose): true when
+ * they all place and every block among them stays on the reference branch. Blocks are
+ * numbered in plan order, so this is solveNear's failure before endOp.
+ */
+function solvePrefixNear(
+  p: PlanInternal, t: Tracker, written: PrefixSlots, endOp: number, v: number, at: number, pose: Float64Array, rates: Float64Array,
+): boolean {
+  predictInto(t, v, at, pose, rates, written.slots, written.start[endOp]);
+  if (runPrefix(p, v, t.pose, endOp) >= 0) return false;
+  for (let b = 0; b < p.blockCount && t.blockOps[b] < endOp; b++) {
+    if (blockJacobianSign(p, b, t.pose) !== t.referenceSigns[b]) return false;
+  }
+  return true;
+}
+
+/**
+ * Golden-section search (Kiefer, 1953) for the least signed sine of dyad `o` on [lo, hi].
+ * The sine depends only on the operations before the dyad, so each probe runs only those.
+ */
 function goldenMinimum(
-  p: PlanInternal, t: Tracker, o: number, lo: number, hi: number, at: number, pose: Float64Array, rates: Float64Array,
+  p: PlanInternal, t: Tracker, written: PrefixSlots, o: number, lo: number, hi: number, at: number,
+  pose: Float64Array, rates: Float64Array,
 ): { value: number; sine: number } {
+  const work = t.work;
+  const endOp = o / OP_STRIDE;
   const sineAt = (v: number) => {
+    if (work !== undefined) work.probeOps += endOp;
     // Where the linkage fails (or leaves the branch) before this dyad, its sine is not defined: count it as a lock.
-    if (!solveNear(p, t, v, at, pose, rates) && p.failedOp < o / OP_STRIDE) return -1;
-    const s = signedDyadSine(p, o, t.pose);
+    if (!solvePrefixNear(p, t, written, endOp, v, at, pose, rates)) return -1;
+    const s = signedDyadSine(p, o, t.pose, 0);
     return Number.isNaN(s) ? -1 : s;
   };
   const invPhi = (Math.sqrt(5) - 1) / 2;
@@ -565,12 +702,14 @@ function goldenMinimum(
 function bisectEdge(
   p: PlanInternal, t: Tracker, good: number, bad: number, pose: Float64Array, rates: Float64Array,
 ): { value: number; op: number } {
+  const work = t.work;
   const at = good;
   let lo = good;
   let hi = bad;
   let op = -1;
   for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(hi - lo) > t.minStep; i++) {
     const mid = 0.5 * (lo + hi);
+    if (work !== undefined) work.edgeOps += p.opCount;
     if (solveNear(p, t, mid, at, pose, rates)) {
       lo = mid;
     } else {
@@ -578,6 +717,7 @@ function bisectEdge(
       op = p.failedOp;
     }
   }
+  if (work !== undefined && op < 0) work.edgeOps += p.opCount;
   if (op < 0 && !solveNear(p, t, bad, at, pose, rates)) op = p.failedOp;
   return { value: lo, op };
 }

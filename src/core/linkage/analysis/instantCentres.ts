@@ -74,7 +74,7 @@ export function instantCentre(
   const a = resolveBody(plan, bodyA, 'instantCentre');
   const b = resolveBody(plan, bodyB, 'instantCentre');
   const out = new Float64Array(IC_SCRATCH_LENGTH);
-  return centreFromCode(instantCentreAt(plan, a, b, pose, rates, 0, out), out);
+  return centreFromCode(centreAtPose(plan, a, b, pose, rates, out), out);
 }
 
 /**
@@ -90,7 +90,7 @@ export function instantCentreInto(
   rates: Float64Array,
   out: Float64Array,
 ): number {
-  return instantCentreAt(plan, bodyA, bodyB, pose, rates, 0, out);
+  return centreAtPose(plan, bodyA, bodyB, pose, rates, out);
 }
 
 export interface InstantCentreEntry {
@@ -107,7 +107,7 @@ export function instantCentres(plan: Plan, pose: Float64Array, rates: Float64Arr
   const entries: InstantCentreEntry[] = [];
   for (let a = 0; a < n; a++) {
     for (let b = a + 1; b < n; b++) {
-      entries.push({ bodyA: a, bodyB: b, centre: centreFromCode(instantCentreAt(plan, a, b, pose, rates, 0, out), out) });
+      entries.push({ bodyA: a, bodyB: b, centre: centreFromCode(centreAtPose(plan, a, b, pose, rates, out), out) });
     }
   }
   return entries;
@@ -125,8 +125,20 @@ export interface InstantCentrePath {
 
 /** The centre of `bodyA` relative to `bodyB` at every step of a sweep. */
 export function instantCentrePath(plan: Plan, bodyA: BodyRef, bodyB: BodyRef, sweep: Pick<SweepResult, 'values' | 'poses' | 'rates' | 'assembled'>): InstantCentrePath {
-  const a = resolveBody(plan, bodyA, 'instantCentrePath');
-  const b = resolveBody(plan, bodyB, 'instantCentrePath');
+  return instantCentrePaths(plan, [[bodyA, bodyB]], sweep)[0];
+}
+
+/**
+ * The centres of several pairs of bodies over one sweep: instantCentrePath for each
+ * pair, with the linkage's frame at each step (its bounding box and greatest speed,
+ * which every pair shares) found once, not once per pair.
+ */
+export function instantCentrePaths(
+  plan: Plan,
+  pairs: readonly (readonly [BodyRef, BodyRef])[],
+  sweep: Pick<SweepResult, 'values' | 'poses' | 'rates' | 'assembled'>,
+): InstantCentrePath[] {
+  const resolved = pairs.map(([bodyA, bodyB]) => [resolveBody(plan, bodyA, 'instantCentrePath'), resolveBody(plan, bodyB, 'instantCentrePath')] as const);
   const steps = sweep.values.length;
   const stride = 2 * plan.slotCount;
   if (sweep.poses.length !== steps * stride || sweep.rates.length !== steps * stride || sweep.assembled.length !== steps) {
@@ -135,43 +147,38 @@ export function instantCentrePath(plan: Plan, bodyA: BodyRef, bodyB: BodyRef, sw
         `${sweep.assembled.length} flags; expected ${steps * stride} (${steps} × 2 × ${plan.slotCount} slots) and ${steps}`,
     );
   }
-  const kind = new Uint8Array(steps);
-  const x = new Float64Array(steps).fill(Number.NaN);
-  const y = new Float64Array(steps).fill(Number.NaN);
-  const out = new Float64Array(IC_SCRATCH_LENGTH);
+  const frames = new Float64Array(steps * FRAME_LENGTH);
   for (let k = 0; k < steps; k++) {
-    if (sweep.assembled[k] !== 1) continue;
-    const code = instantCentreAt(plan, a, b, sweep.poses, sweep.rates, k * stride, out);
-    kind[k] = code;
-    if (code === IC_FINITE || code === IC_INFINITE) {
-      x[k] = out[0];
-      y[k] = out[1];
-    }
+    if (sweep.assembled[k] === 1) frameInto(plan, sweep.poses, sweep.rates, k * stride, frames, k * FRAME_LENGTH);
   }
-  return { values: Float64Array.from(sweep.values), kind, x, y };
+  const out = new Float64Array(IC_SCRATCH_LENGTH);
+  return resolved.map(([a, b]) => {
+    const pin = sharedPin(plan, a, b);
+    const kind = new Uint8Array(steps);
+    const x = new Float64Array(steps).fill(Number.NaN);
+    const y = new Float64Array(steps).fill(Number.NaN);
+    for (let k = 0; k < steps; k++) {
+      if (sweep.assembled[k] !== 1) continue;
+      const code = instantCentreAt(plan, a, b, pin, sweep.poses, sweep.rates, k * stride, frames, k * FRAME_LENGTH, out);
+      kind[k] = code;
+      if (code === IC_FINITE || code === IC_INFINITE) {
+        x[k] = out[0];
+        y[k] = out[1];
+      }
+    }
+    return { values: Float64Array.from(sweep.values), kind, x, y };
+  });
 }
 
-/** The centre for the pose and rates stored from `offset`; see `instantCentreInto`. */
-function instantCentreAt(
-  plan: Plan,
-  a: number,
-  b: number,
-  poses: Float64Array,
-  rates: Float64Array,
-  offset: number,
-  out: Float64Array,
-): number {
-  // A pin is the permanent centre of the two bodies it joins: exact, and still right at
-  // an instant when they happen to move as one (a four-bar's coupler and output while the
-  // input lies along the ground line), where their velocities alone say nothing.
-  const pin = sharedPin(plan, a, b);
-  if (pin >= 0) {
-    out[0] = poses[offset + 2 * pin];
-    out[1] = poses[offset + 2 * pin + 1];
-    return Number.isFinite(out[0]) && Number.isFinite(out[1]) ? IC_FINITE : IC_INDETERMINATE;
-  }
-  // Work about the centre of the linkage's bounding box, so that far-off coordinates
-  // do not cost precision, and measure against the linkage's own size and speed.
+/** Numbers per pose in a frame: the bounding box's centre (x, y) and diagonal, and the greatest slot speed. */
+const FRAME_LENGTH = 4;
+
+/**
+ * The frame of the pose and rates stored from `offset` into frames[f..f+3]: the centre
+ * of the linkage's bounding box, its diagonal (mm) and the greatest slot speed (mm per
+ * driver unit), over the slots solved with finite rates.
+ */
+function frameInto(plan: Plan, poses: Float64Array, rates: Float64Array, offset: number, frames: Float64Array, f: number): void {
   let minX = Infinity;
   let minY = Infinity;
   let maxX = -Infinity;
@@ -188,9 +195,50 @@ function instantCentreAt(
     if (py > maxY) maxY = py;
     if (v > speed) speed = v;
   }
-  const rx = 0.5 * (minX + maxX);
-  const ry = 0.5 * (minY + maxY);
-  const size = Math.hypot(maxX - minX, maxY - minY);
+  frames[f] = 0.5 * (minX + maxX);
+  frames[f + 1] = 0.5 * (minY + maxY);
+  frames[f + 2] = Math.hypot(maxX - minX, maxY - minY);
+  frames[f + 3] = speed;
+}
+
+/** The centre of bodies a and b in one pose (offset 0), its frame and shared pin found here; see `instantCentreInto`. */
+function centreAtPose(plan: Plan, a: number, b: number, pose: Float64Array, rates: Float64Array, out: Float64Array): number {
+  const pin = sharedPin(plan, a, b);
+  // A pin needs no frame: out[4..7] (scratch, overwritten below) holds it meanwhile.
+  if (pin < 0) frameInto(plan, pose, rates, 0, out, 4);
+  return instantCentreAt(plan, a, b, pin, pose, rates, 0, out, 4, out);
+}
+
+/**
+ * The centre for the pose and rates stored from `offset`, given the bodies' shared pin
+ * (sharedPin) and the pose's frame in frames[f..f+3] (frameInto); see `instantCentreInto`.
+ */
+function instantCentreAt(
+  plan: Plan,
+  a: number,
+  b: number,
+  pin: number,
+  poses: Float64Array,
+  rates: Float64Array,
+  offset: number,
+  frames: Float64Array,
+  f: number,
+  out: Float64Array,
+): number {
+  // A pin is the permanent centre of the two bodies it joins: exact, and still right at
+  // an instant when they happen to move as one (a four-bar's coupler and output while the
+  // input lies along the ground line), where their velocities alone say nothing.
+  if (pin >= 0) {
+    out[0] = poses[offset + 2 * pin];
+    out[1] = poses[offset + 2 * pin + 1];
+    return Number.isFinite(out[0]) && Number.isFinite(out[1]) ? IC_FINITE : IC_INDETERMINATE;
+  }
+  // Work about the centre of the linkage's bounding box, so that far-off coordinates
+  // do not cost precision, and measure against the linkage's own size and speed.
+  const rx = frames[f];
+  const ry = frames[f + 1];
+  const size = frames[f + 2];
+  const speed = frames[f + 3];
   if (!motionInto(plan, a, poses, rates, offset, rx, ry, out, 2)) return IC_INDETERMINATE;
   if (!motionInto(plan, b, poses, rates, offset, rx, ry, out, 5)) return IC_INDETERMINATE;
   const dOmega = out[2] - out[5];
