@@ -8,7 +8,8 @@
  * (bad input, an unknown island) come back as `{ ok: false, reason }`.
  */
 import type { OptimizerConfig, OptimizerState } from '../src/core/optimize';
-import type { CandidateReport, FamilyId } from '../src/core/synthesis';
+import type { LayoutKind } from '../src/core/suspension';
+import type { CandidateReport, FamilyId, SuspensionCandidateReport } from '../src/core/synthesis';
 import type { TestFunctionName } from './testFunctionNames';
 
 export type Failure = { readonly ok: false; readonly reason: string };
@@ -16,8 +17,12 @@ export type Outcome<T> = ({ readonly ok: true } & T) | Failure;
 
 /** What an island searches. */
 export type ObjectiveSpec =
-  /** A path-synthesis problem: `problem` is the problem file's JSON, read by parseProblemFile in the worker. */
-  | { readonly kind: 'synthesis'; readonly problem: unknown; readonly family: FamilyId }
+  /**
+   * A synthesis problem: `problem` is the problem file's JSON, read by
+   * parseSynthesisProblemFile in the worker; `family` is a family of a path problem or a
+   * layout of a suspension problem.
+   */
+  | { readonly kind: 'synthesis'; readonly problem: unknown; readonly family: FamilyId | LayoutKind }
   /** A published test function (workers/testFunctions.ts), for tests and benchmarks of the search itself. */
   | { readonly kind: 'test-function'; readonly name: TestFunctionName; readonly dim: number };
 
@@ -87,6 +92,7 @@ export interface IslandInfo {
 /** What `describe` says of one design, by the kind of objective. */
 export type CandidateDetail =
   | { readonly kind: 'synthesis'; readonly candidate: CandidateReport }
+  | { readonly kind: 'suspension'; readonly candidate: SuspensionCandidateReport }
   | {
       readonly kind: 'test-function';
       readonly name: TestFunctionName;

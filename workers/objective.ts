@@ -1,10 +1,11 @@
 /**
  * What an island evaluates, built from the plain `ObjectiveSpec` that crosses the
- * worker boundary: a synthesis problem (the problem file's JSON and a family) or a
- * published test function.
+ * worker boundary: a synthesis problem (the problem file's JSON, of either kind, and a
+ * family or layout) or a published test function.
  */
-import { parseProblemFile } from '../src/core/io/problem';
-import { createObjective, FAMILY_IDS, type FamilyId } from '../src/core/synthesis';
+import { parseSynthesisProblemFile } from '../src/core/io/problem';
+import { LAYOUT_KINDS, type LayoutKind } from '../src/core/suspension';
+import { createObjective, FAMILY_IDS, isSuspensionProblem, type FamilyId } from '../src/core/synthesis';
 import type { ObjectiveSpec } from './api';
 import type { SearchObjective } from './searchObjective';
 import { testFunctionObjective } from './testFunctions';
@@ -23,23 +24,39 @@ export function buildObjective(spec: ObjectiveSpec): ObjectiveResult {
   }
 }
 
-/** The synthesis objective of one family on the problem a problem file (as JSON) describes. */
+/** The synthesis objective of one family (path) or layout (suspension) on the problem a problem file (as JSON) describes. */
 function synthesisObjective(problemFile: unknown, family: unknown): ObjectiveResult {
-  if (!(FAMILY_IDS as readonly unknown[]).includes(family)) {
-    return { ok: false, reason: `family is ${JSON.stringify(family)}; expected one of ${FAMILY_IDS.join(', ')}` };
-  }
-  const parsed = parseProblemFile(problemFile);
+  const parsed = parseSynthesisProblemFile(problemFile);
   if (!parsed.ok) {
     const issues = parsed.issues.map((issue) => (issue.path === '' ? issue.message : `${issue.path}: ${issue.message}`));
     return { ok: false, reason: `problem: ${issues.join('; ')}` };
   }
+  const problem = parsed.problem;
+  if (isSuspensionProblem(problem)) {
+    if (!(problem.layouts as readonly unknown[]).includes(family)) {
+      return { ok: false, reason: `family is ${JSON.stringify(family)}; expected one of the problem's layouts, ${problem.layouts.join(', ')} (of ${LAYOUT_KINDS.join(', ')})` };
+    }
+    const objective = createObjective(problem, family as LayoutKind);
+    return searchObjective(objective, (x) => ({ kind: 'suspension', candidate: objective.describe(x) }));
+  }
+  if (!(FAMILY_IDS as readonly unknown[]).includes(family)) {
+    return { ok: false, reason: `family is ${JSON.stringify(family)}; expected one of ${FAMILY_IDS.join(', ')}` };
+  }
   let objective: ReturnType<typeof createObjective>;
   try {
-    objective = createObjective(parsed.problem, family as FamilyId);
+    objective = createObjective(problem, family as FamilyId);
   } catch (error) {
     if (error instanceof RangeError) return { ok: false, reason: error.message };
     throw error;
   }
+  return searchObjective(objective, (x) => ({ kind: 'synthesis', candidate: objective.describe(x) }));
+}
+
+/** The island's view of a synthesis objective, with its reports tagged by kind. */
+function searchObjective(
+  objective: Omit<SearchObjective, 'describe'>,
+  describe: SearchObjective['describe'],
+): ObjectiveResult {
   return {
     ok: true,
     objective: {
@@ -50,7 +67,7 @@ function synthesisObjective(problemFile: unknown, family: unknown): ObjectiveRes
       fromSearchBoxInto: objective.fromSearchBoxInto,
       toSearchBoxInto: objective.toSearchBoxInto,
       evaluate: objective.evaluate,
-      describe: (x) => ({ kind: 'synthesis', candidate: objective.describe(x) }),
+      describe,
     },
   };
 }

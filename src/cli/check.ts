@@ -21,6 +21,8 @@ import { singleFile, type OptionSpec } from './args';
 import { EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
+import { suspensionSearchSummary, suspensionSummaryText } from './suspensionResults';
+import { SUSPENSION_CAUTION } from '../core/suspension';
 
 const count = (n: number) => n.toLocaleString('en-GB');
 
@@ -129,6 +131,14 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
   if (!read.ok) {
     io.stderr(`${read.lines.join('\n')}\n`);
     return EXIT_USAGE;
+  }
+  if (read.problem.kind === 'suspension') {
+    const p = read.problem;
+    const layouts = suspensionSearchSummary(p);
+    io.stdout(start.args.options.has('json')
+      ? `${formatJson({ file, valid: true, kind: 'suspension', name: p.name, steps: p.steps, targets: p.targets, keepOut: p.keepOut, layouts, caution: SUSPENSION_CAUTION })}\n`
+      : suspensionSummaryText(file, p, layouts));
+    return EXIT_OK;
   }
   const families = searchSummary(read.problem);
   if (start.args.options.has('json')) {

@@ -9,7 +9,7 @@
  */
 import { resolve } from 'node:path';
 import { toLinkageFile } from '../core/io/linkageFile';
-import type { CandidateReport, Problem } from '../core/synthesis';
+import type { CandidateReport, SynthesisProblem } from '../core/synthesis';
 import {
   createRun,
   defineRun,
@@ -26,6 +26,7 @@ import { numberOption, singleFile, type OptionSpec, type ParsedArgs } from './ar
 import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
+import { suspensionCandidateJson } from './suspensionResults';
 
 /** Evaluations per family when neither --evals nor --seconds is given. */
 export const DEFAULT_EVALUATIONS_PER_FAMILY = 50_000;
@@ -54,6 +55,12 @@ taken over (a full turn from target point 1 when the driver turns fully, else ta
 point 1 to the last), and over that motion its Grashof class, transmission-angle range
 and size, as \`loci analyze --from --to --steps\` gives them of the linkage file; its
 defects, and the evaluations used. A progress line goes to stderr about once a second.
+
+A suspension problem ("kind": "suspension") searches its layouts in place of families
+and writes, for each candidate, its pivots, terms, figures at sag and its linkage at
+full extension, with the best of each layout beside the top K. Loci computes
+kinematics only: a frame must be checked by a qualified engineer, physically tested
+and meet the ISO 4210 series before anyone rides it.
 
   --seed N         seed of the search, a whole number ≥ 0 (default ${DEFAULT_SEED}).
   --evals N        evaluation budget of the whole search (default ${DEFAULT_EVALUATIONS_PER_FAMILY.toLocaleString('en-GB')} per family).
@@ -135,9 +142,11 @@ interface FitSettings {
   readonly out: string | undefined;
   readonly checkpoint: string | undefined;
   readonly checkpointEveryS: number;
+  /** A suspension problem's table shows every layout's best beside the top K. */
+  readonly bestOfEachJob: boolean;
 }
 
-function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSettings, 'evaluations'> & { evaluations: number | undefined }> {
+function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSettings, 'evaluations' | 'bestOfEachJob'> & { evaluations: number | undefined }> {
   const one = singleFile(args, 'problem file');
   if (!one.ok) return one;
   const seed = wholeOption(args, 'seed', 0);
@@ -187,10 +196,15 @@ function readSettings(args: ParsedArgs, defaultWorkers: number): Read<Omit<FitSe
   };
 }
 
+/** The families of a path problem, or the layouts of a suspension problem: one job each. */
+function familiesOf(problem: SynthesisProblem): readonly string[] {
+  return problem.kind === 'suspension' ? problem.layouts : problem.families;
+}
+
 /** The engine run of a problem: one job per family, `islands` islands each, the hybrid optimizer. */
-function runInput(problemFile: unknown, problem: Problem, s: FitSettings): RunInput {
+function runInput(problemFile: unknown, problem: SynthesisProblem, s: FitSettings): RunInput {
   return {
-    jobs: problem.families.map((family) => ({
+    jobs: (problem.kind === 'suspension' ? problem.layouts : problem.families).map((family) => ({
       id: family,
       objective: { kind: 'synthesis', problem: problemFile, family },
       seed: s.seed,
@@ -202,7 +216,8 @@ function runInput(problemFile: unknown, problem: Problem, s: FitSettings): RunIn
   };
 }
 
-function unitOf(problem: Problem): string {
+function unitOf(problem: SynthesisProblem): string {
+  if (problem.kind === 'suspension') return '(weighted, normalised)';
   return problem.measure === 'sum-of-squares' ? 'mm²' : 'mm';
 }
 
@@ -234,7 +249,8 @@ function motionJson(report: CandidateReport) {
   return { fromDeg: m.from * deg, toDeg: m.to * deg, steps: m.steps, fullTurn: m.fullTurn };
 }
 
-function candidateJson(c: RankedCandidate, problem: Problem) {
+function candidateJson(c: RankedCandidate, problem: SynthesisProblem) {
+  if (c.detail.kind === 'suspension') return suspensionCandidateJson(c.rank, problem.name, c.detail.candidate);
   if (c.detail.kind !== 'synthesis') throw new Error('fit: a synthesis run described a candidate of another kind');
   const report: CandidateReport = c.detail.candidate;
   return {
@@ -282,7 +298,7 @@ async function openRun(input: RunInput, s: FitSettings, io: CliIo, hooks: Pick<R
   const env = nodeEnvironment();
   const defined = defineRun(input);
   if (!defined.ok) return { ok: false, message: `loci fit: ${defined.reason}`, exitCode: EXIT_USAGE };
-  const options: RunOptions = { workers: s.workers, topK: s.top, checkpointEveryMs: s.checkpointEveryS * 1000, ...hooks };
+  const options: RunOptions = { workers: s.workers, topK: s.top, checkpointEveryMs: s.checkpointEveryS * 1000, bestOfEachJob: s.bestOfEachJob, ...hooks };
   let store: CheckpointStore | undefined;
   if (s.checkpoint !== undefined) {
     const path = s.checkpoint;
@@ -346,12 +362,13 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     return EXIT_USAGE;
   }
   const problem = problemRead.problem;
-  const islandCount = problem.families.length * read.value.islands;
-  const evaluations = read.value.seconds !== null ? null : (read.value.evaluations ?? DEFAULT_EVALUATIONS_PER_FAMILY * problem.families.length);
+  const families = familiesOf(problem);
+  const islandCount = families.length * read.value.islands;
+  const evaluations = read.value.seconds !== null ? null : (read.value.evaluations ?? DEFAULT_EVALUATIONS_PER_FAMILY * families.length);
   if (evaluations !== null && evaluations < islandCount) {
-    return usageError(`--evals: ${evaluations} is fewer than one evaluation per island (${problem.families.length} families × ${read.value.islands} islands)`);
+    return usageError(`--evals: ${evaluations} is fewer than one evaluation per island (${families.length} families × ${read.value.islands} islands)`);
   }
-  const settings: FitSettings = { ...read.value, evaluations };
+  const settings: FitSettings = { ...read.value, evaluations, bestOfEachJob: problem.kind === 'suspension' };
   const unusable = await checkTargets(settings);
   if (unusable !== null) {
     io.stderr(`loci fit: ${unusable}\n`);
@@ -409,12 +426,12 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
   const output = {
     format: FIT_RESULT_FORMAT,
     version: FIT_RESULT_VERSION,
-    problem: { file: settings.file, name: problem.name, measure: problem.measure, unit },
+    problem: { file: settings.file, name: problem.name, kind: problem.kind, measure: problem.kind === 'suspension' ? 'weighted, normalised terms' : problem.measure, unit },
     search: {
       seed: settings.seed,
       budget: { evaluations: settings.evaluations, seconds: settings.seconds },
       deterministic: settings.evaluations !== null,
-      families: problem.families,
+      families,
       islandsPerFamily: settings.islands,
       workers: Math.min(settings.workers, islandCount),
       optimizer: 'hybrid (L-SHADE, then Nelder–Mead polish)',
@@ -428,6 +445,10 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     evaluationsPerSecond: progress.evaluationsPerSecond,
     workerRestarts: progress.restarts,
     candidates: (result.candidates ?? []).map((c) => candidateJson(c, problem)),
+    // Each layout's best rank (null: the layout gave no candidate at all).
+    ...(problem.kind === 'suspension'
+      ? { bestRankOfEachLayout: Object.fromEntries(families.map((f) => [f, (result.candidates ?? []).find((c) => c.jobId === f)?.rank ?? null])) }
+      : {}),
   };
   const text = `${formatJson(output)}\n`;
   const done = result.ok ? EXIT_OK : EXIT_FAILURE;

@@ -1,10 +1,10 @@
-/** Reading a problem file for `loci fit` and `loci check`: the file, its JSON, then parseProblemFile. */
-import { MAX_PROBLEM_FILE_CHARS, parseProblemFile } from '../core/io/problem';
-import type { Problem } from '../core/synthesis';
+/** Reading a problem file for `loci fit` and `loci check`: the file, its JSON, then parseSynthesisProblemFile. */
+import { MAX_PROBLEM_FILE_CHARS, parseSynthesisProblemFile } from '../core/io/problem';
+import type { SynthesisProblem } from '../core/synthesis';
 import type { CliIo } from './command';
 
 export type ReadProblemResult =
-  | { readonly ok: true; readonly json: unknown; readonly problem: Problem; readonly description?: string }
+  | { readonly ok: true; readonly json: unknown; readonly problem: SynthesisProblem; readonly description?: string }
   /** Each line names the file and, where there is one, the field. */
   | { readonly ok: false; readonly lines: string[] };
 
@@ -21,7 +21,7 @@ export async function readProblemFile(path: string, io: CliIo): Promise<ReadProb
   } catch (error) {
     return { ok: false, lines: [`${path}: not valid JSON: ${error instanceof Error ? error.message : String(error)}`] };
   }
-  const parsed = parseProblemFile(json);
+  const parsed = parseSynthesisProblemFile(json);
   if (!parsed.ok) {
     return { ok: false, lines: parsed.issues.map((issue) => `${path}: ${issue.path === '' ? '' : `${issue.path}: `}${issue.message}`) };
   }

@@ -28,7 +28,8 @@
 import * as z from 'zod';
 import { MAX_DIM } from '../optimize/config';
 import { capIssues, describeValue, expected, formatPath, quoteList, strict } from './schemaMessages';
-import { FAMILY_IDS, SEARCH_MAP_KINDS, createProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue } from '../synthesis';
+import { FAMILY_IDS, SEARCH_MAP_KINDS, createProblem, createSuspensionProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue, type SuspensionProblem, type SynthesisProblem } from '../synthesis';
+import { suspensionProblemShape } from './suspensionProblemFile';
 import { MAX_DRIVER_VALUE_RAD } from '../synthesis/problem';
 
 export const PROBLEM_FILE_FORMAT = 'loci-problem';
@@ -37,6 +38,12 @@ export const PROBLEM_FILE_VERSION = 1;
 
 export type ParseProblemFileResult =
   | { readonly ok: true; readonly problem: Problem; readonly description?: string }
+  /** At most MAX_LISTED_ISSUES issues, then one (path '') counting the rest. */
+  | { readonly ok: false; readonly issues: ProblemIssue[] };
+
+/** A problem file of either kind: a path problem (no "kind", or "path") or a suspension problem. */
+export type ParseSynthesisProblemFileResult =
+  | { readonly ok: true; readonly problem: SynthesisProblem; readonly description?: string }
   /** At most MAX_LISTED_ISSUES issues, then one (path '') counting the rest. */
   | { readonly ok: false; readonly issues: ProblemIssue[] };
 
@@ -97,6 +104,7 @@ const constraintsSchema = strict('constraints', {
 const fileShape = {
   format: z.literal(PROBLEM_FILE_FORMAT, { error: expected(`"${PROBLEM_FILE_FORMAT}"`) }),
   version: z.literal(PROBLEM_FILE_VERSION, { error: expected(`${PROBLEM_FILE_VERSION}`) }),
+  kind: z.literal('path', { error: expected('"path" or "suspension"') }).optional(),
   name: z.string({ error: expected('a name string') }),
   description: z.string({ error: expected('a description string') }).optional(),
   target: targetSchema,
@@ -117,6 +125,13 @@ const fileShape = {
     .optional(),
 };
 const problemFileV1Schema = strict('a problem file', fileShape);
+const suspensionProblemFileSchema = strict('a suspension problem file', {
+  format: fileShape.format,
+  version: fileShape.version,
+  name: fileShape.name,
+  description: fileShape.description,
+  ...suspensionProblemShape,
+});
 
 /** A problem file of the current version. */
 export type ProblemFileV1 = z.infer<typeof problemFileV1Schema>;
@@ -195,8 +210,27 @@ function dimensionIssues(problem: Problem): ProblemIssue[] {
   return issues;
 }
 
-/** Reads a problem file (already parsed from JSON text). */
+/** Reads a path problem file (already parsed from JSON text); a suspension problem is refused with a pointer to parseSynthesisProblemFile. */
 export function parseProblemFile(json: unknown): ParseProblemFileResult {
+  const read = parseSynthesisProblemFile(json);
+  if (!read.ok) return read;
+  if (read.problem.kind !== 'path') return fail('kind', 'is "suspension"; expected a path problem here (a suspension problem is searched with loci fit)');
+  return read.description === undefined ? { ok: true, problem: read.problem } : { ok: true, problem: read.problem, description: read.description };
+}
+
+/** Reads a suspension problem file after its envelope: the schema, then createSuspensionProblem. */
+function parseSuspensionProblem(json: Record<string, unknown>): ParseSynthesisProblemFileResult {
+  const parsed = suspensionProblemFileSchema.safeParse(json);
+  if (!parsed.success) return failWith(parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })));
+  const { format: _format, version: _version, description, ...input } = parsed.data;
+  const created = createSuspensionProblem(input);
+  if (!created.ok) return failWith(created.issues);
+  const problem: SuspensionProblem = created.problem;
+  return description === undefined ? { ok: true, problem } : { ok: true, problem, description };
+}
+
+/** Reads a problem file of either kind (already parsed from JSON text). */
+export function parseSynthesisProblemFile(json: unknown): ParseSynthesisProblemFileResult {
   if (!isPlainObject(json)) return fail('', `expected a problem file (a JSON object with "format": "${PROBLEM_FILE_FORMAT}"), got ${describeValue(json)}`);
   if (json.format !== PROBLEM_FILE_FORMAT) {
     return fail('format', json.format === undefined
@@ -212,6 +246,7 @@ export function parseProblemFile(json: unknown): ParseProblemFileResult {
   }
   const reserved = reservedKeyIssues(json);
   if (reserved.length > 0) return failWith(reserved);
+  if (json.kind === 'suspension') return parseSuspensionProblem(json);
   const parsed = problemFileV1Schema.safeParse(json);
   if (!parsed.success) {
     return failWith(parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })));

@@ -115,7 +115,8 @@ const springSchema = z.discriminatedUnion(
   { error: expected('a spring kind, "coil" or "air"') },
 );
 
-const bicycleSchema = strict('a bicycle', {
+/** A bicycle as the files hold it (the suspension design file and the suspension problem file). */
+export const bicycleSchema = strict('a bicycle', {
   rearAxleMm: xy('the rear axle at full extension'),
   wheelRadiusMm: num('a number of mm'),
   frontContactXMm: num('a number of mm').optional(),

@@ -146,6 +146,20 @@ function leverageSlope(ctx: CurveContext, s: number, lr: number, poses: Float64A
 
 /** Fills every curve from an assembled sweep of the shock (lengths in sw.values). */
 export function fillCurves(ctx: CurveContext, sw: SweepResult, out: SuspensionCurves): void {
+  fillCurveSteps(ctx, sw, sw.values.length, out);
+  const ic = instantCentrePath(ctx.plan, ctx.axleBody, 0, sw);
+  out.icPath.kind.set(ic.kind);
+  out.icPath.xMm.set(ic.x);
+  out.icPath.yMm.set(ic.y);
+}
+
+/**
+ * Every curve but the instant-centre path at the first `count` steps of a sweep (poses
+ * and rates as a sweep stores them), allocating nothing: the kernel a search runs per
+ * design. Without a spring in ctx.bicycle (or in `out`) the spring and wheel-rate
+ * curves are skipped.
+ */
+export function fillCurveSteps(ctx: CurveContext, sw: Pick<SweepResult, 'values' | 'poses' | 'rates'>, count: number, out: SuspensionCurves): void {
   const { bicycle, plan } = ctx;
   const stride = 2 * plan.slotCount;
   const poses = sw.poses;
@@ -157,7 +171,7 @@ export function fillCurves(ctx: CurveContext, sw: SweepResult, out: SuspensionCu
   const toPct = 100 / bicycle.comHeightMm;
   const runOut = ctx.runScratch;
   const centre = ctx.centreScratch;
-  for (let k = 0; k < sw.values.length; k++) {
+  for (let k = 0; k < count; k++) {
     const at = k * stride;
     const s = sw.values[k];
     const ax = poses[at + ctx.axleAt];
@@ -216,10 +230,6 @@ export function fillCurves(ctx: CurveContext, sw: SweepResult, out: SuspensionCu
       out.kickbackDeg[c][k] = (growth / ring) * RAD_TO_DEG;
     }
   }
-  const ic = instantCentrePath(plan, ctx.axleBody, 0, sw);
-  out.icPath.kind.set(ic.kind);
-  out.icPath.xMm.set(ic.x);
-  out.icPath.yMm.set(ic.y);
 }
 
 /** The wrapped upper-run length per cog with the axle at (ax, ay), into `out`; false when a cog overlaps the chainring. */

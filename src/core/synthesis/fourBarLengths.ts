@@ -7,6 +7,7 @@
  * rotation and translation, so r1 ≡ 1, θ0 = x0 = y0 = 0 and the variables are r2, r3,
  * r4, rcx, rcy in units of the ground link.
  */
+import { FOUR_BAR_FIXED_NAMES, FOUR_BAR_FREE_NAMES } from './familyVariables';
 import { fourBar } from '../linkage';
 import { classifyFourBar } from '../linkage/analysis';
 import { crankViolation, inputTurnsFully } from './grashofTurn';
@@ -56,8 +57,8 @@ const Y0 = Y0_BINDING;
 
 const TAU = 2 * Math.PI;
 
-const FIXED_NAMES = ['r1', 'r2', 'r3', 'r4', 'rcx', 'rcy', 'theta0', 'x0', 'y0'];
-const FREE_NAMES = ['r2', 'r3', 'r4', 'rcx', 'rcy'];
+const FIXED_NAMES = FOUR_BAR_FIXED_NAMES;
+const FREE_NAMES = FOUR_BAR_FREE_NAMES;
 
 /** Range of cos t over [a, b] into out[0] (min), out[1] (max). */
 function cosRangeInto(a: number, b: number, out: Float64Array): void {

@@ -15,16 +15,9 @@
  */
 import {
   compile,
-  fourBar,
   run,
   runWithRates,
   setReferencePose,
-  sliderCrank,
-  stephensonI,
-  stephensonII,
-  stephensonIII,
-  wattI,
-  wattII,
   type Linkage,
   type Plan,
 } from '../linkage';
@@ -48,6 +41,7 @@ import {
   type MechanismEncoding,
   type TargetFrame,
 } from './encoding';
+import { POSE_FAMILY_BUILDERS, poseVariableNames } from './familyVariables';
 import { crankViolation, inputTurnsFully } from './grashofTurn';
 import { LockSearch, type MarginCurve } from './lockSearch';
 import type { Constraints, FamilyId } from './problem';
@@ -74,15 +68,8 @@ const LOCK_SHARE = MOTION_CHECK_STEP_RAD / TAU;
 
 export type PoseFamilyId = Exclude<FamilyId, 'fourbar-lengths'>;
 
-const BUILDERS: Readonly<Record<PoseFamilyId, () => Linkage>> = {
-  fourbar: () => fourBar(),
-  'slider-crank': () => sliderCrank(),
-  'watt-i': () => wattI(),
-  'watt-ii': () => wattII(),
-  'stephenson-i': () => stephensonI(),
-  'stephenson-ii': () => stephensonII(),
-  'stephenson-iii': () => stephensonIII(),
-};
+// Every pose family has a builder: the ids of FamilyId and the builders' keys agree.
+const BUILDERS: Readonly<Record<PoseFamilyId, () => Linkage>> = POSE_FAMILY_BUILDERS;
 
 class PlanCurve implements CurveEvaluator, MarginCurve {
   readonly secondDerivatives = false;
@@ -168,8 +155,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   const compiled = compile(source);
   if (!compiled.ok) throw new Error(`family ${family} does not compile: ${compiled.issues.map((i) => `${i.where}: ${i.message}`).join('; ')}`);
   const plan = compiled.plan;
-  const names: string[] = [];
-  for (const id of [...plan.jointIds, ...plan.pointIds]) names.push(`${id}.x`, `${id}.y`);
+  const names = poseVariableNames(plan);
   const L = frame.size;
   const lower = new Float64Array(names.length);
   const upper = new Float64Array(names.length);

@@ -8,6 +8,7 @@ import { SEARCH_MAP_KINDS, searchMapMisfit, type SearchMapKind } from './searchM
 import { MAX_COORDINATE_MM, MAX_REACH_OVER_SHORTEST_LINK } from '../linkage/model';
 import { COINCIDENT_JOINT_TOL_MM } from '../linkage/tolerances';
 import { targetFrame } from './encoding';
+import { driverVariablePrefix, mechanismVariableNames } from './familyVariables';
 import { validateTarget, type Target } from './target';
 
 export type FamilyId =
@@ -100,7 +101,12 @@ export interface Constraints {
  */
 export type BoundsOverrides = Readonly<Partial<Record<FamilyId, Readonly<Record<string, readonly [number, number]>>>>>;
 
+/**
+ * A path problem. The synthesis problem is a union by kind: this, or a rear-suspension
+ * problem (suspensionProblem.ts); `SynthesisProblem` in the objective names the union.
+ */
 export interface Problem {
+  readonly kind: 'path';
   readonly name: string;
   readonly target: Target;
   readonly timing: Timing;
@@ -121,6 +127,8 @@ export type SearchMaps = Readonly<Partial<Record<FamilyId, SearchMapKind>>>;
 
 /** The same problem as plain data (a problem file's content after its schema). */
 export interface ProblemInput {
+  /** Absent in files written before problems had kinds: a path problem. */
+  readonly kind?: 'path';
   readonly name: string;
   readonly target: {
     readonly points: readonly (readonly number[])[];
@@ -225,6 +233,30 @@ function checkBounds(bounds: BoundsOverrides | undefined, issues: ProblemIssue[]
   }
 }
 
+/**
+ * Every bound names a variable of its family (with free timing, also a per-point driver
+ * variable or their common prefix), so building an objective from the problem never
+ * meets an unknown name.
+ */
+function checkBoundNames(input: ProblemInput, issues: ProblemIssue[]): void {
+  const n = input.target.points.length;
+  for (const [family, boxes] of Object.entries(input.bounds ?? {})) {
+    const own = mechanismVariableNames(family, input.placement);
+    if (own === null) continue; // an unknown family is reported by checkBounds
+    const prefix = driverVariablePrefix(family);
+    const perPoint = input.timing.mode === 'free';
+    for (const name of Object.keys(boxes ?? {})) {
+      const index = perPoint && name.startsWith(`${prefix}_`) ? Number(name.slice(prefix.length + 1)) : NaN;
+      const known = own.includes(name) || (perPoint && (name === prefix || (Number.isInteger(index) && index >= 1 && index <= n)));
+      if (!known) {
+        const quoted = own.map((v) => JSON.stringify(v)).join(', ');
+        const extra = perPoint ? `, "${prefix}_1" … "${prefix}_${n}" (or "${prefix}" for every per-point driver value)` : '';
+        issues.push({ path: `bounds.${family}.${name}`, message: `"${name}" is not a variable of ${family} here; expected one of ${quoted}${extra}` });
+      }
+    }
+  }
+}
+
 /** Coordinates within MAX_TARGET_COORDINATE_MM, a span the kinematics can represent, weights within MAX_WEIGHT. */
 function checkTargetRange(target: Target, issues: ProblemIssue[]): void {
   const p = target.points;
@@ -313,6 +345,7 @@ export function createProblem(input: ProblemInput): ProblemResult {
     else if (first < i) issues.push({ path: `families[${i}]`, message: `"${f}" is listed twice (also families[${first}]); expected each family once` });
   });
   checkBounds(input.bounds, issues);
+  checkBoundNames(input, issues);
   checkConstraints(input.constraints, issues);
   const searchMaps: Partial<Record<FamilyId, SearchMapKind>> = {};
   for (const [family, kind] of Object.entries(input.searchMaps ?? {})) {
@@ -346,6 +379,7 @@ export function createProblem(input: ProblemInput): ProblemResult {
   return {
     ok: true,
     problem: {
+      kind: 'path',
       name: input.name,
       target,
       timing,

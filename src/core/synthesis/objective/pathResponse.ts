@@ -1,13 +1,10 @@
 /**
- * createObjective(problem, family): the function a search minimises. Everything it
- * needs is allocated here; `evaluate` allocates nothing. One evaluation is: bounds, the
- * family's own constraints, the timing solve (prescribed, free, or matched in order and
- * refined), the placement fit, the error measure and the sum of normalised violations.
- * With both assembly branches asked for, both are evaluated and the better kept, all
- * within one evaluation.
+ * The response of a path problem: for one design, the output point at each target
+ * point after the timing solve (prescribed, free, or matched in order and refined) and
+ * the placement fit, the squared distances to the targets, and the normalised
+ * violations, for every assembly branch asked for. Everything is allocated when the
+ * response is built; evaluating allocates nothing.
  */
-import type { FourBarClass } from '../linkage/analysis';
-import { compile, type Linkage } from '../linkage';
 import {
   SIM_A as SIM_A_BINDING,
   SIM_B as SIM_B_BINDING,
@@ -16,32 +13,24 @@ import {
   SIM_TX as SIM_TX_BINDING,
   SIM_TY as SIM_TY_BINDING,
   similarityFitInto,
-} from '../geometry';
+} from '../../geometry';
 import {
   CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING,
   CURVE_X as CURVE_X_BINDING,
   CURVE_Y as CURVE_Y_BINDING,
   type CurveEvaluator,
-} from './curve';
+} from '../curve';
 import {
-  DEFECT_NAMES,
   V_ASSEMBLY as V_ASSEMBLY_BINDING,
   V_BOUNDS as V_BOUNDS_BINDING,
-  V_BRANCH as V_BRANCH_BINDING,
-  V_CRANK as V_CRANK_BINDING,
   V_ORDER as V_ORDER_BINDING,
   V_SLOTS as V_SLOTS_BINDING,
-  targetFrame,
-  type MechanismEncoding,
-} from './encoding';
-import { MOTION_ANALYSIS_STEPS, candidateFigures, type CandidateMotionRange } from './candidateFigures';
-import { createFourBarLengths } from './fourBarLengths';
-import { createJointFit } from './jointFit';
-import { errorSummary, measureValue, type ErrorSummary } from './measures';
-import { createPoseFamily } from './poseFamilies';
-import { DEFAULT_MATCH_SAMPLES, type FamilyId, type Problem } from './problem';
-import { compareRanks } from './ranking';
-import { createSearchMap, type SearchMapKind } from './searchMap';
+} from '../encoding';
+import { createJointFit } from '../jointFit';
+import { measureValue } from '../measures';
+import { DEFAULT_MATCH_SAMPLES, type Problem } from '../problem';
+import { boxViolation, type PathDesignSpace } from './designSpace';
+import { bestRanked, sumViolations } from './score';
 import {
   REFINE_HI as REFINE_HI_BINDING,
   REFINE_IO_LENGTH,
@@ -54,7 +43,7 @@ import {
   matchInOrder,
   orderViolation,
   refineDriverValue,
-} from './timing';
+} from '../timing';
 
 // Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
 // imported binding into a getter call, which the hot loops below cannot afford.
@@ -69,7 +58,6 @@ const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
 const V_ASSEMBLY = V_ASSEMBLY_BINDING;
 const V_BOUNDS = V_BOUNDS_BINDING;
-const V_BRANCH = V_BRANCH_BINDING;
 const V_ORDER = V_ORDER_BINDING;
 const V_SLOTS = V_SLOTS_BINDING;
 const REFINE_T = REFINE_T_BINDING;
@@ -89,115 +77,34 @@ export const ALIGNMENT_OFFSETS = 12;
 /** Alternations of matching and fitting in a free placement with matched timing. */
 export const ALIGNMENT_ITERATIONS = 3;
 
-/** The defects that mean a lock on the way: the motion analysis finding one adds none of its own. */
-const LOCK_DEFECTS: readonly string[] = [DEFECT_NAMES[V_CRANK_BINDING], DEFECT_NAMES[V_ASSEMBLY_BINDING], DEFECT_NAMES[V_BRANCH_BINDING]];
-/** Violation counted for a lock only the motion analysis met (the share of a turn of one of its 1° steps). */
-const MISSED_LOCK_VIOLATION = 1 / 360;
-/** A motion shorter than this (rad) is none: the figures are taken over a full turn. */
-const MIN_MOTION_RAD = 1e-9;
 
-export interface CandidateReport {
-  readonly family: FamilyId;
-  /** The design vector (with refined driver values where evaluate writes them back). */
-  readonly x: number[];
-  readonly variables: Record<string, number>;
-  readonly error: ErrorSummary;
-  /** The value of the problem's measure. */
-  readonly value: number;
-  readonly violation: number;
-  readonly feasible: boolean;
-  /** The constraints the design breaks, in words. */
-  readonly defects: string[];
-  /**
-   * The design as a linkage, placed, ready for the linkage file. Its reference pose is the
-   * pose at target point 1 (`referencePose`), so its output point sits on the fitted path.
-   */
-  readonly linkage: Linkage;
-  /**
-   * Where `linkage` is drawn: 'target point 1' (the pose at the first target point's
-   * driver value), or 'design reference' when the design does not assemble there.
-   */
-  readonly referencePose: 'target point 1' | 'design reference';
-  /** The driver value at each target point, in the problem's frame (its timing's variables). */
-  readonly driverValues: number[];
-  /**
-   * The same values in the linkage's own driver frame (absolute angle of pivot → tip,
-   * rad; or length, mm): running `linkage` at `linkageDriverValues[i]` places the output
-   * point at `points[i]`.
-   */
-  readonly linkageDriverValues: number[];
-  /**
-   * The motion the figures below are taken over, in the linkage's driver frame: the
-   * range, step count and full-turn finding to give `loci analyze` (analyzeLinkage) to
-   * get the same figures.
-   */
-  readonly motion: CandidateMotionRange;
-  /** The output point at each target point, placed (x0, y0, x1, y1, …). */
-  readonly points: number[];
-  /** The fitted similarity of a free placement: p ↦ s R(θ) p + t. */
-  readonly placement?: { readonly scale: number; readonly rotationRad: number; readonly tx: number; readonly ty: number };
-  /** Class of the four-bar loop that holds the driven link (by the motion analysis). */
-  readonly grashof?: FourBarClass;
-  /** Least and greatest transmission angle of every four-bar loop over `motion`, deg. */
-  readonly transmissionDeg?: { readonly min: number; readonly max: number };
-  /** Bounding box of every joint and point over `motion`, mm. */
-  readonly sizeMm?: { readonly widthMm: number; readonly heightMm: number };
+/** The scratch a path response leaves describing the branch it evaluated last. */
+export interface PathResponse {
+  readonly n: number;
+  readonly branchCount: number;
+  /** (value, violation) of each branch, flat. */
+  readonly evaluation: Float64Array;
+  /** Violation slots of the branch evaluated last (encoding.ts V_*). */
+  readonly parts: Float64Array;
+  /** Driver values of every branch, n each. */
+  readonly times: Float64Array;
+  /** The driver values of the last branch unwrapped along its motion. */
+  readonly unwrapped: Float64Array;
+  /** The placed output points and their squared distances to the targets. */
+  readonly points: Float64Array;
+  readonly d2: Float64Array;
+  /** The fitted similarity of a free placement (SIM_A … SIM_TY). */
+  readonly sim: Float64Array;
+  readonly weights: Float64Array | undefined;
+  readonly refineFree: boolean;
+  /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
+  evaluateBranch(x: Float64Array, k: number): void;
+  /** Evaluates every branch; returns the best one's index. */
+  evaluateAll(x: Float64Array): number;
 }
 
-export interface Objective {
-  readonly family: FamilyId;
-  readonly dim: number;
-  /** Real bounds of each variable. */
-  readonly lower: Float64Array;
-  readonly upper: Float64Array;
-  readonly variableNames: readonly string[];
-  /**
-   * One evaluation: out[0] = value of the problem's measure, out[1] = constraint
-   * violation (0 feasible, > 0 otherwise). No allocation. With free timing and
-   * `refine`, the refined driver values are written back into x (Lamarckian), so the
-   * value is that of the x the caller then holds.
-   */
-  evaluate(x: Float64Array, out: Float64Array): void;
-  /** Which map takes the search box to designs: the problem's for this family (searchMap.ts). */
-  readonly searchMap: SearchMapKind;
-  /**
-   * The design x that a point u of the search box [0, 1]^dim stands for, inside
-   * [lower, upper]; allocates nothing. With the default 'affine' map this is
-   * `fromUnitBoxInto(u, lower, upper, x)`.
-   */
-  fromSearchBoxInto(u: ArrayLike<number>, x: Float64Array): Float64Array;
-  /** A search-box point standing for design x (the inverse of fromSearchBoxInto where it is one to one). */
-  toSearchBoxInto(x: ArrayLike<number>, u: Float64Array): Float64Array;
-  /** Full report of one design (allocates; for the archive and the top candidates). */
-  describe(x: Float64Array): CandidateReport;
-}
-
-function createEncoding(problem: Problem, family: FamilyId): MechanismEncoding {
-  const frame = targetFrame(problem.target.points);
-  const sized = frame.size > 0 ? frame : { ...frame, size: 1 };
-  if (family === 'fourbar-lengths') return createFourBarLengths(problem.placement, problem.constraints, sized);
-  return createPoseFamily(family, problem.constraints, sized);
-}
-
-/** The variable names of `family` on `problem`, in design-vector order. */
-export function objectiveVariableNames(problem: Problem, family: FamilyId): string[] {
-  const encoding = createEncoding(problem, family);
-  return variableNames(encoding, problem);
-}
-
-function variableNames(encoding: MechanismEncoding, problem: Problem): string[] {
-  const names = [...encoding.names];
-  if (problem.timing.mode === 'free') {
-    const n = problem.target.points.length / 2;
-    for (let i = 0; i < n; i++) names.push(`${encoding.driverName}_${i + 1}`);
-  }
-  return names;
-}
-
-export function createObjective(problem: Problem, family: FamilyId): Objective {
-  const encoding = createEncoding(problem, family);
-  const names = variableNames(encoding, problem);
-  const m = encoding.names.length;
+export function createPathResponse(problem: Problem, space: PathDesignSpace): PathResponse {
+  const { encoding, mechanismDim: m, dim, lower, upper } = space;
   const targets = Float64Array.from(problem.target.points);
   const weights = problem.target.weights === undefined ? undefined : Float64Array.from(problem.target.weights);
   const n = targets.length / 2;
@@ -205,37 +112,6 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
   const timing = problem.timing;
   const freePlacement = problem.placement === 'free';
   const measure = problem.measure;
-  const dim = names.length;
-
-  const lower = new Float64Array(dim);
-  const upper = new Float64Array(dim);
-  lower.set(encoding.lower);
-  upper.set(encoding.upper);
-  for (let i = m; i < dim; i++) {
-    lower[i] = 0;
-    upper[i] = TAU;
-  }
-  const overrides = problem.bounds[family] ?? {};
-  for (const [name, box] of Object.entries(overrides)) {
-    let matched = false;
-    for (let j = 0; j < dim; j++) {
-      if (names[j] === name || (j >= m && name === encoding.driverName)) {
-        lower[j] = box[0];
-        upper[j] = box[1];
-        matched = true;
-      }
-    }
-    if (!matched) throw new RangeError(`bounds.${family}.${name}: no such variable; expected one of ${names.join(', ')}${dim > m ? ` or ${encoding.driverName}` : ''}`);
-  }
-
-  const searchMap = createSearchMap(problem.searchMaps[family] ?? 'affine', {
-    family,
-    placement: problem.placement,
-    constraints: problem.constraints,
-    freeDrivers: timing.mode === 'free' ? n : 0,
-    lower,
-    upper,
-  });
 
   // Scratch, allocated once.
   const parts = new Float64Array(V_SLOTS);
@@ -279,18 +155,6 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
       if (i < n) targetArc[i] = total;
     }
     for (let i = 0; i < n; i++) targetArc[i] /= total;
-  }
-
-  function boundsViolation(x: Float64Array): number {
-    let v = 0;
-    for (let j = 0; j < dim; j++) {
-      const w = upper[j] - lower[j];
-      const xj = x[j];
-      if (xj < lower[j]) v += (lower[j] - xj) / w;
-      else if (xj > upper[j]) v += (xj - upper[j]) / w;
-      else if (Number.isNaN(xj)) v += 1;
-    }
-    return v;
   }
 
   function sampleCurve(): void {
@@ -435,7 +299,7 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
   /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
   function evaluateBranch(x: Float64Array, k: number): void {
     parts.fill(0);
-    parts[V_BOUNDS] = boundsViolation(x);
+    parts[V_BOUNDS] = boxViolation(x, lower, upper, dim);
     encoding.load(x, k, parts);
     const o = k * n;
     if (timing.mode === 'prescribed') {
@@ -513,13 +377,11 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
       const ey = points[2 * i + 1] - targets[2 * i + 1];
       d2[i] = ex * ex + ey * ey;
     }
-    let violation = 0;
-    for (let s = 0; s < V_SLOTS; s++) violation += parts[s];
+    let violation = sumViolations(parts, V_SLOTS);
     if (violation <= 0) {
       // Otherwise feasible: look for the locks narrower than the samples above.
       encoding.verify(spans, spanCount, parts);
-      violation = 0;
-      for (let s = 0; s < V_SLOTS; s++) violation += parts[s];
+      violation = sumViolations(parts, V_SLOTS);
     }
     evaluation[2 * k] = measureValue(measure, d2, n, weights);
     evaluation[2 * k + 1] = violation;
@@ -527,118 +389,9 @@ export function createObjective(problem: Problem, family: FamilyId): Objective {
 
   /** Evaluates every branch; returns the best one's index. */
   function evaluateAll(x: Float64Array): number {
-    let best = 0;
-    for (let k = 0; k < branchCount; k++) {
-      evaluateBranch(x, k);
-      if (k > 0 && compareRanks(evaluation[2 * k], evaluation[2 * k + 1], evaluation[2 * best], evaluation[2 * best + 1]) < 0) best = k;
-    }
-    return best;
+    for (let k = 0; k < branchCount; k++) evaluateBranch(x, k);
+    return bestRanked(evaluation, branchCount);
   }
 
-  function evaluate(x: Float64Array, out: Float64Array): void {
-    const best = evaluateAll(x);
-    if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
-    out[0] = evaluation[2 * best];
-    out[1] = evaluation[2 * best + 1];
-  }
-
-  function describe(xIn: Float64Array): CandidateReport {
-    const x = Float64Array.from(xIn);
-    const best = evaluateAll(x);
-    if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
-    // Leave the scratch (points, parts, sim, unwrapped) describing the kept branch.
-    evaluateBranch(x, best);
-    const value = evaluation[2 * best];
-    let violation = evaluation[2 * best + 1];
-    const defects: string[] = [];
-    for (let s = 0; s < V_SLOTS; s++) if (parts[s] > 0 || Number.isNaN(parts[s])) defects.push(DEFECT_NAMES[s]);
-    const t = times.slice(best * n, best * n + n);
-    const path = unwrapped.slice(0, n);
-    const sa = freePlacement ? sim[SIM_A] : 1;
-    const sb = freePlacement ? sim[SIM_B] : 0;
-    const tx = freePlacement ? sim[SIM_TX] : 0;
-    const ty = freePlacement ? sim[SIM_TY] : 0;
-    // Drawn at target point 1, so the exported pose sits on the fitted motion; where that
-    // pose does not compile (it does not assemble there), in the design's own reference.
-    let part = encoding.report(t[0], sa, sb, tx, ty);
-    let compiled = compile(part.linkage);
-    if (!compiled.ok && part.drawnAt !== 0) {
-      part = encoding.report(0, sa, sb, tx, ty);
-      compiled = compile(part.linkage);
-    }
-    if (!compiled.ok) throw new Error(`describe: the reported linkage does not compile: ${compiled.issues[0].message}`);
-    const plan = compiled.plan;
-    // Both frames measure the same input (a rotation about the same pivot; the placement
-    // is a similarity without reflection), so they differ by a constant.
-    const offset = plan.driverReferenceValue - part.drawnAt;
-    const motion = motionRange(path, offset, part.turnsFully);
-    const found = candidateFigures(plan, motion);
-    if (!found.ok) throw new Error(`describe: the motion analysis failed: ${found.reason}`);
-    const figures = found.figures;
-    if (figures.locks.length > 0 && !defects.some((d) => LOCK_DEFECTS.includes(d))) {
-      // The analysis meets a lock the search's checks did not: say so, and count it.
-      defects.push(DEFECT_NAMES[V_BRANCH]);
-      violation += MISSED_LOCK_VIOLATION;
-    }
-    const variables: Record<string, number> = {};
-    names.forEach((name, j) => {
-      variables[name] = x[j];
-    });
-    const feasible = violation <= 0;
-    const grashof = figures.grashof ?? part.grashof;
-    return {
-      family,
-      x: Array.from(x),
-      variables,
-      error: errorSummary(d2, n, weights),
-      value,
-      violation,
-      feasible,
-      defects,
-      linkage: part.linkage,
-      referencePose: part.drawnAt === t[0] ? 'target point 1' : 'design reference',
-      driverValues: Array.from(t),
-      linkageDriverValues: Array.from(t, (v) => offset + v),
-      motion,
-      points: Array.from(points),
-      ...(freePlacement ? { placement: { scale: Math.hypot(sa, sb), rotationRad: Math.atan2(sb, sa), tx, ty } } : {}),
-      ...(grashof === undefined ? {} : { grashof }),
-      ...(figures.transmissionDeg === undefined ? {} : { transmissionDeg: figures.transmissionDeg }),
-      ...(figures.sizeMm === undefined ? {} : { sizeMm: figures.sizeMm }),
-    };
-  }
-
-  return {
-    family,
-    dim,
-    lower,
-    upper,
-    variableNames: names,
-    evaluate,
-    searchMap: searchMap.kind,
-    fromSearchBoxInto: searchMap.fromSearchBoxInto,
-    toSearchBoxInto: searchMap.toSearchBoxInto,
-    describe,
-  };
-}
-
-/**
- * The motion a candidate makes, in the linkage's frame (problem-frame value + `offset`):
- * from the first target point's driver value, a full turn the way the target is traced
- * when the driver turns fully, else to the farthest driver value the target reaches.
- */
-function motionRange(path: Float64Array, offset: number, turnsFully: boolean): CandidateMotionRange {
-  const first = path[0];
-  const forward = path[path.length - 1] >= first;
-  let lo = first;
-  let hi = first;
-  for (let i = 1; i < path.length; i++) {
-    lo = Math.min(lo, path[i]);
-    hi = Math.max(hi, path[i]);
-  }
-  const from = offset + first;
-  if (turnsFully || !(hi - lo > MIN_MOTION_RAD)) {
-    return { from, to: from + (forward ? TAU : -TAU), fullTurn: turnsFully, steps: MOTION_ANALYSIS_STEPS };
-  }
-  return { from, to: offset + (forward ? hi : lo), fullTurn: false, steps: MOTION_ANALYSIS_STEPS };
+  return { n, branchCount, evaluation, parts, times, unwrapped, points, d2, sim, weights, refineFree, evaluateBranch, evaluateAll };
 }

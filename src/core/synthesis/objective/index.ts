@@ -1,0 +1,43 @@
+/**
+ * The function a search minimises, in parts with one job each: the design space
+ * (designSpace.ts), the response of a design (pathResponse.ts, suspensionResponse.ts),
+ * its score (score.ts, suspensionScore.ts) and its report (pathReport.ts,
+ * suspensionObjective.ts). createObjective builds them once per family or layout;
+ * evaluate allocates nothing.
+ */
+import type { LayoutKind } from '../../suspension';
+import { createEncoding, pathVariableNames } from './designSpace';
+import { createPathObjective } from './pathObjective';
+import { createSuspensionObjective, type SuspensionObjective } from './suspensionObjective';
+import type { FamilyId, Problem } from '../problem';
+import type { SuspensionProblem } from '../suspensionProblem';
+import type { Objective } from './types';
+
+export type { CandidateReport, Objective, SearchObjectiveOf } from './types';
+export type { PlainSuspensionReport, SuspensionCandidateReport, SuspensionObjective, SuspensionTermReport } from './suspensionObjective';
+export { ALIGNMENT_ITERATIONS, ALIGNMENT_OFFSETS, FREE_REFINE_MAX_STEP_RAD, REFINE_ITERATIONS } from './pathResponse';
+export { SUSPENSION_DEFECT_NAMES } from './suspensionResponse';
+export { MISSED_TROUBLE_VIOLATION, UNSCORED_VALUE, plainSuspensionReport } from './suspensionObjective';
+export { TERM_NAMES as SUSPENSION_TERM_NAMES } from './suspensionScore';
+export { boxViolation } from './designSpace';
+
+/** A problem of any kind: a path (no `kind`, or 'path') or a rear suspension. */
+export type SynthesisProblem = Problem | SuspensionProblem;
+
+export function isSuspensionProblem(problem: SynthesisProblem): problem is SuspensionProblem {
+  return (problem as { kind?: unknown }).kind === 'suspension';
+}
+
+/** The objective of one family (path) or layout (suspension) of a problem made by createProblem or createSuspensionProblem. */
+export function createObjective(problem: SuspensionProblem, layout: LayoutKind): SuspensionObjective;
+// The path overload last: ReturnType<typeof createObjective> is the path objective, as before.
+export function createObjective(problem: Problem, family: FamilyId): Objective;
+export function createObjective(problem: SynthesisProblem, family: FamilyId | LayoutKind): Objective | SuspensionObjective {
+  if (isSuspensionProblem(problem)) return createSuspensionObjective(problem, family as LayoutKind);
+  return createPathObjective(problem, family as FamilyId);
+}
+
+/** The variable names of `family` on `problem`, in design-vector order. */
+export function objectiveVariableNames(problem: Problem, family: FamilyId): string[] {
+  return pathVariableNames(createEncoding(problem, family), problem);
+}

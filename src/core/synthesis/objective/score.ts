@@ -1,0 +1,23 @@
+/**
+ * Scoring: the violation of a design is the sum of its normalised constraint slots, and
+ * designs (or the branches of one design) rank feasibility first (ranking.ts). Each kind
+ * of problem adds its own value on top: the path measure here, the weighted suspension
+ * terms in suspensionScore.ts.
+ */
+import { compareRanks } from '../ranking';
+
+/** Sum of the violation slots, in slot order. */
+export function sumViolations(parts: Float64Array, count: number): number {
+  let violation = 0;
+  for (let s = 0; s < count; s++) violation += parts[s];
+  return violation;
+}
+
+/** Index of the best of `count` (value, violation) pairs stored flat in `evaluation`, feasibility first. */
+export function bestRanked(evaluation: Float64Array, count: number): number {
+  let best = 0;
+  for (let k = 1; k < count; k++) {
+    if (compareRanks(evaluation[2 * k], evaluation[2 * k + 1], evaluation[2 * best], evaluation[2 * best + 1]) < 0) best = k;
+  }
+  return best;
+}
