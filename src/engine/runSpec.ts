@@ -55,7 +55,10 @@ export interface RunInput {
 export const DEFAULT_STEP_MS = 200;
 export const DEFAULT_STEP_EVALUATIONS = 2000;
 export const DEFAULT_MIGRATION = { everyRounds: 5, count: 2 } as const;
-export const DEFAULT_ARCHIVE = { capacity: 32, distance: 0.01 } as const;
+/** Each job (a family) keeps its 64 best distinct designs: room for the 50 a results table shows per family. */
+export const DEFAULT_ARCHIVE = { capacity: 64, distance: 0.01 } as const;
+/** Designs per family a results table asks the run to describe (RunOptions.perJob). */
+export const DEFAULT_RESULTS_PER_FAMILY = 50;
 export const DEFAULT_CHECKPOINT_EVERY_MS = 30_000;
 /** An island's optimizer budget when the run has a time budget only. */
 export const DEFAULT_ISLAND_EVALUATIONS = 1_000_000;
@@ -65,7 +68,10 @@ export const MAX_ISLANDS_PER_JOB = 256;
 export const MAX_ISLANDS = 4096;
 const MAX_STEP_MS = 600_000;
 const MAX_STEP_EVALUATIONS = 100_000_000;
-const MAX_SECONDS = 30 * 24 * 3600;
+/** Largest evaluation budget of a run: far past any search worth running, and far inside exact integers. */
+export const MAX_BUDGET_EVALUATIONS = 1_000_000_000;
+/** Longest time budget of a run, seconds: 30 days. */
+export const MAX_BUDGET_SECONDS = 30 * 24 * 3600;
 
 export type DefineResult = { readonly ok: true; readonly spec: RunSpec } | { readonly ok: false; readonly reason: string };
 
@@ -109,8 +115,8 @@ function readBudget(v: unknown): RunSpec['budget'] {
   const o = v as Record<string, unknown>;
   const evaluations = o.evaluations ?? null;
   const seconds = o.seconds ?? null;
-  need(evaluations === null || isInteger(evaluations, 1, Number.MAX_SAFE_INTEGER), 'budget.evaluations', evaluations, 'an integer ≥ 1, or null');
-  need(seconds === null || (typeof seconds === 'number' && seconds > 0 && seconds <= MAX_SECONDS), 'budget.seconds', seconds, `a number of seconds in (0, ${MAX_SECONDS}], or null`);
+  need(evaluations === null || isInteger(evaluations, 1, MAX_BUDGET_EVALUATIONS), 'budget.evaluations', evaluations, `an integer in [1, ${MAX_BUDGET_EVALUATIONS}], or null`);
+  need(seconds === null || (typeof seconds === 'number' && seconds > 0 && seconds <= MAX_BUDGET_SECONDS), 'budget.seconds', seconds, `a number of seconds in (0, ${MAX_BUDGET_SECONDS}], or null`);
   need(evaluations !== null || seconds !== null, 'budget', v, 'an evaluation budget, a time budget, or both');
   return { evaluations: evaluations as number | null, seconds: seconds as number | null };
 }

@@ -143,6 +143,12 @@ export function RunControls({ startIssues }: { startIssues: readonly string[] })
             {run.message}
           </p>
         )}
+        {run.message !== null && run.messageDetail !== null && (
+          <details className="panel-note run-message-detail" data-testid="run-message-detail">
+            <summary>Details</summary>
+            {run.messageDetail}
+          </details>
+        )}
       </div>
     </section>
   );

@@ -8,6 +8,7 @@ import { PROBLEM_FILE_FORMAT, PROBLEM_FILE_VERSION } from '../../core/io/problem
 import { createProblem, type ProblemInput, type ProblemIssue } from '../../core/synthesis';
 import { familyLabel, type FamilyId } from '../state/families';
 import type { Project } from '../state/project';
+import { hasWeights } from '../state/target';
 
 /** Candidates the run describes at its end and the results table gets. */
 export const CANDIDATES_SHOWN = 20;
@@ -27,7 +28,11 @@ export function problemInputOf(project: Project): ProblemInput {
         : { mode: 'unprescribed' };
   return {
     name: project.name,
-    target: { points: target.points.map((p) => [p.x, p.y]), closed: target.closed },
+    target: {
+      points: target.points.map((p) => [p.x, p.y]),
+      closed: target.closed,
+      ...(hasWeights(target) ? { weights: target.points.map((p) => p.weight ?? 0) } : {}),
+    },
     timing,
     placement: settings.placement,
     families: [...settings.families],
@@ -77,6 +82,8 @@ function placeOf(path: string): string {
   if (bound !== null) return `Variable bounds, ${familyLabel(bound[1] as FamilyId)} ${bound[2]}`;
   const point = /^target\.points\[(\d+)\]/.exec(path);
   if (point !== null) return `Target point ${Number(point[1]) + 1}`;
+  const weight = /^target\.weights\[(\d+)\]/.exec(path);
+  if (weight !== null) return `Weight of target point ${Number(weight[1]) + 1}`;
   const circle = /^constraints\.keepOut\[(\d+)\]/.exec(path);
   if (circle !== null) return `Keep-out region ${Number(circle[1]) + 1}`;
   if (path.startsWith('constraints.minTransmission')) return 'Minimum transmission angle';

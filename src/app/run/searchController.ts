@@ -47,6 +47,23 @@ function reportsOf(candidates: readonly RankedCandidate[]): CandidateReport[] {
   return candidates.flatMap((c) => (c.detail.kind === 'synthesis' ? [c.detail.candidate] : []));
 }
 
+/** What a search's failure says to the user: what happened in words, and the engine's reason (workers unnamed) apart. */
+export function failureWords(what: 'start' | 'stopped' | 'resume', reason: string): { message: string; messageDetail: string } {
+  const refused = /\bworker \d+ refused\b/.test(reason);
+  const lost = /\bworker \d+ failed\b/.test(reason);
+  const head = what === 'start' ? 'The search could not start' : what === 'resume' ? 'The search could not resume' : 'The search stopped before its end';
+  const why = refused
+    ? 'the search workers refused this problem. Check the target and the search settings, then start again.'
+    : lost
+      ? 'a search worker stopped working and could not be replaced (the browser may be short of memory). The results so far are kept; start again, perhaps with fewer workers.'
+      : what === 'resume'
+        ? 'no checkpoint of it could be read back whole. The results so far are kept; start the search again.'
+        : 'an unexpected problem. The results so far are kept; start again, and if it happens again, note the details below.';
+  // The engine names its workers and calls ("worker 0 refused init: …"); the reason after them is what matters.
+  const detail = reason.replace(/\bworker \d+ (?:refused [\w -]+?|failed): /g, '').trim();
+  return { message: `${head}: ${why}`, messageDetail: detail.length > 0 ? detail : reason };
+}
+
 export class SearchController {
   private readonly store: Store;
   private readonly deps: SearchDeps;
@@ -67,8 +84,10 @@ export class SearchController {
     return this.store.getState().project;
   }
 
+  /** A new message replaces the details of the one before. */
   private update(patch: Partial<RunState>): void {
-    this.store.dispatch({ type: 'run/update', patch });
+    const full = patch.message !== undefined && patch.messageDetail === undefined ? { ...patch, messageDetail: null } : patch;
+    this.store.dispatch({ type: 'run/update', patch: full });
   }
 
   private describer: InterimDescriber | null = null;
@@ -119,7 +138,7 @@ export class SearchController {
     if (!made.ok) {
       this.describer?.close();
       this.describer = null;
-      this.update({ status: 'failed', message: `Cannot start: ${made.reason}` });
+      this.update({ status: 'failed', ...failureWords('start', made.reason) });
       return;
     }
     this.runTarget = snapshotTarget(project.target);
@@ -232,7 +251,7 @@ export class SearchController {
     this.trailing = null;
     this.run = null;
     if (!result.ok) {
-      this.update({ status: 'failed', message: `The search stopped: ${result.reason}` });
+      this.update({ status: 'failed', ...failureWords('stopped', result.reason) });
       return;
     }
     const target = this.runTarget ?? snapshotTarget(this.project.target);
@@ -297,7 +316,7 @@ export class SearchController {
     if (!restored.ok) {
       this.describer?.close();
       this.describer = null;
-      this.update({ status: 'failed', message: `The search could not resume from a checkpoint: ${restored.reason}` });
+      this.update({ status: 'failed', ...failureWords('resume', restored.reason) });
       return;
     }
     // The candidates of the checkpoint it goes on from, straight away rather than at the next checkpoint.

@@ -5,13 +5,16 @@
  * src/core/synthesis/problem.ts), so a value a field accepts is one a search accepts.
  */
 import { MAX_BOUND_MAGNITUDE, MAX_CONSTRAINT_MM } from '../../core/synthesis/problem';
+import { MAX_BUDGET_EVALUATIONS, MAX_BUDGET_SECONDS } from '../../engine/runSpec';
 
 export type Checked<T> = { readonly ok: true; readonly value: T } | { readonly ok: false; readonly message: string };
 
-/** The app's largest evaluation budget. The engine's run spec sets none below Number.MAX_SAFE_INTEGER and exports none. */
-export const MAX_EVALUATIONS = 1_000_000_000;
-/** The app's longest time budget: a week. The engine accepts up to 30 days but exports no constant for it. */
-export const MAX_SECONDS = 7 * 24 * 3600;
+/** The largest evaluation budget: the engine's. */
+export const MAX_EVALUATIONS = MAX_BUDGET_EVALUATIONS;
+/** The longest time budget, seconds: the engine's. */
+export const MAX_SECONDS = MAX_BUDGET_SECONDS;
+/** MAX_SECONDS in days, for messages. */
+const MAX_DAYS = MAX_SECONDS / (24 * 3600);
 /** The seeds the engine's run spec and the optimizers' configuration accept: safe integers ≥ 0. */
 export const MAX_SEED = Number.MAX_SAFE_INTEGER;
 /** A transmission angle is measured as the acute angle between coupler and output link: 0° to 90°. */
@@ -74,12 +77,12 @@ export function checkEvaluations(text: string, islands: number): Checked<number>
 
 export function checkSeconds(text: string): Checked<number> {
   const field = 'Budget in seconds';
-  const expected = `a time above 0 s, up to ${formatCount(MAX_SECONDS)} s (a week)`;
+  const expected = `a time above 0 s, up to ${formatCount(MAX_SECONDS)} s (${formatCount(MAX_DAYS)} days)`;
   const n = numberOf(field, text, expected);
   if (!n.ok) return n;
   const { value, text: shown } = n.value;
   if (!(value > 0)) return fail(`${field}: ${shown} s is no time at all; expected ${expected}.`);
-  if (!(value <= MAX_SECONDS)) return fail(`${field}: ${shown} s is longer than a week; expected ${expected}.`);
+  if (!(value <= MAX_SECONDS)) return fail(`${field}: ${shown} s is longer than ${formatCount(MAX_DAYS)} days; expected ${expected}.`);
   return { ok: true, value };
 }
 

@@ -8,7 +8,8 @@ import type { CandidateReport } from '../../core/synthesis';
 import type { FamilyId } from './families';
 
 export const PROJECT_FORMAT = 'loci-workspace-project';
-export const PROJECT_VERSION = 1;
+/** 2: target points may carry weights (a version 1 project has none and is read as unweighted). */
+export const PROJECT_VERSION = 2;
 
 export type TimingMode = 'prescribed' | 'free' | 'unprescribed';
 
@@ -18,6 +19,12 @@ export interface TargetPoint {
   readonly y: number;
   /** Prescribed crank angle at this point, degrees; null when not given. */
   readonly driverDeg: number | null;
+  /**
+   * Relative weight of this point in the error (0 … MAX_WEIGHT of the problem). Every
+   * point of a weighted target has one and no point of an unweighted target has one:
+   * absent, every point counts the same.
+   */
+  readonly weight?: number;
 }
 
 /** A picture under the drawing (a side view, a sketch, a photo), placed and scaled in mm. */
@@ -97,6 +104,8 @@ export interface RunState {
   readonly stopReason: string | null;
   /** A message about the run for the user (why it failed, what was skipped). */
   readonly message: string | null;
+  /** The technical reason behind `message` (what the engine said), shown apart under Details; null for none. */
+  readonly messageDetail: string | null;
   /** Number of target points the run was started with (to turn a sum of squares into RMS). */
   readonly targetPointCount: number;
   readonly measure: Measure;
@@ -155,6 +164,7 @@ export const IDLE_RUN: RunState = {
   resumedFrom: null,
   stopReason: null,
   message: null,
+  messageDetail: null,
   targetPointCount: 0,
   measure: 'rms',
 };

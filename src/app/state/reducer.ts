@@ -56,7 +56,8 @@ export type Action =
   | { readonly type: 'target/replace'; readonly points: readonly TargetPoint[]; readonly closed?: boolean; readonly timing?: TimingMode; readonly notice?: Notice | null }
   | { readonly type: 'target/add'; readonly x: number; readonly y: number }
   | { readonly type: 'target/move'; readonly index: number; readonly x: number; readonly y: number }
-  | { readonly type: 'target/edit'; readonly index: number; readonly field: 'x' | 'y' | 'driverDeg'; readonly value: number | null }
+  | { readonly type: 'target/edit'; readonly index: number; readonly field: T.PointField; readonly value: number | null }
+  | { readonly type: 'target/weighted'; readonly on: boolean }
   | { readonly type: 'target/delete'; readonly index: number }
   | { readonly type: 'target/clear' }
   | { readonly type: 'target/closed'; readonly closed: boolean }
@@ -154,6 +155,8 @@ function reduceTarget(state: WorkspaceState, action: Action): WorkspaceState {
       return withTarget(state, T.setClosed(target, action.closed));
     case 'target/timing':
       return withTarget(state, T.setTiming(target, action.timing));
+    case 'target/weighted':
+      return withTarget(state, T.setWeighted(target, action.on));
     case 'target/spread-angles':
       return withTarget(state, T.spreadAngles(target));
     case 'target/resample': {

@@ -1,5 +1,6 @@
 /** Pure updates of the target: each takes a target and returns a new one. */
 import { REPEATED_POINT_TOL_MM, firstRepeats } from '../../core/io/pointsCsv';
+import { MAX_WEIGHT } from '../../core/synthesis/problem';
 import type { BackgroundImage, TargetPoint, TargetState, TimingMode } from './project';
 
 export const EMPTY_TARGET: TargetState = { points: [], closed: false, timing: 'unprescribed', background: null };
@@ -12,33 +13,66 @@ export function roundMm(mm: number): number {
   return Math.round(mm * f) / f;
 }
 
-function point(x: number, y: number, driverDeg: number | null = null): TargetPoint {
-  return { x: roundMm(x), y: roundMm(y), driverDeg };
+/** The weight a point gets when it joins a weighted target (a new point, or weights switched on). */
+export const DEFAULT_WEIGHT = 1;
+
+function point(x: number, y: number, driverDeg: number | null = null, weight?: number): TargetPoint {
+  return weight === undefined ? { x: roundMm(x), y: roundMm(y), driverDeg } : { x: roundMm(x), y: roundMm(y), driverDeg, weight };
 }
 
+/** Whether the target's points carry weights (all of them do, or none). */
+export function hasWeights(target: TargetState): boolean {
+  return target.points.length > 0 && target.points.every((p) => p.weight !== undefined);
+}
+
+/** A weight a point can hold: finite, 0 … MAX_WEIGHT (the problem's limit). */
+export function isWeight(w: number): boolean {
+  return w >= 0 && w <= MAX_WEIGHT;
+}
+
+/** Points keep their weights only when every one has a valid weight: a target is weighted whole or not at all. */
 export function setPoints(target: TargetState, points: readonly TargetPoint[]): TargetState {
-  return { ...target, points: points.map((p) => point(p.x, p.y, p.driverDeg)) };
+  const weighted = points.length > 0 && points.every((p) => p.weight !== undefined && isWeight(p.weight));
+  return { ...target, points: points.map((p) => point(p.x, p.y, p.driverDeg, weighted ? p.weight : undefined)) };
 }
 
-/** Adds a point at the end, or after `afterIndex`. */
+/** Adds a point at the end, or after `afterIndex`; on a weighted target it gets DEFAULT_WEIGHT. */
 export function addPoint(target: TargetState, x: number, y: number, afterIndex: number | null = null): TargetState {
   const at = afterIndex === null ? target.points.length : Math.max(0, Math.min(target.points.length, afterIndex + 1));
   const points = [...target.points];
-  points.splice(at, 0, point(x, y));
+  points.splice(at, 0, point(x, y, null, hasWeights(target) ? DEFAULT_WEIGHT : undefined));
   return { ...target, points };
 }
 
 export function movePoint(target: TargetState, index: number, x: number, y: number): TargetState {
   if (!(index >= 0 && index < target.points.length)) return target;
   const points = [...target.points];
-  points[index] = point(x, y, points[index].driverDeg);
+  points[index] = point(x, y, points[index].driverDeg, points[index].weight);
   return { ...target, points };
 }
 
-/** Sets one field of one point (from the point table); a non-finite number leaves it unchanged. */
-export function editPoint(target: TargetState, index: number, field: 'x' | 'y' | 'driverDeg', value: number | null): TargetState {
+/** Gives every point DEFAULT_WEIGHT (on), or drops the weights so every point counts the same (off). */
+export function setWeighted(target: TargetState, on: boolean): TargetState {
+  if (on === hasWeights(target) || target.points.length === 0) return target;
+  return { ...target, points: target.points.map((p) => point(p.x, p.y, p.driverDeg, on ? DEFAULT_WEIGHT : undefined)) };
+}
+
+export type PointField = 'x' | 'y' | 'driverDeg' | 'weight';
+
+/**
+ * Sets one field of one point (from the point table). What the table's fields refuse is
+ * refused here too, leaving the target unchanged: a non-finite number, an empty x or y, a
+ * weight outside 0 … MAX_WEIGHT or on an unweighted target.
+ */
+export function editPoint(target: TargetState, index: number, field: PointField, value: number | null): TargetState {
   if (!(index >= 0 && index < target.points.length)) return target;
   const old = target.points[index];
+  if (field === 'weight') {
+    if (value === null || !isWeight(value) || old.weight === undefined) return target;
+    const points = [...target.points];
+    points[index] = { ...old, weight: value };
+    return { ...target, points };
+  }
   if (field === 'driverDeg') {
     if (value !== null && !Number.isFinite(value)) return target;
     const points = [...target.points];
@@ -119,6 +153,7 @@ export function targetProblem(target: TargetState): string | null {
   const repeats = firstRepeats(xs, ys, n, REPEATED_POINT_TOL_MM);
   const i = repeats.findIndex((j) => j !== -1);
   if (i !== -1) return `points ${repeats[i] + 1} and ${i + 1} are in the same place; each point must be different`;
+  if (hasWeights(target) && !target.points.some((p) => (p.weight ?? 0) > 0)) return 'every point has weight 0; expected at least one point with a weight above 0';
   return null;
 }
 

@@ -1,9 +1,11 @@
 /**
  * What a saved project must look like to be opened again: checked once when it is read
- * back from storage (an older or damaged record opens the demo instead, with a message).
+ * back from storage (a damaged record, or one from a newer version, opens the demo
+ * instead, with a message). An older version is brought up to this one first.
  */
 import { z } from 'zod';
 import type { CandidateReport } from '../../core/synthesis';
+import { MAX_WEIGHT } from '../../core/synthesis/problem';
 import { FAMILY_CHOICES, type FamilyId } from '../state/families';
 import { PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../state/project';
 
@@ -11,7 +13,7 @@ const finite = z.number().refine(Number.isFinite, 'expected a finite number');
 const familyIds = FAMILY_CHOICES.map((f) => f.id) as [FamilyId, ...FamilyId[]];
 const range = z.tuple([finite, finite]);
 
-const point = z.object({ x: finite, y: finite, driverDeg: finite.nullable() });
+const point = z.object({ x: finite, y: finite, driverDeg: finite.nullable(), weight: z.number().min(0).max(MAX_WEIGHT).optional() });
 const background = z.object({
   imageId: z.string(),
   name: z.string(),
@@ -24,7 +26,11 @@ const background = z.object({
   calibrated: z.boolean(),
 });
 const target = z.object({
-  points: z.array(point).max(5000),
+  points: z
+    .array(point)
+    .max(5000)
+    .refine((ps) => ps.every((p) => p.weight === undefined) || ps.every((p) => p.weight !== undefined), 'expected a weight on every point or on none')
+    .refine((ps) => ps.length === 0 || ps[0].weight === undefined || ps.some((p) => (p.weight ?? 0) > 0), 'every weight is 0; expected at least one above 0'),
   closed: z.boolean(),
   timing: z.enum(['prescribed', 'free', 'unprescribed']),
   background: background.nullable(),
@@ -59,6 +65,8 @@ const run = z.object({
   resumedFrom: z.object({ round: z.number(), evaluations: z.number() }).nullable(),
   stopReason: z.string().nullable(),
   message: z.string().nullable(),
+  // Absent in projects saved before runs kept a message's details apart.
+  messageDetail: z.string().nullable().default(null),
   targetPointCount: z.number().int().min(0),
   measure: z.enum(['rms', 'sum-of-squares', 'max']),
 });
@@ -85,8 +93,19 @@ const project = z.object({
 
 export type ReadProject = { readonly ok: true; readonly project: Project } | { readonly ok: false; readonly reason: string };
 
+/**
+ * Version 1 → 2: points gained an optional weight. A version 1 project has none, so it
+ * reads as it is: an unweighted target. Anything else is left for the schema to refuse.
+ */
+function migrate(value: unknown): unknown {
+  if (typeof value !== 'object' || value === null) return value;
+  const record = value as Record<string, unknown>;
+  if (record.format !== PROJECT_FORMAT || record.version !== 1) return value;
+  return { ...record, version: PROJECT_VERSION };
+}
+
 export function readProject(value: unknown): ReadProject {
-  const parsed = project.safeParse(value);
+  const parsed = project.safeParse(migrate(value));
   if (parsed.success) {
     const data = parsed.data;
     return { ok: true, project: { ...data, candidates: data.candidates as unknown as CandidateReport[] } as Project };

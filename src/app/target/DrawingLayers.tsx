@@ -109,7 +109,7 @@ export function PointsLayer({ points, selected, x, y, onPointerDown }: PointsLay
             r={i === selected ? 6 : 4.5}
             onPointerDown={(event) => onPointerDown(i, event)}
           >
-            <title>{`point ${i + 1}: x ${p.x} mm, y ${p.y} mm${p.driverDeg === null ? '' : `, crank ${p.driverDeg}°`}`}</title>
+            <title>{`point ${i + 1}: x ${p.x} mm, y ${p.y} mm${p.driverDeg === null ? '' : `, crank ${p.driverDeg}°`}${p.weight === undefined ? '' : `, weight ${p.weight}`}`}</title>
           </circle>
           {labelEvery > 0 && i % labelEvery === 0 && (
             <text x={x(p.x) + 7} y={y(p.y) - 7} className="point-label">

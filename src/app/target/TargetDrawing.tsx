@@ -32,6 +32,16 @@ function keepOutExtent(regions: readonly KeepOutRegion[]): Extent | null {
   };
 }
 
+/** The bound regions drawn (where a family's ground pivots may be), mm; infinite edges are left out. */
+function regionsExtent(regions: readonly PositionRegion[]): Extent | null {
+  let extent: Extent | null = null;
+  for (const r of regions) {
+    if (![r.minX, r.maxX, r.minY, r.maxY].every(Number.isFinite)) continue;
+    extent = mergeExtents(extent, { minX: r.minX, maxX: r.maxX, minY: r.minY, maxY: r.maxY });
+  }
+  return extent;
+}
+
 function useWidth(ref: React.RefObject<HTMLElement | null>): number {
   const [width, setWidth] = useState(640);
   useEffect(() => {
@@ -69,7 +79,8 @@ export function TargetDrawing({ regions }: { regions: readonly PositionRegion[] 
   // The frame is fitted when asked (a new target, "Fit view", a resize), not on every edit, so the view does not jump under the mouse.
   const fitRequest = useWorkspace((s) => s.ui.fitRequest);
   const fitKey = `${fitRequest}:${width}`;
-  const extentNow = mergeExtents(targetExtent(target), keepOutExtent(keepOut));
+  // Fit shows all that is drawn: the target and its image, the bound regions and the keep-out circles.
+  const extentNow = mergeExtents(mergeExtents(targetExtent(target), keepOutExtent(keepOut)), regionsExtent(regions));
   const [fitted, setFitted] = useState({ key: fitKey, extent: extentNow });
   if (fitted.key !== fitKey) setFitted({ key: fitKey, extent: extentNow });
   useEffect(() => {

@@ -1,10 +1,11 @@
 /** Target entry: paste or import CSV, the point table, open or closed, timing, resampling, and the background image. */
 import { useId, useState } from 'react';
-import { formatPointsCsv } from '../../core/io/pointsCsv';
+import { MAX_POINTS_CSV_CHARS, formatPointsCsv } from '../../core/io/pointsCsv';
 import { isLocked, type TimingMode } from '../state/project';
 import { useDispatch, useStore, useWorkspace } from '../state/store';
 import { BackgroundControls } from './BackgroundControls';
-import { fileTooLarge, importCsvAction } from './csvImport';
+import { parsePointsCsvOffThread } from './csvParse';
+import { MAX_CSV_BOX_CHARS, fileTooLarge, importCsvAction, importTableAction, tooLargeAction } from './csvImport';
 import { NoticeBox } from './NoticeBox';
 import { PointTable } from './PointTable';
 import { MAX_RESAMPLE_POINTS, MIN_RESAMPLE_POINTS } from './resample';
@@ -34,6 +35,33 @@ export function TargetPanel() {
   const [count, setCount] = useState(String(Math.max(MIN_RESAMPLE_POINTS, target.points.length || 24)));
   const id = useId();
 
+  /** Text too long for the box, read in a worker: a megabyte takes the reader longer than a frame. */
+  const readDirectly = async (text: string, what: string) => {
+    const table = await parsePointsCsvOffThread(text);
+    dispatch(importTableAction(table, `${what} (${Math.round(text.length / 1000)} kB, read directly: too long to edit in the box)`, store.getState().project.target));
+  };
+
+  /**
+   * Large text never reaches the box: a text area lays out all its text again on every
+   * edit, so one holding a long paste can hold the page for minutes. Text the reader
+   * would refuse is refused here, with its message; text too long for the box but not
+   * for a target is read at once, without the box.
+   */
+  const takeIncoming = (event: React.ClipboardEvent<HTMLTextAreaElement> | React.DragEvent<HTMLTextAreaElement>, incoming: string, what: string) => {
+    const box = event.currentTarget;
+    const replaced = event.type === 'paste' ? box.selectionEnd - box.selectionStart : 0;
+    const total = box.value.length - replaced + incoming.length;
+    const refused = tooLargeAction(Math.max(total, incoming.length), what, 'text');
+    if (refused !== null) {
+      event.preventDefault();
+      dispatch(refused);
+      return;
+    }
+    if (total <= MAX_CSV_BOX_CHARS) return;
+    event.preventDefault();
+    void readDirectly(incoming, what);
+  };
+
   const readPasted = () => dispatch(importCsvAction(csv, 'the pasted text', store.getState().project.target));
   const readFile = async (file: File) => {
     const refused = fileTooLarge(file);
@@ -41,7 +69,9 @@ export function TargetPanel() {
       dispatch(refused);
       return;
     }
-    dispatch(importCsvAction(await file.text(), `file ${file.name}`, store.getState().project.target));
+    const text = await file.text();
+    if (text.length <= MAX_CSV_BOX_CHARS) dispatch(importCsvAction(text, `file ${file.name}`, store.getState().project.target));
+    else dispatch(importTableAction(await parsePointsCsvOffThread(text), `file ${file.name}`, store.getState().project.target));
   };
 
   return (
@@ -76,9 +106,28 @@ export function TargetPanel() {
         <details className="csv-entry" open={target.points.length === 0}>
           <summary>Paste or import CSV</summary>
           <label htmlFor={`${id}-csv`} className="block-label">
-            Rows of x, y in mm (and a crank angle in degrees, optional); comma, semicolon or tab; a header row is optional.
+            Rows of x, y in mm (and optionally a crank angle in degrees and a weight); comma, semicolon or tab; a header row is optional; at most{' '}
+            {MAX_POINTS_CSV_CHARS / 1000} kB.
           </label>
-          <textarea id={`${id}-csv`} rows={6} value={csv} spellCheck={false} onChange={(e) => setCsv(e.target.value)} placeholder={'x;y\n0;0\n10,5;2\n…'} />
+          <textarea
+            id={`${id}-csv`}
+            rows={6}
+            value={csv}
+            spellCheck={false}
+            onPaste={(e) => takeIncoming(e, e.clipboardData.getData('text/plain'), 'the pasted text')}
+            onDrop={(e) => takeIncoming(e, e.dataTransfer.getData('text/plain'), 'the dropped text')}
+            onChange={(e) => {
+              // Any other way in (an input method, a script) is held to the same sizes.
+              const text = e.target.value;
+              if (text.length <= MAX_CSV_BOX_CHARS) setCsv(text);
+              else {
+                const refused = tooLargeAction(text.length, 'the text', 'text');
+                if (refused !== null) dispatch(refused);
+                else void readDirectly(text, 'the text');
+              }
+            }}
+            placeholder={'x;y\n0;0\n10,5;2\n…'}
+          />
           <div className="row-actions">
             <button type="button" onClick={readPasted} disabled={csv.trim().length === 0}>
               Read pasted points

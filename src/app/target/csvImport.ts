@@ -1,39 +1,61 @@
 /** From CSV text (pasted or from a file) to the action that replaces the target, or the one that reports why not. */
-import { MAX_POINTS_CSV_CHARS, delimiterName, parsePointsCsv } from '../../core/io/pointsCsv';
+import { MAX_POINTS_CSV_CHARS, delimiterName, parsePointsCsv, type PointsCsvResult } from '../../core/io/pointsCsv';
 import type { Action } from '../state/reducer';
 import type { TargetState } from '../state/project';
 
+/**
+ * The table says itself whether the path closes (its last row repeats the first): a
+ * pasted open path after a closed one is open, and the notice says which it is.
+ */
 export function importCsvAction(text: string, source: string, current: TargetState): Action {
-  const table = parsePointsCsv(text);
+  return importTableAction(parsePointsCsv(text), source, current);
+}
+
+/** The same, from what the reader made of the text (in a worker, for a long text). */
+export function importTableAction(table: PointsCsvResult, source: string, current: TargetState): Action {
   if (!table.ok) return { type: 'target/import-failed', issues: table.issues, source };
-  const points = table.points.map((p, i) => ({ x: p.x, y: p.y, driverDeg: table.driverDeg?.[i] ?? null }));
+  const weights = table.weights;
+  const points = table.points.map((p, i) => {
+    const at = { x: p.x, y: p.y, driverDeg: table.driverDeg?.[i] ?? null };
+    return weights === null ? at : { ...at, weight: weights[i] };
+  });
   const read = [
     `${delimiterName(table.delimiter)}-separated${table.decimalComma ? ', decimal comma' : ''}${table.header === null ? ', no header' : `, columns ${table.header.join(' | ')}`}`,
   ];
-  if (table.closedByRepeat) read.push('The last row repeated the first, so it was dropped and the path is closed.');
+  read.push(
+    table.closedByRepeat
+      ? 'The last row repeated the first, so it was dropped and the path is closed.'
+      : 'The last row does not repeat the first, so the path is open. To make a loop, tick "Closed path" or end the table with its first point.',
+  );
   if (table.driverDeg !== null) read.push('Crank angles were read (degrees), so the timing is set to prescribed.');
-  if (table.weights !== null) read.push(weightsLine(table.weights));
+  if (weights !== null) read.push(`Weights were read (from ${Math.min(...weights)} to ${Math.max(...weights)}); they are in the weight column of the point table and the search uses them.`);
   return {
     type: 'target/replace',
     points,
-    closed: table.closedByRepeat ? true : current.closed,
+    closed: table.closedByRepeat,
     timing: table.driverDeg !== null ? 'prescribed' : current.timing === 'prescribed' ? 'unprescribed' : current.timing,
     notice: { kind: 'info', title: `Read ${points.length} points from ${source}`, lines: read },
   };
 }
 
-/** The page weights every point equally: say so when the file's weights differ, rather than drop them unseen. */
-function weightsLine(weights: readonly number[]): string {
-  if (weights.every((w) => w === weights[0])) return 'The weight column gives every point the same weight, as this page does.';
-  return 'The weight column was read but is not used: this page weights every point equally. To fit with these weights, write them as target.weights in a problem file and run loci fit.';
+/**
+ * Longest text the CSV box takes to edit, characters (about 1,500 rows). A text area lays
+ * out all its text again on every edit: without a GPU, tens of kB already take a second
+ * an edit. Longer text is read directly instead, in a worker (csvParse.ts).
+ */
+export const MAX_CSV_BOX_CHARS = 16_000;
+
+/** Text too large to be a target (a file, or a paste) is refused before it is read: the reader's own limit. */
+export function tooLargeAction(chars: number, source: string, what: 'file' | 'text'): Action | null {
+  if (chars <= MAX_POINTS_CSV_CHARS) return null;
+  return {
+    type: 'target/import-failed',
+    source,
+    issues: [{ row: 0, message: `the ${what} is ${Math.round(chars / 1000)} kB; a target ${what === 'file' ? 'file' : 'pasted as text'} may be at most ${MAX_POINTS_CSV_CHARS / 1000} kB` }],
+  };
 }
 
 /** A file too large to be a target is refused before it is read. */
 export function fileTooLarge(file: { readonly size: number; readonly name: string }): Action | null {
-  if (file.size <= MAX_POINTS_CSV_CHARS) return null;
-  return {
-    type: 'target/import-failed',
-    source: file.name,
-    issues: [{ row: 0, message: `the file is ${Math.round(file.size / 1000)} kB; a target file may be at most ${MAX_POINTS_CSV_CHARS / 1000} kB` }],
-  };
+  return tooLargeAction(file.size, file.name, 'file');
 }

@@ -2,7 +2,8 @@
  * Resampling a target path to N points evenly spaced along its length (open: from the
  * first point to the last; closed: round the loop, the closing segment included). A
  * prescribed crank angle per point is carried along by linear interpolation over arc
- * length, with each step between neighbours taken the short way round (within ±180°).
+ * length, with each step between neighbours taken the short way round (within ±180°);
+ * weights, when the points have them, are interpolated the same way.
  */
 import type { TargetPoint } from '../state/project';
 
@@ -43,6 +44,9 @@ export function resamplePath(points: readonly TargetPoint[], closed: boolean, co
     }
     angles = unwrapped;
   }
+  // Weights are carried like the angles: linear in arc length, the closing vertex taking the first point's.
+  const weighted = points.every((p) => p.weight !== undefined);
+  const weights = weighted ? vertices.map((p) => p.weight as number) : null;
   const cumulative = [0];
   for (let i = 1; i < vertices.length; i++) {
     cumulative.push(cumulative[i - 1] + Math.hypot(vertices[i].x - vertices[i - 1].x, vertices[i].y - vertices[i - 1].y));
@@ -62,7 +66,8 @@ export function resamplePath(points: readonly TargetPoint[], closed: boolean, co
     const a = vertices[segment];
     const b = vertices[segment + 1];
     const driverDeg = angles === null ? null : angles[segment] + t * (angles[segment + 1] - angles[segment]);
-    out.push({ x: a.x + t * (b.x - a.x), y: a.y + t * (b.y - a.y), driverDeg });
+    const at = { x: a.x + t * (b.x - a.x), y: a.y + t * (b.y - a.y), driverDeg };
+    out.push(weights === null ? at : { ...at, weight: weights[segment] + t * (weights[segment + 1] - weights[segment]) });
   }
   return { ok: true, points: out };
 }
