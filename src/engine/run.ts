@@ -88,6 +88,14 @@ export interface RunOptions {
   readonly store?: CheckpointStore;
   /** Candidates described in the result; default 10. */
   readonly topK?: number;
+  /** Also describe each job's best where it is not among the topK (a layout table shows every layout's best); default false. */
+  readonly bestOfEachJob?: boolean;
+  /**
+   * Also describe each job's `perJob` best distinct candidates (a job is one family), so
+   * the best of every family searched reaches the caller even when another family holds
+   * the whole topK; default 0. At most the spec's archive capacity, which holds them.
+   */
+  readonly perJob?: number;
   /** A worker call that takes longer counts as a lost worker; default 120 000 ms. */
   readonly callTimeoutMs?: number;
   /** Restarts without a checkpoint in between before the run gives up; default 3. */
@@ -149,10 +157,14 @@ interface IslandView {
   stopReason: IslandStopReason | null;
 }
 
-function checkOptions(options: RunOptions, islands: number, env: EngineEnvironment): string | null {
-  const { workers, topK, callTimeoutMs, maxRestarts, checkpointEveryMs } = options;
+function checkOptions(options: RunOptions, spec: RunSpec, env: EngineEnvironment): string | null {
+  const islands = planIslands(spec).length;
+  const { workers, topK, perJob, callTimeoutMs, maxRestarts, checkpointEveryMs } = options;
   if (workers !== undefined && !(Number.isInteger(workers) && workers >= 1 && workers <= 1024)) return `workers is ${workers}; expected an integer in [1, 1024]`;
   if (topK !== undefined && !(Number.isInteger(topK) && topK >= 0 && topK <= 10_000)) return `topK is ${topK}; expected an integer in [0, 10000]`;
+  if (perJob !== undefined && !(Number.isInteger(perJob) && perJob >= 0 && perJob <= spec.archive.capacity)) {
+    return `perJob is ${perJob}; expected an integer in [0, ${spec.archive.capacity}] (the run's archive capacity per job; raise archive.capacity to keep more)`;
+  }
   if (callTimeoutMs !== undefined && !(callTimeoutMs > 0)) return `callTimeoutMs is ${callTimeoutMs}; expected a number > 0`;
   if (maxRestarts !== undefined && !(Number.isInteger(maxRestarts) && maxRestarts >= 0)) return `maxRestarts is ${maxRestarts}; expected an integer ≥ 0`;
   if (checkpointEveryMs !== undefined && !(checkpointEveryMs > 0 && checkpointEveryMs < Infinity)) {
@@ -167,7 +179,7 @@ function checkOptions(options: RunOptions, islands: number, env: EngineEnvironme
 export function createRun(env: EngineEnvironment, input: RunInput, options: RunOptions = {}): MakeRunResult {
   const defined = defineRun(input);
   if (!defined.ok) return defined;
-  const problem = checkOptions(options, planIslands(defined.spec).length, env);
+  const problem = checkOptions(options, defined.spec, env);
   if (problem !== null) return { ok: false, reason: problem };
   return { ok: true, run: new Engine(env, defined.spec, null, options) };
 }
@@ -176,7 +188,7 @@ export function createRun(env: EngineEnvironment, input: RunInput, options: RunO
 export function restoreRun(env: EngineEnvironment, checkpointText: string, options: RunOptions = {}): MakeRunResult {
   const decoded = decodeCheckpoint(checkpointText);
   if (!decoded.ok) return decoded;
-  const problem = checkOptions(options, decoded.payload.islands.length, env);
+  const problem = checkOptions(options, decoded.payload.spec, env);
   if (problem !== null) return { ok: false, reason: problem };
   return { ok: true, run: new Engine(env, decoded.payload.spec, decoded.payload, options) };
 }
@@ -224,6 +236,8 @@ class Engine implements Run {
   private readonly env: EngineEnvironment;
   private readonly store: CheckpointStore | null;
   private readonly topK: number;
+  private readonly bestOfEachJob: boolean;
+  private readonly perJob: number;
   private readonly callTimeoutMs: number;
   private readonly maxRestarts: number;
   private readonly checkpointEveryMs: number;
@@ -266,6 +280,8 @@ class Engine implements Run {
     this.from = from;
     this.store = options.store ?? null;
     this.topK = options.topK ?? DEFAULT_TOP_K;
+    this.bestOfEachJob = options.bestOfEachJob === true;
+    this.perJob = options.perJob ?? 0;
     this.callTimeoutMs = options.callTimeoutMs ?? DEFAULT_CALL_TIMEOUT_MS;
     this.maxRestarts = options.maxRestarts ?? DEFAULT_MAX_RESTARTS;
     this.checkpointEveryMs = options.checkpointEveryMs ?? spec.checkpointEveryMs;
@@ -706,7 +722,11 @@ class Engine implements Run {
     return best;
   }
 
-  /** The topK best candidates of all jobs, described by a worker of each job. */
+  /**
+   * The topK best candidates of all jobs, then each job's own best (its `perJob` best, or
+   * with `bestOfEachJob` its first) that the topK left out, described by a worker of each
+   * job. All in the order of the whole pool, each with its rank there.
+   */
   private async describeTop(): Promise<RankedCandidate[]> {
     const pool = this.archives.flatMap((archive, j) => (archive?.entries() ?? []).map((entry) => ({ entry, j })));
     pool.sort((a, b) =>
@@ -714,7 +734,13 @@ class Engine implements Run {
       : precedes(b.entry.value, b.entry.violation, a.entry.value, a.entry.violation) ? 1
       : a.j - b.j,
     );
-    const chosen = pool.slice(0, this.topK);
+    const ownBest = Math.max(this.perJob, this.bestOfEachJob ? 1 : 0);
+    const takenOfJob = this.spec.jobs.map(() => 0);
+    const chosen: { entry: (typeof pool)[number]['entry']; j: number; rank: number }[] = [];
+    for (const [k, c] of pool.entries()) {
+      if (k < this.topK || takenOfJob[c.j] < ownBest) chosen.push({ ...c, rank: k + 1 });
+      takenOfJob[c.j]++;
+    }
     const described = new Map<number, DescribedCandidate[]>();
     const jobs = [...new Set(chosen.map((c) => c.j))];
     const settled = await Promise.allSettled(
@@ -726,11 +752,11 @@ class Engine implements Run {
     );
     for (const [k, answer] of throwFirst(settled).entries()) described.set(jobs[k], answer.candidates);
     const next = new Map<number, number>();
-    return chosen.map((c, k) => {
+    return chosen.map((c) => {
       const at = next.get(c.j) ?? 0;
       next.set(c.j, at + 1);
       const candidate = (described.get(c.j) as DescribedCandidate[])[at];
-      return { ...candidate, rank: k + 1, jobId: this.spec.jobs[c.j].id };
+      return { ...candidate, rank: c.rank, jobId: this.spec.jobs[c.j].id };
     });
   }
 

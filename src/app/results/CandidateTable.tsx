@@ -31,22 +31,29 @@ const COLUMNS: readonly Column[] = [
   { key: null, label: 'Compare' },
 ];
 
+const PIN_COLUMN: Column = { key: null, label: 'Pin', title: 'Keep the design in the shortlist, across runs and reloads' };
+
 export interface CandidateTableProps {
   readonly rows: readonly CandidateRow[];
   readonly totalRows: number;
   readonly target: ResultsTarget;
   readonly state: ResultsState;
   readonly dispatch: Dispatch<ResultsAction>;
+  /** Keys of the rows pinned to the shortlist; without it (no storage) there is no Pin column. */
+  readonly pinned?: ReadonlySet<string>;
+  /** Pins or unpins a row; stable across renders. */
+  readonly onPin?: (row: CandidateRow, pin: boolean) => void;
 }
 
-export function CandidateTable({ rows, totalRows, target, state, dispatch }: CandidateTableProps) {
+export function CandidateTable({ rows, totalRows, target, state, dispatch, pinned, onPin }: CandidateTableProps) {
   const compareFull = state.compare.length >= MAX_COMPARE;
+  const columns = onPin === undefined ? COLUMNS : [...COLUMNS, PIN_COLUMN];
   return (
     <div className="results-table-wrap">
       <table className="results-table">
         <thead>
           <tr>
-            {COLUMNS.map((column, i) => {
+            {columns.map((column, i) => {
               const sorted = column.key !== null && state.sort.key === column.key;
               return (
                 <th
@@ -76,6 +83,8 @@ export function CandidateTable({ rows, totalRows, target, state, dispatch }: Can
               compared={state.compare.includes(row.key)}
               compareFull={compareFull}
               dispatch={dispatch}
+              pinned={pinned?.has(row.key) ?? false}
+              onPin={onPin}
             />
           ))}
         </tbody>
@@ -96,6 +105,8 @@ interface RowProps {
   readonly compared: boolean;
   readonly compareFull: boolean;
   readonly dispatch: Dispatch<ResultsAction>;
+  readonly pinned: boolean;
+  readonly onPin: ((row: CandidateRow, pin: boolean) => void) | undefined;
 }
 
 /**
@@ -104,10 +115,10 @@ interface RowProps {
  */
 function sameRow(a: RowProps, b: RowProps): boolean {
   return a.row.key === b.row.key && a.row.rank === b.row.rank && a.selected === b.selected && a.compared === b.compared &&
-    a.compareFull === b.compareFull && a.dispatch === b.dispatch && sameTarget(a.target, b.target);
+    a.compareFull === b.compareFull && a.dispatch === b.dispatch && a.pinned === b.pinned && a.onPin === b.onPin && sameTarget(a.target, b.target);
 }
 
-const CandidateRowView = memo(function CandidateRowView({ row, target, selected, compared, compareFull, dispatch }: RowProps) {
+const CandidateRowView = memo(function CandidateRowView({ row, target, selected, compared, compareFull, dispatch, pinned, onPin }: RowProps) {
   const { candidate, rank, key } = row;
   const motion = useLazyMotion(candidate, TABLE_STEPS);
   const family = familyName(candidate.family);
@@ -156,6 +167,13 @@ const CandidateRowView = memo(function CandidateRowView({ row, target, selected,
           onChange={() => dispatch({ type: 'toggle-compare', key })}
         />
       </td>
+      {onPin && (
+        <td onClick={(event) => event.stopPropagation()}>
+          <button type="button" className="results-pin" aria-pressed={pinned} aria-label={`${pinned ? 'Unpin' : 'Pin'} the design ranked ${rank}`} onClick={() => onPin(row, !pinned)}>
+            {pinned ? 'Pinned' : 'Pin'}
+          </button>
+        </td>
+      )}
     </tr>
   );
 }, sameRow);

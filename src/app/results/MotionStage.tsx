@@ -8,7 +8,7 @@ import { memo, useMemo } from 'react';
 import { IC_FINITE, IC_INFINITE } from '../../core/linkage/analysis';
 import { edgeMarker, errorWhiskersD, insideView, linkageShapes, markerD, pointsBox, unionBox, viewBoxAttr, viewOf, type View } from './drawing';
 import type { CandidateMotion } from './motion';
-import { CentrePathLayer, OutputPathLayer, TargetLayer } from './PathLayers';
+import { CentrePathLayer, FrameLayer, JointLabels, OutputPathLayer, TargetLayer } from './PathLayers';
 import type { ResultsTarget } from './types';
 
 export interface SolvedPose {
@@ -29,6 +29,7 @@ const StaticLayers = memo(function StaticLayers({ view, motion, target }: { view
   const whiskers = useMemo(() => errorWhiskersD(view, target.points, motion.matched), [view, target, motion]);
   return (
     <>
+      <FrameLayer view={view} />
       <TargetLayer view={view} target={target} radius={size * 0.006} />
       <path d={whiskers} className="results-whiskers" vectorEffect="non-scaling-stroke" />
       <CentrePathLayer view={view} motion={motion} markerSize={size * 0.02} testId="ic-path" />
@@ -53,6 +54,7 @@ export function MotionStage({ motion, target, solved, title }: { motion: Candida
             ? <rect key={i} className="results-ground" x={j.x - size * 0.008} y={j.y - size * 0.008} width={size * 0.016} height={size * 0.016} />
             : <circle key={i} className="results-joint" cx={j.x} cy={j.y} r={size * 0.006} vectorEffect="non-scaling-stroke" />)}
           {shapes.output && <circle className="results-output-point" cx={shapes.output.x} cy={shapes.output.y} r={size * 0.008} />}
+          <JointLabels joints={shapes.joints} offset={size * 0.012} fontSize={size * 0.03} />
         </g>
       )}
       {centre?.kind === 'dot' && (

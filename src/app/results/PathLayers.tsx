@@ -4,7 +4,7 @@
  * view and the compare view all draw with these.
  */
 import { memo, useMemo } from 'react';
-import { centreGeometry, markerD, polylineD, type View } from './drawing';
+import { centreGeometry, drawingFrame, markerD, polylineD, scaleLabel, type LinkageShapes, type View } from './drawing';
 import type { CandidateMotion } from './motion';
 import type { ResultsTarget } from './types';
 
@@ -54,3 +54,36 @@ export const CentrePathLayer = memo(function CentrePathLayer({
     </g>
   );
 });
+
+/** Axes through the origin where they cross the view, the origin, axis directions and a scale bar. */
+export const FrameLayer = memo(function FrameLayer({ view }: { view: View }) {
+  const frame = useMemo(() => drawingFrame(view), [view]);
+  const font = frame.fontSize;
+  return (
+    <g className="results-frame" data-testid="drawing-frame" fontSize={font}>
+      <path d={frame.axesD} className="results-axes" vectorEffect="non-scaling-stroke" data-testid="axes" />
+      {frame.origin && (
+        <g data-testid="origin">
+          <circle cx={0} cy={0} r={font * 0.25} className="results-origin" vectorEffect="non-scaling-stroke" />
+          <text x={font * 0.4} y={font * 1.1} className="results-frame-text">O</text>
+        </g>
+      )}
+      <path d={frame.indicatorD} className="results-axes-indicator" vectorEffect="non-scaling-stroke" />
+      <text x={frame.xLabel.x} y={frame.xLabel.y} className="results-frame-text">x</text>
+      <text x={frame.yLabel.x} y={frame.yLabel.y} className="results-frame-text" textAnchor="middle">y</text>
+      <path d={frame.scaleD} className="results-scale-bar" vectorEffect="non-scaling-stroke" data-testid="scale-bar" data-mm={frame.scaleMm} />
+      <text x={frame.scaleLabelAt.x} y={frame.scaleLabelAt.y} className="results-frame-text" textAnchor="middle">{scaleLabel(frame.scaleMm)}</text>
+    </g>
+  );
+});
+
+/** Each joint's id beside it. */
+export function JointLabels({ joints, offset, fontSize, colour }: { joints: LinkageShapes['joints']; offset: number; fontSize: number; colour?: string }) {
+  return (
+    <g className="results-joint-labels" fontSize={fontSize} style={colour ? { fill: colour } : undefined}>
+      {joints.map((j) => (
+        <text key={j.id} x={j.x + offset} y={j.y - offset} data-testid="joint-label">{j.id}</text>
+      ))}
+    </g>
+  );
+}

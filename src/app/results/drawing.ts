@@ -239,7 +239,8 @@ export function markerD(view: View, marker: DirectionMarker, size: number): stri
 export interface LinkageShapes {
   /** One path per moving body: a bar for two slots, a closed plate for more. */
   readonly links: readonly { readonly bodyId: string; readonly d: string }[];
-  readonly joints: readonly { readonly x: number; readonly y: number; readonly ground: boolean }[];
+  /** Each joint's id (the linkage file's), for its label. */
+  readonly joints: readonly { readonly id: string; readonly x: number; readonly y: number; readonly ground: boolean }[];
   readonly output: { readonly x: number; readonly y: number } | null;
   /** Lines the ground sliders run on, across the view. */
   readonly slides: readonly string[];
@@ -254,11 +255,11 @@ export function linkageShapes(view: View, motion: CandidateMotion, pose: ArrayLi
     const ys = link.slots.map((s) => pose[2 * s + 1]);
     return { bodyId: link.bodyId, d: polylineD(view, xs, ys, link.slots.length > 2) };
   });
-  const joints: { x: number; y: number; ground: boolean }[] = [];
+  const joints: { id: string; x: number; y: number; ground: boolean }[] = [];
   for (let s = 0; s < jointCount; s++) {
     const x = pose[2 * s];
     const y = pose[2 * s + 1];
-    if (Number.isFinite(x) && Number.isFinite(y)) joints.push({ x, y: -y, ground: ground.has(s) });
+    if (Number.isFinite(x) && Number.isFinite(y)) joints.push({ id: motion.plan.jointIds[s], x, y: -y, ground: ground.has(s) });
   }
   const ox = pose[2 * motion.output.slot];
   const oy = pose[2 * motion.output.slot + 1];
@@ -271,6 +272,93 @@ export function linkageShapes(view: View, motion: CandidateMotion, pose: ArrayLi
     return `M${xy(view, x - c, y - s)}L${xy(view, x + c, y + s)}`;
   });
   return { links, joints, output: Number.isFinite(ox) && Number.isFinite(oy) ? { x: ox, y: -oy } : null, slides };
+}
+
+/** Share of the view's width a scale bar aims for. */
+const SCALE_BAR_SHARE = 0.2;
+/** Share of the view's smaller side the axis arrows of the corner indicator take. */
+const AXIS_ARROW_SHARE = 0.08;
+/** Share of the view's larger side between a joint and its label. */
+const LABEL_OFFSET_SHARE = 0.012;
+
+/** The largest 1, 2 or 5 × 10^k mm that is at most `mm` (the length of a readable scale bar). */
+export function niceLengthMm(mm: number): number {
+  if (!(mm > 0 && Number.isFinite(mm))) return 1;
+  const decade = 10 ** Math.floor(Math.log10(mm));
+  const lead = mm / decade;
+  return (lead >= 5 ? 5 : lead >= 2 ? 2 : 1) * decade;
+}
+
+/** A scale bar's text: "50 mm", "0.2 mm". */
+export function scaleLabel(lengthMm: number): string {
+  return `${Number(lengthMm.toPrecision(1))} mm`;
+}
+
+export interface DrawingFrame {
+  /** The world's x and y axes (y = 0 and x = 0) where they cross the view; empty where they miss it. */
+  readonly axesD: string;
+  /** The origin in SVG coordinates when it lies in the view. */
+  readonly origin: { readonly x: number; readonly y: number } | null;
+  /** Corner indicator: arrows along +x and +y from the lower-left corner, with where their letters go. */
+  readonly indicatorD: string;
+  readonly xLabel: { readonly x: number; readonly y: number };
+  readonly yLabel: { readonly x: number; readonly y: number };
+  /** Scale bar in the lower-right corner: path, its length and where its label goes. */
+  readonly scaleD: string;
+  readonly scaleMm: number;
+  readonly scaleLabelAt: { readonly x: number; readonly y: number };
+  /** Font size for labels, SVG units. */
+  readonly fontSize: number;
+  /** Offset of a joint's label from the joint, SVG units. */
+  readonly labelOffset: number;
+}
+
+/** Axes, origin, axis directions and a scale bar for a view: what makes a drawing readable as a drawing. */
+export function drawingFrame(view: View): DrawingFrame {
+  const d = (v: number) => num(v, view.decimals);
+  const size = Math.max(view.width, view.height);
+  const small = Math.min(view.width, view.height);
+  const fontSize = size * 0.022;
+  const inset = small * 0.05;
+  const axes: string[] = [];
+  // World y = 0 is SVG y = 0; world x = 0 is SVG x = 0.
+  if (view.y <= 0 && 0 <= view.y + view.height) axes.push(`M${d(view.x)},0H${d(view.x + view.width)}`);
+  if (view.x <= 0 && 0 <= view.x + view.width) axes.push(`M0,${d(view.y)}V${d(view.y + view.height)}`);
+  const origin = insideView(view, 0, 0) ? { x: 0, y: 0 } : null;
+  const arrow = small * AXIS_ARROW_SHARE;
+  const head = arrow * 0.25;
+  const cx = view.x + inset;
+  const cy = view.y + view.height - inset;
+  const indicatorD =
+    `M${d(cx)},${d(cy)}H${d(cx + arrow)}M${d(cx + arrow - head)},${d(cy - head * 0.6)}L${d(cx + arrow)},${d(cy)}L${d(cx + arrow - head)},${d(cy + head * 0.6)}` +
+    `M${d(cx)},${d(cy)}V${d(cy - arrow)}M${d(cx - head * 0.6)},${d(cy - arrow + head)}L${d(cx)},${d(cy - arrow)}L${d(cx + head * 0.6)},${d(cy - arrow + head)}`;
+  const scaleMm = niceLengthMm(view.width * SCALE_BAR_SHARE);
+  const right = view.x + view.width - inset;
+  const tick = fontSize * 0.4;
+  const scaleD = `M${d(right - scaleMm)},${d(cy - tick)}V${d(cy)}H${d(right)}V${d(cy - tick)}`;
+  return {
+    axesD: axes.join(''),
+    origin,
+    indicatorD,
+    xLabel: { x: cx + arrow + fontSize * 0.3, y: cy + fontSize * 0.35 },
+    yLabel: { x: cx - fontSize * 0.35, y: cy - arrow - fontSize * 0.3 },
+    scaleD,
+    scaleMm,
+    scaleLabelAt: { x: right - scaleMm / 2, y: cy - tick - fontSize * 0.3 },
+    fontSize,
+    labelOffset: size * LABEL_OFFSET_SHARE,
+  };
+}
+
+/** The view `zoom` times closer about its centre, moved by (dx, dy) SVG units (a zoom of 1 and no move is `view`). */
+export function zoomedView(view: View, zoom: number, dx: number, dy: number): View {
+  const z = zoom > 0 && Number.isFinite(zoom) ? zoom : 1;
+  const width = view.width / z;
+  const height = view.height / z;
+  const cx = view.x + view.width / 2 + (Number.isFinite(dx) ? dx : 0);
+  const cy = view.y + view.height / 2 + (Number.isFinite(dy) ? dy : 0);
+  const decimals = Math.min(8, view.decimals + Math.max(0, Math.ceil(Math.log10(z))));
+  return { x: cx - width / 2, y: cy - height / 2, width, height, decimals };
 }
 
 /** Lines from each target point to the output point matched to it: the error, drawn. */

@@ -5,7 +5,7 @@
 import { IC_FINITE, IC_INDETERMINATE, IC_INFINITE } from '../../core/linkage/analysis';
 import type { Linkage } from '../../core/linkage';
 import { toLinkageFile } from '../../core/io/linkageFile';
-import { centreGeometry, errorWhiskersD, linkageShapes, markerD, num, pointsBox, polylineD, unionBox, viewOf, type View } from './drawing';
+import { centreGeometry, drawingFrame, errorWhiskersD, linkageShapes, markerD, num, pointsBox, polylineD, scaleLabel, unionBox, viewOf, type View } from './drawing';
 import { driverDisplayValue, type CandidateMotion } from './motion';
 import type { ResultsTarget } from './types';
 
@@ -90,6 +90,8 @@ export const DRAWING_COLOURS = {
 } as const;
 
 const CAUTION_COLOUR = '#5c3b00';
+/** Axes, origin, axis directions and scale bar: a quiet grey, ours. */
+const FRAME_COLOUR = '#6b7280';
 /** Characters per legend line, about two thirds of the sheet's width at the legend's font size. */
 const LEGEND_LINE_CHARS = 80;
 
@@ -127,6 +129,19 @@ export function drawingSvg(input: DrawingSvgInput): string {
   out.push(`<rect x="${d(sheet.x)}" y="${d(sheet.y)}" width="${d(sheet.width)}" height="${d(sheet.height)}" fill="#ffffff"/>`);
   // Paths that may run past the drawing (instant centres far off, slide lines) stop at its edge, above the legend.
   out.push(`<clipPath id="sheet-view"><rect x="${d(view.x)}" y="${d(view.y)}" width="${d(view.width)}" height="${d(view.height)}"/></clipPath>`);
+  const frame = drawingFrame(view);
+  out.push(`<g id="frame" fill="none" stroke="${FRAME_COLOUR}" stroke-width="${d(stroke * 0.6)}">`);
+  if (frame.axesD !== '') out.push(`<path id="axes" d="${frame.axesD}" stroke-dasharray="${d(stroke * 8)} ${d(stroke * 3)} ${d(stroke)} ${d(stroke * 3)}"/>`);
+  if (frame.origin) out.push(`<circle id="origin" cx="0" cy="0" r="${d(stroke * 3)}"/>`);
+  out.push(`<path id="axis-directions" d="${frame.indicatorD}" stroke-width="${d(stroke)}"/>`);
+  out.push(`<path id="scale-bar" d="${frame.scaleD}" stroke-width="${d(stroke * 1.5)}"/>`);
+  out.push('</g>');
+  out.push(`<g id="frame-labels" font-family="sans-serif" font-size="${d(frame.fontSize)}" fill="${FRAME_COLOUR}">`);
+  if (frame.origin) out.push(`<text x="${d(frame.fontSize * 0.4)}" y="${d(frame.fontSize * 1.1)}">O</text>`);
+  out.push(`<text x="${d(frame.xLabel.x)}" y="${d(frame.xLabel.y)}">x</text>`);
+  out.push(`<text x="${d(frame.yLabel.x)}" y="${d(frame.yLabel.y)}" text-anchor="middle">y</text>`);
+  out.push(`<text id="scale-label" x="${d(frame.scaleLabelAt.x)}" y="${d(frame.scaleLabelAt.y)}" text-anchor="middle">${escapeXml(scaleLabel(frame.scaleMm))}</text>`);
+  out.push('</g>');
   out.push(`<g id="target" fill="none" stroke="${DRAWING_COLOURS.target}" stroke-width="${d(stroke)}">`);
   if (target.points.length > 1) out.push(`<path d="${polylineD(view, tx, ty, target.closed)}" stroke-dasharray="${d(stroke * 4)} ${d(stroke * 3)}"/>`);
   for (const [x, y] of target.points) out.push(`<circle cx="${d(x)}" cy="${d(-y)}" r="${d(stroke * 3)}"/>`);
@@ -147,6 +162,9 @@ export function drawingSvg(input: DrawingSvgInput): string {
   }
   if (shapes.output) out.push(`<circle class="output-point" cx="${d(shapes.output.x)}" cy="${d(shapes.output.y)}" r="${d(stroke * 4)}" fill="${DRAWING_COLOURS.output}" stroke="none"/>`);
   out.push('</g>');
+  out.push(`<g id="joint-labels" font-family="sans-serif" font-size="${d(frame.fontSize)}" fill="${DRAWING_COLOURS.link}">`);
+  for (const j of shapes.joints) out.push(`<text x="${d(j.x + frame.labelOffset)}" y="${d(j.y - frame.labelOffset)}">${escapeXml(j.id)}</text>`);
+  out.push('</g>');
   const legendTop = view.y + view.height + font;
   out.push(`<g id="legend" font-family="sans-serif" font-size="${d(font)}">`);
   legend.forEach(([colour, text], i) => {
@@ -162,7 +180,8 @@ function legendLines(motion: CandidateMotion): [string, string][] {
     [DRAWING_COLOURS.target, 'Target points (dashed), with lines to the matched output points.'],
     [DRAWING_COLOURS.output, `Output path of point ${motion.output.pointId}.`],
     [DRAWING_COLOURS.centre, `Instant-centre path of ${motion.output.bodyId} relative to ground (dashed); arrows point to centres off the sheet or at infinity.`],
-    [DRAWING_COLOURS.link, 'Linkage; squares are ground pivots. All lengths in mm.'],
+    [DRAWING_COLOURS.link, 'Linkage, joints labelled by id; squares are ground pivots. All lengths in mm.'],
+    [FRAME_COLOUR, 'Axes x and y through the origin O (dash-dot, where they cross the sheet); arrows at the lower left show +x and +y; the bar at the lower right is to scale.'],
     [CAUTION_COLOUR, KINEMATICS_ONLY_CAUTION],
   ];
   return entries.flatMap(([colour, text]) => wrapWords(text, LEGEND_LINE_CHARS).map((line): [string, string] => [colour, line]));

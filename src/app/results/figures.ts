@@ -6,6 +6,9 @@ import type { GrashofCondition } from '../../core/linkage/analysis';
 import type { CandidateReport } from '../../core/synthesis';
 import type { CandidateMotion, MotionResult } from './motion';
 
+/** Moving bodies of a four-bar or slider-crank (the frame is no body of the file); a six-bar has five. */
+const FOUR_BAR_BODIES = 3;
+
 const CONDITION_WORDS: Readonly<Record<GrashofCondition, string>> = {
   grashof: 'Grashof',
   'non-grashof': 'non-Grashof',
@@ -14,12 +17,14 @@ const CONDITION_WORDS: Readonly<Record<GrashofCondition, string>> = {
 
 /** Grashof condition and Barker's usual name, e.g. "Grashof crank-rocker". */
 export function grashofLabel(candidate: CandidateReport, motion: MotionResult | undefined): string {
-  if (candidate.grashof) return `${CONDITION_WORDS[candidate.grashof.grashof]} ${candidate.grashof.name}`;
+  // A six-bar has two four-bar loops: each is named (from its motion), never only the report's first.
+  if (candidate.grashof && !(candidate.linkage.bodies.length > FOUR_BAR_BODIES)) return `${CONDITION_WORDS[candidate.grashof.grashof]} ${candidate.grashof.name}`;
   if (motion === undefined) return '…';
   if (!motion.ok) return '—';
   const loops = motion.motion.loops;
   if (loops.length === 0) return '—';
-  return loops.map((loop) => `${CONDITION_WORDS[loop.grashof]}${loop.className ? ` ${loop.className}` : ''}`).join('; ');
+  if (loops.length === 1) return `${CONDITION_WORDS[loops[0].grashof]}${loops[0].className ? ` ${loops[0].className}` : ''}`;
+  return loops.map((loop, k) => `loop ${k + 1}: ${CONDITION_WORDS[loop.grashof]}${loop.className ? ` ${loop.className}` : ''}`).join('; ');
 }
 
 /**

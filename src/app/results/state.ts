@@ -78,6 +78,8 @@ export interface CandidateRow {
   /** 1-based place in the ranking the search gave. */
   readonly rank: number;
   readonly candidate: CandidateReport;
+  /** The kept run it comes from, when it is not the current results. */
+  readonly runName?: string;
 }
 
 const keys = new WeakMap<CandidateReport, string>();
@@ -92,16 +94,58 @@ export function candidateKey(candidate: CandidateReport): string {
   return key;
 }
 
-export function toRows(candidates: readonly CandidateReport[]): CandidateRow[] {
+export function toRows(candidates: readonly CandidateReport[], runName?: string): CandidateRow[] {
   const seen = new Set<string>();
   const rows: CandidateRow[] = [];
   candidates.forEach((candidate, i) => {
     const key = candidateKey(candidate);
     if (seen.has(key)) return;
     seen.add(key);
-    rows.push({ key, rank: i + 1, candidate });
+    rows.push(runName === undefined ? { key, rank: i + 1, candidate } : { key, rank: i + 1, candidate, runName });
   });
   return rows;
+}
+
+/** One family's line in the overview: how many designs, how many feasible, and the best error. */
+export interface FamilySummary {
+  readonly family: string;
+  readonly designs: number;
+  readonly feasible: number;
+  /** Best RMS error (mm) of its feasible designs, or of all when none is feasible; null when none is finite. */
+  readonly bestRmsMm: number | null;
+  readonly bestFeasible: boolean;
+  /** Rank of that best design. */
+  readonly bestRank: number | null;
+}
+
+/** A summary per family, in the order of each family's best rank. */
+export function familySummaries(rows: readonly CandidateRow[]): FamilySummary[] {
+  const byFamily = new Map<string, CandidateRow[]>();
+  for (const row of rows) {
+    const list = byFamily.get(row.candidate.family);
+    if (list === undefined) byFamily.set(row.candidate.family, [row]);
+    else list.push(row);
+  }
+  const out: FamilySummary[] = [];
+  for (const [family, list] of byFamily) {
+    const feasible = list.filter((r) => r.candidate.feasible);
+    const pool = feasible.length > 0 ? feasible : list;
+    let best: CandidateRow | null = null;
+    for (const r of pool) {
+      // A NaN error never becomes the best (the safe branch).
+      if (!(Number.isFinite(r.candidate.error.rmsMm))) continue;
+      if (best === null || r.candidate.error.rmsMm < best.candidate.error.rmsMm) best = r;
+    }
+    out.push({
+      family,
+      designs: list.length,
+      feasible: feasible.length,
+      bestRmsMm: best === null ? null : best.candidate.error.rmsMm,
+      bestFeasible: feasible.length > 0,
+      bestRank: best === null ? null : best.rank,
+    });
+  }
+  return out.sort((a, b) => (a.bestRank ?? Infinity) - (b.bestRank ?? Infinity));
 }
 
 export function filterRows(rows: readonly CandidateRow[], filter: ResultsFilter): CandidateRow[] {

@@ -15,6 +15,7 @@ import {
   type RunProgress,
   type RunResult,
 } from '../../engine';
+import { DEFAULT_RESULTS_PER_FAMILY } from '../../engine/runSpec';
 import type { CandidateReport } from '../../core/synthesis';
 import { isActive, snapshotTarget, type Project, type RunState, type TargetSnapshot } from '../state/project';
 import type { Store } from '../state/store';
@@ -133,6 +134,7 @@ export class SearchController {
       workers,
       store: this.checkpointStore(runId),
       topK: CANDIDATES_SHOWN,
+      perJob: DEFAULT_RESULTS_PER_FAMILY,
       onCheckpoint: (payload) => describer.offer(payload),
     });
     if (!made.ok) {
@@ -311,6 +313,7 @@ export class SearchController {
     const restored = await restoreRunFromStore(this.deps.env, store, {
       workers: project.settings.workers ?? this.deps.env.defaultWorkerCount(),
       topK: CANDIDATES_SHOWN,
+      perJob: DEFAULT_RESULTS_PER_FAMILY,
       onCheckpoint: (payload) => describer.offer(payload),
     });
     if (!restored.ok) {

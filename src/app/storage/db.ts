@@ -1,12 +1,14 @@
 /**
- * Loci's IndexedDB database: the project, the run checkpoints and the background images.
+ * Loci's IndexedDB database: the project, the run checkpoints, the background images,
+ * the kept runs (run history) and the shortlist of pinned designs.
  * Every write goes through a transaction (idb wraps each call in one, or we open one
  * across stores where two writes must land together).
  */
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 
 export const DB_NAME = 'loci';
-export const DB_VERSION = 1;
+/** 2 adds the kept runs and the pinned designs. */
+export const DB_VERSION = 2;
 /** The key of the project the workspace opens. */
 export const CURRENT_PROJECT_KEY = 'current';
 
@@ -23,6 +25,10 @@ export interface LociSchema extends DBSchema {
   projects: { key: string; value: unknown };
   checkpoints: { key: [string, number]; value: CheckpointRecord; indexes: { byRun: string } };
   images: { key: string; value: { readonly imageId: string; readonly blob: Blob; readonly name: string } };
+  /** One record per kept run (src/app/history/types.ts), by run id. */
+  runs: { key: string; value: unknown };
+  /** One record per pinned design, by pin key. */
+  pins: { key: string; value: unknown };
 }
 
 export type LociDb = IDBPDatabase<LociSchema>;
@@ -30,11 +36,17 @@ export type LociDb = IDBPDatabase<LociSchema>;
 /** Opens (creating or upgrading) the database; rejects when the browser gives no IndexedDB. */
 export function openLociDb(): Promise<LociDb> {
   return openDB<LociSchema>(DB_NAME, DB_VERSION, {
-    upgrade(db) {
-      db.createObjectStore('projects');
-      const checkpoints = db.createObjectStore('checkpoints', { keyPath: ['runId', 'seq'] });
-      checkpoints.createIndex('byRun', 'runId');
-      db.createObjectStore('images', { keyPath: 'imageId' });
+    upgrade(db, oldVersion) {
+      if (oldVersion < 1) {
+        db.createObjectStore('projects');
+        const checkpoints = db.createObjectStore('checkpoints', { keyPath: ['runId', 'seq'] });
+        checkpoints.createIndex('byRun', 'runId');
+        db.createObjectStore('images', { keyPath: 'imageId' });
+      }
+      if (oldVersion < 2) {
+        db.createObjectStore('runs');
+        db.createObjectStore('pins');
+      }
     },
   });
 }

@@ -4,3 +4,4 @@ export { indexedDbCheckpointStore, dropCheckpointsExcept, CHECKPOINTS_KEPT } fro
 export { loadProject, saveProject, createProjectSaver, type ProjectSaver } from './projectStore';
 export { readProject } from './projectSchema';
 export { putImage, getImage, dropImagesExcept } from './imageStore';
+export { keepRun, isKept, listKeptRuns, getKeptRun, renameKeptRun, deleteKeptRun, listPins, putPin, deletePin, type Listing } from './runHistoryStore';
