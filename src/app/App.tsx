@@ -2,11 +2,12 @@
  * The page: title, the caution that must stay visible, and the workspace: target entry
  * and search settings beside the search controls and the drawing, the results below.
  */
-import { useDeferredValue, useEffect, useMemo, useState } from 'react';
+import { useCallback, useDeferredValue, useEffect, useMemo, useState } from 'react';
 import { bootWorkspace, type Workspace } from './boot';
 import { ResultsView } from './results';
 import { RunControls } from './run/RunControls';
 import { ServicesContext } from './services';
+import { SuspensionEntry, SuspensionStart, storedOf, type SuspensionState } from './suspension';
 import { SettingsPanel } from './settings/SettingsPanel';
 import { startIssuesOf } from './run/runInput';
 import { ProjectName } from './settings/ProjectName';
@@ -92,6 +93,9 @@ function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
 export function App() {
   const [workspace, setWorkspace] = useState<Workspace | null>(null);
   const [bootError, setBootError] = useState<string | null>(null);
+  // The rear-suspension workspace, when open: it keeps its own store, and the project keeps its design.
+  const [suspension, setSuspension] = useState<SuspensionState | null>(null);
+  const saveSuspension = useCallback((state: SuspensionState) => workspace?.store.dispatch({ type: 'project/suspension', suspension: storedOf(state) }), [workspace]);
   useEffect(() => {
     let cancelled = false;
     bootWorkspace().then(
@@ -116,8 +120,11 @@ export function App() {
       <aside className="caution" role="note" aria-label="Caution">
         <strong className="caution-label">Caution.</strong> {CAUTION_TEXT}
       </aside>
+      {suspension === null && <SuspensionStart saved={workspace?.store.getState().project.suspension} onOpen={setSuspension} />}
       <main className="app-main">
-        {workspace === null ? (
+        {suspension !== null ? (
+          <SuspensionEntry initial={suspension} onClose={() => setSuspension(null)} onChange={saveSuspension} />
+        ) : workspace === null ? (
           <p className="panel-note">{bootError === null ? 'Opening the project…' : `The workspace could not start: ${bootError}`}</p>
         ) : (
           <StoreContext.Provider value={workspace.store}>

@@ -9,7 +9,7 @@ import { createDemoProject } from '../../src/app/demo/demoProject';
 import { failureWords } from '../../src/app/run/searchController';
 import { problemFileOf } from '../../src/app/run/runInput';
 import { checkEvaluations, checkSeconds } from '../../src/app/state/fields';
-import type { Project, TargetState } from '../../src/app/state/project';
+import { PROJECT_VERSION, type Project, type TargetState } from '../../src/app/state/project';
 import { addPoint, deletePoint, EMPTY_TARGET, editPoint, hasWeights, setPoints, setWeighted, targetProblem } from '../../src/app/state/target';
 import { readProject } from '../../src/app/storage/projectSchema';
 import { checkCoordinate, checkWeight } from '../../src/app/target/pointFields';
@@ -89,7 +89,7 @@ describe('weights in what is saved and what is sent', () => {
     delete saved.run.messageDetail;
     const read = readProject(saved);
     if (!read.ok) throw new Error(read.reason);
-    expect(read.project.version).toBe(2);
+    expect(read.project.version).toBe(PROJECT_VERSION);
     expect(hasWeights(read.project.target)).toBe(false);
     expect(read.project.run.messageDetail).toBeNull();
   });

@@ -6,10 +6,14 @@
  */
 import type { CandidateReport } from '../../core/synthesis';
 import type { FamilyId } from './families';
+import type { StoredSuspension } from '../suspension/stored';
 
 export const PROJECT_FORMAT = 'loci-workspace-project';
-/** 2: target points may carry weights (a version 1 project has none and is read as unweighted). */
-export const PROJECT_VERSION = 2;
+/**
+ * 2: target points may carry weights (a version 1 project has none and is read as unweighted).
+ * 3: the project may keep a rear-suspension design (an older project has none).
+ */
+export const PROJECT_VERSION = 3;
 
 export type TimingMode = 'prescribed' | 'free' | 'unprescribed';
 
@@ -122,6 +126,8 @@ export interface Project {
   readonly candidates: readonly CandidateReport[];
   /** The target the candidates were found for (the target may have changed since). */
   readonly candidatesTarget: TargetSnapshot | null;
+  /** The rear-suspension workspace's design (the bicycle's fields and the layout); absent until one is opened. */
+  readonly suspension?: StoredSuspension;
 }
 
 /** A target as the results views take it: points [x, y] in mm, open or closed. */

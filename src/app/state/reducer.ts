@@ -9,6 +9,7 @@ import { resamplePath } from '../target/resample';
 import type { FamilyId } from './families';
 import { IDLE_RUN, isLocked, type BackgroundImage, type KeepOutRegion, type Measure, type Placement, type Project, type RunState, type TargetPoint, type TargetSnapshot, type TargetState, type TimingMode } from './project';
 import { checkProjectName } from './fields';
+import type { StoredSuspension } from '../suspension/stored';
 import * as S from './settings';
 import * as T from './target';
 
@@ -52,6 +53,7 @@ export const INITIAL_UI: UiState = { tool: 'point', selectedPoint: null, targetN
 export type Action =
   | { readonly type: 'project/load'; readonly project: Project }
   | { readonly type: 'project/rename'; readonly name: string }
+  | { readonly type: 'project/suspension'; readonly suspension: StoredSuspension }
   | { readonly type: 'storage/status'; readonly storage: UiState['storage'] }
   | { readonly type: 'target/replace'; readonly points: readonly TargetPoint[]; readonly closed?: boolean; readonly timing?: TimingMode; readonly notice?: Notice | null }
   | { readonly type: 'target/add'; readonly x: number; readonly y: number }
@@ -266,6 +268,8 @@ export function reduce(state: WorkspaceState, action: Action): WorkspaceState {
   switch (action.type) {
     case 'project/load':
       return { project: action.project, ui: { ...state.ui, selectedPoint: null, calibration: [], setAside: null, fitRequest: state.ui.fitRequest + 1 } };
+    case 'project/suspension':
+      return state.project.suspension === action.suspension ? state : { ...state, project: { ...state.project, suspension: action.suspension } };
     case 'project/rename': {
       const named = checkProjectName(action.name);
       if (!named.ok || named.value === state.project.name) return state;

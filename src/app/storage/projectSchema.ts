@@ -8,6 +8,7 @@ import type { CandidateReport } from '../../core/synthesis';
 import { MAX_WEIGHT } from '../../core/synthesis/problem';
 import { FAMILY_CHOICES, type FamilyId } from '../state/families';
 import { PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../state/project';
+import { storedSuspensionSchema } from '../suspension/stored';
 
 const finite = z.number().refine(Number.isFinite, 'expected a finite number');
 const familyIds = FAMILY_CHOICES.map((f) => f.id) as [FamilyId, ...FamilyId[]];
@@ -89,18 +90,21 @@ const project = z.object({
   run,
   candidates: z.array(candidate),
   candidatesTarget: snapshot.nullable(),
+  suspension: storedSuspensionSchema.optional(),
 });
 
 export type ReadProject = { readonly ok: true; readonly project: Project } | { readonly ok: false; readonly reason: string };
 
 /**
  * Version 1 → 2: points gained an optional weight. A version 1 project has none, so it
- * reads as it is: an unweighted target. Anything else is left for the schema to refuse.
+ * reads as it is: an unweighted target. Version 2 → 3: the project may keep a
+ * rear-suspension design; an older one has none. Anything else is left for the schema
+ * to refuse.
  */
 function migrate(value: unknown): unknown {
   if (typeof value !== 'object' || value === null) return value;
   const record = value as Record<string, unknown>;
-  if (record.format !== PROJECT_FORMAT || record.version !== 1) return value;
+  if (record.format !== PROJECT_FORMAT || !(record.version === 1 || record.version === 2)) return value;
   return { ...record, version: PROJECT_VERSION };
 }
 
