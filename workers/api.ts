@@ -77,6 +77,8 @@ export interface IslandProgress {
   readonly elites: Individual[];
   /** Set once the island has stopped; it then evaluates nothing more. */
   readonly stopReason: IslandStopReason | null;
+  /** Fresh runs its optimizer started after the first because a run converged or stagnated. */
+  readonly restarts: number;
 }
 
 export interface IslandInfo {

@@ -9,6 +9,7 @@ import {
   canonicalViolation,
   createOptimizer,
   MAX_STREAM,
+  Restart,
   restoreOptimizer,
   type Optimizer,
   type OptimizerConfig,
@@ -33,6 +34,12 @@ import { buildObjective, type ObjectiveResult } from './objective';
 import type { SearchObjective } from './searchObjective';
 
 type Made = { readonly ok: true; readonly island: Island } | { readonly ok: false; readonly reason: string };
+
+/**
+ * Budget of one run of the island's restart scheme: a larger island budget (a time-only
+ * run has no cap) is spent in runs of this size, each sized as a search of its own.
+ */
+export const RUN_EVALUATIONS = 1_000_000;
 
 /** A step ends after at most this many ask/tell rounds, whatever its slice says. */
 const MAX_BATCHES_PER_STEP = 1_000_000;
@@ -62,14 +69,15 @@ function checkConfig(config: unknown): string | null {
   return null;
 }
 
+/**
+ * The island's optimizer: its configured search inside a restart scheme (restart.ts), so
+ * a run that converges or stagnates starts afresh while the budget lasts. A configuration
+ * that is a restart scheme already is taken as it is.
+ */
 function optimizerConfig(config: IslandConfig, dim: number): OptimizerConfig {
-  return {
-    ...config.optimizer,
-    dim,
-    maxEvaluations: config.maxEvaluations,
-    seed: config.seed,
-    stream: config.stream,
-  } as OptimizerConfig;
+  const common = { dim, maxEvaluations: config.maxEvaluations, seed: config.seed, stream: config.stream };
+  if (config.optimizer.kind === 'restart') return { ...config.optimizer, ...common } as OptimizerConfig;
+  return { kind: 'restart', inner: config.optimizer, runEvaluations: RUN_EVALUATIONS, ...common } as OptimizerConfig;
 }
 
 /** A defensive, JSON-clean copy: what the island keeps of a configuration it is given. */
@@ -179,10 +187,11 @@ export class Island {
     const startMs = nowMs();
     const maxEvaluations = 'evaluations' in slice ? slice.evaluations : Infinity;
     const maxMs = 'ms' in slice ? slice.ms : Infinity;
-    const opt = this.optimizer;
-    const startEvaluations = opt.evaluations();
+    const startEvaluations = this.optimizer.evaluations();
     let stepEvaluations = 0;
     for (let batch = 0; batch < MAX_BATCHES_PER_STEP; batch++) {
+      // Read afresh each batch: placing immigrants replaces the optimizer.
+      const opt = this.optimizer;
       if (opt.done() || !(stepEvaluations < maxEvaluations)) break;
       if (batch > 0 && !(nowMs() - startMs < maxMs)) break;
       const points = opt.ask();
@@ -201,6 +210,7 @@ export class Island {
     }
     const elites = this.archive.enteredAfter(this.reported).map(toIndividual);
     this.reported = this.archive.entered;
+    const opt = this.optimizer;
     const best = opt.best();
     const seen = opt.evaluations() > 0 && best.value < Infinity;
     let bestX: number[] | null = null;
@@ -215,6 +225,7 @@ export class Island {
       bestX,
       elites,
       stopReason: this.stopReason(),
+      restarts: opt instanceof Restart ? opt.restarts() : 0,
     };
   }
 

@@ -10,6 +10,7 @@
  * - DE (L-SHADE, rand/1/bin) in its 'evolve' phase, and the hybrid's global phase;
  * - DE in its 'init' phase: not yet (the initial population is being evaluated and would
  *   overwrite them), so the island keeps them until the next generation;
+ * - a restart scheme: where its current run takes them;
  * - Nelder–Mead and the hybrid's polish: never (a simplex is a local search; an outside
  *   point would break its geometry), so they are dropped.
  */
@@ -69,9 +70,20 @@ function withBest<S extends OptimizerState>(state: S, best: UnitImmigrant | null
   return { ...state, best: { x: Array.from(best.u), value: best.value, violation: best.violation, seen: true } };
 }
 
+function bestOf(state: OptimizerState): UnitImmigrant | null {
+  const b = state.best;
+  return b.seen && b.value !== null && b.violation !== null ? { u: Float64Array.from(b.x), value: b.value, violation: b.violation } : null;
+}
+
 /** The state with the immigrants placed, or when they can be placed. */
 export function injectImmigrants(state: OptimizerState, immigrants: readonly UnitImmigrant[]): InjectResult {
   if (state.stopReason !== null) return { kind: 'never' };
+  if (state.kind === 'restart') {
+    // Into the current run; the scheme's best is the better of its past runs' and the run's.
+    const placed = injectImmigrants(state.inner, immigrants);
+    if (placed.kind !== 'injected' || placed.state.kind === 'restart') return placed;
+    return { kind: 'injected', state: withBest({ ...state, inner: placed.state }, bestOf(placed.state)), accepted: placed.accepted };
+  }
   if (state.kind === 'nelder-mead') return { kind: 'never' };
   if (state.kind === 'hybrid') {
     if (state.phase !== 'global' || state.global === null) return { kind: 'never' };

@@ -40,6 +40,20 @@ const FUNCTIONS: Readonly<Record<TestFunctionName, TestFunction>> = {
       return sum;
     },
   },
+  // Rastrigin: 10 d + Σ (x_i² − 10 cos(2π x_i)), −5.12 ≤ x_i ≤ 5.12, minimum 0 at (0, …, 0);
+  // a local minimum near every integer point, the multimodal case for restarts.
+  rastrigin: {
+    lower: -5.12,
+    upper: 5.12,
+    minDim: 1,
+    optimumCoordinate: 0,
+    minimum: 0,
+    value(x) {
+      let sum = 10 * x.length;
+      for (let i = 0; i < x.length; i++) sum += x[i] * x[i] - 10 * Math.cos(2 * Math.PI * x[i]);
+      return sum;
+    },
+  },
 };
 
 export function isTestFunctionName(name: unknown): name is TestFunctionName {

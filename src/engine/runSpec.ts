@@ -21,7 +21,7 @@ export interface RunSpec {
   readonly jobs: readonly JobSpec[];
   /**
    * Evaluations (shared equally by all islands) and/or active seconds. With seconds only,
-   * each island's optimizer is sized for `DEFAULT_ISLAND_EVALUATIONS`.
+   * an island's budget is `DEFAULT_ISLAND_EVALUATIONS` (no cap).
    */
   readonly budget: { readonly evaluations: number | null; readonly seconds: number | null };
   /**
@@ -60,8 +60,11 @@ export const DEFAULT_ARCHIVE = { capacity: 64, distance: 0.01 } as const;
 /** Designs per family a results table asks the run to describe (RunOptions.perJob). */
 export const DEFAULT_RESULTS_PER_FAMILY = 50;
 export const DEFAULT_CHECKPOINT_EVERY_MS = 30_000;
-/** An island's optimizer budget when the run has a time budget only. */
-export const DEFAULT_ISLAND_EVALUATIONS = 1_000_000;
+/**
+ * An island's evaluation budget when the run has a time budget only: no cap, so the island
+ * searches until the time is up (its restart scheme sizes each run, workers/island.ts).
+ */
+export const DEFAULT_ISLAND_EVALUATIONS = Number.MAX_SAFE_INTEGER;
 /** Upper limits that keep one spec from asking for absurd work. */
 export const MAX_JOBS = 1000;
 export const MAX_ISLANDS_PER_JOB = 256;

@@ -188,7 +188,9 @@ describe('pause, resume, checkpoint export and import, cancel', () => {
     for (let k = 0; k < islands.length; k++) {
       const from = islands[k];
       const to = islands[(k + 1) % islands.length];
-      const population = (to.optimizer as DeState).population;
+      // The island's optimizer is a restart scheme; its current run holds the population.
+      const state = to.optimizer;
+      const { population } = (state.kind === 'restart' ? state.inner : state) as DeState;
       for (const emigrant of from.archive.slice(0, SPEC.migration!.count!)) {
         const u = emigrant.x.map((x) => (x + 30) / 60);
         let found = false;

@@ -20,7 +20,9 @@ import type {
   ResolvedCommon,
   ResolvedConfig,
   ResolvedHybrid,
+  ResolvedInnerOptions,
   ResolvedNelderMead,
+  ResolvedRestart,
 } from './types';
 
 export const MAX_DIM = 1000;
@@ -31,6 +33,10 @@ const MAX_MEMORY_SIZE = 1000;
 const MAX_ARCHIVE_RATE = 10;
 const MAX_POLISH_COUNT = 100;
 const MAX_STALE_RESTARTS = 1_000_000;
+const MAX_POPULATION_GROWTH = 10;
+const MAX_AVOID_ATTEMPTS = 1000;
+const MAX_BASINS = 1000;
+const INNER_KINDS = ['lshade', 'de-rand-1-bin', 'nelder-mead', 'hybrid'] as const;
 /** Largest simplex edge: a vertex flipped to the other side of the start stays in the box. */
 export const MAX_SIMPLEX_STEP = 0.5;
 
@@ -98,7 +104,7 @@ function readGlobal(v: unknown, where: string, dim: number): GlobalOptions {
 /** Checks `input` (a config, or the config inside a state) and fills in defaults; throws InvalidInput. */
 export function resolveConfig(input: unknown, where = 'config'): ResolvedConfig {
   const o = readObject(input, where);
-  const kind = readLiteral(o.kind, `${where}.kind`, ['lshade', 'de-rand-1-bin', 'nelder-mead', 'hybrid'] as const);
+  const kind = readLiteral(o.kind, `${where}.kind`, [...INNER_KINDS, 'restart'] as const);
   const common = readCommon(o, where);
   const { dim } = common;
   switch (kind) {
@@ -124,5 +130,41 @@ export function resolveConfig(input: unknown, where = 'config'): ResolvedConfig 
       };
       return resolved;
     }
+    case 'restart':
+      return readRestart(o, where, common);
   }
+}
+
+/** The largest population a restart may grow to in `dim` variables. */
+export function maxPopulation(dim: number): number {
+  return Math.min(MAX_POPULATION, Math.floor(MAX_POPULATION_ENTRIES / dim));
+}
+
+function readRestart(o: Fields, where: string, common: ResolvedCommon): ResolvedRestart {
+  const innerInput = o.inner === undefined || o.inner === null ? { kind: 'lshade' } : readObject(o.inner, `${where}.inner`);
+  readLiteral(innerInput.kind, `${where}.inner.kind`, INNER_KINDS);
+  const { dim, maxEvaluations, seed, stream, targetValue } = common;
+  const resolved = resolveConfig({ ...innerInput, dim, maxEvaluations, seed, stream, targetValue }, `${where}.inner`);
+  if (resolved.kind === 'restart') fail(`${where}.inner.kind`, resolved.kind, 'a search that is not itself a restart scheme');
+  const inner = withoutCommon(resolved);
+  return {
+    kind: 'restart',
+    ...common,
+    inner,
+    populationGrowth: readNumber(o.populationGrowth ?? 2, `${where}.populationGrowth`, 1, MAX_POPULATION_GROWTH),
+    stallShare: readNumber(o.stallShare ?? 0.25, `${where}.stallShare`, 0, 1, true),
+    avoidDistance: readNumber(o.avoidDistance ?? 0.05, `${where}.avoidDistance`, 0, 1),
+    avoidAttempts: readInteger(o.avoidAttempts ?? 32, `${where}.avoidAttempts`, 1, MAX_AVOID_ATTEMPTS),
+    maxBasins: readInteger(o.maxBasins ?? 64, `${where}.maxBasins`, 0, MAX_BASINS),
+    runEvaluations:
+      o.runEvaluations === undefined || o.runEvaluations === null
+        ? null
+        : readInteger(o.runEvaluations, `${where}.runEvaluations`, 1, Number.MAX_SAFE_INTEGER),
+  };
+}
+
+function withoutCommon(config: Exclude<ResolvedConfig, ResolvedRestart>): ResolvedInnerOptions {
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  const { dim, maxEvaluations, seed, stream, targetValue, ...rest } = config;
+  return rest as ResolvedInnerOptions;
 }

@@ -13,6 +13,7 @@
  * spare (for the reduction), the trial batch, the archive and the success lists. One
  * generation is one batch; the last batch is cut short so the budget is met exactly.
  */
+import { drawAwayInto, type Avoidance } from './avoid';
 import { BatchOptimizerBase } from './base';
 import { PointBatch } from './batch';
 import { encodeNumbers, encodeReals, fail, readInteger, readLength, readLiteral, readNumbers, readReals, readViolations } from './codec';
@@ -97,11 +98,15 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
     this.successGain = new Float64Array(successCapacity);
   }
 
-  /** A new search; `rng` is owned by it from now on. Draws the initial population uniformly. */
-  static create(config: ResolvedDe, rng: Prng): DifferentialEvolution {
+  /**
+   * A new search; `rng` is owned by it from now on. Draws the initial population
+   * uniformly, each member away from the basins of `avoid` when it is given.
+   */
+  static create(config: ResolvedDe, rng: Prng, avoid?: Avoidance): DifferentialEvolution {
     const de = new DifferentialEvolution(config, rng, 0, null, new BestTracker(config.dim));
     const pop = de.population;
-    for (let k = 0; k < pop.length; k++) pop[k] = rng.float();
+    if (avoid === undefined) for (let k = 0; k < pop.length; k++) pop[k] = rng.float();
+    else for (let at = 0; at < pop.length; at += de.dim) drawAwayInto(rng, pop, at, de.dim, avoid);
     const count = Math.min(de.populationSize, config.maxEvaluations);
     de.batch.begin().set(pop.subarray(0, count * de.dim));
     de.batch.commit(count);

@@ -2,29 +2,20 @@
  * The two ways to get an optimizer: from a configuration, or from an exported state.
  * Both check their input once and return `{ ok: false, reason }` when it is wrong.
  */
-import { InvalidInput, readLiteral, readObject } from './codec';
+import { InvalidInput, readObject } from './codec';
 import { resolveConfig } from './config';
-import { DifferentialEvolution } from './de';
-import { Hybrid } from './hybrid';
-import { NelderMead } from './nelder-mead';
+import { buildInner, restoreInner, type InnerOptimizer } from './inner';
 import { Prng } from './prng';
+import { Restart } from './restart';
 import type { OptimizerConfig, OptimizerResult, ResolvedConfig } from './types';
 
-function build(config: ResolvedConfig): DifferentialEvolution | NelderMead | Hybrid {
+function build(config: ResolvedConfig): InnerOptimizer | Restart {
   const root = Prng.fromSeed(config.seed);
   const rng = config.stream === null ? root : root.split(config.stream);
-  switch (config.kind) {
-    case 'lshade':
-    case 'de-rand-1-bin':
-      return DifferentialEvolution.create(config, rng);
-    case 'nelder-mead':
-      return NelderMead.create(config, rng);
-    case 'hybrid':
-      return Hybrid.create(config, rng);
-  }
+  return config.kind === 'restart' ? Restart.create(config, rng) : buildInner(config, rng);
 }
 
-function guard(make: () => DifferentialEvolution | NelderMead | Hybrid): OptimizerResult {
+function guard(make: () => InnerOptimizer | Restart): OptimizerResult {
   try {
     return { ok: true, optimizer: make() };
   } catch (error) {
@@ -42,15 +33,6 @@ export function createOptimizer(config: OptimizerConfig): OptimizerResult {
 export function restoreOptimizer(state: unknown): OptimizerResult {
   return guard(() => {
     const o = readObject(state, 'state');
-    const kind = readLiteral(o.kind, 'state.kind', ['lshade', 'de-rand-1-bin', 'nelder-mead', 'hybrid'] as const);
-    switch (kind) {
-      case 'lshade':
-      case 'de-rand-1-bin':
-        return DifferentialEvolution.fromState(o, 'state');
-      case 'nelder-mead':
-        return NelderMead.fromState(o, 'state');
-      case 'hybrid':
-        return Hybrid.fromState(o, 'state');
-    }
+    return o.kind === 'restart' ? Restart.fromState(o, 'state') : restoreInner(o, 'state');
   });
 }

@@ -15,6 +15,7 @@
  * The global search draws from stream 0 of this optimizer's generator and polish k
  * from stream k + 1, so each part is reproducible on its own.
  */
+import type { Avoidance } from './avoid';
 import { OptimizerBase } from './base';
 import { encodeReal, fail, readInteger, readLength, readLiteral, readNumbers, readObject, readReal } from './codec';
 import { resolveConfig } from './config';
@@ -46,13 +47,14 @@ export class Hybrid extends OptimizerBase implements Optimizer {
     this.candidates = new DistinctElite(config.dim, config.polishCount, config.distinctDistance);
   }
 
-  static create(config: ResolvedHybrid, rng: Prng): Hybrid {
+  /** A new search; the global phase's initial population keeps away from the basins of `avoid` when given. */
+  static create(config: ResolvedHybrid, rng: Prng, avoid?: Avoidance): Hybrid {
     const hybrid = new Hybrid(config, rng, 0, null, new BestTracker(config.dim));
     const { dim, seed, stream, targetValue } = config;
     const maxEvaluations = Math.max(1, Math.floor(config.globalShare * config.maxEvaluations));
     // Through resolveConfig, so the part's config has the field order a restored one has.
     const globalConfig = resolveConfig({ ...config.global, dim, maxEvaluations, seed, stream, targetValue }) as ResolvedDe;
-    hybrid.global = DifferentialEvolution.create(globalConfig, rng.split(0));
+    hybrid.global = DifferentialEvolution.create(globalConfig, rng.split(0), avoid);
     return hybrid;
   }
 

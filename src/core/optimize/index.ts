@@ -12,6 +12,8 @@ export type {
   HybridConfig,
   HybridOptions,
   HybridState,
+  InnerConfig,
+  InnerState,
   LshadeConfig,
   LshadeOptions,
   NelderMeadConfig,
@@ -24,11 +26,15 @@ export type {
   OptimizerState,
   RandOneBinConfig,
   RandOneBinOptions,
+  RestartConfig,
+  RestartOptions,
+  RestartState,
   StopReason,
 } from './types';
 export type { JsonReal } from './codec';
 export { STATE_FORMAT, STATE_VERSION } from './types';
 export { createOptimizer, restoreOptimizer } from './factory';
+export { Restart } from './restart';
 export { Prng, MAX_INT_RANGE, MAX_STREAM, type PrngState } from './prng';
 export { canonicalValue, canonicalViolation, precedes } from './ranking';
 export { gaoHanCoefficients, type NelderMeadCoefficients } from './nelder-mead';

@@ -13,7 +13,7 @@ export type StopReason =
   | 'budget'
   /** A feasible point with value ≤ `targetValue` was found. */
   | 'target'
-  /** The search cannot make progress: the population collapsed, or restarts stopped improving. */
+  /** The search cannot make progress: the population collapsed, or restarts stopped improving (a restart scheme turns this into a fresh run). */
   | 'converged';
 
 export interface BestPoint {
@@ -136,7 +136,34 @@ export type HybridConfig = CommonConfig & {
     | ({ readonly kind: 'de-rand-1-bin' } & Partial<RandOneBinOptions>);
   readonly polish?: Partial<Omit<NelderMeadOptions, 'x0'>>;
 };
-export type OptimizerConfig = LshadeConfig | RandOneBinConfig | NelderMeadConfig | HybridConfig;
+/** A search that is not itself a restart scheme, less the fields the scheme fills in per run. */
+export type InnerConfig = (LshadeConfig | RandOneBinConfig | NelderMeadConfig | HybridConfig) extends infer C
+  ? C extends CommonConfig
+    ? Omit<C, keyof CommonConfig>
+    : never
+  : never;
+
+export interface RestartOptions {
+  /** Each run's population is the previous run's times this (IPOP); default 2, in [1, 10]. */
+  readonly populationGrowth: number;
+  /** A run has stagnated when its best has not improved for this share of its budget; default 0.25. */
+  readonly stallShare: number;
+  /** A fresh run's start points are redrawn when within this RMS distance of a basin found (box units); default 0.05. */
+  readonly avoidDistance: number;
+  /** Draws per start point before the last one is taken near a basin anyway; default 32. */
+  readonly avoidAttempts: number;
+  /** Basins remembered (the best point of each finished run, oldest forgotten first); default 64. */
+  readonly maxBasins: number;
+  /** Budget of one run (the last gets what is left); null, the default: each run gets all that is left. */
+  readonly runEvaluations: number | null;
+}
+
+export type RestartConfig = CommonConfig & {
+  readonly kind: 'restart';
+  /** The search of each run; default L-SHADE with its defaults. */
+  readonly inner?: InnerConfig;
+} & Partial<RestartOptions>;
+export type OptimizerConfig = LshadeConfig | RandOneBinConfig | NelderMeadConfig | HybridConfig | RestartConfig;
 
 // ... and the same with every option filled in, as the state carries it.
 
@@ -152,7 +179,11 @@ export type ResolvedRandOneBin = ResolvedCommon & { readonly kind: 'de-rand-1-bi
 export type ResolvedDe = ResolvedLshade | ResolvedRandOneBin;
 export type ResolvedNelderMead = ResolvedCommon & { readonly kind: 'nelder-mead' } & NelderMeadOptions;
 export type ResolvedHybrid = ResolvedCommon & { readonly kind: 'hybrid' } & HybridOptions;
-export type ResolvedConfig = ResolvedDe | ResolvedNelderMead | ResolvedHybrid;
+export type ResolvedInnerConfig = ResolvedDe | ResolvedNelderMead | ResolvedHybrid;
+/** The inner search's options as the state carries them: resolved, less the per-run common fields. */
+export type ResolvedInnerOptions = ResolvedInnerConfig extends infer C ? (C extends ResolvedCommon ? Omit<C, keyof ResolvedCommon> : never) : never;
+export type ResolvedRestart = ResolvedCommon & { readonly kind: 'restart'; readonly inner: ResolvedInnerOptions } & RestartOptions;
+export type ResolvedConfig = ResolvedInnerConfig | ResolvedRestart;
 
 // ---------------------------------------------------------------------------------------
 // State: plain JSON. Points are row-major number[]; ranked values and violations are
@@ -246,6 +277,25 @@ export interface HybridState extends StateHeader<ResolvedHybrid> {
   readonly polish: NelderMeadState | null;
 }
 
-export type OptimizerState = DeState | NelderMeadState | HybridState;
+export type InnerState = DeState | NelderMeadState | HybridState;
+
+export interface RestartState extends StateHeader<ResolvedRestart> {
+  readonly kind: 'restart';
+  /** Runs started after the first. */
+  readonly restarts: number;
+  /** Evaluations of the finished runs; `evaluations` less the current run's. */
+  readonly pastEvaluations: number;
+  /** The best point of the finished runs. */
+  readonly pastBest: BestPointState;
+  /** Best points of finished runs, oldest first, count × dim (box units): fresh runs start away from them. */
+  readonly basins: number[];
+  /** The current run's best when it last improved, and the scheme's evaluations then (for stagnation). */
+  readonly runBestValue: JsonReal;
+  readonly runBestViolation: JsonReal;
+  readonly improvedAt: number;
+  readonly inner: InnerState;
+}
+
+export type OptimizerState = InnerState | RestartState;
 
 export type OptimizerResult = { readonly ok: true; readonly optimizer: Optimizer } | { readonly ok: false; readonly reason: string };

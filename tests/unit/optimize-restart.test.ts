@@ -1,0 +1,112 @@
+import { describe, expect, it } from 'vitest';
+import { Restart, type Optimizer, type RestartState } from '../../src/core/optimize';
+import { drive, expectExactResume, make, rosenbrock, roundTrip, shiftedRastrigin, SHIFT_RASTRIGIN_5 } from '../support/optimize';
+
+const rastrigin = shiftedRastrigin(SHIFT_RASTRIGIN_5);
+
+function restarts(opt: Optimizer): number {
+  if (!(opt instanceof Restart)) throw new Error('not a restart scheme');
+  return opt.restarts();
+}
+
+describe('restart scheme (IPOP-style, Auger and Hansen 2005)', () => {
+  // DE/rand/1/bin stops 'converged' when its population collapses, wherever that is: on
+  // Rastrigin (Jamil and Yang, 2013; a local minimum near every integer point) often not
+  // at the global one. A budget 20 times what one such search needs must all be spent.
+  const de = { kind: 'de-rand-1-bin', population: 20, xTolerance: 1e-6 } as const;
+  const single = drive(make({ ...de, dim: 5, maxEvaluations: 1_000_000, seed: 11 }), rastrigin);
+
+  it('a single search stops converged, well inside its budget', () => {
+    expect(single.stopReason).toBe('converged');
+    expect(single.evaluations).toBeLessThan(1_000_000 / 20);
+  });
+
+  const budget = 20 * single.evaluations;
+  const config = { kind: 'restart', inner: de, dim: 5, maxEvaluations: budget, seed: 11 } as const;
+
+  it('with 20 times that budget it restarts, spends the whole budget, and ends on it', () => {
+    const opt = make(config);
+    const result = drive(opt, rastrigin);
+    expect(restarts(opt)).toBeGreaterThan(0);
+    expect(result.evaluations).toBe(budget);
+    expect(result.stopReason).toBe('budget');
+    // Its first run is that single search, bit for bit, so it can only do as well or better.
+    expect(result.value).toBeLessThanOrEqual(single.value);
+  });
+
+  it('its first run is exactly the search alone: the same best after the same evaluations', () => {
+    const opt = make(config);
+    const first = drive(opt, rastrigin, { until: single.evaluations });
+    expect(restarts(opt)).toBe(1);
+    expect(first.value).toBe(single.value);
+    expect(Array.from(first.unit)).toEqual(Array.from(single.unit));
+  });
+
+  it('grows the population of each run by populationGrowth (IPOP) and records each run’s best as a basin', () => {
+    const opt = make({ ...config, populationGrowth: 2 });
+    drive(opt, rastrigin, { until: Math.floor(budget / 2) });
+    const state = opt.exportState() as RestartState;
+    expect(state.restarts).toBeGreaterThanOrEqual(2);
+    const run = state.inner;
+    if (run.kind === 'hybrid' || run.kind === 'nelder-mead' || run.config.kind !== 'de-rand-1-bin') throw new Error(`inner is ${run.kind}`);
+    expect(run.config.population).toBe(Math.min(20 * 2 ** state.restarts, 10000));
+    expect(state.basins.length).toBe(Math.min(state.restarts, 64) * 5);
+  });
+
+  it('an exported state, through JSON, resumes exactly, before and after restarts', () => {
+    const cuts = [single.evaluations - 20, single.evaluations + 20, Math.floor(budget * 0.6)];
+    expect(() => expectExactResume(config, rastrigin, cuts)).not.toThrow();
+  });
+
+  it('restarts a run that stagnates before it converges (L-SHADE sized for the whole budget)', () => {
+    // L-SHADE's population shrinks over its whole budget (Tanabe and Fukunaga, 2014), so
+    // it converges only near the end of it; stagnation ends the run sooner.
+    const opt = make({ kind: 'restart', inner: { kind: 'lshade' }, dim: 2, maxEvaluations: 200_000, seed: 3, stallShare: 0.05 });
+    const result = drive(opt, rosenbrock(2));
+    expect(restarts(opt)).toBeGreaterThan(0);
+    expect(result.evaluations).toBe(200_000);
+    expect(result.value).toBeLessThan(1e-8); // Rosenbrock's minimum is 0 at (1, 1): Jamil and Yang (2013)
+  });
+
+  it('stops on the target, not restarting past it', () => {
+    // Rosenbrock's minimum is 0 (Jamil and Yang, 2013), so a target of 1e-6 is reachable.
+    const opt = make({ kind: 'restart', inner: { kind: 'lshade' }, dim: 2, maxEvaluations: 1_000_000, seed: 3, runEvaluations: 20_000, targetValue: 1e-6 });
+    const result = drive(opt, rosenbrock(2));
+    expect(result.stopReason).toBe('target');
+    expect(result.value).toBeLessThanOrEqual(1e-6);
+    expect(result.evaluations).toBeLessThan(1_000_000);
+  });
+
+  it('starts Nelder–Mead runs afresh too, and resumes them exactly', () => {
+    const nm = { kind: 'restart', inner: { kind: 'nelder-mead' }, dim: 3, maxEvaluations: 20_000, seed: 5 } as const;
+    const opt = make(nm);
+    const result = drive(opt, rastrigin.dim === 3 ? rastrigin : shiftedRastrigin([0.5, -1.5, 2.2]));
+    expect(restarts(opt)).toBeGreaterThan(0);
+    expect(result.evaluations).toBe(20_000);
+    expect(() => expectExactResume(nm, shiftedRastrigin([0.5, -1.5, 2.2]), [3000, 12_000])).not.toThrow();
+  });
+
+  it('refuses a restart scheme inside a restart scheme, and a bad option, naming the field', () => {
+    const nested = { kind: 'restart', inner: { kind: 'restart' }, dim: 2, maxEvaluations: 100, seed: 1 };
+    const r1 = make as unknown as (c: unknown) => Optimizer;
+    expect(() => r1(nested)).toThrow(/config\.inner\.kind/);
+    expect(() => make({ ...config, populationGrowth: 0.5 })).toThrow(/config\.populationGrowth is 0\.5/);
+  });
+
+  it('gives each run at most runEvaluations, restarting when a run spends it', () => {
+    const opt = make({ kind: 'restart', inner: { kind: 'lshade' }, dim: 2, maxEvaluations: 10_000, seed: 3, runEvaluations: 3000 });
+    const result = drive(opt, rosenbrock(2));
+    expect(result.evaluations).toBe(10_000);
+    expect(restarts(opt)).toBeGreaterThanOrEqual(3);
+    const state = opt.exportState() as RestartState;
+    expect(state.inner.config.maxEvaluations).toBeLessThanOrEqual(3000);
+  });
+
+  it('a restored state keeps its restart count', () => {
+    const opt = make(config);
+    drive(opt, rastrigin, { until: Math.floor(budget / 3) });
+    const back = roundTrip(opt.exportState());
+    expect(restarts(back)).toBe(restarts(opt));
+    expect(back.evaluations()).toBe(opt.evaluations());
+  });
+});
