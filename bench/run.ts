@@ -9,6 +9,7 @@
 import { performance } from 'node:perf_hooks';
 import { benchAnalyzeChain } from './analyzeChain';
 import { benchKernel } from './kernel';
+import { benchMatching } from './matching';
 import { benchScaling } from './scaling';
 import { benchSuspension } from './suspension';
 import { benchSynthesis } from './synthesis';
@@ -29,6 +30,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'synthesis', run: benchSynthesis },
   { name: 'suspension', run: benchSuspension },
   { name: 'analyze-chain', run: benchAnalyzeChain },
+  { name: 'matching', run: benchMatching },
 ];
 
 type Outcome =

@@ -23,8 +23,9 @@ const TY = 3;
 export interface JointFit {
   /**
    * Refines t[o … o+n) and `placement` (a, b, tx, ty) in place for targets Q (x0, y0, …).
-   * `lo`/`hi` are the limits of the first and last value's outer neighbours (a cyclic
-   * match passes t[o+n−1] − period and t[o] + period). `maxStep` caps each driver step.
+   * `limits` holds lo, hi: the limits of the first and last value's outer neighbours
+   * (a cyclic match passes t[o+n−1] − period and t[o] + period), then the cap on each
+   * driver step (in the array because a double passed to a call is boxed).
    */
   refine(
     curve: CurveEvaluator,
@@ -34,7 +35,6 @@ export interface JointFit {
     o: number,
     placement: Float64Array,
     limits: Float64Array,
-    maxStep: number,
   ): void;
 }
 
@@ -96,7 +96,8 @@ export function createJointFit(n: number): JointFit {
   }
 
   return {
-    refine(curve, targets, weights, t, o, placement, limits, maxStep) {
+    refine(curve, targets, weights, t, o, placement, limits) {
+      const maxStep = limits[2];
       let f = sumSquares(curve, targets, weights, t, o, placement);
       for (let it = 0; it < JOINT_FIT_ITERATIONS; it++) {
         const a = placement[A];

@@ -3,7 +3,8 @@
  *
  * - `matchInOrder`: dynamic programming over the samples of the output curve, each
  *   target point matched to a sample, the sample indices non-decreasing in target
- *   order (cyclically when the curve is a closed loop);
+ *   order (cyclically when the curve is a closed loop); O(n·M) per start, cyclic starts
+ *   abandoned by a lower bound once they cannot win (branch and bound, Land and Doig, 1960);
  * - `refineDriverValue`: safeguarded Newton steps on the continuous curve, so the
  *   reported error is the error at a genuine driver value, not at a sample;
  * - `orderViolation`: how far a list of driver values is from increasing.
@@ -32,86 +33,131 @@ const CURVE_Y = CURVE_Y_BINDING;
 export const DRIVER_STEP_TOLERANCE = 1e-13;
 /** Candidate starts tried for a cyclic match (local minima of the first point's distance). */
 export const CYCLIC_START_CANDIDATES = 3;
+/**
+ * Relative margin on the lower bound that abandons a pass: the bound adds the same
+ * non-negative terms as the pass, in another order, so it may round up by a few ulps
+ * per point; this margin covers that many times over for any target the problem allows.
+ */
+const BOUND_ROUNDING_MARGIN = 1e-10;
 
 export interface MatchScratch {
   readonly pointCount: number;
   readonly sampleCount: number;
+  /** Weighted squared distance of point i to sample j at [i·M + j]; Infinity where j does not assemble. */
+  readonly cost: Float64Array;
+  /** rest[i]: Σ over points k ≥ i of point k's least cost anywhere on the curve; rest[n] = 0. */
+  readonly rest: Float64Array;
   readonly previous: Float64Array;
-  readonly current: Float64Array;
   readonly argPrevious: Int32Array;
   readonly unrolled: Int32Array;
   readonly starts: Int32Array;
   readonly startCost: Float64Array;
+  /** The starts by ascending cost. */
+  readonly order: Int32Array;
 }
 
 export function createMatchScratch(pointCount: number, sampleCount: number): MatchScratch {
   return {
     pointCount,
     sampleCount,
+    cost: new Float64Array(pointCount * sampleCount),
+    rest: new Float64Array(pointCount + 1),
     previous: new Float64Array(sampleCount),
-    current: new Float64Array(sampleCount),
     argPrevious: new Int32Array(pointCount * sampleCount),
     unrolled: new Int32Array(pointCount),
     starts: new Int32Array(CYCLIC_START_CANDIDATES),
     startCost: new Float64Array(CYCLIC_START_CANDIDATES),
+    order: new Int32Array(CYCLIC_START_CANDIDATES),
   };
 }
 
-function sampleCost(samples: Float64Array, valid: Uint8Array, j: number, qx: number, qy: number, w: number): number {
-  if (valid[j] === 0) return Infinity;
-  const dx = samples[2 * j] - qx;
-  const dy = samples[2 * j + 1] - qy;
-  return w * (dx * dx + dy * dy);
-}
-
-/**
- * One monotone pass: sample index `first + u` (mod M) for u in 0..M-1, point 0 limited
- * to u ≤ firstSpan. Writes the chosen u per point into scratch.unrolled; returns the cost.
- */
-function monotonePass(
-  samples: Float64Array,
-  valid: Uint8Array,
-  targets: Float64Array,
-  weights: Float64Array | undefined,
-  first: number,
-  firstSpan: number,
-  s: MatchScratch,
-): number {
+/** Fills scratch.cost once per match: every pass below reads it instead of recomputing. */
+function fillCosts(samples: Float64Array, valid: Uint8Array, targets: Float64Array, weights: Float64Array | undefined, s: MatchScratch): void {
   const m = s.sampleCount;
   const n = s.pointCount;
-  const prev = s.previous;
-  const cur = s.current;
-  const arg = s.argPrevious;
-  const w0 = weights === undefined ? 1 : weights[0];
-  for (let u = 0; u < m; u++) {
-    const j = (first + u) % m;
-    prev[u] = u <= firstSpan ? sampleCost(samples, valid, j, targets[0], targets[1], w0) : Infinity;
-  }
-  for (let i = 1; i < n; i++) {
+  const cost = s.cost;
+  const rest = s.rest;
+  rest[n] = 0;
+  for (let i = n - 1; i >= 0; i--) {
     const qx = targets[2 * i];
     const qy = targets[2 * i + 1];
     const w = weights === undefined ? 1 : weights[i];
+    const row = i * m;
+    let least = Infinity;
+    for (let j = 0; j < m; j++) {
+      if (valid[j] === 0) {
+        cost[row + j] = Infinity;
+      } else {
+        const dx = samples[2 * j] - qx;
+        const dy = samples[2 * j + 1] - qy;
+        const c = w * (dx * dx + dy * dy);
+        cost[row + j] = c;
+        if (c < least) least = c;
+      }
+    }
+    rest[i] = least + rest[i + 1];
+  }
+}
+
+/**
+ * One monotone pass over the costs: sample index `first + u` (mod M) for u in 0..M-1,
+ * point 0 limited to u ≤ firstSpan. Writes the chosen u per point into
+ * scratch.unrolled and returns the cost. Returns Infinity without writing when no sum
+ * is finite, and as soon as a lower bound on every completion (the least partial sum
+ * plus each remaining point's least cost) shows the pass cannot beat `bound`: cannot
+ * reach it when `tieWins`, cannot go below it otherwise.
+ */
+function monotonePass(first: number, firstSpan: number, bound: number, tieWins: boolean, s: MatchScratch): number {
+  const m = s.sampleCount;
+  const n = s.pointCount;
+  const cost = s.cost;
+  const rest = s.rest;
+  // The row of partial sums, updated in place: cell u reads its old value before writing.
+  const sums = s.previous;
+  const arg = s.argPrevious;
+  // u < split reads sample first + u; u ≥ split reads u − split (past the end of the loop).
+  const split = m - first;
+  for (let u = 0; u < m; u++) {
+    const j = u < split ? first + u : u - split;
+    sums[u] = u <= firstSpan ? cost[j] : Infinity;
+  }
+  for (let i = 1; i < n; i++) {
+    const row = i * m;
+    const shift = row + first;
+    const wrapShift = row - split;
     let best = Infinity;
     let bestU = 0;
-    const row = i * m;
-    for (let u = 0; u < m; u++) {
-      if (prev[u] < best) {
-        best = prev[u];
+    for (let u = 0; u < split; u++) {
+      const here = sums[u];
+      if (here < best) {
+        best = here;
         bestU = u;
       }
       arg[row + u] = bestU;
-      cur[u] = best + sampleCost(samples, valid, (first + u) % m, qx, qy, w);
+      sums[u] = best + cost[shift + u];
     }
-    for (let u = 0; u < m; u++) prev[u] = cur[u];
+    for (let u = split; u < m; u++) {
+      const here = sums[u];
+      if (here < best) {
+        best = here;
+        bestU = u;
+      }
+      arg[row + u] = bestU;
+      sums[u] = best + cost[wrapShift + u];
+    }
+    // best: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
+    const lower = (best + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
+    if (tieWins ? lower > bound : lower >= bound) return Infinity;
   }
   let best = Infinity;
   let bestU = 0;
   for (let u = 0; u < m; u++) {
-    if (prev[u] < best) {
-      best = prev[u];
+    if (sums[u] < best) {
+      best = sums[u];
       bestU = u;
     }
   }
+  if (!(best < Infinity) || (tieWins ? best > bound : best >= bound)) return Infinity;
   const unrolled = s.unrolled;
   unrolled[n - 1] = bestU;
   for (let i = n - 1; i > 0; i--) unrolled[i - 1] = arg[i * m + unrolled[i]];
@@ -123,7 +169,8 @@ function monotonePass(
  * `M` points (2M numbers) at equally spaced driver values; `valid[j]` is 1 where the
  * mechanism assembles. Non-cyclic: the indices are non-decreasing in 0..M-1. Cyclic:
  * the samples form a closed loop and the indices may pass once through M − 1 → 0;
- * tried from the few best local minima of the first point's distance.
+ * tried from the few best local minima of the first point's distance, each start
+ * abandoned once it cannot beat the best before it.
  *
  * Writes into `outIndex` an unrolled index per point (non-decreasing; in a cyclic
  * match it may be negative or ≥ M: the driver value is start + index · step either
@@ -141,21 +188,22 @@ export function matchInOrder(
 ): number {
   const m = scratch.sampleCount;
   const n = scratch.pointCount;
+  fillCosts(samples, valid, targets, weights, scratch);
+  const cost = scratch.cost;
   if (!cyclic) {
-    const cost = monotonePass(samples, valid, targets, weights, 0, m - 1, scratch);
-    for (let i = 0; i < n; i++) outIndex[i] = scratch.unrolled[i];
-    return cost;
+    const total = monotonePass(0, m - 1, Infinity, true, scratch);
+    for (let i = 0; i < n; i++) outIndex[i] = total < Infinity ? scratch.unrolled[i] : 0;
+    return total;
   }
   // Local minima of the first point's distance along the loop: where the match starts.
   const starts = scratch.starts;
   const startCost = scratch.startCost;
   let found = 0;
-  const w0 = weights === undefined ? 1 : weights[0];
   for (let j = 0; j < m; j++) {
-    const c = sampleCost(samples, valid, j, targets[0], targets[1], w0);
+    const c = cost[j];
     if (!(c < Infinity)) continue;
-    const before = sampleCost(samples, valid, (j + m - 1) % m, targets[0], targets[1], w0);
-    const after = sampleCost(samples, valid, (j + 1) % m, targets[0], targets[1], w0);
+    const before = cost[j === 0 ? m - 1 : j - 1];
+    const after = cost[j === m - 1 ? 0 : j + 1];
     if (!(c <= before && c < after)) continue;
     if (found < starts.length) {
       starts[found] = j;
@@ -177,14 +225,29 @@ export function matchInOrder(
   }
   // Point 0 may sit a little before or after its minimum: a window of ±M/16 samples.
   const half = Math.max(1, Math.floor(m / 16));
-  let best = Infinity;
+  // The cheapest start first, so its total abandons the others early. The answer is
+  // the least total, a tie going to the lower slot of `starts` (the order tried before).
+  const order = scratch.order;
   for (let k = 0; k < found; k++) {
+    let q = k;
+    while (q > 0 && startCost[order[q - 1]] > startCost[k]) {
+      order[q] = order[q - 1];
+      q--;
+    }
+    order[q] = k;
+  }
+  let best = Infinity;
+  let chosen = found;
+  for (let r = 0; r < found; r++) {
+    const k = order[r];
     const first = (starts[k] - half + m) % m;
-    const cost = monotonePass(samples, valid, targets, weights, first, 2 * half, scratch);
-    if (cost < best || k === 0) {
-      best = cost;
+    const total = monotonePass(first, 2 * half, best, k < chosen, scratch);
+    if (total < best || (total === best && k < chosen)) {
+      best = total;
+      chosen = k;
       const base = starts[k] - half;
-      for (let i = 0; i < n; i++) outIndex[i] = base + scratch.unrolled[i];
+      // A pass with no finite cost leaves every point at its first sample, as its backtrack would.
+      for (let i = 0; i < n; i++) outIndex[i] = base + (total < Infinity ? scratch.unrolled[i] : 0);
     }
   }
   return best;

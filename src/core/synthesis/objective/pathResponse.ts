@@ -137,8 +137,10 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const targetArc = new Float64Array(n);
   const matchScratch = createMatchScratch(n, Math.max(sampleCount, 1));
   const matched = new Int32Array(n);
+  const previousMatched = new Int32Array(n);
   const jointFit = createJointFit(n);
-  const limits = new Float64Array(2);
+  /** lo, hi and the step cap of the joint refinement. */
+  const limits = new Float64Array(3);
   /** a, b, tx, ty of the placement in force (identity when fixed); the layout of SIM_A … SIM_TY. */
   const placement = new Float64Array(4);
   const curve = encoding.curve;
@@ -255,6 +257,12 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     for (let it = 0; it < ALIGNMENT_ITERATIONS; it++) {
       placeSamples();
       matchInOrder(placedSamples, valid, targets, weights, wrap, matchScratch, matched);
+      // The match repeats the last one: the fit below would repeat too, and so would every
+      // later iteration (a fixed point), so stop with the same answer.
+      let same = it > 0;
+      for (let i = 0; same && i < n; i++) same = matched[i] === previousMatched[i];
+      if (same) break;
+      for (let i = 0; i < n; i++) previousMatched[i] = matched[i];
       for (let i = 0; i < n; i++) {
         const j = ((matched[i] % sampleCount) + sampleCount) % sampleCount;
         points[2 * i] = samples[2 * j];
@@ -273,7 +281,8 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       limits[0] = 0;
       limits[1] = TAU;
     }
-    jointFit.refine(curve, targets, weights, t, o, sim, limits, step);
+    limits[2] = step;
+    jointFit.refine(curve, targets, weights, t, o, sim, limits);
   }
 
   function refineFreeTiming(x: Float64Array, t: Float64Array, o: number): void {
