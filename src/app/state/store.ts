@@ -4,30 +4,13 @@
  * re-renders only when what it selects changes.
  */
 import { createContext, useContext, useSyncExternalStore } from 'react';
+import { createReducerStore, type ReducerStore } from '../reducerStore';
 import { reduce, type Action, type WorkspaceState } from './reducer';
 
-export interface Store {
-  getState(): WorkspaceState;
-  dispatch(action: Action): void;
-  subscribe(listener: () => void): () => void;
-}
+export type Store = ReducerStore<WorkspaceState, Action>;
 
 export function createStore(initial: WorkspaceState): Store {
-  let state = initial;
-  const listeners = new Set<() => void>();
-  return {
-    getState: () => state,
-    dispatch(action) {
-      const next = reduce(state, action);
-      if (next === state) return;
-      state = next;
-      for (const listener of [...listeners]) listener();
-    },
-    subscribe(listener) {
-      listeners.add(listener);
-      return () => listeners.delete(listener);
-    },
-  };
+  return createReducerStore(reduce, initial);
 }
 
 export const StoreContext = createContext<Store | null>(null);

@@ -3,30 +3,13 @@
  * the part they show with `useSuspension(select)` and re-render only when it changes.
  */
 import { createContext, useContext, useSyncExternalStore } from 'react';
+import { createReducerStore, type ReducerStore } from '../reducerStore';
 import { reduceSuspension, type SuspensionAction, type SuspensionState } from './state';
 
-export interface SuspensionStore {
-  getState(): SuspensionState;
-  dispatch(action: SuspensionAction): void;
-  subscribe(listener: () => void): () => void;
-}
+export type SuspensionStore = ReducerStore<SuspensionState, SuspensionAction>;
 
 export function createSuspensionStore(initial: SuspensionState): SuspensionStore {
-  let state = initial;
-  const listeners = new Set<() => void>();
-  return {
-    getState: () => state,
-    dispatch(action) {
-      const next = reduceSuspension(state, action);
-      if (next === state) return;
-      state = next;
-      for (const listener of [...listeners]) listener();
-    },
-    subscribe(listener) {
-      listeners.add(listener);
-      return () => listeners.delete(listener);
-    },
-  };
+  return createReducerStore(reduceSuspension, initial);
 }
 
 export const SuspensionStoreContext = createContext<SuspensionStore | null>(null);
