@@ -15,7 +15,7 @@
  * issues is cut at MAX_LISTED_ISSUES, with a count of the rest.
  */
 import * as z from 'zod';
-import { capIssues, describeValue, expected, formatPath, strict } from './schemaMessages';
+import { capIssues, envelopeIssue, expected, formatPath, strict } from './schemaMessages';
 import { compile } from '../linkage/compile';
 import {
   MAX_BODIES,
@@ -153,10 +153,6 @@ type Doc = Record<string, unknown>;
  */
 const MIGRATIONS: Readonly<Partial<Record<number, (doc: Doc) => Doc>>> = {};
 
-function isPlainObject(value: unknown): value is Doc {
-  return typeof value === 'object' && value !== null && !Array.isArray(value);
-}
-
 /**
  * Brings a document of any version this code knows up to LINKAGE_FILE_VERSION. Rejects
  * a file that is not a linkage file, a version that is not a whole number ≥ 1, and a
@@ -165,25 +161,10 @@ function isPlainObject(value: unknown): value is Doc {
 export function migrateLinkageFile(
   json: unknown,
 ): { readonly ok: true; readonly doc: Doc } | { readonly ok: false; readonly issues: readonly LinkageFileIssue[] } {
-  if (!isPlainObject(json)) {
-    return fail('', `expected a linkage file (a JSON object with "format": "${LINKAGE_FILE_FORMAT}"), got ${describeValue(json)}`);
-  }
-  if (json.format !== LINKAGE_FILE_FORMAT) {
-    return fail('format', json.format === undefined
-      ? `missing; expected "${LINKAGE_FILE_FORMAT}" (is this a linkage file?)`
-      : `expected "${LINKAGE_FILE_FORMAT}", got ${describeValue(json.format)}`);
-  }
-  const version = json.version;
-  if (!(typeof version === 'number' && Number.isInteger(version) && version >= 1)) {
-    return fail('version', version === undefined
-      ? `missing; expected a file format version (this Loci reads 1 to ${LINKAGE_FILE_VERSION})`
-      : `expected a whole number ≥ 1, got ${describeValue(version)}`);
-  }
-  if (version > LINKAGE_FILE_VERSION) {
-    return fail('version', `this file is version ${version}, newer than this Loci reads ` +
-      `(up to version ${LINKAGE_FILE_VERSION}); open it with a newer Loci`);
-  }
-  let doc = json;
+  const wrong = envelopeIssue(json, LINKAGE_FILE_FORMAT, 'linkage file', LINKAGE_FILE_VERSION);
+  if (wrong !== null) return fail(wrong.path, wrong.message);
+  const version = (json as Doc).version as number;
+  let doc = json as Doc;
   for (let v = version; v < LINKAGE_FILE_VERSION; v++) {
     const step = MIGRATIONS[v];
     if (!step) throw new Error(`linkage file: no migration from version ${v}`);

@@ -76,3 +76,39 @@ export function capIssues<T>(issues: readonly T[], more: (count: number) => T): 
   const rest = issues.length - MAX_LISTED_ISSUES;
   return [...issues.slice(0, MAX_LISTED_ISSUES), more(rest)];
 }
+
+/** A JSON object, as a file's top level or a nested record is read. */
+export function isPlainObject(value: unknown): value is Record<string, unknown> {
+  return typeof value === 'object' && value !== null && !Array.isArray(value);
+}
+
+/**
+ * The envelope of one of Loci's own files: a JSON object with `format` (this file's
+ * name) and a whole-number `version` from 1 to `latest`. The first thing wrong with it,
+ * as a path and a message, or null when it is whole. `kind` names the file in words
+ * ("linkage file", "suspension file").
+ */
+export function envelopeIssue(json: unknown, format: string, kind: string, latest: number): { readonly path: string; readonly message: string } | null {
+  if (!isPlainObject(json)) {
+    return { path: '', message: `expected a ${kind} (a JSON object with "format": "${format}"), got ${describeValue(json)}` };
+  }
+  if (json.format !== format) {
+    return {
+      path: 'format',
+      message: json.format === undefined ? `missing; expected "${format}" (is this a ${kind}?)` : `expected "${format}", got ${describeValue(json.format)}`,
+    };
+  }
+  const version = json.version;
+  if (!(typeof version === 'number' && Number.isInteger(version) && version >= 1)) {
+    return {
+      path: 'version',
+      message: version === undefined
+        ? `missing; expected a file format version (this Loci reads 1 to ${latest})`
+        : `expected a whole number ≥ 1, got ${describeValue(version)}`,
+    };
+  }
+  if (version > latest) {
+    return { path: 'version', message: `this file is version ${version}, newer than this Loci reads (up to version ${latest}); open it with a newer Loci` };
+  }
+  return null;
+}

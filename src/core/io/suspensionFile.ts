@@ -15,7 +15,7 @@
  * must assemble). A list of issues is cut at MAX_LISTED_ISSUES with a count of the rest.
  */
 import * as z from 'zod';
-import { capIssues, describeValue, expected, formatPath, strict } from './schemaMessages';
+import { capIssues, describeValue, envelopeIssue, expected, formatPath, isPlainObject, strict } from './schemaMessages';
 import type { Vec2 } from '../geometry';
 import { compile } from '../linkage/compile';
 import { UNPRINTABLE_ID_CHARS, escapeUnprintable, type Linkage } from '../linkage/model';
@@ -178,12 +178,6 @@ export type SuspensionFileV1 = z.infer<typeof fileSchema>;
 // ---------------------------------------------------------------------------------
 // Reading
 
-type Doc = Record<string, unknown>;
-
-function isPlainObject(value: unknown): value is Doc {
-  return typeof value === 'object' && value !== null && !Array.isArray(value);
-}
-
 function fail(path: string, message: string): { ok: false; issues: SuspensionFileIssue[] } {
   return { ok: false, issues: [{ path, message }] };
 }
@@ -221,25 +215,11 @@ export function parseSuspensionFileText(text: string): ParseSuspensionFileResult
 
 /** Validates a parsed suspension file and builds its layout. On success the design is a fresh copy whose linkage compiles. */
 export function parseSuspensionFile(json: unknown): ParseSuspensionFileResult {
-  if (!isPlainObject(json)) {
-    return fail('', `expected a suspension file (a JSON object with "format": "${SUSPENSION_FILE_FORMAT}"), got ${describeValue(json)}`);
-  }
-  if (json.format !== SUSPENSION_FILE_FORMAT) {
-    return fail('format', json.format === undefined
-      ? `missing; expected "${SUSPENSION_FILE_FORMAT}" (is this a suspension file?)`
-      : `expected "${SUSPENSION_FILE_FORMAT}", got ${describeValue(json.format)}`);
-  }
-  const version = json.version;
-  if (!(typeof version === 'number' && Number.isInteger(version) && version >= 1)) {
-    return fail('version', version === undefined
-      ? `missing; expected a file format version (this Loci reads 1 to ${SUSPENSION_FILE_VERSION})`
-      : `expected a whole number ≥ 1, got ${describeValue(version)}`);
-  }
-  if (version > SUSPENSION_FILE_VERSION) {
-    return fail('version', `this file is version ${version}, newer than this Loci reads (up to version ${SUSPENSION_FILE_VERSION}); open it with a newer Loci`);
-  }
+  const wrong = envelopeIssue(json, SUSPENSION_FILE_FORMAT, 'suspension file', SUSPENSION_FILE_VERSION);
+  if (wrong !== null) return fail(wrong.path, wrong.message);
   // The cassette's length is held to its limit before the schema looks at an element.
-  const cogs = isPlainObject(json.bicycle) ? json.bicycle.cogTeeth : undefined;
+  const bicycleJson = (json as Record<string, unknown>).bicycle;
+  const cogs = isPlainObject(bicycleJson) ? bicycleJson.cogTeeth : undefined;
   if (Array.isArray(cogs) && cogs.length > R.cogCount[1]) {
     return fail('bicycle.cogTeeth', `the cassette has ${cogs.length} cogs; expected ${R.cogCount[0]} to ${R.cogCount[1]}`);
   }
