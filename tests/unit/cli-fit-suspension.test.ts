@@ -8,8 +8,7 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main';
-import { nodeIo } from '../../src/cli/nodeIo';
+import { loci } from '../support/cli';
 import { parseLinkageFile } from '../../src/core/io/linkageFile';
 import { suspensionCurves } from '../../src/core/suspension';
 
@@ -22,13 +21,6 @@ beforeAll(() => {
 afterAll(() => {
   rmSync(dir, { recursive: true, force: true });
 });
-
-async function loci(...argv: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const code = await main(argv, { ...nodeIo, stdout: (t) => { stdout += t; }, stderr: (t) => { stderr += t; } });
-  return { code, stdout, stderr };
-}
 
 describe('loci check and fit, suspension problem', () => {
   it('check accepts the example and lists each layout with its variables, and the caution', async () => {

@@ -13,8 +13,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parseLinkageFile } from '../../src/core/io/linkageFile';
-import { main } from '../../src/cli/main';
-import { nodeIo } from '../../src/cli/nodeIo';
+import { loci } from '../support/cli';
 import { decodeCheckpoint } from '../../src/engine';
 
 const TIMED5 = {
@@ -41,13 +40,6 @@ function write(name: string, content: unknown): string {
   const path = join(dir, name);
   writeFileSync(path, typeof content === 'string' ? content : JSON.stringify(content));
   return path;
-}
-
-async function loci(...argv: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const code = await main(argv, { ...nodeIo, stdout: (t) => { stdout += t; }, stderr: (t) => { stderr += t; } });
-  return { code, stdout, stderr };
 }
 
 describe('loci check', () => {

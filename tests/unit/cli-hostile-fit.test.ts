@@ -9,8 +9,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main';
-import { nodeIo } from '../../src/cli/nodeIo';
+import { loci } from '../support/cli';
 
 let dir = '';
 beforeAll(() => {
@@ -19,13 +18,6 @@ beforeAll(() => {
 afterAll(() => {
   rmSync(dir, { recursive: true, force: true });
 });
-
-async function loci(...argv: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const code = await main(argv, { ...nodeIo, stdout: (t) => { stdout += t; }, stderr: (t) => { stderr += t; } });
-  return { code, stdout, stderr };
-}
 
 function problem(name: string, overrides: Record<string, unknown>): string {
   const path = join(dir, `${name}.json`);
