@@ -14,6 +14,7 @@ interface CommandEntry {
 
 const COMMANDS: readonly CommandEntry[] = [
   { name: 'analyze', summary: 'kinematic analysis of a linkage file, printed as JSON', load: () => import('./analyze') },
+  { name: 'batch', summary: 'run a queue of fit jobs one after another; continues where it stopped', load: () => import('./batch') },
   { name: 'check', summary: 'validate a problem file and show what a fit would search', load: () => import('./check') },
   { name: 'fit', summary: 'search linkages for a problem file; writes ranked candidates as JSON', load: () => import('./fit') },
 ];
