@@ -8,6 +8,7 @@
  */
 import { performance } from 'node:perf_hooks';
 import { benchAnalyzeChain } from './analyzeChain';
+import { benchFamilies } from './families';
 import { benchKernel } from './kernel';
 import { benchMatching } from './matching';
 import { benchScaling } from './scaling';
@@ -31,6 +32,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'suspension', run: benchSuspension },
   { name: 'analyze-chain', run: benchAnalyzeChain },
   { name: 'matching', run: benchMatching },
+  { name: 'families', run: benchFamilies },
 ];
 
 type Outcome =
