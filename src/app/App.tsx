@@ -6,6 +6,7 @@ import { useCallback, useDeferredValue, useEffect, useMemo, useState } from 'rea
 import { bootWorkspace, type Workspace } from './boot';
 import { ResultsView } from './results';
 import { RunControls } from './run/RunControls';
+import { runTitle } from './run/runTitle';
 import { ServicesContext } from './services';
 import { SuspensionEntry, SuspensionStart, storedOf, type SuspensionState } from './suspension';
 import { SettingsPanel } from './settings/SettingsPanel';
@@ -69,7 +70,17 @@ function useStartIssues(defaultWorkers: number): readonly string[] {
   }, [target, settings, fieldIssues, defaultWorkers]);
 }
 
+/** Keeps the tab's title on the search's progress, so a search in a background tab can be followed from the tab strip. */
+function useRunTitle(): void {
+  const run = useWorkspace((s) => s.project.run);
+  const title = runTitle(run);
+  useEffect(() => {
+    document.title = title;
+  }, [title]);
+}
+
 function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
+  useRunTitle();
   const { familyBounds, regions } = useFamilyBounds();
   const startIssues = useStartIssues(defaultWorkers);
   return (
