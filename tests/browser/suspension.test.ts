@@ -201,7 +201,8 @@ describeBrowser('rear suspension', () => {
     const report = demoReport('fourBarSeatStayAxle');
     const csv = await download(page, 'Curves (CSV)');
     expect(csv.name).toMatch(/-curves\.csv$/);
-    const lines = csv.text.trimEnd().split('\r\n');
+    const [caution, ...lines] = csv.text.trimEnd().split('\r\n');
+    expect(caution).toBe(`# ${SUSPENSION_CAUTION}`);
     const header = lines[0].split(',');
     expect(header).toContain('travel_mm');
     expect(header).toContain('leverage_ratio');

@@ -6,7 +6,7 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { PER_COG_CSV_COLUMNS, cogColumnName, suspensionCurvesCsv } from '../../src/core/io/suspensionCsv';
 import { IC_FINITE, IC_INDETERMINATE, IC_INFINITE, IC_UNASSEMBLED } from '../../src/core/linkage/analysis';
-import { DEMO_LAYOUTS, DEMO_TRAIL_BIKE, fourBarSeatStayAxle, singlePivot, suspensionCurves, type SuspensionReport } from '../../src/core/suspension';
+import { DEMO_LAYOUTS, DEMO_TRAIL_BIKE, SUSPENSION_CAUTION, fourBarSeatStayAxle, singlePivot, suspensionCurves, type SuspensionReport } from '../../src/core/suspension';
 
 function report(linkage: Parameters<typeof suspensionCurves>[0], options = {}): SuspensionReport {
   const r = suspensionCurves(linkage, DEMO_TRAIL_BIKE, options);
@@ -19,7 +19,9 @@ const KIND_NAME: Record<number, string> = { [IC_FINITE]: 'finite', [IC_INFINITE]
 type Row = Record<string, number | string | null>;
 function readBack(csv: string): { fields: string[]; rows: Row[] } {
   // Source: RFC 4180 (CSV), read by papaparse with dynamic typing, an independent parser
-  const parsed = Papa.parse<Row>(csv.trimEnd(), { header: true, dynamicTyping: true });
+  // The file opens with the caution as a comment line, which a CSV reader is told to skip.
+  expect(csv.startsWith(`# ${SUSPENSION_CAUTION}\r\n`)).toBe(true);
+  const parsed = Papa.parse<Row>(csv.trimEnd(), { header: true, dynamicTyping: true, comments: '#' });
   expect(parsed.errors).toEqual([]);
   return { fields: parsed.meta.fields ?? [], rows: parsed.data };
 }

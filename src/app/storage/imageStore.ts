@@ -19,11 +19,21 @@ export async function getImage(db: LociDb | null, imageId: string): Promise<Blob
   return record?.blob ?? null;
 }
 
-/** Removes every image but `keepId` (the project shows one at a time). */
+/** The id of every image traced under the suspension side view starts so; the path editor's images are kept apart from it. */
+export const TRACE_IMAGE_PREFIX = 'suspension-trace-';
+
+const isTraceImage = (key: string) => key.startsWith(TRACE_IMAGE_PREFIX);
+
+/** Removes every path-editor image but `keepId` (the path editor shows one at a time; the suspension trace image is its own). */
 export async function dropImagesExcept(db: LociDb | null, keepId: string | null): Promise<void> {
-  for (const key of [...sessionImages.keys()]) if (key !== keepId) sessionImages.delete(key);
+  for (const key of [...sessionImages.keys()]) if (key !== keepId && !isTraceImage(key)) sessionImages.delete(key);
   if (db === null) return;
   const tx = db.transaction('images', 'readwrite');
-  for (const key of await tx.store.getAllKeys()) if (key !== keepId) await tx.store.delete(key);
+  for (const key of await tx.store.getAllKeys()) if (key !== keepId && !isTraceImage(key)) await tx.store.delete(key);
   await tx.done;
+}
+
+export async function deleteImage(db: LociDb | null, imageId: string): Promise<void> {
+  sessionImages.delete(imageId);
+  if (db !== null) await db.delete('images', imageId);
 }

@@ -6,6 +6,7 @@ import { memo, useId, type ReactNode } from 'react';
 import { ATMOSPHERE_KPA, DEFAULT_CHAIN_PITCH_MM, GAS_LAW_EXPONENT, type GasLaw } from '../../core/suspension';
 import type { DraftField, FieldIssues, FrontMode, SpringMode } from './fields';
 import { useSuspension, useSuspensionDispatch } from './store';
+import { PickButton } from './trace';
 
 function Field({ field, label, unit, issues, hint, wide }: { field: DraftField; label: string; unit: string; issues: FieldIssues; hint?: string; wide?: boolean }) {
   const id = useId();
@@ -65,6 +66,7 @@ export const BicyclePanel = memo(function BicyclePanel({ issues }: { issues: Fie
       <Group title="Wheels and frame">
         <Field field="rearAxleX" label="Rear axle x" unit="mm" issues={issues} />
         <Field field="rearAxleY" label="Rear axle y" unit="mm" issues={issues} />
+        <PickButton target={{ kind: 'rearAxle' }} what="the rear axle" />
         <Field field="wheelRadius" label="Wheel radius (tyre included)" unit="mm" issues={issues} wide />
         <div className="susp-field susp-field-wide">
           <span className="susp-radio-title">Front wheel given by</span>
@@ -85,6 +87,7 @@ export const BicyclePanel = memo(function BicyclePanel({ issues }: { issues: Fie
           hint={frontMode === 'wheelbase' ? 'rear axle to front contact point, horizontally' : 'x of the front tyre’s contact point'}
           wide
         />
+        <PickButton target={{ kind: 'frontContact' }} what="the front contact point" />
         <Field field="comHeight" label="Centre-of-mass height (rider and bicycle, above ground)" unit="mm" issues={issues} wide />
       </Group>
       <Group title="Drivetrain">

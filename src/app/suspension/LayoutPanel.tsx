@@ -9,6 +9,7 @@ import type { Linkage } from '../../core/linkage';
 import { LAYOUT_KINDS, LAYOUT_NAMES, LAYOUT_PIVOTS, type LayoutKind } from '../../core/suspension';
 import { useSuspension, useSuspensionDispatch } from './store';
 import { pivotLabel } from './labels';
+import { PickButton } from './trace';
 
 const SIX_BARS: readonly LayoutKind[] = ['wattSixBar', 'stephensonSixBar'];
 const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
@@ -93,7 +94,7 @@ export const LayoutPanel = memo(function LayoutPanel({ linkage, problem }: { lin
             const p = layout.pivots[name];
             return (
               <tr key={`${layout.kind}-${name}`}>
-                <th scope="row">{pivotLabel(name)}</th>
+                <th scope="row">{pivotLabel(name)} <PickButton target={{ kind: 'pivot', name }} what={`the ${pivotLabel(name)}`} /></th>
                 <CoordinateCell value={p.x} label={`${pivotLabel(name)} x (mm)`} onCommit={(x) => dispatch({ type: 'pivot', name, at: { x, y: p.y } })} />
                 <CoordinateCell value={p.y} label={`${pivotLabel(name)} y (mm)`} onCommit={(y) => dispatch({ type: 'pivot', name, at: { x: p.x, y } })} />
               </tr>

@@ -13,6 +13,8 @@ import { IC_FINITE } from '../../core/linkage/analysis';
 import { sideView, type Bicycle, type SideViewPrimitive, type SuspensionReport } from '../../core/suspension';
 import { figure, pivotLabel } from './labels';
 import { useSuspensionDispatch } from './store';
+import { RegionsLayer } from './targets/RegionsLayer';
+import { TraceControls, TraceLayer } from './trace';
 
 const WIDTH = 960;
 const HEIGHT = 540;
@@ -157,6 +159,7 @@ export const SideView = memo(function SideView({ bicycle, linkage, report, trave
         onPointerUp={() => (dragging.current = null)}
         onPointerCancel={() => (dragging.current = null)}
       >
+        <TraceLayer x={frame.x} y={frame.y} widthPx={WIDTH} heightPx={HEIGHT} />
         <g className="susp-axes">
           <line x1={frame.x(0)} y1={frame.y(0)} x2={frame.x(AXIS_MM)} y2={frame.y(0)} markerEnd="url(#susp-arrow)" />
           <line x1={frame.x(0)} y1={frame.y(0)} x2={frame.x(0)} y2={frame.y(AXIS_MM)} markerEnd="url(#susp-arrow)" />
@@ -195,6 +198,7 @@ export const SideView = memo(function SideView({ bicycle, linkage, report, trave
         {primitives.length === 0 && handles.map(([name, p]) => (
           <text key={`label-${name}`} x={frame.x(p.x) + 11} y={frame.y(p.y) - 9}>{pivotLabel(name)}</text>
         ))}
+        <RegionsLayer frame={frame} svgRef={svgRef} />
         <g className="susp-scale-bar" transform={`translate(${frame.x(x0 + 10)},${frame.y(y0 + 10)})`}>
           <line x2={SCALE_BAR_MM * frame.pxPerMm} />
           <line y1={-4} y2={4} />
@@ -202,6 +206,7 @@ export const SideView = memo(function SideView({ bicycle, linkage, report, trave
           <text x={(SCALE_BAR_MM * frame.pxPerMm) / 2} y={-7} textAnchor="middle">{`${SCALE_BAR_MM} mm`}</text>
         </g>
       </svg>
+      <TraceControls />
       {view !== null && !view.ok && <p className="susp-problem" role="alert">The side view cannot be drawn in this pose: {view.reason}.</p>}
       {bicycle === null && <p className="susp-problem">The side view needs every bicycle field to hold a valid value; the layout’s pivots are shown alone.</p>}
     </figure>

@@ -12,9 +12,11 @@ import { ExportPanel } from './ExportPanel';
 import { readDraft } from './fields';
 import { figure } from './labels';
 import { LayoutPanel } from './LayoutPanel';
+import { SearchPanel } from './search/SearchPanel';
 import { SideView } from './SideView';
 import { SuspensionPlots } from './SuspensionPlots';
 import { useSuspension, useSuspensionDispatch } from './store';
+import { TargetsPanel } from './targets/TargetsPanel';
 import './suspension.css';
 
 /** Kinematics only: shown on every suspension view. */
@@ -129,10 +131,11 @@ export function SuspensionWorkspace({ onClose }: { onClose?: () => void }) {
           <BicyclePanel issues={reading.issues} />
           <LayoutPanel linkage={analysis.linkage} problem={layoutProblem} />
           <ExportPanel bicycle={bicycle} linkage={analysis.linkage} report={report} shockLengthMm={shockLengthMm} />
+          <TargetsPanel />
         </div>
         <div className="susp-main">
           <section className="panel susp-panel" aria-labelledby="susp-view-title">
-            <h2 id="susp-view-title">Side view</h2>
+            <h2 id="susp-view-title" tabIndex={-1}>Side view</h2>
             <PoseControls report={report} cogTeeth={cogTeeth} chainringTeeth={bicycle?.chainringTeeth ?? null} />
             <SideView bicycle={bicycle} linkage={analysis.linkage} report={report} travelStep={step} cogIndex={cog} pivots={layout.pivots} />
             <p className="susp-note">Dashed: the instant-centre path of the axle-carrying body over the travel. Square pivots are on the front frame.</p>
@@ -151,6 +154,7 @@ export function SuspensionWorkspace({ onClose }: { onClose?: () => void }) {
               <ul>{SUSPENSION_CONVENTIONS.map((c) => <li key={c}>{c}</li>)}</ul>
             </details>
           </section>
+          <SearchPanel />
         </div>
       </div>
     </div>

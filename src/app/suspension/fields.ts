@@ -68,7 +68,7 @@ function fieldOfPath(path: string): DraftField | null {
   return map[path] ?? null;
 }
 
-const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+export const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
 
 type Read = { readonly ok: true; readonly value: number | undefined } | { readonly ok: false; readonly message: string };
 

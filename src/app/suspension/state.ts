@@ -1,7 +1,8 @@
 /**
  * The suspension workspace's state and its pure update function: the bicycle's fields
  * as typed, the layout (kind, pivots at full extension, axle body, floating brake), the
- * gear and travel shown, and the last import's problems.
+ * gear and travel shown, the last import's problems, and the search's set-up (targets,
+ * regions, keep-outs, budget) with the side view's drawing tool for it.
  */
 import type { Vec2 } from '../../core/geometry';
 import type { SuspensionDesign, SuspensionFileIssue } from '../../core/io/suspensionFile';
@@ -15,6 +16,8 @@ import {
   type LayoutKind,
 } from '../../core/suspension';
 import { draftOf, switchFrontMode, type BicycleDraft, type DraftField, type FrontMode, type SpringMode } from './fields';
+import { demoSearchSetup, reduceSearchSetup, type SearchSetup, type SearchSetupAction, type SetupTool } from './targets/setup';
+import { recordAfter, type SearchRecord, type SearchRun } from './search/results';
 
 export interface LayoutDraft {
   readonly kind: LayoutKind;
@@ -38,6 +41,12 @@ export interface SuspensionState {
   readonly travelStep: number;
   /** What the last design file import found wrong, by field; null when none. */
   readonly importIssues: { readonly fileName: string; readonly issues: readonly SuspensionFileIssue[] } | null;
+  /** The search's set-up as typed: kept in the project with the design. */
+  readonly search: SearchSetup;
+  /** What a drag on the side view draws for the set-up; null: it moves pivots. */
+  readonly setupTool: SetupTool;
+  /** The last search's ranked designs, and the run before it; absent until a search ends. */
+  readonly searchResults?: SearchRecord;
 }
 
 export type SuspensionAction =
@@ -54,7 +63,11 @@ export type SuspensionAction =
   | { readonly type: 'travelStep'; readonly step: number }
   | { readonly type: 'load'; readonly design: SuspensionDesign; readonly fallbackName: string }
   | { readonly type: 'importIssues'; readonly fileName: string; readonly issues: readonly SuspensionFileIssue[] }
-  | { readonly type: 'dismissImport' };
+  | { readonly type: 'dismissImport' }
+  | { readonly type: 'search'; readonly action: SearchSetupAction }
+  | { readonly type: 'setupTool'; readonly tool: SetupTool }
+  | { readonly type: 'searchFinished'; readonly run: SearchRun }
+  | { readonly type: 'openLayout'; readonly kind: LayoutKind; readonly pivots: Readonly<Record<string, Vec2>>; readonly axleBody: LayoutAxleBody };
 
 /** The kind the demo opens with: the four-bar with the axle on the seat stay. */
 export const DEMO_LAYOUT_KIND: LayoutKind = 'fourBarSeatStayAxle';
@@ -76,6 +89,8 @@ export function demoSuspensionState(): SuspensionState {
     cogIndex: Math.floor(cogs.length / 2),
     travelStep: 0,
     importIssues: null,
+    search: demoSearchSetup(),
+    setupTool: null,
   };
 }
 
@@ -95,7 +110,9 @@ export function reduceSuspension(state: SuspensionState, action: SuspensionActio
       if (action.kind === state.layout.kind) return state;
       const kept = { ...state.pivotsByKind, [state.layout.kind]: state.layout.pivots };
       const pivots = kept[action.kind] ?? demoPivots(action.kind);
-      return { ...state, pivotsByKind: kept, layout: layoutOf(action.kind, pivots, demoAxleBody(action.kind), null), travelStep: 0 };
+      // A region being drawn belongs to the layout left: the tool ends with it.
+      const setupTool = state.setupTool?.kind === 'region' ? null : state.setupTool;
+      return { ...state, pivotsByKind: kept, layout: layoutOf(action.kind, pivots, demoAxleBody(action.kind), null), travelStep: 0, setupTool };
     }
     case 'pivot': {
       if (!LAYOUT_PIVOTS[state.layout.kind].includes(action.name)) return state;
@@ -120,11 +137,28 @@ export function reduceSuspension(state: SuspensionState, action: SuspensionActio
         cogIndex: 0,
         travelStep: 0,
         importIssues: null,
+        // A design file carries no search set-up: the one being written is kept.
+        search: state.search,
+        setupTool: null,
+        ...(state.searchResults === undefined ? {} : { searchResults: state.searchResults }),
       };
     }
     case 'importIssues':
       return { ...state, importIssues: { fileName: action.fileName, issues: action.issues } };
     case 'dismissImport':
       return { ...state, importIssues: null };
+    case 'search': {
+      const search = reduceSearchSetup(state.search, action.action);
+      return search === state.search ? state : { ...state, search };
+    }
+    case 'setupTool':
+      return { ...state, setupTool: action.tool };
+    case 'searchFinished':
+      return { ...state, searchResults: recordAfter(state.searchResults, action.run) };
+    case 'openLayout': {
+      // A searched design opened in the workspace; the pivots of the kind it replaces are kept, as on a switch of kind.
+      const kept = action.kind === state.layout.kind ? state.pivotsByKind : { ...state.pivotsByKind, [state.layout.kind]: state.layout.pivots };
+      return { ...state, pivotsByKind: kept, layout: layoutOf(action.kind, action.pivots, action.axleBody, null), travelStep: 0 };
+    }
   }
 }

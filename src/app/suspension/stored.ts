@@ -1,12 +1,18 @@
 /**
  * The suspension workspace as the project keeps it: the bicycle's fields as typed (a
  * field still being corrected is kept too), the layout with its pivots, the pivots of
- * the kinds left, and the gear shown. Plain JSON; its schema checks it when read back.
+ * the kinds left, the gear shown, and the search's set-up (absent in a project kept
+ * before there was one: it then opens with the demo's set-up). Plain JSON; its schema
+ * checks it when read back.
  */
 import { z } from 'zod';
 import { LAYOUT_KINDS, LAYOUT_PIVOTS, type LayoutKind } from '../../core/suspension';
 import type { BicycleDraft } from './fields';
 import type { LayoutDraft, SuspensionState } from './state';
+import { demoSearchSetup, type SearchSetup } from './targets/setup';
+import { storedSearchSetupSchema } from './targets/setupSchema';
+import type { SearchRecord } from './search/results';
+import { storedSearchRecordSchema } from './search/resultsSchema';
 
 export interface StoredSuspension {
   readonly name: string;
@@ -14,6 +20,8 @@ export interface StoredSuspension {
   readonly layout: LayoutDraft;
   readonly pivotsByKind: SuspensionState['pivotsByKind'];
   readonly cogIndex: number;
+  readonly search?: SearchSetup;
+  readonly searchResults?: SearchRecord;
 }
 
 const finite = z.number().refine(Number.isFinite, 'expected a finite number');
@@ -54,15 +62,17 @@ export const storedSuspensionSchema = z.object({
     .refine((l) => hasEveryPivot(l.kind, l.pivots), 'expected every pivot of the layout kind'),
   pivotsByKind: z.partialRecord(kind, pivots),
   cogIndex: z.number().int().min(0),
+  search: storedSearchSetupSchema.optional(),
+  searchResults: storedSearchRecordSchema,
 });
 
 export function storedOf(state: SuspensionState): StoredSuspension {
-  return { name: state.name, draft: state.draft, layout: state.layout, pivotsByKind: state.pivotsByKind, cogIndex: state.cogIndex };
+  return { name: state.name, draft: state.draft, layout: state.layout, pivotsByKind: state.pivotsByKind, cogIndex: state.cogIndex, search: state.search, ...(state.searchResults === undefined ? {} : { searchResults: state.searchResults }) };
 }
 
 /** Whether two states keep the same design (what `storedOf` takes is the same). */
 export function sameDesign(a: SuspensionState, b: SuspensionState): boolean {
-  return a.name === b.name && a.draft === b.draft && a.layout === b.layout && a.pivotsByKind === b.pivotsByKind && a.cogIndex === b.cogIndex;
+  return a.name === b.name && a.draft === b.draft && a.layout === b.layout && a.pivotsByKind === b.pivotsByKind && a.cogIndex === b.cogIndex && a.search === b.search && a.searchResults === b.searchResults;
 }
 
 /** The workspace a stored design opens to (at full extension, no import pending). */
@@ -72,5 +82,16 @@ export function stateOf(stored: StoredSuspension): SuspensionState {
     // A kind's pivots are kept only whole: switching back to it must find every one.
     if (hasEveryPivot(k, p)) kept[k] = p;
   }
-  return { name: stored.name, draft: stored.draft, layout: stored.layout, pivotsByKind: kept, cogIndex: stored.cogIndex, travelStep: 0, importIssues: null };
+  return {
+    name: stored.name,
+    draft: stored.draft,
+    layout: stored.layout,
+    pivotsByKind: kept,
+    cogIndex: stored.cogIndex,
+    travelStep: 0,
+    importIssues: null,
+    search: stored.search ?? demoSearchSetup(),
+    setupTool: null,
+    ...(stored.searchResults === undefined ? {} : { searchResults: stored.searchResults }),
+  };
 }

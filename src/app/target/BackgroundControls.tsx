@@ -13,7 +13,7 @@ export const MAX_IMAGE_BYTES = 20_000_000;
 /** A new image is first shown this wide, mm, until it is calibrated. */
 const FIRST_WIDTH_MM = 200;
 
-function imageSize(blob: Blob): Promise<{ width: number; height: number }> {
+export function imageSize(blob: Blob): Promise<{ width: number; height: number }> {
   return createImageBitmap(blob).then((bitmap) => {
     const size = { width: bitmap.width, height: bitmap.height };
     bitmap.close();

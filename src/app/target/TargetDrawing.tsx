@@ -96,6 +96,8 @@ export function TargetDrawing({ regions }: { regions: readonly PositionRegion[] 
     if (svg === null) return;
     const behaviour = zoom<SVGSVGElement, unknown>()
       .scaleExtent([0.02, 500])
+      // A hand moves a pixel or two between press and release: that is still a click (a calibration or a point), not a pan.
+      .clickDistance(4)
       .filter((event: Event) => {
         if (event.type === 'wheel') return true;
         const e = event as MouseEvent;

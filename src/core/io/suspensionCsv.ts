@@ -1,11 +1,11 @@
 /**
- * The suspension curves as CSV: one row per travel step, a column per curve and per
+ * The suspension curves as CSV: the caution, then one row per travel step, a column per curve and per
  * cog, the unit in each column's name. Numbers are written in full (the shortest
  * decimal that reads back to the same double); a value that does not exist (no chain
  * line, an instant centre at infinity in the position columns) is an empty cell.
  */
 import { IC_FINITE, IC_INDETERMINATE, IC_INFINITE } from '../linkage/analysis';
-import type { SuspensionReport } from '../suspension';
+import { SUSPENSION_CAUTION, type SuspensionReport } from '../suspension';
 
 /** The instant centre's kind by name, as the CSV and `loci analyze` write it. */
 export function instantCentreKindName(kind: number): 'finite' | 'infinite' | 'indeterminate' | 'unassembled' {
@@ -22,7 +22,11 @@ export function cogColumnName(column: (typeof PER_COG_CSV_COLUMNS)[number], cogI
   return `${column}_cog${cogIndex + 1}_${teeth}t`;
 }
 
-/** CSV text of every curve of a report (RFC 4180, CRLF line ends, header first). */
+/**
+ * CSV text of every curve of a report (RFC 4180, CRLF line ends): the caution as a `#`
+ * comment line (a file travels without the page that showed the caution), then the
+ * header, then one row per step.
+ */
 export function suspensionCurvesCsv(report: SuspensionReport): string {
   const c = report.curves;
   const columns: { readonly name: string; readonly at: (k: number) => number | string }[] = [
@@ -66,7 +70,7 @@ export function suspensionCurvesCsv(report: SuspensionReport): string {
     });
   }
   const cell = (v: number | string) => (typeof v === 'string' ? v : Number.isFinite(v) ? String(v) : '');
-  const lines = [columns.map((col) => col.name).join(',')];
+  const lines = [`# ${SUSPENSION_CAUTION}`, columns.map((col) => col.name).join(',')];
   for (let k = 0; k < c.steps; k++) lines.push(columns.map((col) => cell(col.at(k))).join(','));
   return `${lines.join('\r\n')}\r\n`;
 }

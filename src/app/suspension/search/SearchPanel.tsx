@@ -1,0 +1,178 @@
+/**
+ * The "Search" section of the suspension workspace: Start (disabled, with the reason,
+ * while the set-up does not read), Stop, progress at most a few times a second, the
+ * ranked layouts table of the latest run (and of the run before it, kept and labelled),
+ * opening a design in the workspace, and the compare view of 2–4 ticked designs.
+ */
+import { useEffect, useMemo, useState, useSyncExternalStore } from 'react';
+import { SUSPENSION_CAUTION, demoAxleBody, LAYOUT_NAMES } from '../../../core/suspension';
+import { browserEnvironment } from '../../../engine/browser';
+import { figure } from '../labels';
+import { useSuspension, useSuspensionDispatch } from '../store';
+import { readSearchProblem } from '../targets/searchProblem';
+import { MAX_COMPARED, comparedDesigns } from './compare';
+import { CompareView } from './CompareView';
+import { SuspensionSearchController, type SearchSession } from './controller';
+import type { SearchRun } from './results';
+import { ResultsTable } from './ResultsTable';
+import type { TableRow } from './rows';
+
+let runCounter = 0;
+const newRunId = () => `suspension-${Date.now().toString(36)}-${(runCounter++).toString(36)}`;
+
+function seconds(ms: number): string {
+  return `${(ms / 1000).toFixed(1)} s`;
+}
+
+function runSummary(run: SearchRun): string {
+  const when = run.finishedAt.replace('T', ' ').replace(/\.\d+Z$/, ' UTC');
+  const why = { budget: 'its budget', time: 'its time budget', converged: 'convergence', target: 'its target', cancelled: 'Stop' }[run.stopReason];
+  return `${run.problem.layouts.length} layouts, seed ${run.seed}, ${run.evaluations.toLocaleString('en-GB')} evaluations, ended by ${why} at ${when}`;
+}
+
+function Progress({ session }: { session: SearchSession }) {
+  if (session.status === 'idle') return null;
+  const budget = session.budgetEvaluations === null ? '' : ` of ${session.budgetEvaluations.toLocaleString('en-GB')}`;
+  return (
+    <div className="susp-search-progress" role="status" data-testid="search-progress" data-status={session.status}>
+      <p>{`${session.status === 'running' ? 'Searching' : session.status === 'stopping' ? 'Stopping' : session.status === 'finished' ? 'Finished' : 'Stopped'}: ${session.evaluations.toLocaleString('en-GB')}${budget} evaluations, ${seconds(session.elapsedMs)}`}</p>
+      {session.bestPerLayout.length > 0 && (
+        <ul>
+          {session.bestPerLayout.map((b) => (
+            <li key={b.layout}>{`${LAYOUT_NAMES[b.layout]}: best score ${figure(b.value)}${b.violation > 0 ? `, infeasible (violation ${figure(b.violation, 3)})` : ', feasible'}`}</li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+export function SearchPanel() {
+  const dispatch = useSuspensionDispatch();
+  const state = useSuspension((s) => s);
+  const record = state.searchResults;
+  const reading = useMemo(() => readSearchProblem(state), [state]);
+
+  const [controller] = useState(() => new SuspensionSearchController({
+    env: browserEnvironment(),
+    wallNow: () => Date.now(),
+    newRunId,
+    onFinished: (run) => dispatch({ type: 'searchFinished', run }),
+  }));
+  useEffect(() => () => controller.stop(), [controller]);
+  const session = useSyncExternalStore(controller.session.subscribe, controller.session.getState);
+  const running = session.status === 'running' || session.status === 'stopping';
+
+  const [confirming, setConfirming] = useState(false);
+  const [showPrevious, setShowPrevious] = useState(false);
+  // Ticks and the opened row belong to the run they were made in; another run shown starts without them.
+  const [ticks, setTicks] = useState<{ runId: string | null; ranks: number[]; opened: number | null }>({ runId: null, ranks: [], opened: null });
+  const [openMessage, setOpenMessage] = useState<string | null>(null);
+  const shownRun = record === undefined ? null : showPrevious && record.previous !== null ? record.previous : record.current;
+  const cogCount = shownRun?.problem.bicycle.cogTeeth.length ?? 0;
+  const [cogChoice, setCogChoice] = useState<number | null>(null);
+  const cogIndex = Math.min(cogChoice ?? Math.floor(cogCount / 2), Math.max(0, cogCount - 1));
+  const shownId = shownRun?.id ?? null;
+  const compared = useMemo(() => (ticks.runId === shownId ? ticks.ranks : []), [ticks, shownId]);
+  const opened = ticks.runId === shownId ? ticks.opened : null;
+
+  const start = () => {
+    setConfirming(false);
+    if (!reading.ok) return;
+    setShowPrevious(false);
+    void controller.start(reading.input, reading.run);
+  };
+  const onStart = () => {
+    if (record !== undefined && record.previous !== null) setConfirming(true);
+    else start();
+  };
+  const onOpen = (row: TableRow) => {
+    const c = row.candidate;
+    dispatch({ type: 'openLayout', kind: c.family, pivots: c.pivots, axleBody: demoAxleBody(c.family) });
+    setTicks({ runId: shownId, ranks: compared, opened: c.rank });
+    setOpenMessage(`Opened #${c.rank} (${row.layoutName}) in the side view and the curves above.`);
+    // Focus follows the design: to the side view's heading, which the reader lands on.
+    requestAnimationFrame(() => {
+      const heading = document.getElementById('susp-view-title');
+      heading?.focus();
+      heading?.scrollIntoView({ block: 'start' });
+    });
+  };
+  const toggleCompare = (rank: number) => {
+    const ranks = compared.includes(rank) ? compared.filter((r) => r !== rank) : compared.length >= MAX_COMPARED ? compared : [...compared, rank];
+    setTicks({ runId: shownId, ranks, opened });
+  };
+  const designs = useMemo(() => {
+    if (shownRun === null || compared.length < 2) return [];
+    const byRank = new Map(shownRun.candidates.map((c) => [c.rank, c]));
+    return comparedDesigns(shownRun.problem, compared.flatMap((r) => { const c = byRank.get(r); return c === undefined ? [] : [c]; }));
+  }, [shownRun, compared]);
+
+  const why = reading.ok ? null : reading.issues.length === 0 ? 'the set-up is not complete' : `${reading.issues[0].message}${reading.issues.length > 1 ? ` (and ${reading.issues.length - 1} more: see the set-up)` : ''}`;
+  const bicycleChanged = shownRun !== null && reading.ok && JSON.stringify(reading.input.bicycle) !== JSON.stringify(shownRun.problem.bicycle);
+  const targetsChanged = shownRun !== null && reading.ok && JSON.stringify(reading.input.targets) !== JSON.stringify(shownRun.problem.targets);
+
+  return (
+    <section className="panel susp-panel susp-search" aria-labelledby="susp-search-title" data-testid="suspension-search">
+      <h2 id="susp-search-title">Search</h2>
+      <p className="susp-caution" role="note"><strong>Caution.</strong> {SUSPENSION_CAUTION}</p>
+      <div className="susp-search-controls">
+        <button type="button" onClick={onStart} disabled={!reading.ok || running} aria-describedby={why === null ? undefined : 'susp-search-why'}>Start search</button>
+        <button type="button" onClick={() => controller.stop()} disabled={!running}>Stop</button>
+        {why !== null && <span id="susp-search-why" className="susp-problem" data-testid="search-not-ready">{`Not ready: ${why}`}</span>}
+      </div>
+      {confirming && record !== undefined && record.previous !== null && (
+        <div className="susp-confirm" role="alertdialog" aria-label="Drop the older run?">
+          <p>{`A new search keeps the latest run as the previous run; the older previous run (${runSummary(record.previous)}) is dropped.`}</p>
+          <button type="button" onClick={start}>Start and drop the older run</button>
+          <button type="button" onClick={() => setConfirming(false)}>Cancel</button>
+        </div>
+      )}
+      <Progress session={session} />
+      {session.message !== null && (
+        <p className="susp-problem" role="alert" data-testid="search-message">
+          {session.message}
+          {session.messageDetail !== null && <><br /><small>{`Details: ${session.messageDetail}`}</small></>}
+        </p>
+      )}
+      {record !== undefined && shownRun !== null && (
+        <>
+          <div className="susp-search-runs">
+            <label>
+              Run shown{' '}
+              <select value={showPrevious && record.previous !== null ? 'previous' : 'latest'} onChange={(e) => setShowPrevious(e.target.value === 'previous')} disabled={record.previous === null}>
+                <option value="latest">Latest run</option>
+                {record.previous !== null && <option value="previous">Previous run</option>}
+              </select>
+            </label>
+            <label>
+              Gear for the per-gear columns{' '}
+              <select value={cogIndex} onChange={(e) => setCogChoice(Number(e.target.value))}>
+                {shownRun.problem.bicycle.cogTeeth.map((z, i) => <option key={i} value={i}>{`${shownRun.problem.bicycle.chainringTeeth} × ${z} T (cog ${i + 1})`}</option>)}
+              </select>
+            </label>
+          </div>
+          <p id="susp-results-summary" className="susp-note" data-testid="search-run-summary">{`${showPrevious && record.previous !== null ? 'Previous run' : 'Latest run'}: ${runSummary(shownRun)}.`}</p>
+          {(bicycleChanged || targetsChanged) && (
+            <p className="susp-note" data-testid="search-stale">
+              {`This run searched ${bicycleChanged ? 'another bicycle' : ''}${bicycleChanged && targetsChanged ? ' and ' : ''}${targetsChanged ? 'other targets' : ''} than the set-up now holds: its figures and ranks are for what it ran with${bicycleChanged ? '; a design opened from it is drawn on the bicycle now in the panel' : ''}.`}
+            </p>
+          )}
+          <ResultsTable
+            run={shownRun}
+            cogIndex={cogIndex}
+            compared={compared}
+            onToggleCompare={toggleCompare}
+            onOpen={onOpen}
+            compareFull={compared.length >= MAX_COMPARED}
+            caption={`Ranked designs of the ${showPrevious && record.previous !== null ? 'previous' : 'latest'} run`}
+            opened={opened}
+          />
+          {openMessage !== null && <p className="susp-note" role="status">{openMessage}</p>}
+          <p className="susp-note">{compared.length < 2 ? 'Tick 2 to 4 designs to compare them.' : `${compared.length} designs ticked.`}</p>
+          {designs.length >= 2 && <CompareView designs={designs} problem={shownRun.problem} cogIndex={cogIndex} />}
+        </>
+      )}
+    </section>
+  );
+}

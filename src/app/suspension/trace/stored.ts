@@ -1,0 +1,42 @@
+/**
+ * The traced image as the project keeps it: which image, where it lies in bicycle mm
+ * (null until calibrated) and how it is shown. Checked when read back; a damaged record
+ * is refused with the reason, never half-read.
+ */
+import { z } from 'zod';
+import type { ImagePlacement } from './placement';
+import type { TraceImage, TraceState } from './traceState';
+
+export const TRACE_FORMAT = 'loci-suspension-trace';
+export const TRACE_VERSION = 1;
+
+export interface StoredTrace {
+  readonly format: typeof TRACE_FORMAT;
+  readonly version: typeof TRACE_VERSION;
+  readonly image: TraceImage;
+  readonly placement: ImagePlacement | null;
+  readonly opacity: number;
+  readonly hidden: boolean;
+}
+
+const finite = z.number().refine(Number.isFinite, 'expected a finite number');
+const schema = z.object({
+  format: z.literal(TRACE_FORMAT),
+  version: z.literal(TRACE_VERSION),
+  image: z.object({ imageId: z.string().max(200), name: z.string().max(1000), widthPx: z.number().int().positive(), heightPx: z.number().int().positive() }),
+  placement: z.object({ originXMm: finite, originYMm: finite, mmPerPx: z.number().positive().refine(Number.isFinite, 'expected a finite number'), rotationRad: finite }).nullable(),
+  opacity: z.number().min(0).max(1),
+  hidden: z.boolean(),
+});
+
+export function storedTraceOf(state: TraceState): StoredTrace | null {
+  if (state.image === null) return null;
+  return { format: TRACE_FORMAT, version: TRACE_VERSION, image: state.image, placement: state.placement, opacity: state.opacity, hidden: state.hidden };
+}
+
+export function readStoredTrace(value: unknown): { readonly ok: true; readonly trace: StoredTrace } | { readonly ok: false; readonly reason: string } {
+  const parsed = schema.safeParse(value);
+  if (parsed.success) return { ok: true, trace: parsed.data };
+  const first = parsed.error.issues[0];
+  return { ok: false, reason: `${first.path.length > 0 ? first.path.join('.') : 'the record'}: ${first.message}` };
+}

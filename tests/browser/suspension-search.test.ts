@@ -1,0 +1,152 @@
+/**
+ * The suspension search from the app: a short deterministic search of a single pivot, a
+ * four-bar and a six-bar on the demo bicycle; the ranked table with each layout's best;
+ * a row's figures against the core's own analysis of the design opened from it; two rows
+ * compared on shared plots; the results kept over a reload.
+ */
+import { readFile } from 'node:fs/promises';
+import type { Download, Page } from 'playwright-core';
+import { expect, it } from 'vitest';
+import { parseSuspensionFileText } from '../../src/core/io/suspensionFile';
+import { SUSPENSION_CAUTION, suspensionCurves } from '../../src/core/suspension';
+import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+
+/** The page shows figures to four significant figures (three for percentages and small movements). */
+const shown = (x: number, digits = 4) => (Number.isFinite(x) ? String(Number(x.toPrecision(digits))) : '—');
+const LAYOUTS = ['singlePivot', 'fourBarSeatStayAxle', 'wattSixBar'];
+/** The set-up's default number of samples over the stroke (DEFAULT_SUSPENSION_STEPS). */
+const STEPS = 41;
+
+async function projectHas(page: Page, text: string): Promise<boolean> {
+  return page.evaluate((needle) => new Promise<boolean>((resolve) => {
+    const open = indexedDB.open('loci');
+    open.onsuccess = () => {
+      const db = open.result;
+      const names = Array.from(db.objectStoreNames);
+      const tx = db.transaction(names, 'readonly');
+      let found = false;
+      for (const n of names) {
+        const all = tx.objectStore(n).getAll();
+        all.onsuccess = () => { if (JSON.stringify(all.result).includes(needle)) found = true; };
+      }
+      tx.oncomplete = () => { db.close(); resolve(found); };
+    };
+    open.onerror = () => resolve(false);
+  }), text);
+}
+
+async function cells(page: Page, section: string, rank: string): Promise<Record<string, { text: string; value: number }>> {
+  return page.getByTestId(section).locator(`tr[data-rank="${rank}"] td[data-col]`).evaluateAll((tds) =>
+    Object.fromEntries(tds.map((td) => [td.getAttribute('data-col'), { text: td.textContent ?? '', value: Number(td.getAttribute('data-value')) }])));
+}
+
+describeBrowser('suspension search', () => {
+  const browser = useBrowser();
+
+  it('searches three layouts, ranks them in one table, opens and compares designs, and keeps the results over a reload', async () => {
+    const app = await browser.openApp('/');
+    const page = app.page;
+    await page.getByRole('button', { name: 'Rear suspension demo' }).click();
+    await page.getByTestId('suspension-workspace').waitFor();
+    await page.getByLabel('Design name').fill('Search check');
+    const start = page.getByRole('button', { name: 'Start search' });
+
+    // Not ready: the reason is shown beside a disabled Start.
+    await page.locator('[data-field="seed"] input').fill('x');
+    await page.getByTestId('search-not-ready').waitFor();
+    expect(await start.isDisabled()).toBe(true);
+
+    // A short deterministic search: an evaluation budget only, a fixed seed.
+    await page.locator('[data-field="budget.seconds"] input').fill('');
+    await page.locator('[data-field="budget.evaluations"] input').fill('1500');
+    await page.locator('[data-field="seed"] input').fill('7');
+    await expect.poll(() => start.isEnabled()).toBe(true);
+    await start.click();
+    const table = page.getByTestId('search-results');
+    await table.waitFor({ timeout: 120_000 });
+    expect(await page.getByTestId('search-progress').getAttribute('data-status')).toBe('finished');
+
+    // The best of each layout searched, each once.
+    const bestLayouts = await page.getByTestId('best-per-layout').locator('tr[data-layout]').evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-layout')));
+    expect([...bestLayouts].sort()).toEqual([...LAYOUTS].sort());
+    // Feasible first: no infeasible row above a feasible one.
+    const feasible = await page.getByTestId('all-ranked').locator('td[data-col="feasible"]').allTextContents();
+    const firstInfeasible = feasible.findIndex((f) => f !== 'feasible');
+    if (firstInfeasible >= 0) expect(feasible.slice(firstInfeasible).every((f) => f !== 'feasible')).toBe(true);
+    expect(await page.getByTestId('suspension-search').textContent()).toContain(SUSPENSION_CAUTION);
+    await page.locator('#susp-search-title').evaluate((el) => el.scrollIntoView({ block: 'start' }));
+    await saveScreenshot(page, 'suspension-search-table');
+
+    // Open the best four-bar: the workspace shows it and focus moves to the side view.
+    const fourBarRank = await page.getByTestId('best-per-layout').locator('tr[data-layout="fourBarSeatStayAxle"]').getAttribute('data-rank');
+    const row = await cells(page, 'best-per-layout', fourBarRank ?? '');
+    await page.getByTestId('best-per-layout').getByRole('button', { name: `Open #${fourBarRank}` }).click();
+    await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toBe('susp-view-title');
+    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Design file (JSON)' }).click()]);
+    const design = parseSuspensionFileText(await readFile(await (file as Download).path(), 'utf8'));
+    if (!design.ok) throw new Error(JSON.stringify(design.issues));
+    expect(design.design.layout.kind).toBe('fourBarSeatStayAxle');
+    // Source: the core's suspensionCurves run here in Node on the opened design's file, a route apart from the page's table.
+    const analysed = suspensionCurves(design.linkage, design.design.bicycle, { steps: STEPS });
+    if (!analysed.ok) throw new Error(analysed.reason);
+    const r = analysed.report;
+    const c = r.curves;
+    const last = c.steps - 1;
+    const cog = Math.floor(r.cogTeeth.length / 2);
+    const expected: Record<string, [number, number]> = {
+      leverageRatioStart: [r.leverageRatioStart, 4],
+      leverageRatioEnd: [r.leverageRatioEnd, 4],
+      progressionPct: [r.progressionPct, 3],
+      antiSquatAtSagPct: [r.sagPoint.antiSquatPct[cog], 3],
+      antiRiseAtSagPct: [r.sagPoint.antiRisePct, 3],
+      rearwardAtFullTravelMm: [c.rearwardMm[last], 3],
+      travelMm: [r.totalTravelMm, 4],
+      kickbackAtFullTravelDeg: [c.kickbackDeg[cog][last], 3],
+      chainGrowthAtFullTravelMm: [c.chainGrowthMm[cog][last], 3],
+    };
+    for (const [key, [value, digits]] of Object.entries(expected)) {
+      expect(row[key].text, key).toBe(shown(value, digits));
+      expect(row[key].value, key).toBeCloseTo(value, 9);
+    }
+
+    // Compare the best single pivot and the best six-bar: both on every plot, each with its sag marker.
+    for (const layout of ['singlePivot', 'wattSixBar']) {
+      await page.getByTestId('best-per-layout').locator(`tr[data-layout="${layout}"] input[type="checkbox"]`).check();
+    }
+    const compare = page.getByTestId('compare-view');
+    await compare.waitFor();
+    for (const id of ['compare-leverage', 'compare-anti-squat', 'compare-anti-rise', 'compare-axle-path', 'compare-chain-growth', 'compare-kickback']) {
+      const plot = page.getByTestId(id);
+      const series = await plot.locator('path.susp-plot-line:not(.susp-plot-target)').evaluateAll((ps) => ps.map((p) => [p.getAttribute('data-series'), p.getAttribute('d')]));
+      expect(series.length, id).toBe(2);
+      expect(series.map(([label]) => label).join(' ')).toMatch(/single pivot.*Watt six-bar|Watt six-bar.*single pivot/);
+      for (const [, d] of series) expect(d).toMatch(/^M[^N]*$/);
+      expect(await plot.getByTestId('sag-marker').count(), id).toBe(2);
+    }
+    // The problem's bands: anti-squat at sag in the middle cogs, anti-rise.
+    expect(await page.getByTestId('compare-anti-rise').getByTestId('target-band').count()).toBe(1);
+    expect(await page.getByTestId('compare-side-views').locator('g[data-design]').count()).toBe(2);
+    expect(await compare.textContent()).toContain(SUSPENSION_CAUTION);
+    const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download the compared curves (CSV)' }).click()]);
+    const csvLines = (await readFile(await (csv as Download).path(), 'utf8')).split('\r\n');
+    expect(csvLines[1]).toBe(`# ${SUSPENSION_CAUTION}`);
+    expect(csvLines[2]).toMatch(/^design,layout,step,travel_mm,/);
+    // Two designs, one row per travel sample each, after the two notes and the header.
+    expect(csvLines.filter((l) => /^#\d+,/.test(l))).toHaveLength(2 * STEPS);
+    await page.locator('#susp-compare-title').evaluate((el) => el.scrollIntoView({ block: 'start' }));
+    await saveScreenshot(page, 'suspension-compare');
+    await page.getByTestId('compare-side-views').evaluate((el) => el.scrollIntoView({ block: 'start' }));
+    await saveScreenshot(page, 'suspension-compare-side-views');
+
+    // Kept in the project: reload, open the kept design, the same table.
+    await expect.poll(() => projectHas(page, 'searchResults'), { timeout: 10_000 }).toBe(true);
+    const before = await page.getByTestId('all-ranked').locator('tr[data-rank]').evaluateAll((trs) => trs.map((tr) => tr.textContent));
+    await page.reload();
+    await page.getByRole('button', { name: 'Rear suspension: Search check' }).click();
+    await page.getByTestId('search-results').waitFor();
+    const after = await page.getByTestId('all-ranked').locator('tr[data-rank]').evaluateAll((trs) => trs.map((tr) => tr.textContent));
+    expect(after).toEqual(before);
+    expect(app.problems()).toEqual([]);
+    await app.close();
+  }, 240_000);
+});
