@@ -1,21 +1,22 @@
 /**
- * Suspension metrics against the pose solves they come from, per demo layout: full
- * suspension evaluations per second (suspensionCurves over 60 travel steps, every
- * metric, the demo bicycle's coil spring so the wheel rate too) beside, in the same run,
- * sweeps of the same layout over the same 60 shock lengths (poses and exact rates, what
- * the metrics read) and plain pose solves (60 `run` calls). The issue's goal: an
- * evaluation costs no more than 3 sweeps (`evalOverSweepTimeRatio` ≤ 3). Beside it, the
- * metrics kernel alone (a sweep and fillCurves on a plan compiled once, curves allocated
- * once), to show how much of an evaluation is set-up rather than metrics.
+ * Suspension metrics against the pose solves they come from, per demo layout: suspension
+ * evaluations per second (60 travel steps, every metric, the demo bicycle's coil spring
+ * so the wheel rate too) beside, in the same run, sweeps of the same layout over the same
+ * 60 shock lengths (poses and exact rates, what the metrics read) and plain pose solves
+ * (60 `run` calls). An evaluation is a prepared evaluator's (prepareSuspension: the
+ * bicycle checked, the layout compiled and the arrays allocated once), which sweeps the
+ * stroke itself. The issue's goal: an evaluation costs no more than 3 sweeps
+ * (`evalOverSweepTimeRatio` ≤ 3). Beside it, the one-shot call (suspensionCurves:
+ * checks, compile and allocation every time), to show what the preparation costs,
+ * measured after every layout's evaluations.
  *
- * Untimed warm-up, each rate the best of a few interleaved rounds, timed by this
- * process's CPU time (rates per CPU second: the machine is shared, and the wall clock
- * counts the waits for a core too); results fold into checksums reported outside the
- * timed regions.
+ * Untimed warm-up, then many short interleaved rounds timed by this process's CPU time
+ * (rates per CPU second: the machine is shared, and the wall clock counts the waits for
+ * a core too). Each rate is the best round's; each ratio the median of the ratios within
+ * a round. Results fold into checksums reported outside the timed regions.
  */
 import { compile, run as runImport, sweep as sweepImport, type Linkage, type Plan } from '../src/core/linkage';
 import {
-  AXLE_POINT,
   DEMO_LAYOUTS,
   DEMO_TRAIL_BIKE,
   fourBarSeatStayAxle,
@@ -24,24 +25,25 @@ import {
   singlePivot,
   stephensonSixBar,
   suspensionCurves as suspensionCurvesImport,
-  validateBicycle,
   wattSixBar,
 } from '../src/core/suspension';
-import { pitchRadiusMm, RUN_SCRATCH_LENGTH } from '../src/core/suspension/chain';
-import { createCurves, fillCurves as fillCurvesImport, wrappedRunsInto, type CurveContext, type SuspensionCurves } from '../src/core/suspension/curves';
+import { prepareSuspension, type SuspensionEvaluator } from '../src/core/suspension';
 
 // Hot loops call module-local functions: tsx turns imported bindings into getters (see bench/README.md).
 const run = runImport;
 const sweep = sweepImport;
 const suspensionCurves = suspensionCurvesImport;
-const fillCurves = fillCurvesImport;
 
 const STEPS = 60;
-const ROUNDS = 3;
-/** Work per timed round, in sweeps of 60 steps: evaluations take several times longer, so fewer of them. */
-const SWEEPS_PER_ROUND = 60;
-const EVALS_PER_ROUND = 20;
-const RUN_SWEEPS_PER_ROUND = 600;
+/** Many short rounds: on the shared machine a round that a load spike falls on is one of many. */
+const ROUNDS = 15;
+/** Untimed rounds first, so that the JIT has compiled the hot code before any is timed. */
+const WARM_UP_ROUNDS = 5;
+/** Work per timed round, a few milliseconds each: evaluations take several times longer than sweeps, so fewer of them. */
+const SWEEPS_PER_ROUND = 40;
+const EVALS_PER_ROUND = 15;
+const ONE_SHOTS_PER_ROUND = 5;
+const RUN_SWEEPS_PER_ROUND = 400;
 /** The goal from the issue: a full evaluation costs at most this many sweeps. */
 export const EVAL_OVER_SWEEP_GOAL = 3;
 
@@ -57,7 +59,17 @@ const LAYOUTS: readonly (readonly [string, Linkage])[] = [
 const FROM_MM = DEMO_TRAIL_BIKE.shock.eyeToEyeMm;
 const TO_MM = FROM_MM - DEMO_TRAIL_BIKE.shock.strokeMm;
 
-function evalLoop(linkage: Linkage, count: number): number {
+function evalLoop(evaluator: SuspensionEvaluator, count: number): number {
+  let acc = 0;
+  for (let i = 0; i < count; i++) {
+    const r = evaluator.evaluate();
+    if (!r.ok) throw new Error(`bench: ${r.reason}`);
+    acc += r.report.curves.leverageRatio[STEPS - 1] + r.report.sagPoint.antiSquatPct[0];
+  }
+  return acc;
+}
+
+function oneShotLoop(linkage: Linkage, count: number): number {
   let acc = 0;
   for (let i = 0; i < count; i++) {
     const r = suspensionCurves(linkage, DEMO_TRAIL_BIKE, { steps: STEPS });
@@ -72,50 +84,6 @@ function sweepLoop(plan: Plan, axleAt: number, count: number): number {
   for (let i = 0; i < count; i++) {
     const sw = sweep(plan, { from: FROM_MM, to: TO_MM, steps: STEPS });
     acc += sw.poses[(STEPS - 1) * 2 * plan.slotCount + axleAt + 1] + sw.rates[axleAt + 1];
-  }
-  return acc;
-}
-
-/**
- * The metrics kernel alone on a compiled plan: the same context suspensionCurves builds
- * (src/core/suspension/metrics.ts), built once here, then per evaluation one sweep and
- * fillCurves into curves allocated once: what an evaluation would cost with the plan
- * compiled, the bicycle validated and the curves allocated outside the loop.
- */
-function kernelContext(plan: Plan): CurveContext {
-  const checked = validateBicycle(DEMO_TRAIL_BIKE);
-  if (!checked.ok) throw new Error('bench: demo bicycle invalid');
-  const bicycle = checked.bicycle;
-  const axleAt = 2 * (plan.slotIndex.get(AXLE_POINT) as number);
-  const axleBody = plan.bodyIndex.get(plan.linkage.points?.find((p) => p.id === AXLE_POINT)?.body ?? '') as number;
-  const ref = plan.reference;
-  let axleRefAt = -1;
-  let far = 0;
-  for (const slot of plan.bodies[axleBody].slots) {
-    const d = Math.hypot(ref[2 * slot] - ref[axleAt], ref[2 * slot + 1] - ref[axleAt + 1]);
-    if (d > far) {
-      far = d;
-      axleRefAt = 2 * slot;
-    }
-  }
-  const ringRadiusMm = pitchRadiusMm(bicycle.chainringTeeth, bicycle.chainPitchMm);
-  const cogRadiusMm = Float64Array.from(bicycle.cogTeeth, (z) => pitchRadiusMm(z, bicycle.chainPitchMm));
-  const wrapped0 = new Float64Array(cogRadiusMm.length);
-  wrappedRunsInto(ref[axleAt], ref[axleAt + 1], cogRadiusMm, ringRadiusMm, wrapped0);
-  return {
-    plan, bicycle, eyeToEyeMm: FROM_MM, axleBody, axleAt, axleRefAt, brakeBody: -1, brakeAt: -1, brakeRefAt: -1,
-    cogRadiusMm, ringRadiusMm, axleX0: ref[axleAt], axleY0: ref[axleAt + 1], wrapped0,
-    bodyDx0: ref[axleRefAt] - ref[axleAt], bodyDy0: ref[axleRefAt + 1] - ref[axleAt + 1],
-    runScratch: new Float64Array(RUN_SCRATCH_LENGTH), centreScratch: new Float64Array(3),
-    poseScratch: new Float64Array(2 * plan.slotCount), rateScratch: new Float64Array(2 * plan.slotCount),
-  };
-}
-
-function kernelLoop(ctx: CurveContext, out: SuspensionCurves, count: number): number {
-  let acc = 0;
-  for (let i = 0; i < count; i++) {
-    fillCurves(ctx, sweep(ctx.plan, { from: FROM_MM, to: TO_MM, steps: STEPS }), out);
-    acc += out.leverageRatio[STEPS - 1] + out.antiSquatPct[0][STEPS - 1];
   }
   return acc;
 }
@@ -139,52 +107,96 @@ function cpuS(): number {
   return (used.user + used.system) / 1e6;
 }
 
-/** Timed rounds of several loops, interleaved so that load on the shared machine falls on all alike; each keeps its best rate per CPU second. */
-function interleaved(loops: readonly { readonly count: number; readonly body: () => number }[]): { perS: number; checksum: number }[] {
-  const out = loops.map((loop) => ({ perS: 0, checksum: loop.body() }));
+interface Timed {
+  /** Best rate per CPU second over the rounds. */
+  perS: number;
+  /** The rate in each round. */
+  readonly rounds: number[];
+  checksum: number;
+}
+
+/** Timed rounds of several loops, interleaved so that load on the shared machine falls on all alike. */
+function interleaved(loops: readonly { readonly count: number; readonly body: () => number }[]): Timed[] {
+  const out: Timed[] = loops.map(() => ({ perS: 0, rounds: [], checksum: 0 }));
+  for (let r = 0; r < WARM_UP_ROUNDS; r++) loops.forEach((loop, i) => (out[i].checksum = loop.body()));
   for (let r = 0; r < ROUNDS; r++) {
     loops.forEach((loop, i) => {
       const t0 = cpuS();
       out[i].checksum = loop.body();
-      out[i].perS = Math.max(out[i].perS, loop.count / (cpuS() - t0));
+      const perS = loop.count / (cpuS() - t0);
+      out[i].rounds.push(perS);
+      out[i].perS = Math.max(out[i].perS, perS);
     });
   }
   return out;
 }
 
+/**
+ * How many times longer one `slow` takes than one `fast`: the median over the rounds of
+ * the ratio within each round, whose two loops ran a moment apart. On a loaded machine
+ * the best rates of two loops can come from rounds that met different load; the ratio
+ * within a round cannot.
+ */
+function timeRatio(slow: Timed, fast: Timed): number {
+  const ratios = slow.rounds.map((perS, r) => fast.rounds[r] / perS).sort((a, b) => a - b);
+  const mid = ratios.length >> 1;
+  return ratios.length % 2 === 1 ? ratios[mid] : 0.5 * (ratios[mid - 1] + ratios[mid]);
+}
+
+interface Prepared {
+  readonly layout: string;
+  readonly linkage: Linkage;
+  readonly plan: Plan;
+  readonly axleAt: number;
+  readonly evaluator: SuspensionEvaluator;
+}
+
+function prepare(layout: string, linkage: Linkage): Prepared {
+  const compiled = compile(linkage);
+  if (!compiled.ok) throw new Error(`bench: ${layout} does not compile`);
+  const plan = compiled.plan;
+  const prepared = prepareSuspension(linkage, DEMO_TRAIL_BIKE, { steps: STEPS });
+  if (!prepared.ok) throw new Error(`bench: ${layout}: ${prepared.reason}`);
+  return { layout, linkage, plan, axleAt: 2 * (plan.slotIndex.get('axle') ?? -1), evaluator: prepared.evaluator };
+}
+
 export async function benchSuspension(): Promise<Record<string, number | string>[]> {
-  const rows: Record<string, number | string>[] = [];
-  for (const [layout, linkage] of LAYOUTS) {
-    const compiled = compile(linkage);
-    if (!compiled.ok) throw new Error(`bench: ${layout} does not compile`);
-    const plan = compiled.plan;
-    const axleAt = 2 * (plan.slotIndex.get('axle') ?? -1);
+  const layouts = LAYOUTS.map(([layout, linkage]) => prepare(layout, linkage));
+  // Every layout's evaluations and sweeps first; the one-shot calls compile a plan each
+  // time, whose generated kernels would otherwise make the solver's call sites polymorphic
+  // under the later layouts' figures.
+  const measured = layouts.map(({ plan, axleAt, evaluator }) => {
     const pose = new Float64Array(2 * plan.slotCount);
-    const ctx = kernelContext(plan);
-    const curves = createCurves(STEPS, ctx.cogRadiusMm.length, true, false, ctx.bicycle.cogTeeth);
-    const [evals, kernels, sweeps, runs] = interleaved([
-      { count: EVALS_PER_ROUND, body: () => evalLoop(linkage, EVALS_PER_ROUND) },
-      { count: SWEEPS_PER_ROUND, body: () => kernelLoop(ctx, curves, SWEEPS_PER_ROUND) },
+    const [evals, sweeps, runs] = interleaved([
+      { count: EVALS_PER_ROUND, body: () => evalLoop(evaluator, EVALS_PER_ROUND) },
       { count: SWEEPS_PER_ROUND, body: () => sweepLoop(plan, axleAt, SWEEPS_PER_ROUND) },
       { count: RUN_SWEEPS_PER_ROUND, body: () => runLoop(plan, axleAt, RUN_SWEEPS_PER_ROUND, pose) },
     ]);
-    rows.push({
+    return { evals, sweeps, runs };
+  });
+  const rows: Record<string, number | string>[] = layouts.map(({ layout, linkage, plan, axleAt }, i) => {
+    const { evals, sweeps, runs } = measured[i];
+    const [oneShots, sweepsAgain] = interleaved([
+      { count: ONE_SHOTS_PER_ROUND, body: () => oneShotLoop(linkage, ONE_SHOTS_PER_ROUND) },
+      { count: SWEEPS_PER_ROUND, body: () => sweepLoop(plan, axleAt, SWEEPS_PER_ROUND) },
+    ]);
+    return {
       layout,
       steps: STEPS,
       evalsPerCpuS: evals.perS,
       sweepsPerCpuS: sweeps.perS,
       plainSolveSweepsPerCpuS: runs.perS,
-      kernelEvalsPerCpuS: kernels.perS,
-      evalOverSweepTimeRatio: sweeps.perS / evals.perS,
-      kernelEvalOverSweepTimeRatio: sweeps.perS / kernels.perS,
-      evalOverPlainSolvesTimeRatio: runs.perS / evals.perS,
+      evalOverSweepTimeRatio: timeRatio(evals, sweeps),
+      evalOverPlainSolvesTimeRatio: timeRatio(evals, runs),
       goalEvalOverSweepMax: EVAL_OVER_SWEEP_GOAL,
+      oneShotsPerCpuS: oneShots.perS,
+      oneShotOverSweepTimeRatio: timeRatio(oneShots, sweepsAgain),
       evalChecksum: evals.checksum,
-      kernelChecksum: kernels.checksum,
       sweepChecksum: sweeps.checksum,
       plainSolveChecksum: runs.checksum,
-    });
-  }
+      oneShotChecksum: oneShots.checksum,
+    };
+  });
   await Promise.resolve();
   return rows;
 }

@@ -4,7 +4,7 @@
  * axle–centre line needs no special case: a point is (x, y, w), at infinity when w = 0,
  * and the line through two points, or the point on two lines, is their cross product.
  *
- * Each returns the height (mm) above the level ground through the rear contact patch C
+ * The height functions return the height (mm) above the level ground through the rear contact patch C
  * at which the line from C through the constructed point crosses x = frontX.
  */
 
@@ -20,25 +20,28 @@ export function heightThroughMm(cx: number, cy: number, px: number, py: number, 
 }
 
 /**
- * Anti-squat construction: the chain line {n·X = c} meets the line through the axle A
- * and the instant centre I = (ix, iy, iw) of the axle-carrying body relative to the
- * front frame; the height of the line from C through that point at x = frontX.
+ * Anti-squat construction: the chain line {n·X = c} meets the line m through the axle A
+ * and the instant centre I of the axle-carrying body relative to the front frame
+ * (m = (ax, ay, 1) × I, written by axleLineInto); the height of the line from C through
+ * that point at x = frontX. m is shared by every cog on the axle, so it is found once.
  */
 export function antiSquatHeightMm(
   nx: number, ny: number, c: number,
-  ax: number, ay: number,
-  ix: number, iy: number, iw: number,
+  m0: number, m1: number, m2: number,
   cx: number, cy: number, frontX: number,
 ): number {
-  // m = (ax, ay, 1) × (ix, iy, iw)
-  const m0 = ay * iw - iy;
-  const m1 = ix - ax * iw;
-  const m2 = ax * iy - ay * ix;
   // X = (nx, ny, −c) × m
   const x0 = ny * m2 + c * m1;
   const x1 = -c * m0 - nx * m2;
   const x2 = nx * m1 - ny * m0;
   return heightThroughMm(cx, cy, x0, x1, x2, frontX);
+}
+
+/** The line through the axle A and the homogeneous point I = (ix, iy, iw): m = (ax, ay, 1) × I, into out[at..at+2]. */
+export function axleLineInto(ax: number, ay: number, ix: number, iy: number, iw: number, out: Float64Array, at: number): void {
+  out[at] = ay * iw - iy;
+  out[at + 1] = ix - ax * iw;
+  out[at + 2] = ax * iy - ay * ix;
 }
 
 /**

@@ -1,14 +1,70 @@
 /**
  * The per-step kernel of the suspension metrics: every curve at every step of a sweep
- * of the shock, from the solved pose and its exact rates d(pose)/d(shock length). No
- * allocation per step; the result arrays are allocated once per sweep.
+ * of the shock, from the solved pose and its exact rates d(pose)/d(shock length). It
+ * allocates nothing: the curves and the scratch (createCurves, createCurveScratch) are
+ * allocated once, by the caller.
  */
-import { runWithRates, type Plan, type SweepResult } from '../linkage';
-import { instantCentrePath } from '../linkage/analysis';
-import { antiSquatHeightMm, brakeCentreInto, heightThroughMm } from './antiLines';
+import { runWithRates as runWithRatesImport, type Plan, type SweepResult } from '../linkage';
+import { IC_SCRATCH_LENGTH, instantCentrePathInto as instantCentrePathIntoImport } from '../linkage/analysis';
+import {
+  antiSquatHeightMm as antiSquatHeightImport,
+  axleLineInto as axleLineIntoImport,
+  brakeCentreInto as brakeCentreIntoImport,
+  heightThroughMm as heightThroughImport,
+} from './antiLines';
 import type { ValidBicycle } from './bicycle';
-import { RUN_NX, RUN_NY, RUN_OFFSET_MM, RUN_SCRATCH_LENGTH, upperRunInto, wrappedRunLengthMm } from './chain';
-import { springForceN, springRateNPerMm, wheelRateNPerMm } from './spring';
+import {
+  RUN_COS_TILT,
+  RUN_LENGTH_MM,
+  RUN_NX,
+  RUN_NY,
+  RUN_OFFSET_MM,
+  RUN_SCRATCH_LENGTH,
+  RUN_SIN_TILT,
+  upperRunAlongInto as upperRunAlongImport,
+  wrappedRunGrowthMm as wrappedRunGrowthImport,
+} from './chain';
+import {
+  springForceN as springForceImport,
+  springRateNPerMm as springRateImport,
+  wheelRateNPerMm as wheelRateImport,
+} from './spring';
+
+// The kernel's loops call module-local functions and read literal slots: dev-time module
+// transforms such as tsx's turn every imported binding into a getter call, which also
+// keeps V8 from inlining the call (see run.ts). Each literal is checked against its
+// named constant in chain.ts by `satisfies`.
+const runWithRates = runWithRatesImport;
+const instantCentrePathInto = instantCentrePathIntoImport;
+const antiSquatHeightMm = antiSquatHeightImport;
+const axleLineInto = axleLineIntoImport;
+const brakeCentreInto = brakeCentreIntoImport;
+const heightThroughMm = heightThroughImport;
+const upperRunAlongInto = upperRunAlongImport;
+const wrappedRunGrowthMm = wrappedRunGrowthImport;
+const springForceN = springForceImport;
+const springRateNPerMm = springRateImport;
+const wheelRateNPerMm = wheelRateImport;
+const NX = 1 satisfies typeof RUN_NX;
+const NY = 2 satisfies typeof RUN_NY;
+const OFFSET = 3 satisfies typeof RUN_OFFSET_MM;
+
+/**
+ * What every cog shares at a step, STEP_WIDTH numbers per step in CurveScratch.shared:
+ * the unit vector from the axle to the bottom bracket, their distance and its turn since
+ * full extension, the line through the axle and the instant centre (homogeneous), and
+ * the axle body's turn.
+ */
+const STEP_UX = 0;
+const STEP_UY = 1;
+const STEP_D = 2;
+const STEP_LINE_TURN = 3;
+const STEP_M = 4;
+const STEP_TURN = 7;
+const STEP_WIDTH = 8;
+
+/** Numbers per cog in CurveContext.chain0: the run's tangent length, sin and cos of its tilt, and its normal's angle, at full extension. */
+const CHAIN0_WIDTH = 4;
 
 /**
  * Step (mm of shock length) of the central difference of the exact leverage ratio that
@@ -75,17 +131,43 @@ export interface CurveContext {
   readonly brakeRefAt: number;
   readonly cogRadiusMm: Float64Array;
   readonly ringRadiusMm: number;
-  /** Full extension: axle, wrapped run length per cog, direction of the axle body. */
+  /**
+   * Full extension: axle; the chain per cog (chainAtFullExtensionInto: tangent length,
+   * sin and cos of the tilt, the normal's angle; NaN where the cog overlaps the
+   * chainring); direction of the axle body.
+   */
   readonly axleX0: number;
   readonly axleY0: number;
-  readonly wrapped0: Float64Array;
+  readonly chain0: Float64Array;
   readonly bodyDx0: number;
   readonly bodyDy0: number;
-  /** Scratch: chain run, brake centre, and a pose and rates for the slope of LR. */
-  readonly runScratch: Float64Array;
-  readonly centreScratch: Float64Array;
-  readonly poseScratch: Float64Array;
-  readonly rateScratch: Float64Array;
+  readonly scratch: CurveScratch;
+}
+
+/** The kernel's working arrays, for sweeps of up to `steps` steps of one plan. */
+export interface CurveScratch {
+  readonly steps: number;
+  /** A chain run (upperRunInto), a brake centre, an instant centre. */
+  readonly run: Float64Array;
+  readonly centre: Float64Array;
+  readonly ic: Float64Array;
+  /** A pose and its rates, for the slope of the leverage ratio. */
+  readonly pose: Float64Array;
+  readonly rates: Float64Array;
+  /** What the cogs share at each step. */
+  readonly shared: Float64Array;
+}
+
+export function createCurveScratch(plan: Plan, steps: number): CurveScratch {
+  return {
+    steps,
+    run: new Float64Array(RUN_SCRATCH_LENGTH),
+    centre: new Float64Array(3),
+    ic: new Float64Array(IC_SCRATCH_LENGTH),
+    pose: new Float64Array(2 * plan.slotCount),
+    rates: new Float64Array(2 * plan.slotCount),
+    shared: new Float64Array(STEP_WIDTH * steps),
+  };
 }
 
 export function createCurves(steps: number, cogCount: number, withSpring: boolean, withFloatingBrake: boolean, cogTeeth: readonly number[]): SuspensionCurves {
@@ -124,10 +206,10 @@ function omegaOf(poses: Float64Array, rates: Float64Array, at: number, p: number
 
 /** −d(axle y)/d(shock length) at shock length s, the pose started from poses[at..]; NaN when it does not assemble. */
 function leverageAt(ctx: CurveContext, s: number, poses: Float64Array, at: number): number {
-  const pose = ctx.poseScratch;
+  const { pose, rates } = ctx.scratch;
   for (let i = 0; i < pose.length; i++) pose[i] = poses[at + i];
-  if (!runWithRates(ctx.plan, s, pose, ctx.rateScratch)) return Number.NaN;
-  return -ctx.rateScratch[ctx.axleAt + 1];
+  if (!runWithRates(ctx.plan, s, pose, rates)) return Number.NaN;
+  return -rates[ctx.axleAt + 1];
 }
 
 /**
@@ -144,33 +226,43 @@ function leverageSlope(ctx: CurveContext, s: number, lr: number, poses: Float64A
   return -(-3 * lr + 4 * longer - leverageAt(ctx, s + 2 * h, poses, at)) / (2 * h);
 }
 
-/** Fills every curve from an assembled sweep of the shock (lengths in sw.values). */
-export function fillCurves(ctx: CurveContext, sw: SweepResult, out: SuspensionCurves): void {
-  fillCurveSteps(ctx, sw, sw.values.length, out);
-  const ic = instantCentrePath(ctx.plan, ctx.axleBody, 0, sw);
-  out.icPath.kind.set(ic.kind);
-  out.icPath.xMm.set(ic.x);
-  out.icPath.yMm.set(ic.y);
+/**
+ * Fills every curve at the first `count` steps of a sweep whose steps all assemble
+ * (poses and rates as a sweep stores them), allocating nothing.
+ */
+export function fillCurves(ctx: CurveContext, sw: Pick<SweepResult, 'values' | 'poses' | 'rates'>, count: number, out: SuspensionCurves): void {
+  fillCurveSteps(ctx, sw, count, out);
+  const ic = out.icPath;
+  instantCentrePathInto(ctx.plan, ctx.axleBody, 0, sw.poses, sw.rates, count, ic.kind, ic.xMm, ic.yMm, ctx.scratch.ic);
 }
 
 /**
  * Every curve but the instant-centre path at the first `count` steps of a sweep (poses
  * and rates as a sweep stores them), allocating nothing: the kernel a search runs per
  * design. Without a spring in ctx.bicycle (or in `out`) the spring and wheel-rate
- * curves are skipped.
+ * curves are skipped. The figures of one step, then each cog's over all steps.
  */
 export function fillCurveSteps(ctx: CurveContext, sw: Pick<SweepResult, 'values' | 'poses' | 'rates'>, count: number, out: SuspensionCurves): void {
+  if (!(count <= ctx.scratch.steps)) throw new RangeError(`fillCurveSteps: ${count} steps; the context's scratch holds ${ctx.scratch.steps}`);
+  fillStepFigures(ctx, sw, count, out);
+  for (let c = 0; c < ctx.cogRadiusMm.length; c++) fillCogFigures(ctx, c, count, out);
+}
+
+/** The figures that do not depend on the cog, and in ctx.scratch.shared what the cogs share. */
+function fillStepFigures(ctx: CurveContext, sw: Pick<SweepResult, 'values' | 'poses' | 'rates'>, count: number, out: SuspensionCurves): void {
   const { bicycle, plan } = ctx;
   const stride = 2 * plan.slotCount;
   const poses = sw.poses;
   const rates = sw.rates;
-  const cogs = ctx.cogRadiusMm;
-  const ring = ctx.ringRadiusMm;
   const R = bicycle.wheelRadiusMm;
   const frontX = bicycle.frontContactXMm;
   const toPct = 100 / bicycle.comHeightMm;
-  const runOut = ctx.runScratch;
-  const centre = ctx.centreScratch;
+  const centre = ctx.scratch.centre;
+  const shared = ctx.scratch.shared;
+  // The line from the axle to the bottom bracket at full extension, which the chain's turn is measured from.
+  const d0 = Math.sqrt(ctx.axleX0 * ctx.axleX0 + ctx.axleY0 * ctx.axleY0);
+  const ux0 = (0 - ctx.axleX0) / d0;
+  const uy0 = (0 - ctx.axleY0) / d0;
   for (let k = 0; k < count; k++) {
     const at = k * stride;
     const s = sw.values[k];
@@ -204,6 +296,8 @@ export function fillCurveSteps(ctx: CurveContext, sw: Pick<SweepResult, 'values'
     const iy = centre[1];
     const iw = centre[2];
     out.antiRisePct[k] = heightThroughMm(cx, cy, ix, iy, iw, frontX) * toPct;
+    const sh = k * STEP_WIDTH;
+    axleLineInto(ax, ay, ix, iy, iw, shared, sh + STEP_M);
     if (out.antiRiseFloatingPct !== null) {
       const omegaB = omegaOf(poses, rates, at, ctx.brakeAt, ctx.brakeRefAt);
       brakeCentreInto(ax, ay, vax, vay, omegaB, centre);
@@ -212,32 +306,92 @@ export function fillCurveSteps(ctx: CurveContext, sw: Pick<SweepResult, 'values'
 
     const bdx = poses[at + ctx.axleRefAt] - ax;
     const bdy = poses[at + ctx.axleRefAt + 1] - ay;
-    const turnRad = Math.atan2(ctx.bodyDx0 * bdy - ctx.bodyDy0 * bdx, ctx.bodyDx0 * bdx + ctx.bodyDy0 * bdy);
-    for (let c = 0; c < cogs.length; c++) {
-      const r = cogs[c];
-      if (!upperRunInto(ax, ay, r, 0, 0, ring, runOut)) {
-        out.antiSquatPct[c][k] = Number.NaN;
-        out.chainGrowthMm[c][k] = Number.NaN;
-        out.chainGrowthTurningCogMm[c][k] = Number.NaN;
-        out.kickbackDeg[c][k] = Number.NaN;
-        continue;
-      }
-      out.antiSquatPct[c][k] = antiSquatHeightMm(runOut[RUN_NX], runOut[RUN_NY], runOut[RUN_OFFSET_MM], ax, ay, ix, iy, iw, cx, cy, frontX) * toPct;
-      const growth = wrappedRunLengthMm(runOut, r, ring) - ctx.wrapped0[c];
-      out.chainGrowthMm[c][k] = growth;
-      // The cog's mark turns with the body: a turn δθ (CCW) lengthens the wrap on the cog by r·δθ.
-      out.chainGrowthTurningCogMm[c][k] = growth + r * turnRad;
-      out.kickbackDeg[c][k] = (growth / ring) * RAD_TO_DEG;
-    }
+    shared[sh + STEP_TURN] = Math.atan2(ctx.bodyDx0 * bdy - ctx.bodyDy0 * bdx, ctx.bodyDx0 * bdx + ctx.bodyDy0 * bdy);
+    // The line from the axle (every cog's centre) to the bottom bracket.
+    const dx = 0 - ax;
+    const dy = 0 - ay;
+    // sqrt of the sum, not Math.hypot (several times slower): the same d as chainAtFullExtensionInto's and sweepTrouble's.
+    const d = Math.sqrt(dx * dx + dy * dy);
+    const ux = dx / d;
+    const uy = dy / d;
+    shared[sh + STEP_UX] = ux;
+    shared[sh + STEP_UY] = uy;
+    shared[sh + STEP_D] = d;
+    shared[sh + STEP_LINE_TURN] = Math.atan2(ux0 * uy - uy0 * ux, ux0 * ux + uy0 * uy);
   }
 }
 
-/** The wrapped upper-run length per cog with the axle at (ax, ay), into `out`; false when a cog overlaps the chainring. */
-export function wrappedRunsInto(ax: number, ay: number, cogRadiusMm: Float64Array, ringRadiusMm: number, out: Float64Array): boolean {
-  const runOut = new Float64Array(RUN_SCRATCH_LENGTH);
-  for (let c = 0; c < cogRadiusMm.length; c++) {
-    if (!upperRunInto(ax, ay, cogRadiusMm[c], 0, 0, ringRadiusMm, runOut)) return false;
-    out[c] = wrappedRunLengthMm(runOut, cogRadiusMm[c], ringRadiusMm);
+/** Cog c's anti-squat, chain growth and kickback at every step, from the step figures and what the cogs share. */
+function fillCogFigures(ctx: CurveContext, c: number, count: number, out: SuspensionCurves): void {
+  const bicycle = ctx.bicycle;
+  const r = ctx.cogRadiusMm[c];
+  const ring = ctx.ringRadiusMm;
+  const len0 = ctx.chain0[CHAIN0_WIDTH * c];
+  const sinTilt0 = ctx.chain0[CHAIN0_WIDTH * c + 1];
+  const cosTilt0 = ctx.chain0[CHAIN0_WIDTH * c + 2];
+  const normal0 = ctx.chain0[CHAIN0_WIDTH * c + 3];
+  const R = bicycle.wheelRadiusMm;
+  const frontX = bicycle.frontContactXMm;
+  const toPct = 100 / bicycle.comHeightMm;
+  const runOut = ctx.scratch.run;
+  const shared = ctx.scratch.shared;
+  const axleX = out.axleXMm;
+  const axleY = out.axleYMm;
+  const antiSquat = out.antiSquatPct[c];
+  const growthMm = out.chainGrowthMm[c];
+  const turningMm = out.chainGrowthTurningCogMm[c];
+  const kickback = out.kickbackDeg[c];
+  for (let k = 0; k < count; k++) {
+    const sh = k * STEP_WIDTH;
+    const d = shared[sh + STEP_D];
+    if (!(d > r + ring)) {
+      antiSquat[k] = Number.NaN;
+      growthMm[k] = Number.NaN;
+      turningMm[k] = Number.NaN;
+      kickback[k] = Number.NaN;
+      continue;
+    }
+    const ax = axleX[k];
+    const ay = axleY[k];
+    upperRunAlongInto(ax, ay, shared[sh + STEP_UX], shared[sh + STEP_UY], d, r, ring, runOut);
+    antiSquat[k] = antiSquatHeightMm(
+      runOut[NX], runOut[NY], runOut[OFFSET], shared[sh + STEP_M], shared[sh + STEP_M + 1], shared[sh + STEP_M + 2], ax, ay - R, frontX,
+    ) * toPct;
+    const growth = wrappedRunGrowthMm(runOut, len0, sinTilt0, cosTilt0, normal0, shared[sh + STEP_LINE_TURN], r, ring);
+    growthMm[k] = growth;
+    // The cog's mark turns with the body: a turn δθ (CCW) lengthens the wrap on the cog by r·δθ.
+    turningMm[k] = growth + r * shared[sh + STEP_TURN];
+    kickback[k] = (growth / ring) * RAD_TO_DEG;
   }
-  return true;
+}
+
+/**
+ * The chain at full extension, the axle at (ax, ay), into chain0 (CurveContext.chain0):
+ * per cog the upper run's tangent length, tilt and normal's angle, NaN for a cog that
+ * overlaps the chainring. False when one does.
+ */
+export function chainAtFullExtensionInto(ax: number, ay: number, cogRadiusMm: Float64Array, ringRadiusMm: number, chain0: Float64Array, run: Float64Array): boolean {
+  const dx = 0 - ax;
+  const dy = 0 - ay;
+  const d = Math.sqrt(dx * dx + dy * dy);
+  let clear = true;
+  for (let c = 0; c < cogRadiusMm.length; c++) {
+    const at = CHAIN0_WIDTH * c;
+    if (!(d > cogRadiusMm[c] + ringRadiusMm)) {
+      chain0.fill(Number.NaN, at, at + CHAIN0_WIDTH);
+      clear = false;
+      continue;
+    }
+    upperRunAlongInto(ax, ay, dx / d, dy / d, d, cogRadiusMm[c], ringRadiusMm, run);
+    chain0[at] = run[0 satisfies typeof RUN_LENGTH_MM];
+    chain0[at + 1] = run[4 satisfies typeof RUN_SIN_TILT];
+    chain0[at + 2] = run[5 satisfies typeof RUN_COS_TILT];
+    chain0[at + 3] = Math.atan2(run[2 satisfies typeof RUN_NY], run[1 satisfies typeof RUN_NX]);
+  }
+  return clear;
+}
+
+/** An array for chainAtFullExtensionInto. */
+export function createChain0(cogCount: number): Float64Array {
+  return new Float64Array(CHAIN0_WIDTH * cogCount);
 }

@@ -37,9 +37,10 @@ export {
   STEPS_RANGE,
   SUSPENSION_CAUTION,
   SUSPENSION_CONVENTIONS,
+  prepareSuspension,
   suspensionCurves,
 } from './metrics';
-export type { SuspensionOptions, SuspensionPoint, SuspensionReport, SuspensionResult } from './metrics';
+export type { SuspensionEvaluator, SuspensionOptions, SuspensionPoint, SuspensionPreparation, SuspensionReport, SuspensionResult } from './metrics';
 export { DEMO_TRAIL_BIKE, DEMO_LAYOUTS } from './demo';
 export { LAYOUT_KINDS, LAYOUT_NAMES, LAYOUT_PIVOTS, buildLayout, demoAxleBody, demoPivots } from './layoutKinds';
 export type { LayoutAxleBody, LayoutKind } from './layoutKinds';

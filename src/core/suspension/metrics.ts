@@ -8,9 +8,9 @@
  * (frame pitch is ignored); the front contact point keeps its x.
  */
 import { compile, run, runWithRates, sweep, type Linkage, type Plan, type SweepResult } from '../linkage';
-import { validateBicycle, type Bicycle, type ValidBicycle } from './bicycle';
-import { pitchRadiusMm, RUN_SCRATCH_LENGTH } from './chain';
-import { createCurves, fillCurves, wrappedRunsInto, type CurveContext, type SuspensionCurves } from './curves';
+import { validateBicycle, type Bicycle } from './bicycle';
+import { pitchRadiusMm } from './chain';
+import { chainAtFullExtensionInto, createChain0, createCurves, createCurveScratch, fillCurves, type CurveContext, type SuspensionCurves } from './curves';
 import { formatNumber } from './format';
 import { AXLE_POINT } from './layouts';
 
@@ -98,18 +98,44 @@ export interface SuspensionReport {
   readonly caution: string;
 }
 
-export type SuspensionResult = { readonly ok: true; readonly report: SuspensionReport } | { readonly ok: false; readonly reason: string };
+export interface SuspensionFailure {
+  readonly ok: false;
+  readonly reason: string;
+}
+
+export type SuspensionResult = { readonly ok: true; readonly report: SuspensionReport } | SuspensionFailure;
+
+/** A layout on a bicycle, checked and compiled once, its arrays allocated once: each evaluation sweeps the stroke and fills them. */
+export interface SuspensionEvaluator {
+  readonly plan: Plan;
+  /**
+   * Every curve and figure, or what stops them, in words. The report's curves are this
+   * evaluator's arrays, overwritten by the next call: copy what must outlive it.
+   */
+  evaluate(): SuspensionResult;
+}
+
+export type SuspensionPreparation = { readonly ok: true; readonly evaluator: SuspensionEvaluator } | SuspensionFailure;
 
 function fmt(x: number, digits = 4): string {
   return formatNumber(x, digits);
 }
 
-function fail(reason: string): SuspensionResult {
+function fail(reason: string): SuspensionFailure {
   return { ok: false, reason };
 }
 
 /** All curves of a rear-suspension layout on a bicycle, or what stops them, in words. */
 export function suspensionCurves(linkage: Linkage, bicycleInput: Bicycle, options: SuspensionOptions = {}): SuspensionResult {
+  const prepared = prepareSuspension(linkage, bicycleInput, options);
+  return prepared.ok ? prepared.evaluator.evaluate() : prepared;
+}
+
+/**
+ * Checks the bicycle, the options and the layout at full extension, compiles the layout
+ * and allocates every array an evaluation fills; or says what is wrong, in words.
+ */
+export function prepareSuspension(linkage: Linkage, bicycleInput: Bicycle, options: SuspensionOptions = {}): SuspensionPreparation {
   const checked = validateBicycle(bicycleInput);
   if (!checked.ok) return fail(`the bicycle is not valid: ${checked.issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`);
   const bicycle = checked.bicycle;
@@ -165,8 +191,9 @@ export function suspensionCurves(linkage: Linkage, bicycleInput: Bicycle, option
   const pitch = bicycle.chainPitchMm;
   const ringRadiusMm = pitchRadiusMm(bicycle.chainringTeeth, pitch);
   const cogRadiusMm = Float64Array.from(bicycle.cogTeeth, (z) => pitchRadiusMm(z, pitch));
-  const wrapped0 = new Float64Array(cogRadiusMm.length);
-  if (!wrappedRunsInto(pose[axleAt], pose[axleAt + 1], cogRadiusMm, ringRadiusMm, wrapped0)) {
+  const scratch = createCurveScratch(plan, steps);
+  const chain0 = createChain0(cogRadiusMm.length);
+  if (!chainAtFullExtensionInto(pose[axleAt], pose[axleAt + 1], cogRadiusMm, ringRadiusMm, chain0, scratch.run)) {
     return fail(`at full extension a cog overlaps the ${bicycle.chainringTeeth}-tooth chainring (pitch circles meet): no chain line exists`);
   }
   const ctx: CurveContext = {
@@ -183,64 +210,73 @@ export function suspensionCurves(linkage: Linkage, bicycleInput: Bicycle, option
     ringRadiusMm,
     axleX0: pose[axleAt],
     axleY0: pose[axleAt + 1],
-    wrapped0,
+    chain0,
     bodyDx0: pose[axleRefAt] - pose[axleAt],
     bodyDy0: pose[axleRefAt + 1] - pose[axleAt + 1],
-    runScratch: new Float64Array(RUN_SCRATCH_LENGTH),
-    centreScratch: new Float64Array(3),
-    poseScratch: new Float64Array(2 * plan.slotCount),
-    rateScratch: new Float64Array(2 * plan.slotCount),
+    scratch,
   };
 
-  const full = sweep(plan, { from: eyeToEyeMm, to: eyeToEyeMm - strokeMm, steps });
-  const trouble = sweepTrouble(ctx, full, strokeMm);
-  if (trouble !== null) return fail(trouble);
-  const fullCurves = evaluate(ctx, full);
-  const strokeTravelMm = fullCurves.travelMm[steps - 1];
+  const { travelMm } = options;
+  const withSpring = bicycle.spring !== null;
+  const withBrake = brakeBody > 0;
+  const fullCurves = createCurves(steps, cogRadiusMm.length, withSpring, withBrake, bicycle.cogTeeth);
+  const travelCurves = travelMm === undefined ? null : createCurves(steps, cogRadiusMm.length, withSpring, withBrake, bicycle.cogTeeth);
+  const sagCurves = createCurves(1, cogRadiusMm.length, withSpring, withBrake, bicycle.cogTeeth);
+  // The sag point: its shock length, and the pose and rates solved there.
+  const sag = { values: new Float64Array(1), poses: new Float64Array(2 * plan.slotCount), rates: new Float64Array(2 * plan.slotCount) };
 
-  let curves = fullCurves;
-  if (options.travelMm !== undefined) {
-    if (options.travelMm > strokeTravelMm + TRAVEL_MATCH_TOL_MM) {
-      return fail(
-        `the shock bottoms out before the travel asked: its ${fmt(strokeMm)} mm stroke gives ${fmt(strokeTravelMm)} mm of wheel travel, ` +
-          `less than the ${fmt(options.travelMm)} mm asked`,
-      );
+  function evaluate(): SuspensionResult {
+    const full = sweep(plan, { from: eyeToEyeMm, to: eyeToEyeMm - strokeMm, steps });
+    const trouble = sweepTrouble(ctx, full, strokeMm);
+    if (trouble !== null) return fail(trouble);
+    fillCurves(ctx, full, steps, fullCurves);
+    const strokeTravelMm = fullCurves.travelMm[steps - 1];
+
+    let curves = fullCurves;
+    if (travelMm !== undefined && travelCurves !== null) {
+      if (travelMm > strokeTravelMm + TRAVEL_MATCH_TOL_MM) {
+        return fail(
+          `the shock bottoms out before the travel asked: its ${fmt(strokeMm)} mm stroke gives ${fmt(strokeTravelMm)} mm of wheel travel, ` +
+            `less than the ${fmt(travelMm)} mm asked`,
+        );
+      }
+      const end = shockLengthForTravel(ctx, fullCurves, full, Math.min(travelMm, strokeTravelMm), sag.poses, sag.rates);
+      if (!Number.isFinite(end)) return fail(`no shock length gives ${fmt(travelMm)} mm of wheel travel within the stroke`);
+      const part = sweep(plan, { from: eyeToEyeMm, to: end, steps });
+      // Inside a stroke that passed these checks, so none can fail; the curves read every step, so checked all the same.
+      const partTrouble = sweepTrouble(ctx, part, strokeMm);
+      if (partTrouble !== null) return fail(partTrouble);
+      fillCurves(ctx, part, steps, travelCurves);
+      curves = travelCurves;
     }
-    const end = shockLengthForTravel(ctx, fullCurves, full, Math.min(options.travelMm, strokeTravelMm));
-    if (!Number.isFinite(end)) return fail(`no shock length gives ${fmt(options.travelMm)} mm of wheel travel within the stroke`);
-    curves = evaluate(ctx, sweep(plan, { from: eyeToEyeMm, to: end, steps }));
+    const totalTravelMm = curves.travelMm[steps - 1];
+    const sagLength = shockLengthForTravel(ctx, fullCurves, full, bicycle.sag * totalTravelMm, sag.poses, sag.rates);
+    if (!Number.isFinite(sagLength)) return fail(`no shock length gives the sag point, ${fmt(bicycle.sag * totalTravelMm)} mm of wheel travel`);
+    sag.values[0] = sagLength;
+    fillCurves(ctx, sag, 1, sagCurves);
+    const lrStart = curves.leverageRatio[0];
+    const lrEnd = curves.leverageRatio[steps - 1];
+    const progression = (lrStart - lrEnd) / lrStart;
+    return {
+      ok: true,
+      report: {
+        curves,
+        totalTravelMm,
+        strokeTravelMm,
+        leverageRatioStart: lrStart,
+        leverageRatioEnd: lrEnd,
+        progression,
+        progressionPct: 100 * progression,
+        sagPoint: pointAt(sagCurves, 0),
+        cogTeeth: [...bicycle.cogTeeth],
+        chainringTeeth: bicycle.chainringTeeth,
+        conventions: SUSPENSION_CONVENTIONS,
+        caution: SUSPENSION_CAUTION,
+      },
+    };
   }
-  const totalTravelMm = curves.travelMm[steps - 1];
-  const sagLength = shockLengthForTravel(ctx, fullCurves, full, bicycle.sag * totalTravelMm);
-  if (!Number.isFinite(sagLength)) return fail(`no shock length gives the sag point, ${fmt(bicycle.sag * totalTravelMm)} mm of wheel travel`);
-  const sagCurves = evaluate(ctx, sweep(plan, { from: sagLength, to: sagLength, steps: 1 }));
-  const lrStart = curves.leverageRatio[0];
-  const lrEnd = curves.leverageRatio[steps - 1];
-  const progression = (lrStart - lrEnd) / lrStart;
-  return {
-    ok: true,
-    report: {
-      curves,
-      totalTravelMm,
-      strokeTravelMm,
-      leverageRatioStart: lrStart,
-      leverageRatioEnd: lrEnd,
-      progression,
-      progressionPct: 100 * progression,
-      sagPoint: pointAt(sagCurves, 0),
-      cogTeeth: [...bicycle.cogTeeth],
-      chainringTeeth: bicycle.chainringTeeth,
-      conventions: SUSPENSION_CONVENTIONS,
-      caution: SUSPENSION_CAUTION,
-    },
-  };
-}
 
-function evaluate(ctx: CurveContext, sw: SweepResult): SuspensionCurves {
-  const b: ValidBicycle = ctx.bicycle;
-  const curves = createCurves(sw.values.length, b.cogTeeth.length, b.spring !== null, ctx.brakeBody > 0, b.cogTeeth);
-  fillCurves(ctx, sw, curves);
-  return curves;
+  return { ok: true, evaluator: { plan, evaluate } };
 }
 
 /** The pose offset of the body's slot farthest from the slot at `at` in the reference pose. */
@@ -289,6 +325,8 @@ function sweepTrouble(ctx: CurveContext, sw: SweepResult, strokeMm: number): str
   }
   const stride = 2 * ctx.plan.slotCount;
   const cogCount = ctx.cogRadiusMm.length;
+  let largestCogMm = 0;
+  for (let c = 0; c < cogCount; c++) largestCogMm = Math.max(largestCogMm, ctx.cogRadiusMm[c]);
   for (let k = 0; k < sw.values.length; k++) {
     const lr = -sw.rates[k * stride + ctx.axleAt + 1];
     if (!(lr > 0 && lr < Infinity)) {
@@ -299,8 +337,11 @@ function sweepTrouble(ctx: CurveContext, sw: SweepResult, strokeMm: number): str
     }
     const ax = sw.poses[k * stride + ctx.axleAt];
     const ay = sw.poses[k * stride + ctx.axleAt + 1];
+    const reach = Math.sqrt(ax * ax + ay * ay);
+    // The largest cog overlaps first; which cog to name is looked for only then.
+    if (reach > largestCogMm + ctx.ringRadiusMm) continue;
     for (let c = 0; c < cogCount; c++) {
-      if (!(Math.hypot(ax, ay) > ctx.cogRadiusMm[c] + ctx.ringRadiusMm)) {
+      if (!(reach > ctx.cogRadiusMm[c] + ctx.ringRadiusMm)) {
         return `the ${ctx.bicycle.cogTeeth[c]}-tooth cog overlaps the chainring at shock length ${fmt(sw.values[k])} mm: no chain line exists`;
       }
     }
@@ -310,10 +351,13 @@ function sweepTrouble(ctx: CurveContext, sw: SweepResult, strokeMm: number): str
 
 /**
  * The shock length at which the wheel has travelled `target` mm, by safeguarded Newton
- * on the exact rate inside the bracketing samples of the whole-stroke sweep. NaN when
- * the target lies outside it.
+ * on the exact rate inside the bracketing samples of the whole-stroke sweep, with the
+ * pose and rates solved there written to `pose` and `rates`. NaN when the target lies
+ * outside the sweep.
  */
-function shockLengthForTravel(ctx: CurveContext, curves: SuspensionCurves, sw: SweepResult, target: number): number {
+function shockLengthForTravel(
+  ctx: CurveContext, curves: SuspensionCurves, sw: SweepResult, target: number, pose: Float64Array, rates: Float64Array,
+): number {
   const n = curves.steps;
   const travel = curves.travelMm;
   if (!(target >= travel[0] && target <= travel[n - 1])) return Number.NaN;
@@ -325,8 +369,6 @@ function shockLengthForTravel(ctx: CurveContext, curves: SuspensionCurves, sw: S
   const span = travel[k + 1] - travel[k];
   let s = span > 0 ? long + ((target - travel[k]) / span) * (short - long) : long;
   const stride = 2 * ctx.plan.slotCount;
-  const pose = ctx.poseScratch;
-  const rates = ctx.rateScratch;
   for (let i = 0; i < TRAVEL_SOLVE_MAX_STEPS; i++) {
     for (let j = 0; j < stride; j++) pose[j] = sw.poses[k * stride + j];
     if (!runWithRates(ctx.plan, s, pose, rates)) return Number.NaN;
@@ -337,7 +379,9 @@ function shockLengthForTravel(ctx: CurveContext, curves: SuspensionCurves, sw: S
     const next = s - f / rates[ctx.axleAt + 1];
     s = next > short && next < long ? next : 0.5 * (short + long);
   }
-  return s;
+  // Out of steps: the last estimate, solved.
+  for (let j = 0; j < stride; j++) pose[j] = sw.poses[k * stride + j];
+  return runWithRates(ctx.plan, s, pose, rates) ? s : Number.NaN;
 }
 
 function pointAt(c: SuspensionCurves, k: number): SuspensionPoint {

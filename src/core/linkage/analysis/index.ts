@@ -19,6 +19,7 @@ export {
   instantCentre,
   instantCentreInto,
   instantCentrePath,
+  instantCentrePathInto,
   instantCentres,
 } from './instantCentres';
 export type { BodyMotion, BodyRef, InstantCentre, InstantCentreEntry, InstantCentrePath } from './instantCentres';

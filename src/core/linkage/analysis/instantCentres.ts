@@ -170,6 +170,39 @@ export function instantCentrePaths(
   });
 }
 
+/**
+ * instantCentrePath's allocation-free form for hot loops: body indices, no argument
+ * checks, the first `count` steps of poses and rates stored as a sweep stores them, each
+ * one assembled. Writes each step's kind code and centre (or direction; NaN for the
+ * other kinds) into kind, x and y: the numbers instantCentrePath gives. `scratch` needs
+ * IC_SCRATCH_LENGTH numbers.
+ */
+export function instantCentrePathInto(
+  plan: Plan,
+  bodyA: number,
+  bodyB: number,
+  poses: Float64Array,
+  rates: Float64Array,
+  count: number,
+  kind: Uint8Array,
+  x: Float64Array,
+  y: Float64Array,
+  scratch: Float64Array,
+): void {
+  const pin = sharedPin(plan, bodyA, bodyB);
+  const stride = 2 * plan.slotCount;
+  for (let k = 0; k < count; k++) {
+    const offset = k * stride;
+    // As centreAtPose: the frame in scratch[4..7], read before the centre overwrites it.
+    if (pin < 0) frameInto(plan, poses, rates, offset, scratch, 4);
+    const code = instantCentreAt(plan, bodyA, bodyB, pin, poses, rates, offset, scratch, 4, scratch);
+    const placed = code === IC_FINITE || code === IC_INFINITE;
+    kind[k] = code;
+    x[k] = placed ? scratch[0] : Number.NaN;
+    y[k] = placed ? scratch[1] : Number.NaN;
+  }
+}
+
 /** Numbers per pose in a frame: the bounding box's centre (x, y) and diagonal, and the greatest slot speed. */
 const FRAME_LENGTH = 4;
 
@@ -183,22 +216,27 @@ function frameInto(plan: Plan, poses: Float64Array, rates: Float64Array, offset:
   let minY = Infinity;
   let maxX = -Infinity;
   let maxY = -Infinity;
-  let speed = 0;
+  // Squared speeds, one square root at the end: this runs per slot and per step of a path.
+  let speed2 = 0;
   for (let s = 0; s < plan.slotCount; s++) {
     const px = poses[offset + 2 * s];
     const py = poses[offset + 2 * s + 1];
-    const v = Math.hypot(rates[offset + 2 * s], rates[offset + 2 * s + 1]);
-    if (!(Number.isFinite(px) && Number.isFinite(py) && Number.isFinite(v))) continue;
+    const vx = rates[offset + 2 * s];
+    const vy = rates[offset + 2 * s + 1];
+    if (!(Number.isFinite(px) && Number.isFinite(py) && Number.isFinite(vx) && Number.isFinite(vy))) continue;
     if (px < minX) minX = px;
     if (px > maxX) maxX = px;
     if (py < minY) minY = py;
     if (py > maxY) maxY = py;
-    if (v > speed) speed = v;
+    const v2 = vx * vx + vy * vy;
+    if (v2 > speed2) speed2 = v2;
   }
+  const w = maxX - minX;
+  const h = maxY - minY;
   frames[f] = 0.5 * (minX + maxX);
   frames[f + 1] = 0.5 * (minY + maxY);
-  frames[f + 2] = Math.hypot(maxX - minX, maxY - minY);
-  frames[f + 3] = speed;
+  frames[f + 2] = Math.sqrt(w * w + h * h);
+  frames[f + 3] = Math.sqrt(speed2);
 }
 
 /** The centre of bodies a and b in one pose (offset 0), its frame and shared pin found here; see `instantCentreInto`. */
@@ -244,7 +282,7 @@ function instantCentreAt(
   const dOmega = out[2] - out[5];
   const dvx = out[3] - out[6];
   const dvy = out[4] - out[7];
-  const dv = Math.hypot(dvx, dvy);
+  const dv = Math.sqrt(dvx * dvx + dvy * dvy);
   const turn = Math.abs(dOmega) * size;
   if (!(dv + turn > STILL_MOTION_REL_TOL * speed)) return IC_INDETERMINATE;
   if (turn <= INFINITE_CENTRE_REL_TOL * dv) {

@@ -20,8 +20,7 @@ import {
   type LayoutKind,
   type ValidBicycle,
 } from '../../suspension';
-import { RUN_SCRATCH_LENGTH, upperRunInto, wrappedRunLengthMm } from '../../suspension/chain';
-import { createCurves, fillCurveSteps, type CurveContext, type SuspensionCurves } from '../../suspension/curves';
+import { chainAtFullExtensionInto, createChain0, createCurves, createCurveScratch, fillCurveSteps, type CurveContext, type SuspensionCurves } from '../../suspension/curves';
 import type { SuspensionKeepOut, SuspensionProblem } from '../suspensionProblem';
 
 /** Violation slots of a suspension design; each normalised (~1 = badly broken). */
@@ -153,13 +152,10 @@ export function createSuspensionResponse(problem: SuspensionProblem, kind: Layou
     ringRadiusMm,
     axleX0: axle.x,
     axleY0: axle.y,
-    wrapped0: new Float64Array(cogTeeth.length),
+    chain0: createChain0(cogTeeth.length),
     bodyDx0: 0,
     bodyDy0: 0,
-    runScratch: new Float64Array(RUN_SCRATCH_LENGTH),
-    centreScratch: new Float64Array(3),
-    poseScratch: new Float64Array(stride),
-    rateScratch: new Float64Array(stride),
+    scratch: createCurveScratch(plan, steps),
   };
   const curves = createCurves(steps, cogTeeth.length, false, false, cogTeeth);
   const sw = { values: new Float64Array(steps), poses: new Float64Array(steps * stride), rates: new Float64Array(steps * stride) };
@@ -229,7 +225,7 @@ export function createSuspensionResponse(problem: SuspensionProblem, kind: Layou
   }
 
   /**
-   * The kernel's full-extension state: axle, body direction, wrapped run per cog. Its own
+   * The kernel's full-extension state: axle, body direction, the chain per cog. Its own
    * small function, so the calls with doubles inside are inlined (a call V8 does not
    * inline boxes each double it passes).
    */
@@ -241,11 +237,7 @@ export function createSuspensionResponse(problem: SuspensionProblem, kind: Layou
     ctx.axleRefAt = farthestFromAxle();
     ctx.bodyDx0 = reference[ctx.axleRefAt] - ax0;
     ctx.bodyDy0 = reference[ctx.axleRefAt + 1] - ay0;
-    const run = ctx.runScratch;
-    for (let c = 0; c < cogRadiusMm.length; c++) {
-      const r = cogRadiusMm[c];
-      ctx.wrapped0[c] = upperRunInto(ax0, ay0, r, 0, 0, ringRadiusMm, run) ? wrappedRunLengthMm(run, r, ringRadiusMm) : Number.NaN;
-    }
+    chainAtFullExtensionInto(ax0, ay0, cogRadiusMm, ringRadiusMm, ctx.chain0, ctx.scratch.run);
   }
 
   function keepOutDepth(reached: number): number {
