@@ -9,7 +9,7 @@
  */
 import type { OptimizerConfig, OptimizerState } from '../src/core/optimize';
 import type { LayoutKind } from '../src/core/suspension';
-import type { CandidateReport, FamilyId, SuspensionCandidateReport } from '../src/core/synthesis';
+import type { CandidateReport, FamilyId, LegCandidateReport, SuspensionCandidateReport } from '../src/core/synthesis';
 import type { TestFunctionName } from './testFunctionNames';
 
 export type Failure = { readonly ok: false; readonly reason: string };
@@ -95,6 +95,7 @@ export interface IslandInfo {
 export type CandidateDetail =
   | { readonly kind: 'synthesis'; readonly candidate: CandidateReport }
   | { readonly kind: 'suspension'; readonly candidate: SuspensionCandidateReport }
+  | { readonly kind: 'leg'; readonly candidate: LegCandidateReport }
   | {
       readonly kind: 'test-function';
       readonly name: TestFunctionName;

@@ -1,11 +1,11 @@
 /**
  * What an island evaluates, built from the plain `ObjectiveSpec` that crosses the
- * worker boundary: a synthesis problem (the problem file's JSON, of either kind, and a
+ * worker boundary: a synthesis problem (the problem file's JSON, of any kind, and a
  * family or layout) or a published test function.
  */
 import { parseSynthesisProblemFile } from '../src/core/io/problem';
 import { LAYOUT_KINDS, type LayoutKind } from '../src/core/suspension';
-import { createObjective, FAMILY_IDS, isSuspensionProblem, type FamilyId } from '../src/core/synthesis';
+import { createObjective, FAMILY_IDS, isLegProblem, isSuspensionProblem, type FamilyId } from '../src/core/synthesis';
 import type { ObjectiveSpec } from './api';
 import type { SearchObjective } from './searchObjective';
 import { testFunctionObjective } from './testFunctions';
@@ -38,6 +38,13 @@ function synthesisObjective(problemFile: unknown, family: unknown): ObjectiveRes
     }
     const objective = createObjective(problem, family as LayoutKind);
     return searchObjective(objective, (x) => ({ kind: 'suspension', candidate: objective.describe(x) }));
+  }
+  if (isLegProblem(problem)) {
+    if (!(problem.families as readonly unknown[]).includes(family)) {
+      return { ok: false, reason: `family is ${JSON.stringify(family)}; expected one of the leg problem's families, ${problem.families.join(', ')}` };
+    }
+    const objective = createObjective(problem, problem.families[problem.families.indexOf(family as never)]);
+    return searchObjective(objective, (x) => ({ kind: 'leg', candidate: objective.describe(x) }));
   }
   if (!(FAMILY_IDS as readonly unknown[]).includes(family)) {
     return { ok: false, reason: `family is ${JSON.stringify(family)}; expected one of ${FAMILY_IDS.join(', ')}` };

@@ -24,6 +24,8 @@ import { numberOption, singleFile, type OptionSpec } from './args';
 import { EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { SUSPENSION_FILE_FORMAT, fileFormatOf } from '../core/io/suspensionFile';
 import { SUSPENSION_USAGE, analyzeSuspensionCommand } from './analyzeSuspension';
+import { LEG_USAGE, analyzeLegCommand } from './analyzeLeg';
+import { LEG_FILE_FORMAT } from '../core/io/legFile';
 import { formatJson } from './formatJson';
 import { MAX_INPUT_FILE_BYTES } from './nodeIo';
 
@@ -57,7 +59,8 @@ most ${MAX_ID_LENGTH} printable characters. At most ${MAX_LISTED_ISSUES} problem
 Exit codes: 0 done, 2 bad input (unreadable or too large file, not JSON, schema or
 compile errors, a limit above, bad flags), 1 an unexpected failure (a bug).
 
-${SUSPENSION_USAGE}`;
+${SUSPENSION_USAGE}
+${LEG_USAGE}`;
 
 const OPTIONS: readonly OptionSpec[] = [
   { name: 'from', kind: 'value' },
@@ -92,9 +95,11 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     io.stderr(`loci analyze: ${read.message}\n`);
     return EXIT_USAGE;
   }
-  if (fileFormatOf(read.text) === SUSPENSION_FILE_FORMAT) {
+  const format = fileFormatOf(read.text);
+  if (format === SUSPENSION_FILE_FORMAT) {
     return analyzeSuspensionCommand({ file, text: read.text, args: start.args, io, usageError });
   }
+  if (format === LEG_FILE_FORMAT) return analyzeLegCommand({ file, text: read.text, args: start.args, io, usageError });
   if (start.args.options.has('travel')) {
     return usageError('--travel is for a suspension file (format "loci-suspension"); a linkage file takes --from and --to');
   }

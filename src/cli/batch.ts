@@ -79,7 +79,7 @@ interface PreparedJob {
 }
 
 /** The problem JSON with only the job's families (or layouts); the families are checked against the problem's own. */
-function withFamilies(json: unknown, kind: 'path' | 'suspension', all: readonly string[], job: BatchJob): { ok: true; json: unknown } | { ok: false; message: string } {
+function withFamilies(json: unknown, kind: 'path' | 'suspension' | 'leg', all: readonly string[], job: BatchJob): { ok: true; json: unknown } | { ok: false; message: string } {
   if (job.families === undefined) return { ok: true, json };
   const unknown = job.families.filter((f) => !all.includes(f));
   if (unknown.length > 0) {

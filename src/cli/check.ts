@@ -8,6 +8,7 @@ import { MAX_LISTED_ISSUES } from '../core/io/schemaMessages';
 import { MAX_DIM } from '../core/optimize/config';
 import { MIN_TARGET_POINTS, createObjective, type Problem } from '../core/synthesis';
 import {
+  DEFAULT_TRANSMISSION_GUIDELINE_RAD,
   MAX_BOUND_MAGNITUDE,
   MAX_CONSTRAINT_MM,
   MAX_DRIVER_VALUE_RAD,
@@ -22,6 +23,8 @@ import { EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
 import { suspensionSearchSummary, suspensionSummaryText } from './suspensionResults';
+import { legSearchSummary, legSummaryText } from './legResults';
+import { GAIT_CAUTION } from '../core/gait';
 import { SUSPENSION_CAUTION } from '../core/suspension';
 
 const count = (n: number) => n.toLocaleString('en-GB');
@@ -33,6 +36,11 @@ search: the target, timing, placement, measure and constraints, and for each fam
 its variables with their bounds. A file with issues gets one line per issue, naming
 the field, on stderr (the first ${MAX_LISTED_ISSUES}, then a count of the rest), and exit
 code 2. A file \`check\` accepts, \`fit\` accepts too.
+
+A leg problem ("kind": "leg") is summarised with its ground line and stance tolerance,
+the crank's and the walking direction, its gait targets, its keep-out circles and each
+family's variables (the foot is each family's point P), with the caution for walking
+machines.
 
 Limits (each refused with the field and the limit):
   file             at most ${count(MAX_PROBLEM_FILE_CHARS / 1000)} kB
@@ -93,6 +101,13 @@ function constraintsText(problem: Problem): string {
   if (c.linkLengthMm !== undefined) parts.push(`link lengths ${c.linkLengthMm[0]} to ${c.linkLengthMm[1]} mm`);
   if (c.keepOut !== undefined && c.keepOut.length > 0) parts.push(`${c.keepOut.length} keep-out circle${c.keepOut.length > 1 ? 's' : ''}`);
   if (c.branch !== undefined) parts.push(`branch ${c.branch}`);
+  if (c.maxSizeMm !== undefined) parts.push(`motion at most ${c.maxSizeMm} mm wide and high`);
+  const t = problem.terms;
+  if (t?.sizeWeight !== undefined && t.sizeWeight > 0) parts.push(`size weighted ${t.sizeWeight}`);
+  if (t?.transmissionWeight !== undefined && t.transmissionWeight > 0) {
+    const guideline = ((t.transmissionGuidelineRad ?? DEFAULT_TRANSMISSION_GUIDELINE_RAD) * 180) / Math.PI;
+    parts.push(`transmission outside ${guideline.toFixed(1)}°–${(180 - guideline).toFixed(1)}° weighted ${t.transmissionWeight}`);
+  }
   return parts.length === 0 ? 'none beyond the variable bounds' : parts.join('; ');
 }
 
@@ -140,6 +155,14 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
       : suspensionSummaryText(file, p, layouts));
     return EXIT_OK;
   }
+  if (read.problem.kind === 'leg') {
+    const p = read.problem;
+    const families = legSearchSummary(p);
+    io.stdout(start.args.options.has('json')
+      ? `${formatJson({ file, valid: true, kind: 'leg', name: p.name, leg: p.leg, steps: p.steps, targets: p.targets, keepOut: p.keepOut, families, caution: GAIT_CAUTION })}\n`
+      : legSummaryText(file, p, families));
+    return EXIT_OK;
+  }
   const families = searchSummary(read.problem);
   if (start.args.options.has('json')) {
     const p = read.problem;
@@ -153,6 +176,7 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
         placement: p.placement,
         measure: p.measure,
         constraints: p.constraints,
+        ...(p.terms === undefined ? {} : { terms: p.terms }),
         families,
       })}\n`,
     );

@@ -9,6 +9,7 @@
  */
 import { resolve } from 'node:path';
 import { toLinkageFile } from '../core/io/linkageFile';
+import { GAIT_CAUTION } from '../core/gait';
 import type { CandidateReport, SynthesisProblem } from '../core/synthesis';
 import {
   createRun,
@@ -27,6 +28,7 @@ import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './c
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
 import { suspensionCandidateJson } from './suspensionResults';
+import { legCandidateJson } from './legResults';
 
 /** Evaluations per family when neither --evals nor --seconds is given. */
 export const DEFAULT_EVALUATIONS_PER_FAMILY = 50_000;
@@ -61,6 +63,13 @@ and writes, for each candidate, its pivots, terms, figures at sag and its linkag
 full extension, with the best of each layout beside the top K. Loci computes
 kinematics only: a frame must be checked by a qualified engineer, physically tested
 and meet the ISO 4210 series before anyone rides it.
+
+A leg problem ("kind": "leg") searches its families for a walking leg (the foot is
+each family's point P, the crank turning fully) and writes, for each candidate, its
+terms, the figures the search scored, its gait figures and its leg file (format
+"loci-leg": \`loci analyze\` of it prints the same gait figures), with the best of each
+family beside the top K. Loci computes kinematics only: a walking machine that carries
+people or loads must be checked by a qualified engineer and physically tested.
 
   --seed N         seed of the search, a whole number ≥ 0 (default ${DEFAULT_SEED}).
   --evals N        evaluation budget of the whole search (default ${DEFAULT_EVALUATIONS_PER_FAMILY.toLocaleString('en-GB')} per family).
@@ -217,7 +226,7 @@ function runInput(problemFile: unknown, problem: SynthesisProblem, s: FitSetting
 }
 
 function unitOf(problem: SynthesisProblem): string {
-  if (problem.kind === 'suspension') return '(weighted, normalised)';
+  if (problem.kind !== 'path') return '(weighted, normalised)';
   return problem.measure === 'sum-of-squares' ? 'mm²' : 'mm';
 }
 
@@ -251,6 +260,7 @@ function motionJson(report: CandidateReport) {
 
 function candidateJson(c: RankedCandidate, problem: SynthesisProblem) {
   if (c.detail.kind === 'suspension') return suspensionCandidateJson(c.rank, problem.name, c.detail.candidate);
+  if (c.detail.kind === 'leg') return legCandidateJson(c.rank, problem.name, c.detail.candidate);
   if (c.detail.kind !== 'synthesis') throw new Error('fit: a synthesis run described a candidate of another kind');
   const report: CandidateReport = c.detail.candidate;
   return {
@@ -368,7 +378,7 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
   if (evaluations !== null && evaluations < islandCount) {
     return usageError(`--evals: ${evaluations} is fewer than one evaluation per island (${families.length} families × ${read.value.islands} islands)`);
   }
-  const settings: FitSettings = { ...read.value, evaluations, bestOfEachJob: problem.kind === 'suspension' };
+  const settings: FitSettings = { ...read.value, evaluations, bestOfEachJob: problem.kind !== 'path' };
   const unusable = await checkTargets(settings);
   if (unusable !== null) {
     io.stderr(`loci fit: ${unusable}\n`);
@@ -426,7 +436,7 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
   const output = {
     format: FIT_RESULT_FORMAT,
     version: FIT_RESULT_VERSION,
-    problem: { file: settings.file, name: problem.name, kind: problem.kind, measure: problem.kind === 'suspension' ? 'weighted, normalised terms' : problem.measure, unit },
+    problem: { file: settings.file, name: problem.name, kind: problem.kind, measure: problem.kind === 'path' ? problem.measure : 'weighted, normalised terms', unit },
     search: {
       seed: settings.seed,
       budget: { evaluations: settings.evaluations, seconds: settings.seconds },
@@ -448,6 +458,9 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     // Each layout's best rank (null: the layout gave no candidate at all).
     ...(problem.kind === 'suspension'
       ? { bestRankOfEachLayout: Object.fromEntries(families.map((f) => [f, (result.candidates ?? []).find((c) => c.jobId === f)?.rank ?? null])) }
+      : {}),
+    ...(problem.kind === 'leg'
+      ? { bestRankOfEachFamily: Object.fromEntries(families.map((f) => [f, (result.candidates ?? []).find((c) => c.jobId === f)?.rank ?? null])), caution: GAIT_CAUTION }
       : {}),
   };
   const text = `${formatJson(output)}\n`;

@@ -151,7 +151,7 @@ describe('from the project to the engine', () => {
     const project: Project = {
       ...demo,
       target: { ...demo.target, timing: 'prescribed' },
-      settings: { ...demo.settings, constraints: { fullTurnCrank: true, minTransmissionDeg: 30, linkLengthMm: [5, 400], keepOut: [{ x: 50, y: 50, r: 10 }] } },
+      settings: { ...demo.settings, constraints: { fullTurnCrank: true, minTransmissionDeg: 30, linkLengthMm: [5, 400], keepOut: [{ x: 50, y: 50, r: 10 }], maxSizeSpans: null } },
     };
     const parsed = parseProblemFile(JSON.parse(JSON.stringify(problemFileOf(project))));
     expect(parsed.ok).toBe(true);

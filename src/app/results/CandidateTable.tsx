@@ -4,7 +4,7 @@
  * search refreshes every second stays cheap.
  */
 import { memo, type Dispatch, type ReactNode } from 'react';
-import { defectsLabel, grashofLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
+import { GUIDELINE_HIGH_DEG, GUIDELINE_LOW_DEG, defectsLabel, grashofLabel, outsideGuidelineLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
 import { familyName, formatDegRange, formatMmValue, formatSize } from './format';
 import { TABLE_STEPS } from './motion';
 import { useLazyMotion } from './motionStore';
@@ -25,7 +25,11 @@ const COLUMNS: readonly Column[] = [
   { key: 'rms', label: 'RMS error (mm)' },
   { key: 'max', label: 'Max. error (mm)' },
   { key: 'grashof', label: 'Grashof class' },
-  { key: 'transmission', label: 'Transmission angle (deg)', title: 'Least and greatest over the motion; sorted by the worse distance from 90°' },
+  {
+    key: 'transmission',
+    label: 'Transmission angle (deg)',
+    title: `Least and greatest over the motion; sorted by the worse distance from 90°. Rows outside ${GUIDELINE_LOW_DEG}°–${GUIDELINE_HIGH_DEG}° (common practice) are marked.`,
+  },
   { key: 'size', label: 'Size (mm)', title: 'Bounding box of the linkage over its motion, width × height' },
   { key: 'defects', label: 'Defects' },
   { key: null, label: 'Compare' },
@@ -155,7 +159,7 @@ const CandidateRowView = memo(function CandidateRowView({ row, target, selected,
       <td className="results-num">{formatMmValue(candidate.error.rmsMm)}</td>
       <td className="results-num">{formatMmValue(candidate.error.maxMm)}</td>
       <td>{grashofLabel(candidate, motion)}</td>
-      <td className="results-num">{motion === undefined ? '…' : formatDegRange(transmissionRangeDeg(candidate, motion))}</td>
+      <td className="results-num">{motion === undefined ? '…' : <TransmissionCell range={transmissionRangeDeg(candidate, motion)} />}</td>
       <td className="results-num">{motion === undefined ? '…' : sizeCell(sizeOverMotionMm(candidate, motion))}</td>
       <td className="results-defects">{defectsLabel(candidate)}</td>
       <td onClick={(event) => event.stopPropagation()}>
@@ -177,6 +181,21 @@ const CandidateRowView = memo(function CandidateRowView({ row, target, selected,
     </tr>
   );
 }, sameRow);
+
+/** The range, and in words where it leaves the common guideline (never colour alone). */
+function TransmissionCell({ range }: { range: { min: number; max: number } | undefined }) {
+  const outside = outsideGuidelineLabel(range);
+  return (
+    <>
+      {formatDegRange(range)}
+      {outside !== null && (
+        <span className="results-badge results-badge-guideline" data-testid="transmission-outside">
+          {outside}
+        </span>
+      )}
+    </>
+  );
+}
 
 function sizeCell(size: { widthMm: number; heightMm: number } | undefined): string {
   return size === undefined ? '—' : formatSize(size, false);

@@ -7,7 +7,7 @@ import { useEffect, useMemo, useState } from 'react';
 import type { CandidateReport } from '../../core/synthesis';
 import { KINEMATICS_ONLY_CAUTION } from './export';
 import { ExportPanel } from './ExportPanel';
-import { defectsLabel, grashofLabel, referencePoseLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
+import { defectsLabel, grashofLabel, outsideGuidelineLabel, referencePoseLabel, sizeOverMotionMm, transmissionRangeDeg } from './figures';
 import { familyName, formatDegRange, formatDriver, formatMm, formatMmValue, formatSize } from './format';
 import { DETAIL_STEPS, createSolveScratch, driverDisplayValue, driverFromDisplayValue, solveAt, type CandidateMotion } from './motion';
 import { useMotionNow } from './motionStore';
@@ -111,6 +111,8 @@ function DetailBody({ candidate, rank, target, motion }: { candidate: CandidateR
 function Figures({ candidate, motion }: { candidate: CandidateReport; motion: CandidateMotion }) {
   const result = { ok: true as const, motion };
   const unit = motion.driver.unit;
+  const transmission = transmissionRangeDeg(candidate, result);
+  const outside = outsideGuidelineLabel(transmission);
   return (
     <>
       <dl className="results-figures">
@@ -118,7 +120,11 @@ function Figures({ candidate, motion }: { candidate: CandidateReport; motion: Ca
         <dt>Max. error</dt><dd>{formatMm(candidate.error.maxMm)}</dd>
         <dt>Sum of squared errors</dt><dd>{formatMmValue(candidate.error.sumSquares)} mm²</dd>
         <dt>Grashof class</dt><dd>{grashofLabel(candidate, result)}</dd>
-        <dt>Transmission angle</dt><dd>{formatDegRange(transmissionRangeDeg(candidate, result))}</dd>
+        <dt>Transmission angle</dt>
+        <dd>
+          {formatDegRange(transmission)}
+          {outside !== null && ` (${outside}, the common guideline)`}
+        </dd>
         <dt>Size over the motion</dt><dd>{formatSize(sizeOverMotionMm(candidate, result) ?? motion.sizeMm)}</dd>
         <dt>Motion</dt>
         <dd>

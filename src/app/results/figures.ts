@@ -4,6 +4,7 @@
  */
 import type { GrashofCondition } from '../../core/linkage/analysis';
 import type { CandidateReport } from '../../core/synthesis';
+import { TRANSMISSION_GUIDELINE_DEG } from '../../core/linkage/report';
 import type { CandidateMotion, MotionResult } from './motion';
 
 /** Moving bodies of a four-bar or slider-crank (the frame is no body of the file); a six-bar has five. */
@@ -74,6 +75,20 @@ export function motionTransmissionDeg(motion: CandidateMotion): { min: number; m
     }
   }
   return max >= min ? { min, max } : undefined;
+}
+
+/** The transmission guideline the table marks rows by, degrees: 40° to 140° (common practice), as `loci analyze` reports it. */
+export const GUIDELINE_LOW_DEG = TRANSMISSION_GUIDELINE_DEG.min;
+export const GUIDELINE_HIGH_DEG = TRANSMISSION_GUIDELINE_DEG.max;
+
+/** Words for a transmission range that leaves the guideline ("below 40°", "above 140°", or both), or null within it. */
+export function outsideGuidelineLabel(range: { readonly min: number; readonly max: number } | undefined): string | null {
+  if (range === undefined) return null;
+  const low = range.min < GUIDELINE_LOW_DEG;
+  const high = range.max > GUIDELINE_HIGH_DEG;
+  if (!low && !high) return null;
+  const where = low && high ? `below ${GUIDELINE_LOW_DEG}° and above ${GUIDELINE_HIGH_DEG}°` : low ? `below ${GUIDELINE_LOW_DEG}°` : `above ${GUIDELINE_HIGH_DEG}°`;
+  return `outside ${GUIDELINE_LOW_DEG}°–${GUIDELINE_HIGH_DEG}°: ${where}`;
 }
 
 export function defectsLabel(candidate: CandidateReport): string {

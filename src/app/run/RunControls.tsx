@@ -51,7 +51,7 @@ export function RunControls({ startIssues }: { startIssues: readonly string[] })
   const active = isActive(run.status);
   const since = useSecondsSince(active ? (run.checkpoint?.savedAtMs ?? null) : null);
   const done = fractionDone(run);
-  const errorLabel = run.measure === 'max' ? 'best largest error' : 'best RMS error';
+  const errorLabel = `${run.measure === 'max' ? 'best largest error' : 'best RMS error'}${run.withTerms ? ' with the weighted terms' : ''}`;
 
   return (
     <section className="panel run-panel" aria-label="Search">

@@ -17,12 +17,24 @@ export interface ArchivedDesign {
   readonly violation: number;
 }
 
-/** The `count` best designs of all jobs' archives, best first; ties keep job order. */
-export function bestArchived(payload: Pick<CheckpointPayload, 'archive'>, count: number): ArchivedDesign[] {
+/**
+ * The `count` best designs of all jobs' archives, then each job's `perJob` best that
+ * those left out (so a family another one outranks still shows), in the order of the
+ * whole pool, best first; ties keep job order.
+ */
+export function bestArchived(payload: Pick<CheckpointPayload, 'archive'>, count: number, perJob = 0): ArchivedDesign[] {
   const pool = payload.archive.flatMap((job, jobIndex) => job.entries.map((e) => ({ jobIndex, x: e.x, value: e.value, violation: e.violation })));
   pool.sort((a, b) => (precedes(a.value, a.violation, b.value, b.violation) ? -1 : precedes(b.value, b.violation, a.value, a.violation) ? 1 : a.jobIndex - b.jobIndex));
-  return pool.slice(0, count);
+  const taken = payload.archive.map(() => 0);
+  return pool.filter((d, k) => {
+    const keep = k < count || taken[d.jobIndex] < perJob;
+    taken[d.jobIndex]++;
+    return keep;
+  });
 }
+
+/** Designs of each family the table shows while a search runs, beside the overall best. */
+export const INTERIM_PER_FAMILY = 1;
 
 /** The newest checkpoint in a store that reads back whole, or null. */
 export async function newestReadable(store: CheckpointStore): Promise<CheckpointPayload | null> {
@@ -71,7 +83,7 @@ export class InterimDescriber {
 
   /** The best designs of a checkpoint described, best first; null when the engine could not describe them. */
   private async describe(payload: CheckpointPayload): Promise<CandidateReport[] | null> {
-    const best = bestArchived(payload, this.count);
+    const best = bestArchived(payload, this.count, INTERIM_PER_FAMILY);
     const byJob = new Map<number, ArchivedDesign[]>();
     for (const design of best) byJob.set(design.jobIndex, [...(byJob.get(design.jobIndex) ?? []), design]);
     const described = new Map<ArchivedDesign, CandidateReport>();

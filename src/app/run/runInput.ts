@@ -6,6 +6,7 @@
 import { defineRun, type RunInput } from '../../engine';
 import { PROBLEM_FILE_FORMAT, PROBLEM_FILE_VERSION } from '../../core/io/problem';
 import { createProblem, type ProblemInput, type ProblemIssue } from '../../core/synthesis';
+import { targetFrame } from '../../core/synthesis/encoding';
 import { familyLabel, type FamilyId } from '../state/families';
 import type { Project } from '../state/project';
 import { hasWeights } from '../state/target';
@@ -17,9 +18,15 @@ export const CHECKPOINT_EVERY_MS = 10_000;
 
 const DEG = Math.PI / 180;
 
+/** The target's span (the larger side of its bounding box), mm: what the size limit's multiple is of. */
+export function targetSpanMm(points: readonly { readonly x: number; readonly y: number }[]): number {
+  return targetFrame(Float64Array.from(points.flatMap((p) => [p.x, p.y]))).size;
+}
+
 export function problemInputOf(project: Project): ProblemInput {
   const { target, settings } = project;
   const c = settings.constraints;
+  const terms = settings.terms;
   const timing: ProblemInput['timing'] =
     target.timing === 'prescribed'
       ? { mode: 'prescribed', driverValues: target.points.map((p) => (p.driverDeg ?? 0) * DEG) }
@@ -42,7 +49,11 @@ export function problemInputOf(project: Project): ProblemInput {
       ...(c.minTransmissionDeg === null ? {} : { minTransmissionRad: c.minTransmissionDeg * DEG }),
       ...(c.linkLengthMm === null ? {} : { linkLengthMm: [c.linkLengthMm[0], c.linkLengthMm[1]] as const }),
       ...(c.keepOut.length === 0 ? {} : { keepOut: c.keepOut.map((k) => ({ x: k.x, y: k.y, r: k.r })) }),
+      ...(c.maxSizeSpans === null || target.points.length === 0 ? {} : { maxSizeMm: c.maxSizeSpans * targetSpanMm(target.points) }),
     },
+    ...(terms.sizeWeight > 0 || terms.transmissionWeight > 0
+      ? { terms: { sizeWeight: terms.sizeWeight, transmissionWeight: terms.transmissionWeight, transmissionGuidelineRad: terms.transmissionGuidelineDeg * DEG } }
+      : {}),
     measure: settings.measure,
   };
 }
@@ -88,6 +99,10 @@ function placeOf(path: string): string {
   if (circle !== null) return `Keep-out region ${Number(circle[1]) + 1}`;
   if (path.startsWith('constraints.minTransmission')) return 'Minimum transmission angle';
   if (path.startsWith('constraints.linkLength')) return 'Link lengths';
+  if (path.startsWith('constraints.maxSize')) return 'Largest size';
+  if (path.startsWith('terms.sizeWeight')) return 'Size weight';
+  if (path.startsWith('terms.transmissionWeight')) return 'Transmission weight';
+  if (path.startsWith('terms.transmissionGuideline')) return 'Transmission guideline';
   if (path.startsWith('target')) return 'Target path';
   return 'Search settings';
 }

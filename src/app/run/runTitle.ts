@@ -15,7 +15,7 @@ function shareDone(run: RunState): number | null {
 
 function bestText(run: RunState): string | null {
   if (run.bestErrorMm === null || !Number.isFinite(run.bestErrorMm)) return null;
-  return `${run.bestErrorMm.toFixed(3)} mm${run.bestFeasible === false ? ' (infeasible)' : ''}`;
+  return `${run.bestErrorMm.toFixed(3)} mm${run.withTerms ? ' with terms' : ''}${run.bestFeasible === false ? ' (infeasible)' : ''}`;
 }
 
 export function runTitle(run: RunState): string {

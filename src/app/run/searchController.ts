@@ -15,14 +15,13 @@ import {
   type RunProgress,
   type RunResult,
 } from '../../engine';
-import { DEFAULT_RESULTS_PER_FAMILY } from '../../engine/runSpec';
 import type { CandidateReport } from '../../core/synthesis';
 import { isActive, snapshotTarget, type Project, type RunState, type TargetSnapshot } from '../state/project';
 import type { Store } from '../state/store';
 import { settingsProblem } from '../state/settings';
 import { targetProblem } from '../state/target';
 import { dropCheckpointsExcept, indexedDbCheckpointStore, type LociDb } from '../storage';
-import { CANDIDATES_SHOWN, buildRunInput } from './runInput';
+import { CANDIDATES_SHOWN, buildRunInput, problemFileOf } from './runInput';
 import { progressPatch } from './progress';
 import { InterimDescriber, newestReadable } from './interimCandidates';
 
@@ -134,7 +133,7 @@ export class SearchController {
       workers,
       store: this.checkpointStore(runId),
       topK: CANDIDATES_SHOWN,
-      perJob: DEFAULT_RESULTS_PER_FAMILY,
+      perJob: project.settings.resultsPerFamily,
       onCheckpoint: (payload) => describer.offer(payload),
     });
     if (!made.ok) {
@@ -161,6 +160,7 @@ export class SearchController {
       message: null,
       targetPointCount: project.target.points.length,
       measure: project.settings.measure,
+      withTerms: problemFileOf(project).terms !== undefined,
     });
     this.store.dispatch({ type: 'run/candidates', candidates: [], target: this.runTarget });
     if (this.deps.db !== null) await dropCheckpointsExcept(this.deps.db, [runId]).catch(() => {});
@@ -313,7 +313,7 @@ export class SearchController {
     const restored = await restoreRunFromStore(this.deps.env, store, {
       workers: project.settings.workers ?? this.deps.env.defaultWorkerCount(),
       topK: CANDIDATES_SHOWN,
-      perJob: DEFAULT_RESULTS_PER_FAMILY,
+      perJob: project.settings.resultsPerFamily,
       onCheckpoint: (payload) => describer.offer(payload),
     });
     if (!restored.ok) {

@@ -1,8 +1,9 @@
-/** The constraints: a full-turn crank, the minimum transmission angle, link length limits and keep-out circles. */
+/** The constraints: a full-turn crank, the minimum transmission angle, the size limit, link length limits and keep-out circles. */
 import { useState } from 'react';
-import { checkKeepOut, checkLinkLengths, checkMinTransmission, formatValue } from '../state/fields';
+import { targetSpanMm } from '../run/runInput';
+import { checkKeepOut, checkLinkLengths, checkMaxSizeSpans, checkMinTransmission, formatValue } from '../state/fields';
 import type { SearchSettings } from '../state/project';
-import { useDispatch } from '../state/store';
+import { useDispatch, useWorkspace } from '../state/store';
 import { FieldInput, NumberInput, useDraft, useFieldIssue } from './NumberInput';
 
 function LinkLengthFields({ range }: { range: SearchSettings['constraints']['linkLengthMm'] }) {
@@ -23,6 +24,31 @@ function LinkLengthFields({ range }: { range: SearchSettings['constraints']['lin
       <FieldInput text={from} label="Shortest link length (mm)" issueKey="link-lengths-from" message={checked.ok ? null : checked.lower} onText={setFrom} onDone={commit} /> to{' '}
       <FieldInput text={to} label="Longest link length (mm)" issueKey="link-lengths-to" message={checked.ok ? null : checked.upper} onText={setTo} onDone={commit} /> mm
       <span className="option-note">(both empty: no limit)</span>
+    </div>
+  );
+}
+
+/** The size limit, a multiple of the target's span, with what it is in mm for this target. */
+function MaxSizeField({ spans }: { spans: number | null }) {
+  const dispatch = useDispatch();
+  const spanMm = useWorkspace((s) => (s.project.target.points.length === 0 ? null : targetSpanMm(s.project.target.points)));
+  return (
+    <div className="field-row">
+      Largest size of the motion{' '}
+      <NumberInput
+        value={spans}
+        label="Largest size of the motion (multiple of the target's span)"
+        issueKey="max-size"
+        check={checkMaxSizeSpans}
+        format={formatValue}
+        onCommit={(value) => dispatch({ type: 'settings/max-size', spans: value })}
+      />{' '}
+      × the target's span
+      <span className="option-note">
+        {' '}
+        ({spans !== null && spanMm !== null ? `${formatValue(Number((spans * spanMm).toPrecision(4)))} mm for this target's ${formatValue(Number(spanMm.toPrecision(4)))} mm; ` : ''}the larger side of
+        the box every joint sweeps; empty: no limit)
+      </span>
     </div>
   );
 }
@@ -84,6 +110,7 @@ export function ConstraintFields({ constraints }: { constraints: SearchSettings[
         />{' '}
         ° <span className="option-note">(empty: none)</span>
       </div>
+      <MaxSizeField spans={constraints.maxSizeSpans} />
       <LinkLengthFields range={constraints.linkLengthMm} />
       <div className="keep-out-list">
         <p className="panel-note">Keep-out regions (no ground pivot inside): type a circle below, or draw one with the "Keep-out region" tool.</p>

@@ -2,7 +2,7 @@
 import { memo, useId } from 'react';
 import { islandsPerFamily } from '../run/runInput';
 import { FAMILY_CHOICES } from '../state/families';
-import { checkEvaluations, checkSeconds, checkSeed } from '../state/fields';
+import { MAX_RESULTS_PER_FAMILY, checkEvaluations, checkResultsPerFamily, checkSeconds, checkSeed } from '../state/fields';
 import { isLocked, type Measure } from '../state/project';
 import { MAX_WORKERS } from '../state/settings';
 import { useDispatch, useWorkspace } from '../state/store';
@@ -10,6 +10,7 @@ import { BoundsEditor } from './BoundsEditor';
 import type { FamilyBounds } from './boundRegions';
 import { ConstraintFields } from './ConstraintFields';
 import { NumberInput } from './NumberInput';
+import { ObjectiveTermFields } from './ObjectiveTermFields';
 import { SetAsideNotice } from './SetAsideNotice';
 
 const MEASURES: readonly { measure: Measure; label: string }[] = [
@@ -85,6 +86,8 @@ const SettingsFields = memo(function SettingsFields({ defaultWorkers, familyBoun
 
       <ConstraintFields constraints={constraints} />
 
+      <ObjectiveTermFields terms={settings.terms} />
+
       <BoundsEditor familyBounds={familyBounds} />
 
       <fieldset>
@@ -136,6 +139,17 @@ const SettingsFields = memo(function SettingsFields({ defaultWorkers, familyBoun
             ))}
           </select>
         </label>
+      </div>
+      <div className="field-row">
+        Keep{' '}
+        <NumberInput
+          value={settings.resultsPerFamily}
+          label="Designs kept per family"
+          issueKey="results-per-family"
+          check={checkResultsPerFamily}
+          onCommit={(count) => dispatch({ type: 'settings/results-per-family', count })}
+        />{' '}
+        designs of each family <span className="option-note">(1 to {MAX_RESULTS_PER_FAMILY}, the most a search keeps)</span>
       </div>
     </>
   );

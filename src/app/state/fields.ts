@@ -4,8 +4,8 @@
  * limits are the ones the engine and the problem reader apply (src/engine/runSpec.ts,
  * src/core/synthesis/problem.ts), so a value a field accepts is one a search accepts.
  */
-import { MAX_BOUND_MAGNITUDE, MAX_CONSTRAINT_MM } from '../../core/synthesis/problem';
-import { MAX_BUDGET_EVALUATIONS, MAX_BUDGET_SECONDS } from '../../engine/runSpec';
+import { MAX_BOUND_MAGNITUDE, MAX_CONSTRAINT_MM, MAX_TERM_WEIGHT } from '../../core/synthesis/problem';
+import { DEFAULT_ARCHIVE, MAX_BUDGET_EVALUATIONS, MAX_BUDGET_SECONDS } from '../../engine/runSpec';
 
 export type Checked<T> = { readonly ok: true; readonly value: T } | { readonly ok: false; readonly message: string };
 
@@ -101,6 +101,59 @@ export function checkMinTransmission(text: string): Checked<number | null> {
   if (!(value >= 0)) return fail(`${field}: ${shown}° is below 0°; expected ${expected}.`);
   if (!(value <= MAX_TRANSMISSION_DEG)) return fail(`${field}: ${shown}° is above ${MAX_TRANSMISSION_DEG}° (a transmission angle is at most a right angle); expected ${expected}.`);
   return { ok: true, value };
+}
+
+/** Most target spans a size limit may be: the default boxes reach about 13 spans, so 1000 is far past any design. */
+export const MAX_SIZE_SPANS = 1000;
+
+/** Size limit as a multiple of the target's span; empty for none. Above 1: the motion holds the target. */
+export function checkMaxSizeSpans(text: string): Checked<number | null> {
+  const field = 'Largest size';
+  const expected = `a multiple of the target's span above 1 and at most ${formatCount(MAX_SIZE_SPANS)}, or empty for no limit`;
+  if (readDecimal(text).kind === 'empty') return { ok: true, value: null };
+  const n = numberOf(field, text, expected);
+  if (!n.ok) return n;
+  const { value, text: shown } = n.value;
+  if (!(value > 1)) return fail(`${field}: ${shown} × the span is not above 1 (the motion holds the target, so it is at least the target's span); expected ${expected}.`);
+  if (!(value <= MAX_SIZE_SPANS)) return fail(`${field}: ${shown} is more than ${formatCount(MAX_SIZE_SPANS)} spans; expected ${expected}.`);
+  return { ok: true, value };
+}
+
+/** A term's weight: 0 (no term) up to the problem's MAX_TERM_WEIGHT. */
+export function checkTermWeight(field: string, text: string): Checked<number> {
+  const expected = `a weight from 0 (no term) to ${formatCount(MAX_TERM_WEIGHT)}`;
+  const n = numberOf(field, text, expected);
+  if (!n.ok) return n;
+  const { value, text: shown } = n.value;
+  if (!(value >= 0)) return fail(`${field}: ${shown} is below 0; expected ${expected}.`);
+  if (!(value <= MAX_TERM_WEIGHT)) return fail(`${field}: ${shown} is more than ${formatCount(MAX_TERM_WEIGHT)}; expected ${expected}.`);
+  return { ok: true, value };
+}
+
+/** The transmission guideline, degrees: above 0°, at most 90°. */
+export function checkGuideline(text: string): Checked<number> {
+  const field = 'Transmission guideline';
+  const expected = `an angle above 0° and at most ${MAX_TRANSMISSION_DEG}° (common practice: 40°, so 40° to 140° cost nothing)`;
+  const n = numberOf(field, text, expected);
+  if (!n.ok) return n;
+  const { value, text: shown } = n.value;
+  if (!(value > 0)) return fail(`${field}: ${shown}° is not above 0°; expected ${expected}.`);
+  if (!(value <= MAX_TRANSMISSION_DEG)) return fail(`${field}: ${shown}° is above ${MAX_TRANSMISSION_DEG}°; expected ${expected}.`);
+  return { ok: true, value };
+}
+
+/** The most designs a family keeps: the run archive's capacity per family. */
+export const MAX_RESULTS_PER_FAMILY = DEFAULT_ARCHIVE.capacity;
+
+export function checkResultsPerFamily(text: string): Checked<number> {
+  return wholeInRange(
+    'Designs kept per family',
+    text,
+    1,
+    MAX_RESULTS_PER_FAMILY,
+    `a whole number from 1 to ${MAX_RESULTS_PER_FAMILY} (the most a search keeps of each family)`,
+    'too few',
+  );
 }
 
 /** What a pair of fields says: both values, or a message for either side (or both). */

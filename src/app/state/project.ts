@@ -79,7 +79,18 @@ export interface SearchSettings {
     /** Link length limits, mm; null for none. */
     readonly linkLengthMm: readonly [number, number] | null;
     readonly keepOut: readonly KeepOutRegion[];
+    /** Largest side of the motion's bounding box, as a multiple of the target's span; null for no limit. */
+    readonly maxSizeSpans: number | null;
   };
+  /** Objective terms added to the measure (core ObjectiveTerms); a weight of 0 is no term. */
+  readonly terms: {
+    readonly sizeWeight: number;
+    readonly transmissionWeight: number;
+    /** Transmission angles within [guideline, 180° − guideline] cost nothing, degrees. */
+    readonly transmissionGuidelineDeg: number;
+  };
+  /** Designs each family keeps and the results table can show (at most the run archive's capacity). */
+  readonly resultsPerFamily: number;
   readonly budget: { readonly mode: 'evaluations' | 'time'; readonly evaluations: number; readonly seconds: number };
   readonly seed: number;
   /** Search workers; null for the machine's default (cores − 1, at least 1). */
@@ -112,6 +123,8 @@ export interface RunState {
   readonly messageDetail: string | null;
   /** Number of target points the run was started with (to turn a sum of squares into RMS). */
   readonly targetPointCount: number;
+  /** The search weighs size or transmission on top of the error: its best value is then the error plus those terms. */
+  readonly withTerms: boolean;
   readonly measure: Measure;
 }
 
@@ -172,6 +185,7 @@ export const IDLE_RUN: RunState = {
   message: null,
   messageDetail: null,
   targetPointCount: 0,
+  withTerms: false,
   measure: 'rms',
 };
 

@@ -90,6 +90,9 @@ export type Action =
   | { readonly type: 'settings/budget'; readonly patch: Partial<Project['settings']['budget']> }
   | { readonly type: 'settings/seed'; readonly seed: number }
   | { readonly type: 'settings/workers'; readonly workers: number | null }
+  | { readonly type: 'settings/max-size'; readonly spans: number | null }
+  | { readonly type: 'settings/terms'; readonly patch: Partial<Project['settings']['terms']> }
+  | { readonly type: 'settings/results-per-family'; readonly count: number }
   | { readonly type: 'run/update'; readonly patch: Partial<RunState> }
   | { readonly type: 'run/candidates'; readonly candidates: readonly CandidateReport[]; readonly target: TargetSnapshot };
 
@@ -228,6 +231,12 @@ function reduceSettings(state: WorkspaceState, action: Action): WorkspaceState {
       return withSettings(state, S.setSeed(s, action.seed));
     case 'settings/workers':
       return withSettings(state, S.setWorkers(s, action.workers));
+    case 'settings/max-size':
+      return withSettings(state, S.setMaxSizeSpans(s, action.spans));
+    case 'settings/terms':
+      return withSettings(state, S.setTerms(s, action.patch));
+    case 'settings/results-per-family':
+      return withSettings(state, S.setResultsPerFamily(s, action.count));
     default:
       return state;
   }

@@ -3,18 +3,42 @@
  * when the value is one the fields refuse (src/app/state/fields.ts), keeps the settings
  * as they were: nothing is clamped, rounded or swapped here.
  */
+import { TRANSMISSION_GUIDELINE_DEG } from '../../core/linkage/report';
+import { DEFAULT_RESULTS_PER_FAMILY } from '../../engine/runSpec';
 import type { FamilyId } from './families';
-import { checkBounds, checkEvaluations, checkKeepOut, checkLinkLengths, checkMinTransmission, checkSeconds, checkSeed } from './fields';
+import {
+  checkBounds,
+  checkEvaluations,
+  checkGuideline,
+  checkKeepOut,
+  checkLinkLengths,
+  checkMaxSizeSpans,
+  checkMinTransmission,
+  checkResultsPerFamily,
+  checkSeconds,
+  checkSeed,
+  checkTermWeight,
+} from './fields';
 import type { KeepOutRegion, Measure, Placement, SearchSettings } from './project';
 
 export const MAX_WORKERS = 64;
+/**
+ * The default size limit, in target spans: five times the target's larger side. The
+ * default variable boxes reach about 13 spans; a linkage a few times its path's size is
+ * what a machine has room for, and five spans leaves the search room to fit.
+ */
+export const DEFAULT_MAX_SIZE_SPANS = 5;
+/** The transmission guideline's low end, degrees: 40°, so 40° to 140° (common practice). */
+export const DEFAULT_GUIDELINE_DEG = TRANSMISSION_GUIDELINE_DEG.min;
 
 export const DEFAULT_SETTINGS: SearchSettings = {
   families: ['fourbar'],
   placement: 'free',
   measure: 'rms',
   bounds: {},
-  constraints: { fullTurnCrank: true, minTransmissionDeg: null, linkLengthMm: null, keepOut: [] },
+  constraints: { fullTurnCrank: true, minTransmissionDeg: null, linkLengthMm: null, keepOut: [], maxSizeSpans: DEFAULT_MAX_SIZE_SPANS },
+  terms: { sizeWeight: 0, transmissionWeight: 1, transmissionGuidelineDeg: DEFAULT_GUIDELINE_DEG },
+  resultsPerFamily: DEFAULT_RESULTS_PER_FAMILY,
   budget: { mode: 'evaluations', evaluations: 20_000, seconds: 60 },
   seed: 1,
   workers: null,
@@ -62,6 +86,23 @@ export function setMinTransmission(settings: SearchSettings, deg: number | null)
 export function setLinkLengths(settings: SearchSettings, range: readonly [number, number] | null): SearchSettings {
   if (!checkLinkLengths(range === null ? '' : String(range[0]), range === null ? '' : String(range[1])).ok) return settings;
   return { ...settings, constraints: { ...settings.constraints, linkLengthMm: range === null ? null : [range[0], range[1]] } };
+}
+
+export function setMaxSizeSpans(settings: SearchSettings, spans: number | null): SearchSettings {
+  if (!checkMaxSizeSpans(spans === null ? '' : String(spans)).ok) return settings;
+  return { ...settings, constraints: { ...settings.constraints, maxSizeSpans: spans } };
+}
+
+export function setTerms(settings: SearchSettings, patch: Partial<SearchSettings['terms']>): SearchSettings {
+  if (patch.sizeWeight !== undefined && !checkTermWeight('Size weight', String(patch.sizeWeight)).ok) return settings;
+  if (patch.transmissionWeight !== undefined && !checkTermWeight('Transmission weight', String(patch.transmissionWeight)).ok) return settings;
+  if (patch.transmissionGuidelineDeg !== undefined && !checkGuideline(String(patch.transmissionGuidelineDeg)).ok) return settings;
+  return { ...settings, terms: { ...settings.terms, ...patch } };
+}
+
+export function setResultsPerFamily(settings: SearchSettings, count: number): SearchSettings {
+  if (!checkResultsPerFamily(String(count)).ok) return settings;
+  return { ...settings, resultsPerFamily: count };
 }
 
 /** A circle dragged out on the drawing is kept to 0.1 mm: the mouse gives no finer size the user meant. */

@@ -5,7 +5,10 @@
  */
 import { z } from 'zod';
 import type { CandidateReport } from '../../core/synthesis';
-import { MAX_WEIGHT } from '../../core/synthesis/problem';
+import { MAX_TERM_WEIGHT, MAX_WEIGHT } from '../../core/synthesis/problem';
+import { DEFAULT_RESULTS_PER_FAMILY } from '../../engine/runSpec';
+import { MAX_RESULTS_PER_FAMILY, MAX_SIZE_SPANS } from '../state/fields';
+import { DEFAULT_GUIDELINE_DEG } from '../state/settings';
 import { FAMILY_CHOICES, type FamilyId } from '../state/families';
 import { PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../state/project';
 import { storedSuspensionSchema } from '../suspension/stored';
@@ -46,7 +49,13 @@ const settings = z.object({
     minTransmissionDeg: finite.nullable(),
     linkLengthMm: range.nullable(),
     keepOut: z.array(z.object({ x: finite, y: finite, r: z.number().positive() })),
+    // Absent in projects saved before the size limit and terms: none, as they were searched.
+    maxSizeSpans: z.number().gt(1).max(MAX_SIZE_SPANS).nullable().default(null),
   }),
+  terms: z
+    .object({ sizeWeight: z.number().min(0).max(MAX_TERM_WEIGHT), transmissionWeight: z.number().min(0).max(MAX_TERM_WEIGHT), transmissionGuidelineDeg: z.number().gt(0).max(90) })
+    .default({ sizeWeight: 0, transmissionWeight: 0, transmissionGuidelineDeg: DEFAULT_GUIDELINE_DEG }),
+  resultsPerFamily: z.number().int().min(1).max(MAX_RESULTS_PER_FAMILY).default(DEFAULT_RESULTS_PER_FAMILY),
   budget: z.object({ mode: z.enum(['evaluations', 'time']), evaluations: z.number().int().positive(), seconds: z.number().positive() }),
   seed: z.number().int().min(0),
   workers: z.number().int().min(1).nullable(),
@@ -69,6 +78,8 @@ const run = z.object({
   // Absent in projects saved before runs kept a message's details apart.
   messageDetail: z.string().nullable().default(null),
   targetPointCount: z.number().int().min(0),
+  // Absent in projects saved before the size and transmission terms: none.
+  withTerms: z.boolean().default(false),
   measure: z.enum(['rms', 'sum-of-squares', 'max']),
 });
 // Candidates come from our own search; the check guards what the views read first.

@@ -162,7 +162,7 @@ export function TargetPanel() {
       </fieldset>
       {/* Outside the fieldset: the target can be saved while a search runs on it. */}
       <div className="row-actions">
-        <button type="button" disabled={target.points.length === 0} onClick={() => download('target.csv', formatPointsCsv(target.points))}>
+        <button type="button" disabled={target.points.length === 0} onClick={() => download('target.csv', formatPointsCsv(target.points, { closed: target.closed }))}>
           Export target as CSV
         </button>
       </div>

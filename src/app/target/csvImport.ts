@@ -27,7 +27,13 @@ export function importTableAction(table: PointsCsvResult, source: string, curren
       ? 'The last row repeated the first, so it was dropped and the path is closed.'
       : 'The last row does not repeat the first, so the path is open. To make a loop, tick "Closed path" or end the table with its first point.',
   );
-  if (table.driverDeg !== null) read.push('Crank angles were read (degrees), so the timing is set to prescribed.');
+  if (table.driverDeg !== null) {
+    read.push(
+      table.driverUnit === 'rad'
+        ? 'Crank angles were read in radians (the column says rad) and are shown in degrees, so the timing is set to prescribed.'
+        : 'Crank angles were read in degrees, so the timing is set to prescribed.',
+    );
+  }
   if (weights !== null) read.push(`Weights were read (from ${Math.min(...weights)} to ${Math.max(...weights)}); they are in the weight column of the point table and the search uses them.`);
   return {
     type: 'target/replace',

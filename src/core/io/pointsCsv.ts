@@ -46,6 +46,8 @@ export interface PointsTable {
   readonly points: readonly { readonly x: number; readonly y: number }[];
   /** Crank angle of each point in degrees, when the file has a timing column. */
   readonly driverDeg: readonly number[] | null;
+  /** The unit the timing column was written in (its values are converted to degrees above); null without one. */
+  readonly driverUnit: 'deg' | 'rad' | null;
   /** Weight of each point, when the file has a weight column. */
   readonly weights: readonly number[] | null;
   /** The last row repeated the first: it was dropped, and the path is closed. */
@@ -367,6 +369,7 @@ export function parsePointsCsv(input: string): PointsCsvResult {
     ok: true,
     points,
     driverDeg: columns.driver === -1 ? null : driver.slice(0, count),
+    driverUnit: columns.driver === -1 ? null : columns.driverRad ? 'rad' : 'deg',
     weights: columns.weight === -1 ? null : weights.slice(0, count),
     closedByRepeat,
     delimiter,
@@ -381,9 +384,20 @@ export function delimiterName(delimiter: CsvDelimiter): string {
 }
 
 /** Target points as CSV text with a header (x, y in mm, and the crank angle when every point has one). */
-export function formatPointsCsv(points: readonly { readonly x: number; readonly y: number; readonly driverDeg?: number | null }[]): string {
+/**
+ * Target points as CSV the reader takes back: x and y in mm, the crank angle column when
+ * every point has one, the weight column when every point has one (nothing the table
+ * holds is dropped); a closed path ends with its first row again, as the reader reads a loop.
+ */
+export function formatPointsCsv(
+  points: readonly { readonly x: number; readonly y: number; readonly driverDeg?: number | null; readonly weight?: number }[],
+  options: { readonly closed?: boolean } = {},
+): string {
   const withAngle = points.length > 0 && points.every((p) => typeof p.driverDeg === 'number');
-  const header = withAngle ? 'x_mm,y_mm,angle_deg' : 'x_mm,y_mm';
-  const lines = points.map((p) => (withAngle ? `${p.x},${p.y},${p.driverDeg}` : `${p.x},${p.y}`));
-  return [header, ...lines].join('\n') + '\n';
+  const withWeight = points.length > 0 && points.every((p) => typeof p.weight === 'number');
+  const header = ['x_mm', 'y_mm', ...(withAngle ? ['angle_deg'] : []), ...(withWeight ? ['weight'] : [])].join(',');
+  const row = (p: (typeof points)[number]) => [p.x, p.y, ...(withAngle ? [p.driverDeg] : []), ...(withWeight ? [p.weight] : [])].join(',');
+  const rows = points.map(row);
+  if (options.closed === true && points.length > 0) rows.push(row(points[0]));
+  return [header, ...rows].join('\n') + '\n';
 }

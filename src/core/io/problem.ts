@@ -11,7 +11,8 @@
  *     "families": ["fourbar-lengths", …],
  *     "bounds"?: { "fourbar-lengths": { "r1": [5, 60], "theta2": [0, 6.283…], … } },
  *     "constraints"?: { "fullTurnCrank"?, "grashofTolerance"?, "minTransmissionRad"?,
- *                       "linkLengthMm"?, "keepOut"?, "branch"? },
+ *                       "linkLengthMm"?, "keepOut"?, "branch"?, "maxSizeMm"? },
+ *     "terms"?: { "sizeWeight"?, "transmissionWeight"?, "transmissionGuidelineRad"? },
  *     "measure"?: "sum-of-squares" | "rms" | "max",
  *     "searchMaps"?: { "fourbar-lengths": "fourbar-boundary" },
  *     "description"?: "…" }
@@ -30,6 +31,8 @@ import { MAX_DIM } from '../optimize/config';
 import { capIssues, describeValue, expected, formatPath, quoteList, strict } from './schemaMessages';
 import { FAMILY_IDS, SEARCH_MAP_KINDS, createProblem, createSuspensionProblem, objectiveVariableNames, type FamilyId, type Problem, type ProblemInput, type ProblemIssue, type SuspensionProblem, type SynthesisProblem } from '../synthesis';
 import { suspensionProblemShape } from './suspensionProblemFile';
+import { legProblemShape } from './legProblemFile';
+import { createLegProblem } from '../synthesis/legProblem';
 import { MAX_DRIVER_VALUE_RAD } from '../synthesis/problem';
 
 export const PROBLEM_FILE_FORMAT = 'loci-problem';
@@ -99,12 +102,19 @@ const constraintsSchema = strict('constraints', {
     })
     .optional(),
   branch: z.enum(['open', 'crossed', 'either'], { error: expected('"open", "crossed" or "either"') }).optional(),
+  maxSizeMm: finite('a size in mm').optional(),
+});
+
+const termsSchema = strict('objective terms { "sizeWeight"?, "transmissionWeight"?, "transmissionGuidelineRad"? }', {
+  sizeWeight: finite('a weight ≥ 0').optional(),
+  transmissionWeight: finite('a weight ≥ 0').optional(),
+  transmissionGuidelineRad: finite('an angle in rad').optional(),
 });
 
 const fileShape = {
   format: z.literal(PROBLEM_FILE_FORMAT, { error: expected(`"${PROBLEM_FILE_FORMAT}"`) }),
   version: z.literal(PROBLEM_FILE_VERSION, { error: expected(`${PROBLEM_FILE_VERSION}`) }),
-  kind: z.literal('path', { error: expected('"path" or "suspension"') }).optional(),
+  kind: z.literal('path', { error: expected('"path", "suspension" or "leg"') }).optional(),
   name: z.string({ error: expected('a name string') }),
   description: z.string({ error: expected('a description string') }).optional(),
   target: targetSchema,
@@ -117,6 +127,7 @@ const fileShape = {
     })
     .optional(),
   constraints: constraintsSchema.optional(),
+  terms: termsSchema.optional(),
   measure: z.enum(['sum-of-squares', 'rms', 'max'], { error: expected('"sum-of-squares", "rms" or "max"') }).optional(),
   searchMaps: z
     .partialRecord(familyEnum, z.enum(SEARCH_MAP_KINDS, { error: expected(`a search map, one of ${quoteList(SEARCH_MAP_KINDS)}`) }), {
@@ -131,6 +142,14 @@ const suspensionProblemFileSchema = strict('a suspension problem file', {
   name: fileShape.name,
   description: fileShape.description,
   ...suspensionProblemShape,
+});
+
+const legProblemFileSchema = strict('a leg problem file', {
+  format: fileShape.format,
+  version: fileShape.version,
+  name: fileShape.name,
+  description: fileShape.description,
+  ...legProblemShape,
 });
 
 /** A problem file of the current version. */
@@ -214,7 +233,7 @@ function dimensionIssues(problem: Problem): ProblemIssue[] {
 export function parseProblemFile(json: unknown): ParseProblemFileResult {
   const read = parseSynthesisProblemFile(json);
   if (!read.ok) return read;
-  if (read.problem.kind !== 'path') return fail('kind', 'is "suspension"; expected a path problem here (a suspension problem is searched with loci fit)');
+  if (read.problem.kind !== 'path') return fail('kind', `is "${read.problem.kind}"; expected a path problem here (a ${read.problem.kind} problem is searched with loci fit)`);
   return read.description === undefined ? { ok: true, problem: read.problem } : { ok: true, problem: read.problem, description: read.description };
 }
 
@@ -229,7 +248,17 @@ function parseSuspensionProblem(json: Record<string, unknown>): ParseSynthesisPr
   return description === undefined ? { ok: true, problem } : { ok: true, problem, description };
 }
 
-/** Reads a problem file of either kind (already parsed from JSON text). */
+/** Reads a leg problem file after its envelope: the schema, then createLegProblem. */
+function parseLegProblem(json: Record<string, unknown>): ParseSynthesisProblemFileResult {
+  const parsed = legProblemFileSchema.safeParse(json);
+  if (!parsed.success) return failWith(parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })));
+  const { format: _format, version: _version, description, ...input } = parsed.data;
+  const created = createLegProblem(input);
+  if (!created.ok) return failWith(created.issues);
+  return description === undefined ? { ok: true, problem: created.problem } : { ok: true, problem: created.problem, description };
+}
+
+/** Reads a problem file of any kind (already parsed from JSON text). */
 export function parseSynthesisProblemFile(json: unknown): ParseSynthesisProblemFileResult {
   if (!isPlainObject(json)) return fail('', `expected a problem file (a JSON object with "format": "${PROBLEM_FILE_FORMAT}"), got ${describeValue(json)}`);
   if (json.format !== PROBLEM_FILE_FORMAT) {
@@ -247,6 +276,7 @@ export function parseSynthesisProblemFile(json: unknown): ParseSynthesisProblemF
   const reserved = reservedKeyIssues(json);
   if (reserved.length > 0) return failWith(reserved);
   if (json.kind === 'suspension') return parseSuspensionProblem(json);
+  if (json.kind === 'leg') return parseLegProblem(json);
   const parsed = problemFileV1Schema.safeParse(json);
   if (!parsed.success) {
     return failWith(parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })));
@@ -271,6 +301,7 @@ export function parseSynthesisProblemFile(json: unknown): ParseSynthesisProblemF
     families: file.families,
     ...(file.bounds === undefined ? {} : { bounds: file.bounds }),
     ...(file.constraints === undefined ? {} : { constraints: file.constraints }),
+    ...(file.terms === undefined ? {} : { terms: file.terms }),
     ...(file.measure === undefined ? {} : { measure: file.measure }),
     ...(file.searchMaps === undefined ? {} : { searchMaps: file.searchMaps }),
   });

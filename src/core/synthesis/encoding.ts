@@ -34,6 +34,36 @@ export const DEFECT_NAMES: readonly string[] = [
   'ground pivot inside a keep-out circle',
 ];
 
+/**
+ * Layout of what `sweepExtent` writes: the placed bounding box of every joint and point
+ * (mm) and the largest |cos μ| over the four-bar loops (0 where no sample assembles).
+ */
+export const EXTENT_MIN_X = 0;
+export const EXTENT_MAX_X = 1;
+export const EXTENT_MIN_Y = 2;
+export const EXTENT_MAX_Y = 3;
+export const EXTENT_COS = 4;
+export const EXTENT_LENGTH = 5;
+
+/** Empties an extent before a sweep adds its samples. */
+export function resetExtent(out: Float64Array): void {
+  out[EXTENT_MIN_X] = Infinity;
+  out[EXTENT_MAX_X] = -Infinity;
+  out[EXTENT_MIN_Y] = Infinity;
+  out[EXTENT_MAX_Y] = -Infinity;
+  out[EXTENT_COS] = 0;
+}
+
+/** Adds a point, placed by [a, b, tx, ty], to an extent; a non-finite point fills it to ±Infinity. */
+export function addToExtent(px: number, py: number, placement: Float64Array, out: Float64Array): void {
+  const x = placement[0] * px - placement[1] * py + placement[2];
+  const y = placement[1] * px + placement[0] * py + placement[3];
+  if (!(x >= out[EXTENT_MIN_X])) out[EXTENT_MIN_X] = Number.isNaN(x) ? -Infinity : x;
+  if (!(x <= out[EXTENT_MAX_X])) out[EXTENT_MAX_X] = Number.isNaN(x) ? Infinity : x;
+  if (!(y >= out[EXTENT_MIN_Y])) out[EXTENT_MIN_Y] = Number.isNaN(y) ? -Infinity : y;
+  if (!(y <= out[EXTENT_MAX_Y])) out[EXTENT_MAX_Y] = Number.isNaN(y) ? Infinity : y;
+}
+
 export interface EncodingReport {
   readonly linkage: Linkage;
   /** The driver value, in the encoding's frame, at which `linkage` is drawn (its reference pose). */
@@ -73,6 +103,14 @@ export interface MechanismEncoding {
    * for a design that is otherwise feasible; allocates nothing.
    */
   verify(spans: Float64Array, count: number, parts: Float64Array): void;
+  /**
+   * Runs the loaded design from driver value `from` to `to` in `steps` equal steps (both
+   * ends taken), placed by `placement` ([a, b, tx, ty]), and writes into `out` (EXTENT_*)
+   * the bounding box of every joint and point and the largest |cos μ| of its four-bar
+   * loops over the samples that assemble; returns how many samples do not. For the size
+   * limit and the size and transmission terms; allocates nothing.
+   */
+  sweepExtent(from: number, to: number, steps: number, placement: Float64Array, out: Float64Array): number;
   /**
    * The loaded design as a linkage drawn at driver value `t` (its pose there becomes the
    * linkage's reference pose), placed; allocates.

@@ -18,7 +18,10 @@ import {
   V_KEEP_OUT as V_KEEP_OUT_BINDING,
   V_LINK_LENGTH as V_LINK_LENGTH_BINDING,
   V_TRANSMISSION as V_TRANSMISSION_BINDING,
+  EXTENT_COS as EXTENT_COS_BINDING,
+  addToExtent,
   lengthViolation,
+  resetExtent,
   transmissionCosLimit,
   type EncodingReport,
   type MechanismEncoding,
@@ -46,6 +49,7 @@ const V_CRANK = V_CRANK_BINDING;
 const V_KEEP_OUT = V_KEEP_OUT_BINDING;
 const V_LINK_LENGTH = V_LINK_LENGTH_BINDING;
 const V_TRANSMISSION = V_TRANSMISSION_BINDING;
+const EXTENT_COS = EXTENT_COS_BINDING;
 const FOUR_BAR_LENGTH_VARIABLES = FOUR_BAR_LENGTH_VARIABLES_BINDING;
 const R1 = R1_BINDING;
 const R2 = R2_BINDING;
@@ -108,6 +112,7 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
   const p = curve.p;
   const range = new Float64Array(2);
   const joints = new Float64Array(8);
+  const sample = new Float64Array(CURVE_OUT_LENGTH);
 
   /** Adds the transmission violation for cos θ2 over [cmin, cmax]. */
   function transmissionOver(cmin: number, cmax: number, parts: Float64Array): void {
@@ -196,6 +201,28 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
           }
         }
       }
+    },
+    sweepExtent(from: number, to: number, steps: number, placement: Float64Array, out: Float64Array): number {
+      resetExtent(out);
+      const r1 = p[R1];
+      const r2 = p[R2];
+      const r3 = p[R3];
+      const r4 = p[R4];
+      let failed = 0;
+      for (let k = 0; k <= steps; k++) {
+        const t = from + ((to - from) * k) / steps;
+        if (!(curve.at(t, 0, sample) >= 0)) {
+          failed++;
+          continue;
+        }
+        fourBarJointsInto(p, 0, t, curve.sign, joints);
+        for (let j = 0; j < 8; j += 2) addToExtent(joints[j], joints[j + 1], placement, out);
+        addToExtent(sample[0], sample[1], placement, out);
+        // cos μ in closed form, as transmissionOver above.
+        const c = Math.abs((r3 * r3 + r4 * r4 - r1 * r1 - r2 * r2 + 2 * r1 * r2 * Math.cos(t)) / (2 * r3 * r4));
+        if (!(c <= out[EXTENT_COS])) out[EXTENT_COS] = Number.isNaN(c) ? 1 : c;
+      }
+      return failed;
     },
     verify(): void {
       // Everything above is exact already: Grashof's sum and the loop's closure condition.

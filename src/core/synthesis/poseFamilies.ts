@@ -35,7 +35,10 @@ import {
   V_KEEP_OUT as V_KEEP_OUT_BINDING,
   V_LINK_LENGTH as V_LINK_LENGTH_BINDING,
   V_TRANSMISSION as V_TRANSMISSION_BINDING,
+  EXTENT_COS as EXTENT_COS_BINDING,
+  addToExtent,
   lengthViolation,
+  resetExtent,
   transmissionCosLimit,
   type EncodingReport,
   type MechanismEncoding,
@@ -57,6 +60,7 @@ const V_CRANK = V_CRANK_BINDING;
 const V_KEEP_OUT = V_KEEP_OUT_BINDING;
 const V_LINK_LENGTH = V_LINK_LENGTH_BINDING;
 const V_TRANSMISSION = V_TRANSMISSION_BINDING;
+const EXTENT_COS = EXTENT_COS_BINDING;
 
 const TAU = 2 * Math.PI;
 /** Driver step of the lock and transmission checks along a motion: 72 per turn. */
@@ -263,6 +267,25 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
         parts[V_BRANCH] += LOCK_SHARE * lockSearch.count(curve, a, b, MOTION_CHECK_STEP_RAD, false);
       }
       curve.reset();
+    },
+    sweepExtent(from: number, to: number, steps: number, placement: Float64Array, out: Float64Array): number {
+      resetExtent(out);
+      curve.reset();
+      const pose = curve.pose;
+      let failed = 0;
+      for (let k = 0; k <= steps; k++) {
+        if (curve.at(from + ((to - from) * k) / steps, 0, point) < 0) {
+          failed++;
+          continue;
+        }
+        for (let s = 0; s < pose.length; s += 2) addToExtent(pose[s], pose[s + 1], placement, out);
+        for (let q = 0; q < loops.length; q++) {
+          const c = Math.abs(Math.cos(transmissionAngleRad(loops[q], pose)));
+          if (!(c <= out[EXTENT_COS])) out[EXTENT_COS] = Number.isNaN(c) ? 1 : c;
+        }
+      }
+      curve.reset();
+      return failed;
     },
     placed(placement: Float64Array, parts: Float64Array): void {
       const sa = placement[0];

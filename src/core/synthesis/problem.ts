@@ -7,6 +7,7 @@
 import { SEARCH_MAP_KINDS, searchMapMisfit, type SearchMapKind } from './searchMap';
 import { MAX_COORDINATE_MM, MAX_REACH_OVER_SHORTEST_LINK } from '../linkage/model';
 import { COINCIDENT_JOINT_TOL_MM } from '../linkage/tolerances';
+import { TRANSMISSION_GUIDELINE_DEG } from '../linkage/report';
 import { targetFrame } from './encoding';
 import { driverVariablePrefix, mechanismVariableNames } from './familyVariables';
 import { validateTarget, type Target } from './target';
@@ -92,7 +93,34 @@ export interface Constraints {
   readonly keepOut?: readonly KeepOutCircle[];
   /** Assembly branch of `fourbar-lengths`; default 'open'. Pose-based families take theirs from the reference pose. */
   readonly branch?: Branch;
+  /**
+   * Largest side (width or height) of the bounding box of every joint and point over the
+   * design's motion, mm: a full turn where the driver turns fully, else the travel the
+   * target needs (the motion `loci analyze` is given for the candidate).
+   */
+  readonly maxSizeMm?: number;
 }
+
+/**
+ * Optional terms added to the measure, each a weight times a dimensionless figure of
+ * the design's motion; a weight of 1 makes one unit of the figure cost as much as an
+ * error of TERM_ERROR_SHARE of the target's span at every point. Absent or 0: no term.
+ */
+export interface ObjectiveTerms {
+  /** Weight of the size term: the motion's largest side beyond the target's span, in target spans. */
+  readonly sizeWeight?: number;
+  /** Weight of the transmission term: the worst transmission angle's shortfall from the guideline, as a share of the guideline. */
+  readonly transmissionWeight?: number;
+  /** The guideline, rad: μ within [guideline, π − guideline] costs nothing. Default DEFAULT_TRANSMISSION_GUIDELINE_RAD. */
+  readonly transmissionGuidelineRad?: number;
+}
+
+/** The low end of the transmission guideline `loci analyze` reports against (40°, so 40° to 140°), rad. */
+export const DEFAULT_TRANSMISSION_GUIDELINE_RAD = (TRANSMISSION_GUIDELINE_DEG.min * Math.PI) / 180;
+/** The error share of the target's span a term of weight 1 and figure 1 costs (5 %): a dead point (transmission figure 1) at weight 1 costs as much as missing every point by a twentieth of the span. */
+export const TERM_ERROR_SHARE = 0.05;
+/** Largest weight of an objective term. */
+export const MAX_TERM_WEIGHT = 1e6;
 
 /**
  * Variable boxes per family, overriding the family's defaults by variable name. A
@@ -121,6 +149,8 @@ export interface Problem {
    * the default 'affine'. The problem, its bounds and its values stay the same.
    */
   readonly searchMaps: SearchMaps;
+  /** Terms added to the measure; absent when the problem has none. */
+  readonly terms?: ObjectiveTerms;
 }
 
 export type SearchMaps = Readonly<Partial<Record<FamilyId, SearchMapKind>>>;
@@ -145,6 +175,7 @@ export interface ProblemInput {
   readonly constraints?: Constraints;
   readonly measure?: Measure;
   readonly searchMaps?: SearchMaps;
+  readonly terms?: ObjectiveTerms;
 }
 
 export interface ProblemIssue {
@@ -297,12 +328,29 @@ function checkConstraints(c: Constraints | undefined, issues: ProblemIssue[]): v
       issues.push({ path: 'constraints.linkLengthMm', message: `is [${lo}, ${hi}]; expected [min, max] mm with 0 ≤ min < max ≤ ${MAX_CONSTRAINT_MM}` });
     }
   }
+  if (c.maxSizeMm !== undefined && !(finite(c.maxSizeMm) && c.maxSizeMm > 0 && c.maxSizeMm <= MAX_CONSTRAINT_MM)) {
+    issues.push({ path: 'constraints.maxSizeMm', message: `is ${c.maxSizeMm}; expected a size in mm above 0 and at most ${MAX_CONSTRAINT_MM}` });
+  }
   c.keepOut?.forEach((k, i) => {
     const within = (v: number) => Math.abs(v) <= MAX_CONSTRAINT_MM;
     if (!(finite(k.x) && finite(k.y) && finite(k.r) && k.r > 0 && within(k.x) && within(k.y) && within(k.r))) {
       issues.push({ path: `constraints.keepOut[${i}]`, message: `is { x: ${k.x}, y: ${k.y}, r: ${k.r} }; expected a circle in mm with r > 0 and x, y and r each at most ${MAX_CONSTRAINT_MM} in size` });
     }
   });
+}
+
+function checkTerms(t: ObjectiveTerms | undefined, issues: ProblemIssue[]): void {
+  if (t === undefined) return;
+  for (const key of ['sizeWeight', 'transmissionWeight'] as const) {
+    const w = t[key];
+    if (w !== undefined && !(finite(w) && w >= 0 && w <= MAX_TERM_WEIGHT)) {
+      issues.push({ path: `terms.${key}`, message: `is ${w}; expected a weight from 0 (no term) to ${MAX_TERM_WEIGHT}` });
+    }
+  }
+  const g = t.transmissionGuidelineRad;
+  if (g !== undefined && !(finite(g) && g > 0 && g <= Math.PI / 2)) {
+    issues.push({ path: 'terms.transmissionGuidelineRad', message: `is ${g}; expected an angle above 0 and at most π/2 rad (the common guideline is 40°, ${DEFAULT_TRANSMISSION_GUIDELINE_RAD} rad)` });
+  }
 }
 
 /** Checks plain problem data and returns the problem with typed-array copies, or every issue found. */
@@ -347,6 +395,7 @@ export function createProblem(input: ProblemInput): ProblemResult {
   checkBounds(input.bounds, issues);
   checkBoundNames(input, issues);
   checkConstraints(input.constraints, issues);
+  checkTerms(input.terms, issues);
   const searchMaps: Partial<Record<FamilyId, SearchMapKind>> = {};
   for (const [family, kind] of Object.entries(input.searchMaps ?? {})) {
     const path = `searchMaps.${family}`;
@@ -375,7 +424,9 @@ export function createProblem(input: ProblemInput): ProblemResult {
     ...(c.linkLengthMm === undefined ? {} : { linkLengthMm: [c.linkLengthMm[0], c.linkLengthMm[1]] as const }),
     ...(c.keepOut === undefined ? {} : { keepOut: c.keepOut.map((k) => ({ x: k.x, y: k.y, r: k.r })) }),
     ...(c.branch === undefined ? {} : { branch: c.branch }),
+    ...(c.maxSizeMm === undefined ? {} : { maxSizeMm: c.maxSizeMm }),
   };
+  const terms = input.terms;
   return {
     ok: true,
     problem: {
@@ -389,6 +440,15 @@ export function createProblem(input: ProblemInput): ProblemResult {
       constraints,
       measure: input.measure ?? 'sum-of-squares',
       searchMaps,
+      ...(terms === undefined
+        ? {}
+        : {
+            terms: {
+              ...(terms.sizeWeight === undefined ? {} : { sizeWeight: terms.sizeWeight }),
+              ...(terms.transmissionWeight === undefined ? {} : { transmissionWeight: terms.transmissionWeight }),
+              ...(terms.transmissionGuidelineRad === undefined ? {} : { transmissionGuidelineRad: terms.transmissionGuidelineRad }),
+            },
+          }),
     },
   };
 }

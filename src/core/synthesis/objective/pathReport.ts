@@ -11,6 +11,7 @@ import { errorSummary } from '../measures';
 import type { FamilyId, Problem } from '../problem';
 import { SIM_A, SIM_B, SIM_TX, SIM_TY } from '../../geometry';
 import type { PathDesignSpace } from './designSpace';
+import { PE_PENALTY, PE_SIZE_VIOLATION } from './pathExtent';
 import type { PathResponse } from './pathResponse';
 import type { CandidateReport } from './types';
 
@@ -26,6 +27,11 @@ const MISSED_LOCK_VIOLATION = 1 / 360;
  * does not assemble at all, so it ranks below every design that can be built.
  */
 const UNANALYSABLE_VIOLATION = 1;
+/** The defect of a motion larger than the problem's size limit. */
+export const SIZE_DEFECT = 'motion larger than the size limit';
+/** The defect of a motion within the limit but inside the margin the search keeps below it (pathExtent.ts). */
+export const SIZE_MARGIN_DEFECT = 'motion within the sampling margin of the size limit (counted over it)';
+
 /** A motion shorter than this (rad) is none: the figures are taken over a full turn. */
 const MIN_MOTION_RAD = 1e-9;
 
@@ -75,6 +81,17 @@ export function describePathDesign(problem: Problem, family: FamilyId, space: Pa
     defects.push(DEFECT_NAMES[V_BRANCH]);
     violation += MISSED_LOCK_VIOLATION;
   }
+  const maxSizeMm = problem.constraints.maxSizeMm;
+  if (maxSizeMm !== undefined && found.ok) {
+    // The limit on the analysed motion (the candidate's own), not only on the search's samples.
+    const box = found.figures.sizeMm;
+    const sizeMm = box === undefined ? Infinity : Math.max(box.widthMm, box.heightMm);
+    const searchExcess = response.extent === null ? 0 : response.extent.figures[PE_SIZE_VIOLATION];
+    const excess = sizeMm <= maxSizeMm ? 0 : sizeMm < Infinity ? (sizeMm - maxSizeMm) / maxSizeMm : 1;
+    if (excess > 0) defects.push(SIZE_DEFECT);
+    else if (searchExcess > 0) defects.push(SIZE_MARGIN_DEFECT);
+    if (!(searchExcess > 0)) violation += excess;
+  }
   const variables: Record<string, number> = {};
   names.forEach((name, j) => {
     variables[name] = x[j];
@@ -87,6 +104,7 @@ export function describePathDesign(problem: Problem, family: FamilyId, space: Pa
     variables,
     error: errorSummary(d2, n, weights),
     value,
+    ...(response.extent === null || !(response.extent.figures[PE_PENALTY] > 0) ? {} : { termsValue: response.extent.figures[PE_PENALTY] }),
     violation,
     feasible,
     defects,

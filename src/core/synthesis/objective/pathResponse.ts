@@ -30,6 +30,7 @@ import { createJointFit } from '../jointFit';
 import { measureValue } from '../measures';
 import { DEFAULT_MATCH_SAMPLES, type Problem } from '../problem';
 import { boxViolation, type PathDesignSpace } from './designSpace';
+import { PE_PENALTY, PE_SIZE_VIOLATION, createPathExtent, type PathExtent } from './pathExtent';
 import { bestRanked, sumViolations } from './score';
 import {
   REFINE_HI as REFINE_HI_BINDING,
@@ -97,6 +98,8 @@ export interface PathResponse {
   readonly sim: Float64Array;
   readonly weights: Float64Array | undefined;
   readonly refineFree: boolean;
+  /** The size limit and terms (pathExtent.ts) of the branch evaluated last; null when the problem has none. */
+  readonly extent: PathExtent | null;
   /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
   evaluateBranch(x: Float64Array, k: number): void;
   /** Evaluates every branch; returns the best one's index. */
@@ -145,6 +148,12 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const placement = new Float64Array(4);
   const curve = encoding.curve;
   const evaluation = new Float64Array(2 * branchCount);
+  let weightSum = n;
+  if (weights !== undefined) {
+    weightSum = 0;
+    for (let i = 0; i < n; i++) weightSum += weights[i];
+  }
+  const extent = createPathExtent(problem, encoding, weightSum);
 
   if (freePlacement) {
     // Arc-length share of each target point along the path (closed: with the closing segment).
@@ -392,7 +401,13 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       encoding.verify(spans, spanCount, parts);
       violation = sumViolations(parts, V_SLOTS);
     }
-    evaluation[2 * k] = measureValue(measure, d2, n, weights);
+    let value = measureValue(measure, d2, n, weights);
+    if (extent !== null) {
+      extent.evaluate(unwrapped, n, placement);
+      violation += extent.figures[PE_SIZE_VIOLATION];
+      value += extent.figures[PE_PENALTY];
+    }
+    evaluation[2 * k] = value;
     evaluation[2 * k + 1] = violation;
   }
 
@@ -402,5 +417,5 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     return bestRanked(evaluation, branchCount);
   }
 
-  return { n, branchCount, evaluation, parts, times, unwrapped, points, d2, sim, weights, refineFree, evaluateBranch, evaluateAll };
+  return { n, branchCount, evaluation, parts, times, unwrapped, points, d2, sim, weights, refineFree, extent, evaluateBranch, evaluateAll };
 }

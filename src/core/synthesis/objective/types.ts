@@ -16,8 +16,10 @@ export interface CandidateReport {
   readonly x: number[];
   readonly variables: Record<string, number>;
   readonly error: ErrorSummary;
-  /** The value of the problem's measure. */
+  /** The value of the problem's measure, plus its objective terms (`termsValue`) where it has any. */
   readonly value: number;
+  /** The share of `value` the problem's size and transmission terms add (problem.ts ObjectiveTerms); absent when 0. */
+  readonly termsValue?: number;
   readonly violation: number;
   readonly feasible: boolean;
   /** The constraints the design breaks, in words. */

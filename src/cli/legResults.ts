@@ -1,0 +1,93 @@
+/**
+ * What `loci check` and `loci fit` print of a leg problem and its candidates: the
+ * summary of what a fit would search, and each candidate as JSON (its family, terms,
+ * defects, the gait figures of its leg file and the leg file itself), with the caution
+ * that Loci computes kinematics only.
+ */
+import { GAIT_CAUTION } from '../core/gait';
+import { toLegFile } from '../core/io/legFile';
+import { MAX_NAME_LENGTH } from '../core/io/linkageFile';
+import { FAMILY_NAMES, createObjective, type LegCandidateReport, type LegProblem } from '../core/synthesis';
+
+export interface LegFamilySummary {
+  readonly family: string;
+  readonly name: string;
+  readonly dim: number;
+  readonly variables: { readonly name: string; readonly lower: number; readonly upper: number }[];
+}
+
+/** What a fit of a leg problem would search, family by family. */
+export function legSearchSummary(problem: LegProblem): LegFamilySummary[] {
+  return problem.families.map((family) => {
+    const objective = createObjective(problem, family);
+    return {
+      family,
+      name: FAMILY_NAMES[family],
+      dim: objective.dim,
+      variables: objective.variableNames.map((name, j) => ({ name, lower: objective.lower[j], upper: objective.upper[j] })),
+    };
+  });
+}
+
+const round = (v: number) => String(Number(v.toPrecision(6)));
+
+function groundText(problem: LegProblem): string {
+  const g = problem.leg.ground;
+  return g.kind === 'level' ? `level at y = ${g.yMm} mm` : `through (${g.point.x}, ${g.point.y}) mm along (${g.direction.x}, ${g.direction.y})`;
+}
+
+function targetsText(problem: LegProblem): string {
+  const t = problem.targets;
+  const out: string[] = [];
+  const w = (term: { readonly weight: number; readonly tolerance: number }, unit: string) => `weight ${term.weight}, tolerance ${term.tolerance}${unit}`;
+  if (t.footPath) out.push(`foot trajectory (${t.footPath.points.length} points, ${w(t.footPath, ' mm')})`);
+  if (t.strideMm) out.push(`stride ${t.strideMm.value} mm (${w(t.strideMm, ' mm')})`);
+  if (t.stepHeightMm) out.push(`step height ${t.stepHeightMm.value} mm (${w(t.stepHeightMm, ' mm')})`);
+  if (t.minDutyFactor) out.push(`duty factor ≥ ${t.minDutyFactor.value} (${w(t.minDutyFactor, '')})`);
+  if (t.maxFlatnessMm) out.push(`stance flatness ≤ ${t.maxFlatnessMm.value} mm peak-to-peak (${w(t.maxFlatnessMm, ' mm')})`);
+  if (t.maxSpeedVariation) out.push(`stance speed variation ≤ ${t.maxSpeedVariation.value} (${w(t.maxSpeedVariation, '')})`);
+  if (t.minTransmissionDegInStance) out.push(`transmission angle in stance ≥ ${t.minTransmissionDegInStance.value}° (${w(t.minTransmissionDegInStance, '°')})`);
+  if (t.sizeBoxMm) out.push(`size within ${t.sizeBoxMm.widthMm} × ${t.sizeBoxMm.heightMm} mm (${w(t.sizeBoxMm, ' mm')})`);
+  return out.join('; ');
+}
+
+export function legSummaryText(file: string, problem: LegProblem, families: readonly LegFamilySummary[]): string {
+  const leg = problem.leg;
+  const lines = [
+    `${file}: valid leg problem ${JSON.stringify(problem.name)}`,
+    `  ground:    ${groundText(problem)}; stance within ${leg.stanceToleranceMm} mm of it`,
+    `  crank:     turns fully, ${leg.crankDirection === 1 ? 'counter-clockwise' : 'clockwise'}; the body walks towards ${leg.walkingDirection === 1 ? '+x' : '−x'}`,
+    `  steps:     ${problem.steps} foot samples per turn in the search`,
+    `  targets:   ${targetsText(problem)}`,
+    `  keep-out:  ${problem.keepOut.length === 0 ? 'none' : problem.keepOut.map((k) => `${k.name === undefined ? '' : `${k.name} `}(${k.x}, ${k.y}) r ${k.r} mm`).join('; ')}`,
+    `A fit would search ${families.length} famil${families.length === 1 ? 'y' : 'ies'} (the foot is each family's point P):`,
+  ];
+  for (const f of families) {
+    lines.push(`  ${f.family} (${f.name}): ${f.dim} variables`);
+    const width = Math.max(...f.variables.map((v) => v.name.length));
+    for (const v of f.variables) lines.push(`    ${v.name.padEnd(width)}  ${round(v.lower)} … ${round(v.upper)}`);
+  }
+  lines.push(GAIT_CAUTION);
+  return `${lines.join('\n')}\n`;
+}
+
+/** One ranked leg candidate as `loci fit` writes it: its gait figures are `loci analyze` of its `legFile`. */
+export function legCandidateJson(rank: number, problemName: string, report: LegCandidateReport) {
+  return {
+    rank,
+    family: report.family,
+    familyName: report.familyName,
+    parameters: report.variables,
+    value: report.value,
+    feasible: report.feasible,
+    violation: report.violation,
+    defects: report.defects,
+    terms: report.terms,
+    searchFigures: report.searchFigures,
+    gait: report.gait,
+    ...(report.gaitFailure === undefined ? {} : { analysisFailure: report.gaitFailure }),
+    x: report.x,
+    // The leg file's name is held to the length its reader takes; the rank and family stay in the candidate beside it.
+    legFile: toLegFile({ name: `${problemName}: ${report.family} #${rank}`.slice(0, MAX_NAME_LENGTH), linkage: report.linkage, leg: report.leg }),
+  };
+}
