@@ -10,30 +10,13 @@ import { expect, it } from 'vitest';
 import { parseSuspensionFileText } from '../../src/core/io/suspensionFile';
 import { SUSPENSION_CAUTION, suspensionCurves } from '../../src/core/suspension';
 import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { storedTextHas } from './storedProject';
 
 /** The page shows figures to four significant figures (three for percentages and small movements). */
 const shown = (x: number, digits = 4) => (Number.isFinite(x) ? String(Number(x.toPrecision(digits))) : '—');
 const LAYOUTS = ['singlePivot', 'fourBarSeatStayAxle', 'wattSixBar'];
 /** The set-up's default number of samples over the stroke (DEFAULT_SUSPENSION_STEPS). */
 const STEPS = 41;
-
-async function projectHas(page: Page, text: string): Promise<boolean> {
-  return page.evaluate((needle) => new Promise<boolean>((resolve) => {
-    const open = indexedDB.open('loci');
-    open.onsuccess = () => {
-      const db = open.result;
-      const names = Array.from(db.objectStoreNames);
-      const tx = db.transaction(names, 'readonly');
-      let found = false;
-      for (const n of names) {
-        const all = tx.objectStore(n).getAll();
-        all.onsuccess = () => { if (JSON.stringify(all.result).includes(needle)) found = true; };
-      }
-      tx.oncomplete = () => { db.close(); resolve(found); };
-    };
-    open.onerror = () => resolve(false);
-  }), text);
-}
 
 async function cells(page: Page, section: string, rank: string): Promise<Record<string, { text: string; value: number }>> {
   return page.getByTestId(section).locator(`tr[data-rank="${rank}"] td[data-col]`).evaluateAll((tds) =>
@@ -139,7 +122,7 @@ describeBrowser('suspension search', () => {
     await saveScreenshot(page, 'suspension-compare-side-views');
 
     // Kept in the project: reload, open the kept design, the same table.
-    await expect.poll(() => projectHas(page, 'searchResults'), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => storedTextHas(page, 'searchResults'), { timeout: 10_000 }).toBe(true);
     const before = await page.getByTestId('all-ranked').locator('tr[data-rank]').evaluateAll((trs) => trs.map((tr) => tr.textContent));
     await page.reload();
     await page.getByRole('button', { name: 'Rear suspension: Search check' }).click();

@@ -1,6 +1,7 @@
 import type { Locator, Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
+import { storedTextHas } from './storedProject';
 import { drawnScale } from './sideViewScale';
 
 const status = (page: Page) => page.getByTestId('suspension-search-problem');
@@ -201,21 +202,7 @@ describeBrowser('rear suspension: the search set-up', () => {
     await fieldIssue(page, 'keepOut.1.r').waitFor();
     await page.getByRole('button', { name: 'Back to path synthesis' }).click();
     // Written to IndexedDB a moment after the change (the saver's delay): wait for the record, then reload.
-    await expect.poll(() => page.evaluate(() => new Promise<boolean>((resolve) => {
-      const open = indexedDB.open('loci');
-      open.onsuccess = () => {
-        const db = open.result;
-        const names = Array.from(db.objectStoreNames);
-        const tx = db.transaction(names, 'readonly');
-        let found = false;
-        for (const n of names) {
-          const all = tx.objectStore(n).getAll();
-          all.onsuccess = () => { const t = JSON.stringify(all.result); if (t.includes('Set-up kept') && t.includes('"3x"')) found = true; };
-        }
-        tx.oncomplete = () => { db.close(); resolve(found); };
-      };
-      open.onerror = () => resolve(false);
-    })), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => storedTextHas(page, 'Set-up kept', '"3x"'), { timeout: 10_000 }).toBe(true);
     await page.reload();
     await page.getByRole('button', { name: 'Rear suspension: Set-up kept' }).click();
     await page.getByTestId('search-setup-panel').waitFor();

@@ -15,6 +15,7 @@ import {
   type SuspensionReport,
 } from '../../src/core/suspension';
 import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
+import { storedTextHas } from './storedProject';
 
 /** The page shows figures to four significant figures. */
 const shown = (x: number) => String(Number(x.toPrecision(4)));
@@ -249,21 +250,7 @@ describeBrowser('rear suspension', () => {
     await page.locator('[data-field="sagPct"] input').fill('25');
     await page.getByRole('button', { name: 'Back to path synthesis' }).click();
     // The project is written to IndexedDB a moment after the change (the saver's delay); wait for the record, then reload.
-    await expect.poll(() => page.evaluate(() => new Promise<boolean>((resolve) => {
-      const open = indexedDB.open('loci');
-      open.onsuccess = () => {
-        const db = open.result;
-        const names = Array.from(db.objectStoreNames);
-        const tx = db.transaction(names, 'readonly');
-        let found = false;
-        for (const n of names) {
-          const all = tx.objectStore(n).getAll();
-          all.onsuccess = () => { if (JSON.stringify(all.result).includes('Kept design')) found = true; };
-        }
-        tx.oncomplete = () => { db.close(); resolve(found); };
-      };
-      open.onerror = () => resolve(false);
-    })), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => storedTextHas(page, 'Kept design'), { timeout: 10_000 }).toBe(true);
     await page.reload();
     await page.getByRole('button', { name: 'Rear suspension: Kept design' }).click();
     await page.getByTestId('suspension-workspace').waitFor();
