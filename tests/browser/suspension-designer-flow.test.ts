@@ -150,6 +150,12 @@ describeBrowser('rear suspension: a frame designer’s flow', () => {
     await field(page, 'targets.antiSquatAtSag.max').fill('105');
     await field(page, 'targets.antiSquatAtSag.cogs').fill('21, 24, 28');
 
+    // The targets are drawn on the design's own plots: the leverage and axle-path targets as
+    // curves, the anti-squat band (the gear shown, 24 T, is among the target cogs).
+    await expect.poll(() => page.getByTestId('plot-leverage').locator('path.susp-plot-target').count()).toBe(1);
+    expect(await page.getByTestId('plot-axle-path').locator('path.susp-plot-target').count()).toBe(1);
+    expect(await page.getByTestId('plot-anti-squat').getByTestId('target-band').count()).toBe(1);
+
     // Four layouts in one run: a short deterministic search (an evaluation budget, a seed).
     await page.getByRole('checkbox', { name: 'short-link four-bar' }).check();
     for (const layout of ['single pivot', 'four-bar, axle on the seat stay', 'Watt six-bar']) {

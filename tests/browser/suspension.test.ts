@@ -80,12 +80,12 @@ describeBrowser('rear suspension', () => {
     expect(await view.getByTestId('ic-path').getAttribute('d')).toMatch(/^M/);
     for (const id of PLOTS) {
       const plot = page.getByTestId(id);
-      await expect.poll(() => plot.locator('path.susp-plot-line').count()).toBeGreaterThan(0);
-      expect(await plot.locator('path.susp-plot-line').first().getAttribute('d')).toMatch(/^M[^N]*$/);
+      await expect.poll(() => plot.locator('path.susp-plot-line:not(.susp-plot-target)').count()).toBeGreaterThan(0);
+      expect(await plot.locator('path.susp-plot-line:not(.susp-plot-target)').first().getAttribute('d')).toMatch(/^M[^N]*$/);
       expect(await plot.getByTestId('sag-marker').count()).toBe(1);
     }
     // One line per cog on the per-gear plots.
-    expect(await page.getByTestId('plot-anti-squat').locator('path.susp-plot-line').count()).toBe(DEMO_TRAIL_BIKE.cogTeeth.length);
+    expect(await page.getByTestId('plot-anti-squat').locator('path.susp-plot-line:not(.susp-plot-target)').count()).toBe(DEMO_TRAIL_BIKE.cogTeeth.length);
     expect(await page.getByTestId('plot-anti-squat').locator('path.susp-plot-line-strong').count()).toBe(1);
 
     // The page shows what the core computes for the same bicycle and layout (Node side).
@@ -153,12 +153,12 @@ describeBrowser('rear suspension', () => {
   it('changes the plots and figures when the layout changes', async () => {
     const app = await openDemo();
     const page = app.page;
-    const before = await page.getByTestId('plot-leverage').locator('path.susp-plot-line').getAttribute('d');
+    const before = await page.getByTestId('plot-leverage').locator('path.susp-plot-line:not(.susp-plot-target)').getAttribute('d');
     await page.getByLabel('Layout kind').selectOption({ label: LAYOUT_NAMES.singlePivot });
     const single = demoReport('singlePivot');
     await expect.poll(() => figureCell(page, 'Leverage ratio at full extension').textContent()).toBe(shown(single.leverageRatioStart));
     expect(await figureCell(page, 'Leverage ratio at sag').textContent()).toBe(shown(single.sagPoint.leverageRatio));
-    const after = await page.getByTestId('plot-leverage').locator('path.susp-plot-line').getAttribute('d');
+    const after = await page.getByTestId('plot-leverage').locator('path.susp-plot-line:not(.susp-plot-target)').getAttribute('d');
     expect(after).not.toBe(before);
     // Three pivots for a single pivot layout.
     expect(await page.getByTestId('pivot-table').locator('tbody tr').count()).toBe(3);
@@ -166,7 +166,7 @@ describeBrowser('rear suspension', () => {
     // A floating brake on the four-bar's chain stay adds its own anti-rise line.
     await page.getByLabel('Layout kind').selectOption({ label: LAYOUT_NAMES.fourBarSeatStayAxle });
     await page.getByLabel('Brake caliper on').selectOption('chainStay');
-    await expect.poll(() => page.getByTestId('plot-anti-rise').locator('path.susp-plot-line').count()).toBe(2);
+    await expect.poll(() => page.getByTestId('plot-anti-rise').locator('path.susp-plot-line:not(.susp-plot-target)').count()).toBe(2);
 
     // A shock longer than the layout allows is explained in words.
     await page.locator('[data-field="eyeToEye"] input').fill('300');

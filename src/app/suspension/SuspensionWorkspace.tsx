@@ -16,6 +16,7 @@ import { SearchPanel } from './search/SearchPanel';
 import { SideView } from './SideView';
 import { SuspensionPlots } from './SuspensionPlots';
 import { useSuspension, useSuspensionDispatch } from './store';
+import { readSearchProblem } from './targets/searchProblem';
 import { TargetsPanel } from './targets/TargetsPanel';
 import './suspension.css';
 
@@ -114,6 +115,13 @@ export function SuspensionWorkspace({ onClose }: { onClose?: () => void }) {
   const shockLengthMm = bicycle === null ? null : report === null ? bicycle.shock.eyeToEyeMm : report.curves.shockLengthMm[step];
   const cogTeeth = bicycle?.cogTeeth ?? [];
   const cog = Math.min(cogIndex, Math.max(0, cogTeeth.length - 1));
+  // The set-up's targets are drawn on the plots once the set-up reads as a problem.
+  const search = useSuspension((s) => s.search);
+  const deferredSearch = useDeferredValue(search);
+  const targetsShown = useMemo(() => {
+    const reading = readSearchProblem({ name, draft: deferredDraft, search: deferredSearch });
+    return reading.ok ? reading.input : null;
+  }, [name, deferredDraft, deferredSearch]);
 
   return (
     <div className="susp-workspace" data-testid="suspension-workspace">
@@ -146,7 +154,7 @@ export function SuspensionWorkspace({ onClose }: { onClose?: () => void }) {
             {shownReport !== null && analysis.emptyReason === null && (
               <>
                 <Figures report={shownReport} cogIndex={cog} />
-                <SuspensionPlots report={shownReport} cogIndex={cog} sagShare={bicycle?.sag ?? 0} />
+                <SuspensionPlots report={shownReport} cogIndex={cog} sagShare={bicycle?.sag ?? 0} targets={targetsShown} />
               </>
             )}
             <details className="susp-conventions">

@@ -10,29 +10,10 @@ import { memo, useMemo } from 'react';
 import { SUSPENSION_CAUTION, sideView } from '../../../core/suspension';
 import type { SuspensionProblemInput } from '../../../core/synthesis';
 import { downloadText } from '../../results/download';
-import { CurvePlot, type PlotBand, type Series } from '../CurvePlot';
+import { CurvePlot, type Series } from '../CurvePlot';
 import { figure, fileStem } from '../labels';
+import { targetOverlays } from '../targetOverlays';
 import { compareCsv, type ComparedDesign } from './compare';
-
-const TARGET_COLOUR = '#6b7280';
-
-/** The leverage-ratio target over a travel: the points, or start + (end − start)·u^exponent over the share u of `travelMm`. */
-function leverageTarget(problem: SuspensionProblemInput, travelMm: number): Series | null {
-  const t = problem.targets.leverageRatio;
-  if (t === undefined) return null;
-  if ('points' in t) {
-    return { label: 'target leverage ratio', travel: t.points.map((p) => p[0]), values: t.points.map((p) => p[1]), colour: TARGET_COLOUR, strong: false, target: true, dash: '4 3' };
-  }
-  const n = 31;
-  const exponent = t.exponent ?? 1;
-  const travel = Array.from({ length: n }, (_, k) => (travelMm * k) / (n - 1));
-  const values = travel.map((_, k) => t.start + (t.end - t.start) * (k / (n - 1)) ** exponent);
-  return { label: `target leverage ratio ${t.start} → ${t.end} (over the first design's travel)`, travel, values, colour: TARGET_COLOUR, strong: false, target: true, dash: '4 3' };
-}
-
-function cogApplies(cogs: readonly number[] | undefined, teeth: number | undefined): boolean {
-  return cogs === undefined || (teeth !== undefined && cogs.includes(teeth));
-}
 
 export const CompareView = memo(function CompareView({ designs, problem, cogIndex }: { designs: readonly ComparedDesign[]; problem: SuspensionProblemInput; cogIndex: number }) {
   const b = problem.bicycle;
@@ -42,22 +23,12 @@ export const CompareView = memo(function CompareView({ designs, problem, cogInde
   const per = (pick: (d: ComparedDesign) => ArrayLike<number> | undefined): Series[] =>
     shown.map((d) => ({ label: d.label, travel: d.report?.curves.travelMm ?? [], values: pick(d) ?? [], colour: d.colour, dash: d.dash, strong: true }));
   const sags = shown.map((d) => ({ travelMm: d.report?.sagPoint.travelMm ?? NaN, label: `sag ${d.label.split(' ')[0]}`, colour: d.colour }));
-  const t = problem.targets;
-  const bands = {
-    antiSquat: t.antiSquatAtSag !== undefined && cogApplies(t.antiSquatAtSag.cogs, teeth) ? [{ lo: t.antiSquatAtSag.minPct, hi: t.antiSquatAtSag.maxPct, label: `target at sag: ${t.antiSquatAtSag.minPct}–${t.antiSquatAtSag.maxPct} %` }] : [],
-    antiRise: t.antiRiseAtSag === undefined ? [] : [{ lo: t.antiRiseAtSag.minPct, hi: t.antiRiseAtSag.maxPct, label: `target at sag: ${t.antiRiseAtSag.minPct}–${t.antiRiseAtSag.maxPct} %` }],
-    chain: t.chainGrowthMm !== undefined && cogApplies(t.chainGrowthMm.cogs, teeth) ? [{ lo: -t.chainGrowthMm.max, hi: t.chainGrowthMm.max, label: `limit: |growth| ≤ ${t.chainGrowthMm.max} mm` }] : [],
-    kickback: t.kickbackDeg !== undefined && cogApplies(t.kickbackDeg.cogs, teeth) ? [{ lo: -t.kickbackDeg.max, hi: t.kickbackDeg.max, label: `limit: |kickback| ≤ ${t.kickbackDeg.max}°` }] : [],
-  } satisfies Record<string, PlotBand[]>;
+  const targets = targetOverlays(problem, teeth, shown[0]?.report?.totalTravelMm ?? 0, 'the first design\'s');
   const lr = per((d) => d.report?.curves.leverageRatio);
-  const lrTarget = leverageTarget(problem, shown[0]?.report?.totalTravelMm ?? 0);
-  if (lrTarget !== null) lr.unshift(lrTarget);
+  if (targets.leverage !== null) lr.unshift(targets.leverage);
   const axle = per((d) => d.report?.curves.rearwardMm);
-  if (t.axlePath !== undefined) {
-    // The target is axle x over travel; rearward movement is the bicycle's axle x less it.
-    axle.unshift({ label: 'target axle path', travel: t.axlePath.points.map((p) => p[0]), values: t.axlePath.points.map((p) => b.rearAxleMm.x - p[1]), colour: TARGET_COLOUR, strong: false, target: true, dash: '4 3' });
-  }
-  const travelNote = t.travelMm === undefined ? '' : ` Target wheel travel ${t.travelMm.min}–${t.travelMm.max} mm.`;
+  if (targets.axle !== null) axle.unshift(targets.axle);
+  const travelNote = targets.travelNote === '' ? '' : ` ${targets.travelNote}`;
   return (
     <section className="susp-compare" aria-labelledby="susp-compare-title" data-testid="compare-view">
       <h3 id="susp-compare-title">{`Compare ${designs.length} designs`}</h3>
@@ -73,11 +44,11 @@ export const CompareView = memo(function CompareView({ designs, problem, cogInde
       <p className="susp-note">{`Per-gear curves in the ${gear} cog. Grey dashed: targets; shaded: target bands.${travelNote}`}</p>
       <div className="susp-plots" data-testid="compare-plots">
         <CurvePlot title="Leverage ratio (wheel mm per shock mm)" yLabel="leverage ratio" series={lr} sags={sags} testId="compare-leverage" legend />
-        <CurvePlot title={`Anti-squat, ${gear} (%)`} yLabel="anti-squat (%)" series={per((d) => d.report?.curves.antiSquatPct[cogIndex])} sags={sags} bands={bands.antiSquat} testId="compare-anti-squat" legend />
-        <CurvePlot title="Anti-rise (%)" yLabel="anti-rise (%)" series={per((d) => d.report?.curves.antiRisePct)} sags={sags} bands={bands.antiRise} testId="compare-anti-rise" legend />
+        <CurvePlot title={`Anti-squat, ${gear} (%)`} yLabel="anti-squat (%)" series={per((d) => d.report?.curves.antiSquatPct[cogIndex])} sags={sags} bands={targets.antiSquat} testId="compare-anti-squat" legend />
+        <CurvePlot title="Anti-rise (%)" yLabel="anti-rise (%)" series={per((d) => d.report?.curves.antiRisePct)} sags={sags} bands={targets.antiRise} testId="compare-anti-rise" legend />
         <CurvePlot title="Axle path: rearward movement (mm)" yLabel="rearward axle movement (mm)" series={axle} sags={sags} testId="compare-axle-path" legend />
-        <CurvePlot title={`Chain growth, ${gear} (mm)`} yLabel="chain growth (mm)" series={per((d) => d.report?.curves.chainGrowthMm[cogIndex])} sags={sags} bands={bands.chain} testId="compare-chain-growth" legend />
-        <CurvePlot title={`Pedal kickback, ${gear} (deg)`} yLabel="kickback (deg)" series={per((d) => d.report?.curves.kickbackDeg[cogIndex])} sags={sags} bands={bands.kickback} testId="compare-kickback" legend />
+        <CurvePlot title={`Chain growth, ${gear} (mm)`} yLabel="chain growth (mm)" series={per((d) => d.report?.curves.chainGrowthMm[cogIndex])} sags={sags} bands={targets.chainGrowth} testId="compare-chain-growth" legend />
+        <CurvePlot title={`Pedal kickback, ${gear} (deg)`} yLabel="kickback (deg)" series={per((d) => d.report?.curves.kickbackDeg[cogIndex])} sags={sags} bands={targets.kickback} testId="compare-kickback" legend />
       </div>
       <OverlaidSideViews designs={shown} problem={problem} cogIndex={cogIndex} />
       <button type="button" onClick={() => downloadText(compareCsv(problem.name, designs, cogIndex), `${fileStem(problem.name)}-compared-curves.csv`, 'text/csv')}>
