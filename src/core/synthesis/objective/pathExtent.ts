@@ -1,11 +1,12 @@
 /**
- * The size limit and the size and transmission terms of a path problem, taken over the
- * motion the design makes: a full turn from the first target point where the driver
- * turns fully (or must), else the travel between the target's driver values. The
- * search samples that motion (EXTENT_STEPS_PER_TURN a turn); the report then checks the
- * limit on the analysis `loci analyze` runs (pathReport.ts), so a limit reported met is
- * met along the candidate's motion. Built only for a problem that asks for one of them:
- * a problem without them evaluates exactly as before.
+ * The size limit, the least transmission angle and the size and transmission terms of a
+ * path problem, taken over the motion the design makes: a full turn from the first
+ * target point where the driver turns fully (or must), else the travel between the
+ * target's driver values. The search samples that motion (EXTENT_STEPS_PER_TURN a
+ * turn); the report then checks the limits on the analysis `loci analyze` runs
+ * (pathReport.ts), so a limit reported met is met along the candidate's motion. Built
+ * only for a problem that asks for one of them: a problem without them evaluates
+ * exactly as before.
  */
 import {
   EXTENT_COS,
@@ -30,6 +31,13 @@ export const EXTENT_STEPS_PER_TURN = 72;
  * within it on the analysis' finer steps too.
  */
 export const EXTENT_SAMPLING_MARGIN = 2 * (1 - Math.cos(Math.PI / EXTENT_STEPS_PER_TURN));
+/**
+ * The search holds the sampled worst transmission angle this far above the limit, rad
+ * (0.5°). Near its extreme the angle departs from the sampled one by about
+ * ½ μ'' (h/2)², under 0.05° for samples 5° apart and |μ''| up to 2; ten times that
+ * leaves room for loops near a toggle, and the report checks the exact range.
+ */
+export const TRANSMISSION_SAMPLING_MARGIN_RAD = Math.PI / 360;
 /** Most samples of one travel (ten turns), a cap on a long prescribed motion. */
 const EXTENT_MAX_STEPS = 10 * EXTENT_STEPS_PER_TURN;
 
@@ -41,7 +49,9 @@ export const PE_SIZE_VIOLATION = 1;
 export const PE_WORST_MU_RAD = 2;
 /** The terms' sum, in the measure's units. */
 export const PE_PENALTY = 3;
-export const PE_LENGTH = 4;
+/** Worst transmission angle below the limit (with its sampling margin), as a share of the limit (0 within it). */
+export const PE_TRANSMISSION_VIOLATION = 4;
+export const PE_LENGTH = 5;
 
 export interface PathExtent {
   /** Scratch of the branch evaluated last (PE_*). */
@@ -53,12 +63,14 @@ export interface PathExtent {
   evaluate(unwrapped: Float64Array, n: number, placement: Float64Array): void;
 }
 
-/** Null when the problem asks for neither the size limit nor a term: nothing to sweep. */
+/** Null when the problem asks for no limit and no term taken over the motion: nothing to sweep. */
 export function createPathExtent(problem: Problem, encoding: MechanismEncoding, weightSum: number): PathExtent | null {
   const maxSizeMm = problem.constraints.maxSizeMm;
+  const minMu = problem.constraints.minTransmissionRad ?? 0;
   const sizeWeight = problem.terms?.sizeWeight ?? 0;
   const transmissionWeight = problem.terms?.transmissionWeight ?? 0;
-  if (maxSizeMm === undefined && !(sizeWeight > 0) && !(transmissionWeight > 0)) return null;
+  if (maxSizeMm === undefined && !(minMu > 0) && !(sizeWeight > 0) && !(transmissionWeight > 0)) return null;
+  const searchMinMu = minMu > 0 ? Math.min(Math.PI / 2, minMu + TRANSMISSION_SAMPLING_MARGIN_RAD) : 0;
   const guideline = problem.terms?.transmissionGuidelineRad ?? DEFAULT_TRANSMISSION_GUIDELINE_RAD;
   const fullTurnRequired = problem.constraints.fullTurnCrank === true;
   const searchLimitMm = maxSizeMm === undefined ? Infinity : maxSizeMm * (1 - EXTENT_SAMPLING_MARGIN);
@@ -98,6 +110,8 @@ export function createPathExtent(problem: Problem, encoding: MechanismEncoding, 
     if (transmissionWeight > 0) penalty += transmissionWeight * (Math.max(0, guideline - worstMu) / guideline);
     figures[PE_WORST_MU_RAD] = worstMu;
     figures[PE_PENALTY] = unit * penalty;
+    // NaN (nothing assembled) takes the worst branch.
+    figures[PE_TRANSMISSION_VIOLATION] = !(searchMinMu > 0) || worstMu >= searchMinMu ? 0 : worstMu >= 0 ? (searchMinMu - worstMu) / searchMinMu : 1;
   }
 
   return { figures, evaluate };

@@ -10,8 +10,9 @@ import { MOTION_ANALYSIS_STEPS, candidateFigures, type CandidateMotionRange } fr
 import { errorSummary } from '../measures';
 import type { FamilyId, Problem } from '../problem';
 import { SIM_A, SIM_B, SIM_TX, SIM_TY } from '../../geometry';
-import type { PathDesignSpace } from './designSpace';
-import { PE_PENALTY, PE_SIZE_VIOLATION } from './pathExtent';
+import { variableRecord, type PathDesignSpace } from './designSpace';
+import { violatedSlotNames } from './score';
+import { PE_PENALTY, PE_SIZE_VIOLATION, PE_TRANSMISSION_VIOLATION } from './pathExtent';
 import type { PathResponse } from './pathResponse';
 import type { CandidateReport } from './types';
 
@@ -32,6 +33,11 @@ export const SIZE_DEFECT = 'motion larger than the size limit';
 /** The defect of a motion within the limit but inside the margin the search keeps below it (pathExtent.ts). */
 export const SIZE_MARGIN_DEFECT = 'motion within the sampling margin of the size limit (counted over it)';
 
+/** The defect of a transmission angle below the problem's least one somewhere along the motion. */
+export const TRANSMISSION_DEFECT = 'transmission angle below the least allowed along the motion';
+/** The defect of a worst angle at or above the limit but inside the margin the search keeps above it (pathExtent.ts). */
+export const TRANSMISSION_MARGIN_DEFECT = 'transmission angle within the sampling margin of the least allowed (counted below it)';
+
 /** A motion shorter than this (rad) is none: the figures are taken over a full turn. */
 const MIN_MOTION_RAD = 1e-9;
 
@@ -46,8 +52,7 @@ export function describePathDesign(problem: Problem, family: FamilyId, space: Pa
   response.evaluateBranch(x, best);
   const value = evaluation[2 * best];
   let violation = evaluation[2 * best + 1];
-  const defects: string[] = [];
-  for (let s = 0; s < V_SLOTS; s++) if (parts[s] > 0 || Number.isNaN(parts[s])) defects.push(DEFECT_NAMES[s]);
+  const defects = violatedSlotNames(parts, V_SLOTS, DEFECT_NAMES);
   const t = times.slice(best * n, best * n + n);
   const path = unwrapped.slice(0, n);
   const sa = freePlacement ? sim[SIM_A] : 1;
@@ -92,16 +97,23 @@ export function describePathDesign(problem: Problem, family: FamilyId, space: Pa
     else if (searchExcess > 0) defects.push(SIZE_MARGIN_DEFECT);
     if (!(searchExcess > 0)) violation += excess;
   }
-  const variables: Record<string, number> = {};
-  names.forEach((name, j) => {
-    variables[name] = x[j];
-  });
+  const minMu = problem.constraints.minTransmissionRad ?? 0;
+  if (minMu > 0 && found.ok) {
+    // The limit on the analysed motion's exact range, as for the size: the range the candidate reports.
+    const range = found.figures.transmissionDeg;
+    const worstRad = range === undefined ? NaN : (Math.min(range.min, 180 - range.max) * Math.PI) / 180;
+    const searchShortfall = response.extent === null ? 0 : response.extent.figures[PE_TRANSMISSION_VIOLATION];
+    const shortfall = worstRad >= minMu ? 0 : worstRad >= 0 ? (minMu - worstRad) / minMu : 0;
+    if (shortfall > 0) defects.push(TRANSMISSION_DEFECT);
+    else if (searchShortfall > 0) defects.push(TRANSMISSION_MARGIN_DEFECT);
+    if (!(searchShortfall > 0)) violation += shortfall;
+  }
   const feasible = violation <= 0;
   const grashof = found.ok ? (found.figures.grashof ?? part.grashof) : part.grashof;
   return {
     family,
     x: Array.from(x),
-    variables,
+    variables: variableRecord(names, x),
     error: errorSummary(d2, n, weights),
     value,
     ...(response.extent === null || !(response.extent.figures[PE_PENALTY] > 0) ? {} : { termsValue: response.extent.figures[PE_PENALTY] }),

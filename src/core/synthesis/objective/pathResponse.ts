@@ -30,7 +30,7 @@ import { createJointFit } from '../jointFit';
 import { measureValue } from '../measures';
 import { DEFAULT_MATCH_SAMPLES, type Problem } from '../problem';
 import { boxViolation, type PathDesignSpace } from './designSpace';
-import { PE_PENALTY, PE_SIZE_VIOLATION, createPathExtent, type PathExtent } from './pathExtent';
+import { PE_PENALTY, PE_SIZE_VIOLATION, PE_TRANSMISSION_VIOLATION, createPathExtent, type PathExtent } from './pathExtent';
 import { bestRanked, sumViolations } from './score';
 import {
   REFINE_HI as REFINE_HI_BINDING,
@@ -404,7 +404,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     let value = measureValue(measure, d2, n, weights);
     if (extent !== null) {
       extent.evaluate(unwrapped, n, placement);
-      violation += extent.figures[PE_SIZE_VIOLATION];
+      violation += extent.figures[PE_SIZE_VIOLATION] + extent.figures[PE_TRANSMISSION_VIOLATION];
       value += extent.figures[PE_PENALTY];
     }
     evaluation[2 * k] = value;
