@@ -29,10 +29,24 @@ export function indexedDbCheckpointStore(db: LociDb, runId: string, keep = CHECK
   };
 }
 
-/** Removes every checkpoint of the runs not in `keepRunIds` (an old run's are of no use once a new one starts). */
-export async function dropCheckpointsExcept(db: LociDb, keepRunIds: readonly string[]): Promise<void> {
+/**
+ * A run id's scope: what comes before its first '-' (`run` for the path search,
+ * `suspension` for the suspension search). Each search drops only its own scope's old
+ * checkpoints, so one search starting never loses another's that may yet resume.
+ */
+export function checkpointScope(runId: string): string {
+  const dash = runId.indexOf('-');
+  return dash < 0 ? runId : runId.slice(0, dash);
+}
+
+/**
+ * Removes every checkpoint of the runs not in `keepRunIds` within `scope` (by default the
+ * scopes of the kept runs): an old run's are of no use once a new one of its kind starts.
+ */
+export async function dropCheckpointsExcept(db: LociDb, keepRunIds: readonly string[], scope?: string): Promise<void> {
+  const scopes = scope === undefined ? keepRunIds.map(checkpointScope) : [scope];
   const tx = db.transaction('checkpoints', 'readwrite');
   const keys = await tx.store.getAllKeys();
-  for (const key of keys) if (!keepRunIds.includes(key[0])) await tx.store.delete(key);
+  for (const key of keys) if (scopes.includes(checkpointScope(key[0])) && !keepRunIds.includes(key[0])) await tx.store.delete(key);
   await tx.done;
 }

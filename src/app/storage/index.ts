@@ -1,6 +1,6 @@
 /** Keeping work: the project, run checkpoints and background images in IndexedDB. */
 export { openLociDb, type LociDb } from './db';
-export { indexedDbCheckpointStore, dropCheckpointsExcept, CHECKPOINTS_KEPT } from './checkpointStore';
+export { indexedDbCheckpointStore, dropCheckpointsExcept, checkpointScope, CHECKPOINTS_KEPT } from './checkpointStore';
 export { loadProject, saveProject, createProjectSaver, type ProjectSaver } from './projectStore';
 export { readProject } from './projectSchema';
 export { putImage, getImage, dropImagesExcept, deleteImage, TRACE_IMAGE_PREFIX } from './imageStore';

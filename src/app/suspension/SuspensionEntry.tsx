@@ -1,8 +1,15 @@
 /**
  * The suspension workspace with its own store: what the page mounts to open it. The
- * page hears of each change (to keep the design in the project) through `onChange`.
+ * page hears of each change (to keep the design in the project) through `onChange`. A
+ * search the project holds as running (a reload interrupted it) resumes on opening.
  */
 import { useEffect, useState } from 'react';
+import { browserEnvironment } from '../../engine/browser';
+import { browserSearchCheckpoints, newSuspensionRunId } from './search/checkpoints';
+import { CloseWhileRunning } from './search/CloseWhileRunning';
+import { SuspensionSearchController } from './search/controller';
+import { SearchControllerContext } from './search/controllerContext';
+import { ResumeNotice } from './search/ResumeNotice';
 import { demoSuspensionState, type SuspensionState } from './state';
 import { sameDesign } from './stored';
 import { SuspensionStoreContext, createSuspensionStore } from './store';
@@ -14,6 +21,16 @@ export function SuspensionEntry({ initial, onClose, onChange }: {
   onChange?: (state: SuspensionState) => void;
 }) {
   const [store] = useState(() => createSuspensionStore(initial ?? demoSuspensionState()));
+  const [controller] = useState(() => new SuspensionSearchController({
+    env: browserEnvironment(),
+    wallNow: () => Date.now(),
+    newRunId: newSuspensionRunId,
+    checkpoints: browserSearchCheckpoints(),
+    onStarted: (running) => store.dispatch({ type: 'searchStarted', running }),
+    onFinished: (run) => store.dispatch({ type: 'searchFinished', run }),
+    onEnded: () => store.dispatch({ type: 'searchEnded' }),
+  }));
+  const [asking, setAsking] = useState(false);
   useEffect(() => {
     if (onChange === undefined) return undefined;
     let kept = store.getState();
@@ -25,9 +42,19 @@ export function SuspensionEntry({ initial, onClose, onChange }: {
       onChange(now);
     });
   }, [store, onChange]);
+  useEffect(() => {
+    const running = store.getState().searchRunning;
+    if (running !== undefined) void controller.resume(running);
+    return () => controller.stop();
+  }, [store, controller]);
+  const close = onClose === undefined ? undefined : () => (controller.busy ? setAsking(true) : onClose());
   return (
     <SuspensionStoreContext.Provider value={store}>
-      <SuspensionWorkspace onClose={onClose} />
+      <SearchControllerContext.Provider value={controller}>
+        <ResumeNotice controller={controller} />
+        {asking && onClose !== undefined && <CloseWhileRunning controller={controller} onClose={onClose} onCancel={() => setAsking(false)} />}
+        <SuspensionWorkspace onClose={close} />
+      </SearchControllerContext.Provider>
     </SuspensionStoreContext.Provider>
   );
 }

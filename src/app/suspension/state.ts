@@ -17,7 +17,7 @@ import {
 } from '../../core/suspension';
 import { draftOf, switchFrontMode, type BicycleDraft, type DraftField, type FrontMode, type SpringMode } from './fields';
 import { demoSearchSetup, reduceSearchSetup, type SearchSetup, type SearchSetupAction, type SetupTool } from './targets/setup';
-import { recordAfter, type SearchRecord, type SearchRun } from './search/results';
+import { recordAfter, type RunningSearch, type SearchRecord, type SearchRun } from './search/results';
 
 export interface LayoutDraft {
   readonly kind: LayoutKind;
@@ -47,6 +47,8 @@ export interface SuspensionState {
   readonly setupTool: SetupTool;
   /** The last search's ranked designs, and the run before it; absent until a search ends. */
   readonly searchResults?: SearchRecord;
+  /** The search running now, until it ends: a reload resumes it from its checkpoints. */
+  readonly searchRunning?: RunningSearch;
 }
 
 export type SuspensionAction =
@@ -66,7 +68,9 @@ export type SuspensionAction =
   | { readonly type: 'dismissImport' }
   | { readonly type: 'search'; readonly action: SearchSetupAction }
   | { readonly type: 'setupTool'; readonly tool: SetupTool }
+  | { readonly type: 'searchStarted'; readonly running: RunningSearch }
   | { readonly type: 'searchFinished'; readonly run: SearchRun }
+  | { readonly type: 'searchEnded' }
   | { readonly type: 'openLayout'; readonly kind: LayoutKind; readonly pivots: Readonly<Record<string, Vec2>>; readonly axleBody: LayoutAxleBody };
 
 /** The kind the demo opens with: the four-bar with the axle on the seat stay. */
@@ -92,6 +96,11 @@ export function demoSuspensionState(): SuspensionState {
     search: demoSearchSetup(),
     setupTool: null,
   };
+}
+
+function withoutRunning(state: SuspensionState): SuspensionState {
+  const { searchRunning: _ended, ...rest } = state;
+  return rest;
 }
 
 export function reduceSuspension(state: SuspensionState, action: SuspensionAction): SuspensionState {
@@ -141,6 +150,7 @@ export function reduceSuspension(state: SuspensionState, action: SuspensionActio
         search: state.search,
         setupTool: null,
         ...(state.searchResults === undefined ? {} : { searchResults: state.searchResults }),
+        ...(state.searchRunning === undefined ? {} : { searchRunning: state.searchRunning }),
       };
     }
     case 'importIssues':
@@ -153,8 +163,12 @@ export function reduceSuspension(state: SuspensionState, action: SuspensionActio
     }
     case 'setupTool':
       return { ...state, setupTool: action.tool };
+    case 'searchStarted':
+      return { ...state, searchRunning: action.running };
     case 'searchFinished':
-      return { ...state, searchResults: recordAfter(state.searchResults, action.run) };
+      return { ...withoutRunning(state), searchResults: recordAfter(state.searchResults, action.run) };
+    case 'searchEnded':
+      return state.searchRunning === undefined ? state : withoutRunning(state);
     case 'openLayout': {
       // A searched design opened in the workspace; the pivots of the kind it replaces are kept, as on a switch of kind.
       const kept = action.kind === state.layout.kind ? state.pivotsByKind : { ...state.pivotsByKind, [state.layout.kind]: state.layout.pivots };

@@ -11,8 +11,8 @@ import type { BicycleDraft } from './fields';
 import type { LayoutDraft, SuspensionState } from './state';
 import { demoSearchSetup, type SearchSetup } from './targets/setup';
 import { storedSearchSetupSchema } from './targets/setupSchema';
-import type { SearchRecord } from './search/results';
-import { storedSearchRecordSchema } from './search/resultsSchema';
+import type { RunningSearch, SearchRecord } from './search/results';
+import { storedRunningSearchSchema, storedSearchRecordSchema } from './search/resultsSchema';
 
 export interface StoredSuspension {
   readonly name: string;
@@ -22,6 +22,8 @@ export interface StoredSuspension {
   readonly cogIndex: number;
   readonly search?: SearchSetup;
   readonly searchResults?: SearchRecord;
+  /** Absent in a project kept before searches resumed after a reload. */
+  readonly searchRunning?: RunningSearch;
 }
 
 const finite = z.number().refine(Number.isFinite, 'expected a finite number');
@@ -64,15 +66,16 @@ export const storedSuspensionSchema = z.object({
   cogIndex: z.number().int().min(0),
   search: storedSearchSetupSchema.optional(),
   searchResults: storedSearchRecordSchema,
+  searchRunning: storedRunningSearchSchema,
 });
 
 export function storedOf(state: SuspensionState): StoredSuspension {
-  return { name: state.name, draft: state.draft, layout: state.layout, pivotsByKind: state.pivotsByKind, cogIndex: state.cogIndex, search: state.search, ...(state.searchResults === undefined ? {} : { searchResults: state.searchResults }) };
+  return { name: state.name, draft: state.draft, layout: state.layout, pivotsByKind: state.pivotsByKind, cogIndex: state.cogIndex, search: state.search, ...(state.searchResults === undefined ? {} : { searchResults: state.searchResults }), ...(state.searchRunning === undefined ? {} : { searchRunning: state.searchRunning }) };
 }
 
 /** Whether two states keep the same design (what `storedOf` takes is the same). */
 export function sameDesign(a: SuspensionState, b: SuspensionState): boolean {
-  return a.name === b.name && a.draft === b.draft && a.layout === b.layout && a.pivotsByKind === b.pivotsByKind && a.cogIndex === b.cogIndex && a.search === b.search && a.searchResults === b.searchResults;
+  return a.name === b.name && a.draft === b.draft && a.layout === b.layout && a.pivotsByKind === b.pivotsByKind && a.cogIndex === b.cogIndex && a.search === b.search && a.searchResults === b.searchResults && a.searchRunning === b.searchRunning;
 }
 
 /** The workspace a stored design opens to (at full extension, no import pending). */
@@ -93,5 +96,6 @@ export function stateOf(stored: StoredSuspension): SuspensionState {
     search: stored.search ?? demoSearchSetup(),
     setupTool: null,
     ...(stored.searchResults === undefined ? {} : { searchResults: stored.searchResults }),
+    ...(stored.searchRunning === undefined ? {} : { searchRunning: stored.searchRunning }),
   };
 }

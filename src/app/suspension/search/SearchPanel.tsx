@@ -4,21 +4,18 @@
  * ranked layouts table of the latest run (and of the run before it, kept and labelled),
  * opening a design in the workspace, and the compare view of 2–4 ticked designs.
  */
-import { useEffect, useMemo, useState, useSyncExternalStore } from 'react';
+import { useMemo, useState, useSyncExternalStore } from 'react';
 import { SUSPENSION_CAUTION, demoAxleBody, LAYOUT_NAMES } from '../../../core/suspension';
-import { browserEnvironment } from '../../../engine/browser';
 import { figure } from '../labels';
 import { useSuspension, useSuspensionDispatch } from '../store';
 import { readSearchProblem } from '../targets/searchProblem';
 import { MAX_COMPARED, comparedDesigns } from './compare';
 import { CompareView } from './CompareView';
-import { SuspensionSearchController, type SearchSession } from './controller';
+import type { SearchSession } from './controller';
+import { useSearchController } from './controllerContext';
 import type { SearchRun } from './results';
 import { ResultsTable } from './ResultsTable';
 import type { TableRow } from './rows';
-
-let runCounter = 0;
-const newRunId = () => `suspension-${Date.now().toString(36)}-${(runCounter++).toString(36)}`;
 
 function seconds(ms: number): string {
   return `${(ms / 1000).toFixed(1)} s`;
@@ -53,13 +50,7 @@ export function SearchPanel() {
   const record = state.searchResults;
   const reading = useMemo(() => readSearchProblem(state), [state]);
 
-  const [controller] = useState(() => new SuspensionSearchController({
-    env: browserEnvironment(),
-    wallNow: () => Date.now(),
-    newRunId,
-    onFinished: (run) => dispatch({ type: 'searchFinished', run }),
-  }));
-  useEffect(() => () => controller.stop(), [controller]);
+  const controller = useSearchController();
   const session = useSyncExternalStore(controller.session.subscribe, controller.session.getState);
   const running = session.status === 'running' || session.status === 'stopping';
 
@@ -114,7 +105,7 @@ export function SearchPanel() {
 
   return (
     <section className="panel susp-panel susp-search" aria-labelledby="susp-search-title" data-testid="suspension-search">
-      <h2 id="susp-search-title">Search</h2>
+      <h2 id="susp-search-title" tabIndex={-1}>Search</h2>
       <p className="susp-caution" role="note"><strong>Caution.</strong> {SUSPENSION_CAUTION}</p>
       <div className="susp-search-controls">
         <button type="button" onClick={onStart} disabled={!reading.ok || running} aria-describedby={why === null ? undefined : 'susp-search-why'}>Start search</button>

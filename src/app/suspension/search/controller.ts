@@ -4,13 +4,29 @@
  * Progress (evaluations, elapsed time, the best of each layout so far) reaches the page
  * at most a few times a second; Stop ends the run between rounds and keeps what it
  * found. A finished run is handed over whole (`onFinished`), to be kept in the project.
+ * The running search (its id, problem and settings) is handed over at its start
+ * (`onStarted`) to be kept in the project too, and its checkpoints go to a store under
+ * its id, so a search a reload interrupted resumes from its last checkpoint (`resume`).
  */
 import type { LayoutKind } from '../../../core/suspension';
 import type { SuspensionProblemInput } from '../../../core/synthesis';
-import { createRun, memoryCheckpointStore, type CheckpointPayload, type EngineEnvironment, type RankedCandidate, type Run, type RunProgress, type RunResult } from '../../../engine';
+import {
+  createRun,
+  memoryCheckpointStore,
+  restoreRunFromStore,
+  type CheckpointPayload,
+  type CheckpointStore,
+  type EngineEnvironment,
+  type RankedCandidate,
+  type Run,
+  type RunProgress,
+  type RunResult,
+} from '../../../engine';
 import { createReducerStore, type ReducerStore } from '../../reducerStore';
+import { newestReadable } from '../../run/interimCandidates';
 import { failureWords } from '../../run/searchController';
-import { candidateOf, type SearchCandidate, type SearchRun } from './results';
+import type { SearchCheckpoints } from './checkpoints';
+import { candidateOf, type RunningSearch, type SearchCandidate, type SearchRun } from './results';
 import { RESULTS_PER_LAYOUT, searchStartIssues, suspensionRunInput, type SearchSettings } from './runInput';
 
 /** Progress reaches the page at most this often, ms. */
@@ -34,6 +50,8 @@ export interface SearchSession {
   readonly bestPerLayout: readonly LayoutBest[];
   readonly message: string | null;
   readonly messageDetail: string | null;
+  /** The run shown was resumed from its checkpoints after a reload. */
+  readonly resumed: boolean;
 }
 
 export const IDLE_SESSION: SearchSession = {
@@ -44,6 +62,7 @@ export const IDLE_SESSION: SearchSession = {
   bestPerLayout: [],
   message: null,
   messageDetail: null,
+  resumed: false,
 };
 
 export interface SearchControllerDeps {
@@ -53,6 +72,22 @@ export interface SearchControllerDeps {
   readonly newRunId: () => string;
   /** Told of each finished (or stopped) run with the designs it found. */
   readonly onFinished: (run: SearchRun) => void;
+  /** Where runs keep their checkpoints; absent: in memory only (nothing outlives the page). */
+  readonly checkpoints?: SearchCheckpoints;
+  /** Told of a search starting (to keep it in the project until it ends). */
+  readonly onStarted?: (running: RunningSearch) => void;
+  /** Told of every end of a run started or resumed, after `onFinished` when there was one. */
+  readonly onEnded?: () => void;
+}
+
+/** The message of a run resumed from its checkpoints: where it goes on from, and any damaged checkpoint passed over. */
+export function resumedMessage(progress: Pick<RunProgress, 'evaluations' | 'elapsedMs'>, skipped: readonly string[]): string {
+  const from = `Resumed after a reload: the search goes on from its last checkpoint (${progress.evaluations.toLocaleString('en-GB')} evaluations, ${(progress.elapsedMs / 1000).toFixed(1)} s).`;
+  if (skipped.length === 0) return from;
+  // The engine's reasons carry checksums; the first clause says enough ("checkpoint is corrupt").
+  const why = [...new Set(skipped.map((reason) => reason.split(':')[0]))].join('; ');
+  const n = skipped.length;
+  return `${from} The newest ${n === 1 ? 'checkpoint was' : `${n} checkpoints were`} damaged (${why}) and skipped: the work after the one it went on from is searched again.`;
 }
 
 /** The best of each job's archive in a checkpoint (each archive is kept best first). */
@@ -73,6 +108,11 @@ export class SuspensionSearchController {
   readonly session: ReducerStore<SearchSession, Partial<SearchSession>>;
   private readonly deps: SearchControllerDeps;
   private run: Run | null = null;
+  /** A resume is reading its checkpoints back (no run yet). */
+  private resuming = false;
+  /** Stop was asked for while a resume read its checkpoints. */
+  private stopRequested = false;
+  private ended: Promise<void> = Promise.resolve();
   private unsubscribe: (() => void) | null = null;
   private lastDispatchMs = -Infinity;
   private trailing: ReturnType<typeof setTimeout> | null = null;
@@ -88,12 +128,12 @@ export class SuspensionSearchController {
   }
 
   get busy(): boolean {
-    return this.run !== null;
+    return this.run !== null || this.resuming;
   }
 
   /** Starts a search of `input` (a suspension problem, as its file holds it); resolves when it ends. */
   async start(input: SuspensionProblemInput, settings: SearchSettings): Promise<void> {
-    if (this.run !== null) {
+    if (this.busy) {
       this.update({ message: 'A search is already running; stop it first.' });
       return;
     }
@@ -104,10 +144,16 @@ export class SuspensionSearchController {
       return;
     }
     const runInput = suspensionRunInput(input, settings, workers);
+    const running: RunningSearch = {
+      runId: this.deps.newRunId(),
+      startedAt: new Date(this.deps.wallNow()).toISOString(),
+      problem: JSON.parse(JSON.stringify(input)) as SuspensionProblemInput,
+      settings: { seed: settings.seed, budget: { evaluations: settings.budget.evaluations, seconds: settings.budget.seconds } },
+    };
     let bestPerLayout: LayoutBest[] = [];
     const made = createRun(this.deps.env, runInput, {
       workers,
-      store: memoryCheckpointStore(),
+      store: this.storeOf(running.runId),
       topK: TOP_OVERALL,
       perJob: RESULTS_PER_LAYOUT,
       onCheckpoint: (payload) => {
@@ -119,9 +165,89 @@ export class SuspensionSearchController {
       this.update({ status: 'failed', ...failureWords('start', made.reason) });
       return;
     }
-    const run = made.run;
-    this.run = run;
+    this.run = made.run;
+    const ended = this.nowGoing();
     this.update({ ...IDLE_SESSION, status: 'running', budgetEvaluations: runInput.budget.evaluations ?? null, bestPerLayout });
+    if (this.deps.checkpoints !== undefined && !(await this.deps.checkpoints.durable().catch(() => false))) {
+      this.update({ message: 'This browser keeps no storage (private window?): a reload loses this search. Stop keeps the designs found so far.' });
+    }
+    // Older suspension runs' checkpoints are of no use now (a run whose resume failed leaves some).
+    await this.deps.checkpoints?.dropExcept([running.runId]).catch(() => {});
+    this.deps.onStarted?.(running);
+    await this.follow(made.run, running, ended);
+  }
+
+  /**
+   * After a reload (or a closed page): the search `running` was doing goes on from its
+   * newest checkpoint that reads back whole, and says so; a damaged newer one is skipped,
+   * as the engine does, and the message says that too.
+   */
+  async resume(running: RunningSearch): Promise<void> {
+    if (this.busy) return;
+    this.resuming = true;
+    this.stopRequested = false;
+    const ended = this.nowGoing();
+    this.update({ ...IDLE_SESSION, status: 'running', budgetEvaluations: running.settings.budget.evaluations, message: 'Resuming the search a reload interrupted…', resumed: true });
+    const store = this.storeOf(running.runId);
+    let bestPerLayout: LayoutBest[] = [];
+    const restored = await restoreRunFromStore(this.deps.env, store, {
+      workers: this.deps.env.defaultWorkerCount(),
+      topK: TOP_OVERALL,
+      perJob: RESULTS_PER_LAYOUT,
+      onCheckpoint: (payload) => {
+        bestPerLayout = bestPerLayoutOf(payload);
+        this.update({ bestPerLayout });
+      },
+    });
+    if (restored.ok) this.run = restored.run;
+    this.resuming = false;
+    if (!restored.ok) {
+      this.update({
+        status: 'failed',
+        message: `The search a reload interrupted could not resume: ${restored.empty ? 'it had saved no checkpoint before the reload' : 'no checkpoint of it could be read back whole'}. The runs kept below are unchanged; start the search again.`,
+        messageDetail: restored.reason,
+      });
+      await this.deps.checkpoints?.dropExcept([]).catch(() => {});
+      this.deps.onEnded?.();
+      ended();
+      return;
+    }
+    // The best of each layout at the checkpoint it goes on from, straight away rather than at the next checkpoint.
+    // (A run's own progress counts its islands' evaluations only once they are running again.)
+    const from = await newestReadable(store).catch(() => null);
+    if (from !== null) bestPerLayout = bestPerLayoutOf(from);
+    const at = { evaluations: from?.evaluations ?? 0, elapsedMs: from?.elapsedMs ?? restored.run.progress().elapsedMs };
+    this.update({
+      status: this.stopRequested ? 'stopping' : 'running',
+      ...at,
+      budgetEvaluations: restored.run.progress().budgetEvaluations,
+      bestPerLayout,
+      message: resumedMessage(at, restored.skipped),
+    });
+    // Stop pressed (or the workspace closed) while the checkpoints were read: the run ends at once with what they hold.
+    if (this.stopRequested) restored.run.cancel();
+    await this.follow(restored.run, running, ended);
+  }
+
+  /** Marks a run as going until the function it returns is called (`whenIdle` waits for it). */
+  private nowGoing(): () => void {
+    let ended = () => {};
+    this.ended = new Promise<void>((resolve) => {
+      ended = resolve;
+    });
+    return ended;
+  }
+
+  /** Resolves once no run is going (at once when none is). */
+  whenIdle(): Promise<void> {
+    return this.ended;
+  }
+
+  private storeOf(runId: string): CheckpointStore {
+    return this.deps.checkpoints?.store(runId) ?? memoryCheckpointStore();
+  }
+
+  private async follow(run: Run, running: RunningSearch, ended: () => void): Promise<void> {
     this.unsubscribe = run.onProgress((progress) => this.onProgress(progress));
     let result: RunResult;
     try {
@@ -130,7 +256,9 @@ export class SuspensionSearchController {
       const p = run.progress();
       result = { ok: false, reason: error instanceof Error ? error.message : String(error), evaluations: p.evaluations, rounds: p.rounds };
     }
-    this.finish(run, input, settings, result);
+    this.finish(run, running, result);
+    await this.deps.checkpoints?.dropExcept([]).catch(() => {});
+    ended();
   }
 
   private onProgress(progress: RunProgress): void {
@@ -149,7 +277,7 @@ export class SuspensionSearchController {
     this.update({ evaluations: progress.evaluations, budgetEvaluations: progress.budgetEvaluations, elapsedMs: progress.elapsedMs });
   }
 
-  private finish(run: Run, input: SuspensionProblemInput, settings: SearchSettings, result: RunResult): void {
+  private finish(run: Run, running: RunningSearch, result: RunResult): void {
     if (this.run !== run) return;
     this.unsubscribe?.();
     this.unsubscribe = null;
@@ -167,10 +295,11 @@ export class SuspensionSearchController {
         message: `${words.message.split(':')[0]}: ${kept ? 'the designs found before it stopped are kept below.' : 'no design was found before it stopped; start again.'}`,
         messageDetail: words.messageDetail,
       });
-      if (kept) this.deps.onFinished(this.runOf(input, settings, result.candidates ?? [], p.evaluations, 'cancelled'));
+      if (kept) this.deps.onFinished(this.runOf(running, result.candidates ?? [], p.evaluations, 'cancelled'));
+      this.deps.onEnded?.();
       return;
     }
-    const finished = this.runOf(input, settings, result.candidates, result.evaluations, result.stopReason);
+    const finished = this.runOf(running, result.candidates, result.evaluations, result.stopReason);
     this.update({
       status: 'finished',
       evaluations: result.evaluations,
@@ -179,14 +308,16 @@ export class SuspensionSearchController {
       message: result.stopReason === 'cancelled' ? 'Stopped: the designs found so far are kept below.' : null,
     });
     this.deps.onFinished(finished);
+    this.deps.onEnded?.();
   }
 
-  private runOf(input: SuspensionProblemInput, settings: SearchSettings, ranked: readonly RankedCandidate[], evaluations: number, stopReason: SearchRun['stopReason']): SearchRun {
+  private runOf(running: RunningSearch, ranked: readonly RankedCandidate[], evaluations: number, stopReason: SearchRun['stopReason']): SearchRun {
     const candidates = ranked.flatMap((c) => (c.detail.kind === 'suspension' ? [candidateOf(c.rank, c.detail.candidate)] : []));
+    const { settings } = running;
     return {
-      id: this.deps.newRunId(),
+      id: running.runId,
       finishedAt: new Date(this.deps.wallNow()).toISOString(),
-      problem: JSON.parse(JSON.stringify(input)) as SuspensionProblemInput,
+      problem: running.problem,
       seed: settings.seed,
       budget: { evaluations: settings.budget.evaluations, seconds: settings.budget.seconds },
       evaluations,
@@ -197,7 +328,9 @@ export class SuspensionSearchController {
 
   /** Ends the run between rounds; the designs found so far are kept. */
   stop(): void {
+    if (this.resuming) this.stopRequested = true;
     if (this.run === null) return;
+    this.stopRequested = true;
     this.update({ status: 'stopping' });
     this.run.cancel();
   }

@@ -57,6 +57,18 @@ export interface SearchRun {
   readonly candidates: readonly SearchCandidate[];
 }
 
+/**
+ * A search running now, as the project keeps it until the search ends: what a reload
+ * needs to resume it from its checkpoints (kept under `runId`) and to keep its designs.
+ */
+export interface RunningSearch {
+  readonly runId: string;
+  /** When it started, ISO 8601. */
+  readonly startedAt: string;
+  readonly problem: SuspensionProblemInput;
+  readonly settings: { readonly seed: number; readonly budget: { readonly evaluations: number | null; readonly seconds: number | null } };
+}
+
 /** The latest run, and the one before it (kept, labelled, when a new search ends). */
 export interface SearchRecord {
   readonly current: SearchRun;

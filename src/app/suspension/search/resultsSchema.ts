@@ -5,7 +5,7 @@
 import { z } from 'zod';
 import { suspensionProblemShape } from '../../../core/io/suspensionProblemFile';
 import { LAYOUT_KINDS, type LayoutKind } from '../../../core/suspension';
-import type { SearchRecord } from './results';
+import type { RunningSearch, SearchRecord } from './results';
 
 const finite = z.number().refine(Number.isFinite, 'expected a finite number');
 /** A figure or score: any number, NaN for a figure that does not exist (no chain line) included; the project keeps them by structured clone. */
@@ -41,12 +41,16 @@ const candidate = z.object({
   failure: text.nullable(),
 });
 
+const problem = z.object({ ...suspensionProblemShape, name: z.string().max(10_000) });
+const seed = z.number().int().min(0);
+const budget = z.object({ evaluations: z.number().int().min(1).nullable(), seconds: z.number().positive().nullable() });
+
 const run = z.object({
   id: z.string().max(200),
   finishedAt: z.string().max(100),
-  problem: z.object({ ...suspensionProblemShape, name: z.string().max(10_000) }),
-  seed: z.number().int().min(0),
-  budget: z.object({ evaluations: z.number().int().min(1).nullable(), seconds: z.number().positive().nullable() }),
+  problem,
+  seed,
+  budget,
   evaluations: z.number().min(0),
   stopReason: z.enum(['budget', 'time', 'converged', 'target', 'cancelled']),
   candidates: z.array(candidate).max(1000),
@@ -62,3 +66,19 @@ export const searchRecordSchema = record as unknown as z.ZodType<SearchRecord>;
  * design, the set-up and the path work stay); the next search writes a new one.
  */
 export const storedSearchRecordSchema = searchRecordSchema.optional().catch(undefined);
+
+const running = z.object({
+  runId: z.string().min(1).max(200),
+  startedAt: z.string().max(100),
+  problem,
+  settings: z.object({ seed, budget }),
+});
+
+export const runningSearchSchema = running as unknown as z.ZodType<RunningSearch>;
+
+/**
+ * The running search as the stored suspension reads it: absent (a project kept before
+ * searches resumed, or with none running), or a whole record; one that does not read is
+ * left out (the search is not resumed, nothing else is refused).
+ */
+export const storedRunningSearchSchema = runningSearchSchema.optional().catch(undefined);

@@ -17,7 +17,10 @@ export interface SearchSettings {
 
 /** Best distinct designs of each layout kept in the results. */
 export const RESULTS_PER_LAYOUT = 5;
-/** A running search checkpoints (in memory) this often, ms: each checkpoint updates the best per layout shown. */
+/**
+ * A running search checkpoints this often, ms (into IndexedDB in the app): a reload loses
+ * at most about this much of the search, and each checkpoint updates the best per layout shown.
+ */
 export const SEARCH_CHECKPOINT_EVERY_MS = 1_000;
 
 /** The problem file's JSON for a problem input (what a worker reads). */
