@@ -8,28 +8,13 @@ import { GAIT_CAUTION } from '../core/gait';
 import { toLegFile } from '../core/io/legFile';
 import { MAX_NAME_LENGTH } from '../core/io/linkageFile';
 import { FAMILY_NAMES, createObjective, type LegCandidateReport, type LegProblem } from '../core/synthesis';
-
-export interface LegFamilySummary {
-  readonly family: string;
-  readonly name: string;
-  readonly dim: number;
-  readonly variables: { readonly name: string; readonly lower: number; readonly upper: number }[];
-}
+import { familySearchLines, familySearchSummary, type FamilySearchSummary } from './searchSummary';
+import { weightedCandidateFields } from './weightedCandidate';
 
 /** What a fit of a leg problem would search, family by family. */
-export function legSearchSummary(problem: LegProblem): LegFamilySummary[] {
-  return problem.families.map((family) => {
-    const objective = createObjective(problem, family);
-    return {
-      family,
-      name: FAMILY_NAMES[family],
-      dim: objective.dim,
-      variables: objective.variableNames.map((name, j) => ({ name, lower: objective.lower[j], upper: objective.upper[j] })),
-    };
-  });
+export function legSearchSummary(problem: LegProblem): FamilySearchSummary[] {
+  return problem.families.map((family) => familySearchSummary(createObjective(problem, family), FAMILY_NAMES[family]));
 }
-
-const round = (v: number) => String(Number(v.toPrecision(6)));
 
 function groundText(problem: LegProblem): string {
   const g = problem.leg.ground;
@@ -51,7 +36,7 @@ function targetsText(problem: LegProblem): string {
   return out.join('; ');
 }
 
-export function legSummaryText(file: string, problem: LegProblem, families: readonly LegFamilySummary[]): string {
+export function legSummaryText(file: string, problem: LegProblem, families: readonly FamilySearchSummary[]): string {
   const leg = problem.leg;
   const lines = [
     `${file}: valid leg problem ${JSON.stringify(problem.name)}`,
@@ -62,11 +47,7 @@ export function legSummaryText(file: string, problem: LegProblem, families: read
     `  keep-out:  ${problem.keepOut.length === 0 ? 'none' : problem.keepOut.map((k) => `${k.name === undefined ? '' : `${k.name} `}(${k.x}, ${k.y}) r ${k.r} mm`).join('; ')}`,
     `A fit would search ${families.length} famil${families.length === 1 ? 'y' : 'ies'} (the foot is each family's point P):`,
   ];
-  for (const f of families) {
-    lines.push(`  ${f.family} (${f.name}): ${f.dim} variables`);
-    const width = Math.max(...f.variables.map((v) => v.name.length));
-    for (const v of f.variables) lines.push(`    ${v.name.padEnd(width)}  ${round(v.lower)} … ${round(v.upper)}`);
-  }
+  lines.push(...familySearchLines(families));
   lines.push(GAIT_CAUTION);
   return `${lines.join('\n')}\n`;
 }
@@ -77,12 +58,7 @@ export function legCandidateJson(rank: number, problemName: string, report: LegC
     rank,
     family: report.family,
     familyName: report.familyName,
-    parameters: report.variables,
-    value: report.value,
-    feasible: report.feasible,
-    violation: report.violation,
-    defects: report.defects,
-    terms: report.terms,
+    ...weightedCandidateFields(report),
     searchFigures: report.searchFigures,
     gait: report.gait,
     ...(report.gaitFailure === undefined ? {} : { analysisFailure: report.gaitFailure }),

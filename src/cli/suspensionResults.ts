@@ -7,30 +7,15 @@
 import { toLinkageFile } from '../core/io/linkageFile';
 import { LAYOUT_NAMES, SUSPENSION_CAUTION } from '../core/suspension';
 import { createObjective, type SuspensionCandidateReport, type SuspensionProblem } from '../core/synthesis';
-
-export interface LayoutSummary {
-  readonly family: string;
-  readonly name: string;
-  readonly dim: number;
-  readonly variables: { readonly name: string; readonly lower: number; readonly upper: number }[];
-}
+import { familySearchLines, familySearchSummary, type FamilySearchSummary } from './searchSummary';
+import { weightedCandidateFields } from './weightedCandidate';
 
 /** What a fit of a suspension problem would search, layout by layout. */
-export function suspensionSearchSummary(problem: SuspensionProblem): LayoutSummary[] {
-  return problem.layouts.map((kind) => {
-    const objective = createObjective(problem, kind);
-    return {
-      family: kind,
-      name: LAYOUT_NAMES[kind],
-      dim: objective.dim,
-      variables: objective.variableNames.map((name, j) => ({ name, lower: objective.lower[j], upper: objective.upper[j] })),
-    };
-  });
+export function suspensionSearchSummary(problem: SuspensionProblem): FamilySearchSummary[] {
+  return problem.layouts.map((kind) => familySearchSummary(createObjective(problem, kind), LAYOUT_NAMES[kind]));
 }
 
-const round = (v: number) => String(Number(v.toPrecision(6)));
-
-export function suspensionSummaryText(file: string, problem: SuspensionProblem, layouts: readonly LayoutSummary[]): string {
+export function suspensionSummaryText(file: string, problem: SuspensionProblem, layouts: readonly FamilySearchSummary[]): string {
   const b = problem.bicycle;
   const t = problem.targets;
   const targets: string[] = [];
@@ -53,11 +38,7 @@ export function suspensionSummaryText(file: string, problem: SuspensionProblem, 
     `  keep-out:  ${problem.keepOut.length === 0 ? 'none' : problem.keepOut.map((k) => `${k.name} (${k.x}, ${k.y}) r ${k.r} mm`).join('; ')}`,
     `A fit would search ${layouts.length} layout${layouts.length === 1 ? '' : 's'}:`,
   ];
-  for (const l of layouts) {
-    lines.push(`  ${l.family} (${l.name}): ${l.dim} variables`);
-    const width = Math.max(...l.variables.map((v) => v.name.length));
-    for (const v of l.variables) lines.push(`    ${v.name.padEnd(width)}  ${round(v.lower)} … ${round(v.upper)}`);
-  }
+  lines.push(...familySearchLines(layouts));
   lines.push(SUSPENSION_CAUTION);
   return `${lines.join('\n')}\n`;
 }
@@ -69,12 +50,7 @@ export function suspensionCandidateJson(rank: number, problemName: string, repor
     rank,
     family: report.family,
     layout: report.layoutName,
-    parameters: report.variables,
-    value: report.value,
-    feasible: report.feasible,
-    violation: report.violation,
-    defects: report.defects,
-    terms: report.terms,
+    ...weightedCandidateFields(report),
     pivots: report.pivots,
     figures: s === null
       ? null

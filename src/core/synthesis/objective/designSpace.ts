@@ -1,25 +1,56 @@
 /**
  * The design space of a path problem's family: the encoding's variables and default
  * boxes, the per-point driver variables of free timing, the problem's box overrides, and
- * the map from the optimizers' unit box. Built once per objective.
+ * the map from the optimizers' unit box. Built once per objective. Also what any kind of
+ * problem's design space shows a search, and a design as a record of its variables.
  */
 import { targetFrame, type MechanismEncoding } from '../encoding';
 import { createFourBarLengths } from '../fourBarLengths';
 import { createPoseFamily } from '../poseFamilies';
 import type { FamilyId, Problem } from '../problem';
 import { createSearchMap, type SearchMap } from '../searchMap';
+import type { SearchObjectiveOf } from './types';
 
 const TAU = 2 * Math.PI;
 
-export interface PathDesignSpace {
-  readonly encoding: MechanismEncoding;
-  readonly names: string[];
-  /** Mechanism variables (the per-point driver variables follow them). */
-  readonly mechanismDim: number;
+/** What any objective's design space gives a search: its variables, their boxes and the map from the unit box. */
+export interface DesignSpace {
+  readonly names: readonly string[];
   readonly dim: number;
   readonly lower: Float64Array;
   readonly upper: Float64Array;
   readonly searchMap: SearchMap;
+}
+
+export interface PathDesignSpace extends DesignSpace {
+  readonly encoding: MechanismEncoding;
+  readonly names: string[];
+  /** Mechanism variables (the per-point driver variables follow them). */
+  readonly mechanismDim: number;
+}
+
+type SpaceFields = 'dim' | 'lower' | 'upper' | 'variableNames' | 'searchMap' | 'fromSearchBoxInto' | 'toSearchBoxInto';
+
+/** The design-space half of an objective (SearchObjectiveOf), the same for every kind of problem. */
+export function objectiveSpace(space: DesignSpace): Pick<SearchObjectiveOf<string, unknown>, SpaceFields> {
+  return {
+    dim: space.dim,
+    lower: space.lower,
+    upper: space.upper,
+    variableNames: space.names,
+    searchMap: space.searchMap.kind,
+    fromSearchBoxInto: space.searchMap.fromSearchBoxInto,
+    toSearchBoxInto: space.searchMap.toSearchBoxInto,
+  };
+}
+
+/** Design x as a record of its variables by name. */
+export function variableRecord(names: readonly string[], x: ArrayLike<number>): Record<string, number> {
+  const variables: Record<string, number> = {};
+  names.forEach((name, j) => {
+    variables[name] = x[j];
+  });
+  return variables;
 }
 
 export function createEncoding(problem: Problem, family: FamilyId): MechanismEncoding {

@@ -1,7 +1,8 @@
 /**
  * The function a search minimises, in parts with one job each: the design space
  * (designSpace.ts), the response of a design (pathResponse.ts, suspensionResponse.ts,
- * legResponse.ts), its score (score.ts, suspensionScore.ts, legScore.ts) and its report
+ * legResponse.ts), its score (score.ts, suspensionScore.ts, legScore.ts; the last two sum
+ * their terms in weightedTerms.ts) and its report
  * (pathReport.ts, suspensionObjective.ts, legObjective.ts). createObjective builds them once per family or layout;
  * evaluate allocates nothing.
  */

@@ -28,7 +28,10 @@ import {
   L_UNDEFINED,
   createLegResponse,
 } from './legResponse';
-import { LEG_TERM_FIGURES, LEG_TERM_NAMES, LEG_TERM_UNITS, LT_COUNT, createLegTerms, scoreLeg } from './legScore';
+import { LEG_TERM_FIGURES, LEG_TERM_NAMES, LEG_TERM_UNITS, createLegTerms, scoreLeg } from './legScore';
+import { objectiveSpace, variableRecord } from './designSpace';
+import { violatedSlotNames } from './score';
+import { reportTerms } from './weightedTerms';
 import type { SearchObjectiveOf } from './types';
 
 /** Violation added when gaitFigures refuses a design the search's samples passed (a dead centre or lock between them). */
@@ -102,15 +105,16 @@ export function createLegObjective(problem: LegProblem, family: PoseFamilyId): L
     const x = Float64Array.from(xIn);
     const out = new Float64Array(2);
     evaluate(x, out);
-    const defects: string[] = [];
-    for (let s = 0; s < L_SLOTS; s++) if (parts[s] > 0 || Number.isNaN(parts[s])) defects.push(LEG_DEFECT_NAMES[s]);
-    const termReports: LegTermReport[] = [];
-    for (let i = 0; i < LT_COUNT; i++) {
-      if (terms.present[i] === 0) continue;
-      const d = terms.deviation[i];
-      const n = d / terms.tolerance[i];
-      termReports.push({ name: LEG_TERM_NAMES[i], figure: LEG_TERM_FIGURES[i], deviation: d, unit: LEG_TERM_UNITS[i], tolerance: terms.tolerance[i], weight: terms.weight[i], contribution: terms.weight[i] * n * n });
-    }
+    const defects = violatedSlotNames(parts, L_SLOTS, LEG_DEFECT_NAMES);
+    const termReports = reportTerms(terms, (i, deviation, contribution): LegTermReport => ({
+      name: LEG_TERM_NAMES[i],
+      figure: LEG_TERM_FIGURES[i],
+      deviation,
+      unit: LEG_TERM_UNITS[i],
+      tolerance: terms.tolerance[i],
+      weight: terms.weight[i],
+      contribution,
+    }));
     const searchFigures: Record<string, number> = {
       trajectoryRmsMm: figures[G_TRAJECTORY_RMS],
       strideMm: figures[G_STRIDE],
@@ -133,16 +137,12 @@ export function createLegObjective(problem: LegProblem, family: PoseFamilyId): L
       defects.push(`the full gait analysis refuses it: ${analysed.reason}`);
       violation += MISSED_GAIT_VIOLATION;
     }
-    const variables: Record<string, number> = {};
-    space.names.forEach((name, j) => {
-      variables[name] = x[j];
-    });
     return {
       kind: 'leg',
       family,
       familyName: FAMILY_NAMES[family],
       x: Array.from(x),
-      variables,
+      variables: variableRecord(space.names, x),
       value: out[0],
       violation,
       feasible: violation <= 0,
@@ -157,16 +157,5 @@ export function createLegObjective(problem: LegProblem, family: PoseFamilyId): L
     };
   }
 
-  return {
-    family,
-    dim: space.dim,
-    lower: space.lower,
-    upper: space.upper,
-    variableNames: space.names,
-    evaluate,
-    searchMap: space.searchMap.kind,
-    fromSearchBoxInto: space.searchMap.fromSearchBoxInto,
-    toSearchBoxInto: space.searchMap.toSearchBoxInto,
-    describe,
-  };
+  return { family, ...objectiveSpace(space), evaluate, describe };
 }

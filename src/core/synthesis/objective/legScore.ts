@@ -2,7 +2,7 @@
  * The score of a leg design from its sampled gait figures (legResponse.ts). Each target
  * is a term with a deviation in its own unit and a tolerance in that unit (the deviation
  * that counts as 1), adding weight × (deviation / tolerance)² to the value, as the
- * suspension terms do; a limit (minimum duty factor, maximum flatness, …) deviates only
+ * suspension terms do (weightedTerms.ts); a limit (minimum duty factor, maximum flatness, …) deviates only
  * beyond it. Without stance the stance figures are 0 and their limits cost nothing: the
  * ground violation (L_GROUND) ranks such a design first. Allocates nothing.
  */
@@ -19,6 +19,7 @@ import {
   G_WORST_TRANSMISSION_DEG,
   L_UNDEFINED,
 } from './legResponse';
+import { createWeightedTerms, sumWeightedTerms, type TermSpec, type WeightedTerms } from './weightedTerms';
 
 export const LT_FOOT_PATH = 0;
 export const LT_STRIDE = 1;
@@ -44,39 +45,21 @@ export const LEG_TERM_UNITS: readonly string[] = ['mm', 'mm', 'mm', '', 'mm', ''
 /** The figure each term reads, as the report names it. */
 export const LEG_TERM_FIGURES: readonly string[] = ['trajectoryRmsMm', 'strideMm', 'stepHeightMm', 'dutyFactor', 'flatnessPeakToPeakMm', 'speedVariation', 'worstTransmissionInStanceDeg', 'sizeMm'];
 
-/** A leg problem's terms, resolved once. */
-export interface LegTerms {
-  readonly present: Uint8Array;
-  readonly weight: Float64Array;
-  readonly tolerance: Float64Array;
-  /** The target figure of each term (for the size box, unused: its two sides are in the problem). */
-  readonly target: Float64Array;
-  /** Deviation of each term for the design scored last, in its unit. */
-  readonly deviation: Float64Array;
-}
+/** A leg problem's terms, resolved once (none is a constraint; the size box's target sides are in the problem). */
+export type LegTerms = WeightedTerms;
 
 export function createLegTerms(problem: LegProblem): LegTerms {
   const t = problem.targets;
-  const present = new Uint8Array(LT_COUNT);
-  const weight = new Float64Array(LT_COUNT);
-  const tolerance = new Float64Array(LT_COUNT).fill(1);
-  const target = new Float64Array(LT_COUNT);
-  const set = (i: number, term: { readonly weight: number; readonly tolerance: number; readonly value?: number } | undefined) => {
-    if (term === undefined) return;
-    present[i] = 1;
-    weight[i] = term.weight;
-    tolerance[i] = term.tolerance;
-    target[i] = term.value ?? 0;
-  };
-  set(LT_FOOT_PATH, t.footPath);
-  set(LT_STRIDE, t.strideMm);
-  set(LT_STEP_HEIGHT, t.stepHeightMm);
-  set(LT_DUTY, t.minDutyFactor);
-  set(LT_FLATNESS, t.maxFlatnessMm);
-  set(LT_SPEED, t.maxSpeedVariation);
-  set(LT_TRANSMISSION, t.minTransmissionDegInStance);
-  set(LT_SIZE, t.sizeBoxMm);
-  return { present, weight, tolerance, target, deviation: new Float64Array(LT_COUNT) };
+  const specs = new Array<TermSpec | undefined>(LT_COUNT);
+  specs[LT_FOOT_PATH] = t.footPath;
+  specs[LT_STRIDE] = t.strideMm;
+  specs[LT_STEP_HEIGHT] = t.stepHeightMm;
+  specs[LT_DUTY] = t.minDutyFactor;
+  specs[LT_FLATNESS] = t.maxFlatnessMm;
+  specs[LT_SPEED] = t.maxSpeedVariation;
+  specs[LT_TRANSMISSION] = t.minTransmissionDegInStance;
+  specs[LT_SIZE] = t.sizeBoxMm;
+  return createWeightedTerms(specs, { undefinedSlot: L_UNDEFINED, undefinedWhen: 'non-finite' });
 }
 
 const over = (v: number, limit: number) => (v > limit ? v - limit : Number.isNaN(v) ? Number.NaN : 0);
@@ -94,16 +77,5 @@ export function scoreLeg(problem: LegProblem, terms: LegTerms, figures: Float64A
   dev[LT_TRANSMISSION] = over(target[LT_TRANSMISSION], figures[G_WORST_TRANSMISSION_DEG]);
   const box = problem.targets.sizeBoxMm;
   dev[LT_SIZE] = box === undefined ? 0 : Math.hypot(Math.max(0, figures[G_WIDTH] - box.widthMm), Math.max(0, figures[G_HEIGHT] - box.heightMm));
-  let value = 0;
-  for (let i = 0; i < LT_COUNT; i++) {
-    if (terms.present[i] === 0) continue;
-    const d = dev[i];
-    if (!(d >= 0 && d < Infinity)) {
-      parts[L_UNDEFINED] += 1;
-      continue;
-    }
-    const n = d / terms.tolerance[i];
-    value += terms.weight[i] * n * n;
-  }
-  return value;
+  return sumWeightedTerms(terms, parts);
 }

@@ -33,11 +33,12 @@ export const EXTENT_STEPS_PER_TURN = 72;
 export const EXTENT_SAMPLING_MARGIN = 2 * (1 - Math.cos(Math.PI / EXTENT_STEPS_PER_TURN));
 /**
  * The search holds the sampled worst transmission angle this far above the limit, rad
- * (0.5°). Near its extreme the angle departs from the sampled one by about
- * ½ μ'' (h/2)², under 0.05° for samples 5° apart and |μ''| up to 2; ten times that
- * leaves room for loops near a toggle, and the report checks the exact range.
+ * (0.1°). Near its extreme the angle departs from the sampled one by at most
+ * ½ |μ''| (h/2)² for samples h = 5° apart: 0.1° covers |μ''| up to about 1.8, the
+ * smooth loops; for a loop near a toggle the report checks the exact range and counts
+ * what the samples missed.
  */
-export const TRANSMISSION_SAMPLING_MARGIN_RAD = Math.PI / 360;
+export const TRANSMISSION_SAMPLING_MARGIN_RAD = Math.PI / 1800;
 /** Most samples of one travel (ten turns), a cap on a long prescribed motion. */
 const EXTENT_MAX_STEPS = 10 * EXTENT_STEPS_PER_TURN;
 

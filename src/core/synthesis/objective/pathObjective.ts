@@ -4,7 +4,7 @@
  * for, both are evaluated and the better kept, all within one evaluation.
  */
 import type { FamilyId, Problem } from '../problem';
-import { createPathDesignSpace } from './designSpace';
+import { createPathDesignSpace, objectiveSpace } from './designSpace';
 import { describePathDesign } from './pathReport';
 import { createPathResponse } from './pathResponse';
 import type { CandidateReport, Objective } from './types';
@@ -24,14 +24,8 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
 
   return {
     family,
-    dim: space.dim,
-    lower: space.lower,
-    upper: space.upper,
-    variableNames: space.names,
+    ...objectiveSpace(space),
     evaluate,
-    searchMap: space.searchMap.kind,
-    fromSearchBoxInto: space.searchMap.fromSearchBoxInto,
-    toSearchBoxInto: space.searchMap.toSearchBoxInto,
     describe: (x: Float64Array): CandidateReport => describePathDesign(problem, family, space, response, x),
   };
 }

@@ -13,6 +13,13 @@ export function sumViolations(parts: Float64Array, count: number): number {
   return violation;
 }
 
+/** The slots a design breaks (any above 0, or NaN), in words, in slot order. */
+export function violatedSlotNames(parts: Float64Array, count: number, names: readonly string[]): string[] {
+  const out: string[] = [];
+  for (let s = 0; s < count; s++) if (parts[s] > 0 || Number.isNaN(parts[s])) out.push(names[s]);
+  return out;
+}
+
 /** Index of the best of `count` (value, violation) pairs stored flat in `evaluation`, feasibility first. */
 export function bestRanked(evaluation: Float64Array, count: number): number {
   let best = 0;

@@ -9,10 +9,11 @@ import { buildLayout, LAYOUT_NAMES, SUSPENSION_CAUTION, suspensionCurves, type L
 import type { SuspensionCurves } from '../../suspension/curves';
 import { createSearchMap } from '../searchMap';
 import { layoutVariableNames, type SuspensionProblem } from '../suspensionProblem';
-import { boxViolation } from './designSpace';
-import { sumViolations } from './score';
+import { boxViolation, objectiveSpace, variableRecord } from './designSpace';
+import { sumViolations, violatedSlotNames } from './score';
 import { S_BOUNDS, S_SLOTS, SUSPENSION_DEFECT_NAMES, createSuspensionResponse } from './suspensionResponse';
-import { TERM_NAMES, TERM_UNITS, T_COUNT, createSuspensionTerms, scoreSuspension } from './suspensionScore';
+import { TERM_NAMES, TERM_UNITS, T_LEVERAGE, createSuspensionTerms, scoreSuspension } from './suspensionScore';
+import { reportTerms } from './weightedTerms';
 import type { SearchObjectiveOf } from './types';
 
 /** The value of a design whose curves cannot be scored (it locks at once, or a figure is undefined): after every scored design of the same violation. */
@@ -125,25 +126,17 @@ export function createSuspensionObjective(problem: SuspensionProblem, kind: Layo
     const x = Float64Array.from(xIn);
     const out = new Float64Array(2);
     evaluate(x, out);
-    const defects: string[] = [];
-    for (let s = 0; s < S_SLOTS; s++) if (parts[s] > 0 || Number.isNaN(parts[s])) defects.push(SUSPENSION_DEFECT_NAMES[s]);
-    const termReports: SuspensionTermReport[] = [];
-    for (let i = 0; i < T_COUNT; i++) {
-      if (terms.present[i] === 0) continue;
-      const d = terms.deviation[i];
-      const n = d / terms.tolerance[i];
-      const isConstraint = terms.constraint[i] === 1;
-      const isCurve = i <= 1;
-      termReports.push({
-        name: TERM_NAMES[i],
-        deviation: d,
-        unit: TERM_UNITS[i],
-        tolerance: terms.tolerance[i],
-        weight: terms.weight[i],
-        as: isConstraint ? 'constraint' : isCurve ? 'target' : 'penalty',
-        contribution: isConstraint ? n : terms.weight[i] * n * n,
-      });
-    }
+    const defects = violatedSlotNames(parts, S_SLOTS, SUSPENSION_DEFECT_NAMES);
+    const termReports = reportTerms(terms, (i, deviation, contribution): SuspensionTermReport => ({
+      name: TERM_NAMES[i],
+      deviation,
+      unit: TERM_UNITS[i],
+      tolerance: terms.tolerance[i],
+      weight: terms.weight[i],
+      // The curve terms (axle path, leverage ratio) are targets; the bands and limits penalties or constraints.
+      as: terms.constraint[i] === 1 ? 'constraint' : i <= T_LEVERAGE ? 'target' : 'penalty',
+      contribution,
+    }));
     const pivots = response.pivotsOf(x);
     const linkage = buildLayout(kind, pivots, problem.bicycle.rearAxleMm, response.axleBody);
     const analysed = suspensionCurves(linkage, problem.bicycleInput, { steps: problem.steps });
@@ -153,16 +146,12 @@ export function createSuspensionObjective(problem: SuspensionProblem, kind: Layo
       defects.push(`the full analysis refuses it: ${analysed.reason}`);
       violation += MISSED_TROUBLE_VIOLATION;
     }
-    const variables: Record<string, number> = {};
-    names.forEach((name, j) => {
-      variables[name] = x[j];
-    });
     return {
       kind: 'suspension',
       family: kind,
       layoutName: LAYOUT_NAMES[kind],
       x: Array.from(x),
-      variables,
+      variables: variableRecord(names, x),
       value: out[0],
       violation,
       feasible: violation <= 0,
@@ -176,16 +165,5 @@ export function createSuspensionObjective(problem: SuspensionProblem, kind: Layo
     };
   }
 
-  return {
-    family: kind,
-    dim,
-    lower,
-    upper,
-    variableNames: names,
-    evaluate,
-    searchMap: searchMap.kind,
-    fromSearchBoxInto: searchMap.fromSearchBoxInto,
-    toSearchBoxInto: searchMap.toSearchBoxInto,
-    describe,
-  };
+  return { family: kind, ...objectiveSpace({ names, dim, lower, upper, searchMap }), evaluate, describe };
 }

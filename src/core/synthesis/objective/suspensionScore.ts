@@ -7,11 +7,13 @@
  * over the travel. A target, or a band or limit set as a penalty, adds
  * weight × (deviation / tolerance)² to the value; a band or limit set as a constraint
  * adds deviation / tolerance to the violation, ranked first. Figures at sag are read at
- * sag × the design's travel by linear interpolation between samples. Allocates nothing.
+ * sag × the design's travel by linear interpolation between samples (the sum in
+ * weightedTerms.ts). Allocates nothing.
  */
 import type { SuspensionCurves } from '../../suspension/curves';
-import type { BandMode, SuspensionProblem } from '../suspensionProblem';
+import type { SuspensionProblem } from '../suspensionProblem';
 import { S_BAND, S_TRAVEL, S_UNDEFINED } from './suspensionResponse';
+import { createWeightedTerms, sumWeightedTerms, type TermSpec, type WeightedTerms } from './weightedTerms';
 
 export const T_AXLE_PATH = 0;
 export const T_LEVERAGE = 1;
@@ -25,51 +27,30 @@ export const T_COUNT = 7;
 export const TERM_NAMES: readonly string[] = ['axle path', 'leverage ratio', 'anti-squat at sag', 'anti-rise at sag', 'wheel travel', 'chain growth', 'pedal kickback'];
 export const TERM_UNITS: readonly string[] = ['mm', '', '%', '%', 'mm', 'mm', '°'];
 
-/** What a suspension problem's terms are, resolved once: which are present and how each counts. */
-export interface SuspensionTerms {
-  readonly present: Uint8Array;
-  readonly weight: Float64Array;
-  readonly tolerance: Float64Array;
-  /** 0 target or penalty (value), 1 constraint (violation). */
-  readonly constraint: Uint8Array;
+/** What a suspension problem's terms are, resolved once, with the cogs each cog term reads. */
+export interface SuspensionTerms extends WeightedTerms {
   /** Index of each scored cog in the curves, per term that reads cogs. */
   readonly antiSquatCogs: Int32Array;
   readonly chainGrowthCogs: Int32Array;
   readonly kickbackCogs: Int32Array;
-  /** Deviation of each term for the design scored last, in its unit (NaN where undefined). */
-  readonly deviation: Float64Array;
 }
 
 export function createSuspensionTerms(problem: SuspensionProblem, cogTeeth: readonly number[]): SuspensionTerms {
   const t = problem.targets;
-  const present = new Uint8Array(T_COUNT);
-  const weight = new Float64Array(T_COUNT);
-  const tolerance = new Float64Array(T_COUNT).fill(1);
-  const constraint = new Uint8Array(T_COUNT);
-  const set = (i: number, term: { readonly weight: number; readonly tolerance: number; readonly as?: BandMode } | undefined) => {
-    if (term === undefined) return;
-    present[i] = 1;
-    weight[i] = term.weight;
-    tolerance[i] = term.tolerance;
-    constraint[i] = term.as === 'constraint' ? 1 : 0;
-  };
-  set(T_AXLE_PATH, t.axlePath);
-  set(T_LEVERAGE, t.leverageRatio);
-  set(T_ANTI_SQUAT, t.antiSquatAtSag);
-  set(T_ANTI_RISE, t.antiRiseAtSag);
-  set(T_TRAVEL, t.travelMm);
-  set(T_CHAIN_GROWTH, t.chainGrowthMm);
-  set(T_KICKBACK, t.kickbackDeg);
+  const specs = new Array<TermSpec | undefined>(T_COUNT);
+  specs[T_AXLE_PATH] = t.axlePath;
+  specs[T_LEVERAGE] = t.leverageRatio;
+  specs[T_ANTI_SQUAT] = t.antiSquatAtSag;
+  specs[T_ANTI_RISE] = t.antiRiseAtSag;
+  specs[T_TRAVEL] = t.travelMm;
+  specs[T_CHAIN_GROWTH] = t.chainGrowthMm;
+  specs[T_KICKBACK] = t.kickbackDeg;
   const cogIndex = (cogs: readonly number[] | undefined) => Int32Array.from(cogs ?? [], (z) => cogTeeth.indexOf(z));
   return {
-    present,
-    weight,
-    tolerance,
-    constraint,
+    ...createWeightedTerms(specs, { undefinedSlot: S_UNDEFINED, constraintSlot: S_BAND, undefinedWhen: 'nan' }),
     antiSquatCogs: cogIndex(t.antiSquatAtSag?.cogs),
     chainGrowthCogs: cogIndex(t.chainGrowthMm?.cogs),
     kickbackCogs: cogIndex(t.kickbackDeg?.cogs),
-    deviation: new Float64Array(T_COUNT),
   };
 }
 
@@ -165,19 +146,7 @@ export function scoreSuspension(problem: SuspensionProblem, terms: SuspensionTer
   if (t.kickbackDeg !== undefined && hasNaN(curves.kickbackDeg, terms.kickbackCogs, count)) dev[T_KICKBACK] = Number.NaN;
 
   if (farthest > 0 && total < farthest) parts[S_TRAVEL] += (farthest - total) / farthest;
-  let value = 0;
-  for (let i = 0; i < T_COUNT; i++) {
-    if (terms.present[i] === 0) continue;
-    const d = dev[i];
-    if (Number.isNaN(d)) {
-      parts[S_UNDEFINED] += 1;
-      continue;
-    }
-    const n = d / terms.tolerance[i];
-    if (terms.constraint[i] === 1) parts[S_BAND] += n;
-    else value += terms.weight[i] * n * n;
-  }
-  return value;
+  return sumWeightedTerms(terms, parts);
 }
 
 function hasNaN(curves: readonly Float64Array[], cogs: Int32Array, count: number): boolean {
