@@ -203,7 +203,13 @@ describeBrowser('workspace', () => {
 
     await page.getByRole('button', { name: 'Calibrate image' }).click();
     await clickSpots();
+    // A distance that cannot be one is named beside the Set scale button, which waits for a good one.
+    await page.getByLabel('Known distance between calibration points (mm)').fill('0');
+    const issue = page.locator('details.background-controls .calibrate').getByTestId('calibration-issue');
+    await expect.poll(() => issue.textContent()).toContain('"0" is not a distance');
+    expect(await page.getByRole('button', { name: 'Set scale' }).isDisabled()).toBe(true);
     await page.getByLabel('Known distance between calibration points (mm)').fill('150');
+    expect(await issue.count()).toBe(0);
     await page.getByRole('button', { name: 'Set scale' }).click();
     await expect.poll(() => page.getByTestId('target-notice').textContent()).toContain('Image calibrated: 150 mm');
     // The image is scaled by 150 / measured (a similarity; theorem): 200 mm wide becomes 200 · 150 / measured.

@@ -27,7 +27,15 @@ export const BackgroundControls = memo(function BackgroundControls() {
   const background = useWorkspace((s) => s.project.target.background);
   const tool = useWorkspace((s) => s.ui.tool);
   const marks = useWorkspace((s) => s.ui.calibration);
+  const notice = useWorkspace((s) => s.ui.targetNotice);
   const [distance, setDistance] = useState('100');
+  // What is wrong with the calibration, beside its button: the typed distance, or what the calibration itself refused.
+  const typedMm = Number(distance.replace(',', '.'));
+  const distanceIssue = distance.trim() === ''
+    ? 'Enter the distance between A and B, in mm.'
+    : !(Number.isFinite(typedMm) && typedMm > 0) ? `"${distance}" is not a distance; expected a number of mm above 0.` : null;
+  const refused = notice !== null && notice.kind === 'error' && /calibrat/i.test(notice.title) ? `${notice.title}: ${notice.lines.join(' ')}` : null;
+  const calibrationIssue = distanceIssue ?? refused;
 
   const load = async (file: File) => {
     const fail = (message: string) => dispatch({ type: 'target/notice', notice: { kind: 'error', title: `Could not load image ${file.name}`, lines: [message] } });
@@ -98,11 +106,22 @@ export const BackgroundControls = memo(function BackgroundControls() {
             </p>
             <label>
               Distance A–B{' '}
-              <input type="number" min={0} step="any" value={distance} onChange={(e) => setDistance(e.target.value)} aria-label="Known distance between calibration points (mm)" /> mm
+              <input
+                type="text"
+                inputMode="decimal"
+                value={distance}
+                onChange={(e) => setDistance(e.target.value)}
+                aria-label="Known distance between calibration points (mm)"
+                aria-invalid={distanceIssue !== null}
+                aria-describedby={calibrationIssue === null ? undefined : 'calibration-issue'}
+              /> mm
             </label>{' '}
-            <button type="button" disabled={marks.length < 2} onClick={() => dispatch({ type: 'background/calibrate', distanceMm: Number(distance.replace(',', '.')) })}>
+            <button type="button" disabled={marks.length < 2 || distanceIssue !== null} onClick={() => dispatch({ type: 'background/calibrate', distanceMm: typedMm })}>
               Set scale
             </button>
+            {calibrationIssue !== null && (
+              <span className="field-error" id="calibration-issue" role="alert" data-testid="calibration-issue">{calibrationIssue}</span>
+            )}
           </div>
         </>
       )}
