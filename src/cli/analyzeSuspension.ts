@@ -7,7 +7,8 @@
 import { MAX_SUSPENSION_FILE_CHARS, parseSuspensionFileText, type SuspensionDesign } from '../core/io/suspensionFile';
 import { instantCentreKindName } from '../core/io/suspensionCsv';
 import { IC_FINITE, IC_INFINITE } from '../core/linkage/analysis';
-import { DEFAULT_STEPS, STEPS_RANGE, suspensionCurves, type SuspensionReport } from '../core/suspension';
+import type { Linkage } from '../core/linkage';
+import { AXLE_POINT, DEFAULT_STEPS, SHOCK_EYE, SHOCK_FRAME_EYE, STEPS_RANGE, suspensionCurves, type SuspensionReport } from '../core/suspension';
 import { numberOption, type ParsedArgs } from './args';
 import { EXIT_OK, EXIT_USAGE, type CliIo } from './command';
 import { formatJson } from './formatJson';
@@ -15,9 +16,10 @@ import { formatJson } from './formatJson';
 /** The part of `loci analyze --help` about suspension files. */
 export const SUSPENSION_USAGE = `A suspension file (format "loci-suspension": a bicycle and a rear-suspension layout
 drawn at full extension) is analysed over the wheel travel instead. It prints JSON:
-"summary" (wheel travel, leverage ratio at the start and end, progression, anti-squat
-at sag per cog, kickback and axle rearward movement at full travel), "curves" (one
-value per step, units in the key names), "conventions" and "caution".
+"bodies" (the bodies that carry the rear axle and the shock's two eyes), "summary"
+(wheel travel, leverage ratio at the start and end, progression, anti-squat at sag
+per cog, kickback and axle rearward movement at full travel), "curves" (one value
+per step, units in the key names), "conventions" and "caution".
 
   --steps N         samples over the travel, both ends included: ${STEPS_RANGE[0]} to ${STEPS_RANGE[1]} (default ${DEFAULT_STEPS}).
   --travel MM       sweep to this vertical wheel travel (mm) instead of the whole stroke.
@@ -67,8 +69,20 @@ export function analyzeSuspensionCommand(input: AnalyzeSuspensionInput): number 
     io.stderr(`${file}: ${result.reason}\n${drawnShockNote(design)}`);
     return EXIT_USAGE;
   }
-  io.stdout(`${formatJson({ ...(design.name === undefined ? {} : { name: design.name }), layout: design.layout.kind, ...suspensionReportJson(result.report) })}\n`);
+  const bodies = layoutBodies(loaded.linkage);
+  io.stdout(`${formatJson({ ...(design.name === undefined ? {} : { name: design.name }), layout: design.layout.kind, bodies, ...suspensionReportJson(result.report) })}\n`);
   return EXIT_OK;
+}
+
+/** The bodies that carry the rear axle and the shock's two eyes ("frontFrame" for the ground body), by their ids in the layout. */
+function layoutBodies(linkage: Linkage): { axle: string; shockEye: string; shockFrameEye: string } {
+  const holding = (joint: string) => linkage.bodies.find((b) => b.joints.includes(joint))?.id ?? 'frontFrame';
+  const onFrame = (joint: string) => linkage.joints.find((j) => j.id === joint)?.ground === true;
+  return {
+    axle: linkage.points?.find((p) => p.id === AXLE_POINT)?.body ?? 'frontFrame',
+    shockEye: holding(SHOCK_EYE),
+    shockFrameEye: onFrame(SHOCK_FRAME_EYE) ? 'frontFrame' : holding(SHOCK_FRAME_EYE),
+  };
 }
 
 /** Drawn shock eyes further from the bicycle's eye-to-eye length than this (mm) are pointed out beside a failure. */

@@ -430,3 +430,55 @@ describe('wheel rate', () => {
     });
   }
 });
+
+describe('six-bars with the shock between two moving bodies and the axle on a third', () => {
+  // The shock's other eye drawn at the eye-to-eye length from its eye, at angle a (rad).
+  const frameEyeAt = (eye: { x: number; y: number }, a: number) => ({ x: eye.x + 210 * Math.cos(a), y: eye.y + 210 * Math.sin(a) });
+  const cases: [string, Linkage][] = [
+    [
+      'Watt six-bar, shock from the bell crank to the rocker, axle on the seat stay',
+      wattSixBar({ ...L.wattSixBar, shockFrameEye: frameEyeAt(L.wattSixBar.shockEye, Math.PI / 2), axleBody: 'seatStay', shock: { eye: 'bellCrank', frameEye: 'rocker' } }),
+    ],
+    [
+      'Stephenson six-bar, shock from the bell crank to the chain stay, axle on the seat stay',
+      stephensonSixBar({ ...L.stephensonSixBar, shockFrameEye: frameEyeAt(L.stephensonSixBar.shockEye, (5 * Math.PI) / 4), axleBody: 'seatStay', shock: { eye: 'bellCrank', frameEye: 'chainStay' } }),
+    ],
+  ];
+  for (const [name, linkage] of cases) {
+    it(`${name}: the shock's two eyes are joints of moving bodies, and the planner places them`, () => {
+      const plan = compiledPlan(linkage);
+      const ground = plan.linkage.joints.filter((j) => j.ground === true).map((j) => j.id);
+      expect(ground).not.toContain('shockEye');
+      expect(ground).not.toContain('shockFrameEye');
+      // Source: the driver's definition — at every step of the sweep the two eyes sit at the shock length (theorem)
+      const r = report(linkage);
+      for (let k = 0; k < r.curves.steps; k += 7) {
+        const s = r.curves.shockLengthMm[k];
+        const e = slotPoint(plan, s, 'shockEye');
+        const f = slotPoint(plan, s, 'shockFrameEye');
+        expectRel(Math.hypot(e[0] - f[0], e[1] - f[1]), s);
+      }
+    });
+
+    it(`${name}: LR, anti-squat and anti-rise agree with the seat stay's motion from differences of solved positions (virtual work)`, () => {
+      const r = report(linkage);
+      const plan = compiledPlan(linkage);
+      for (let k = 2; k < r.curves.steps - 2; k += 9) {
+        const s = r.curves.shockLengthMm[k];
+        const A = axleAt(plan, s);
+        const Q = (x: number) => slotPoint(plan, x, 'rockerStayPin');
+        const vA: V = [richardson((x) => axleAt(plan, x)[0], s, 0.5), richardson((x) => axleAt(plan, x)[1], s, 0.5)];
+        // Source: virtual work, shock force × shortening = wheel force × rise, so LR = −dy_A/ds (theorem)
+        expectRel(r.curves.leverageRatio[k], -vA[1]);
+        const q = Q(s);
+        const vQ: V = [richardson((x) => Q(x)[0], s, 0.5), richardson((x) => Q(x)[1], s, 0.5)];
+        const d: V = [q[0] - A[0], q[1] - A[1]];
+        const omega = (d[0] * (vQ[1] - vA[1]) - d[1] * (vQ[0] - vA[0])) / (d[0] * d[0] + d[1] * d[1]);
+        const m: Motion = { omega, at: A, v: vA };
+        // Source: load transfer ΔN = ±m a h / L; virtual power of the forces on the wheel and its body (theorem)
+        r.cogTeeth.forEach((z, i) => expectRel(r.curves.antiSquatPct[i][k], antiSquatByPower(A, m, z)));
+        expectRel(r.curves.antiRisePct[k], antiRiseByPower(A, vA, omega));
+      }
+    });
+  }
+});

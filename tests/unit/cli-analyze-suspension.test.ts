@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { analyzeSuspensionCommand } from '../../src/cli/analyzeSuspension';
 import { parseCommandArgs } from '../../src/cli/args';
 import { EXIT_OK, EXIT_USAGE, type CliIo } from '../../src/cli/command';
-import { fourBarSeatStayAxle } from '../../src/core/suspension';
+import { fourBarSeatStayAxle, stephensonSixBar } from '../../src/core/suspension';
 import { DEMO_LAYOUTS, DEMO_TRAIL_BIKE, SUSPENSION_CAUTION, SUSPENSION_CONVENTIONS, suspensionCurves } from '../../src/core/suspension';
 
 const FILE = 'trail-bike-four-bar.json';
@@ -49,6 +49,7 @@ function analyze(text: string, ...argv: string[]): Ran {
 interface Output {
   name?: string;
   layout: string;
+  bodies: { axle: string; shockEye: string; shockFrameEye: string };
   summary: Record<string, number | number[] | null>;
   curves: Record<string, unknown> & { steps: number; perCog: Record<string, number | number[]>[]; instantCentre: Record<string, unknown[]> };
   conventions: string[];
@@ -204,5 +205,33 @@ describe('loci analyze through the command line, by file format', () => {
     const linkage = spawnSync(process.execPath, [bin, 'analyze', crankRocker, '--travel', '5'], { encoding: 'utf8', timeout: 60_000 });
     expect(linkage.status).toBe(2);
     expect(linkage.stderr).toMatch(/--travel is for a suspension file/);
+  });
+});
+
+describe('loci analyze, a six-bar with the shock between two moving bodies', () => {
+  // The demo Stephenson six-bar with its shock from the bell crank to the chain stay (the other eye drawn 210 mm from the eye at 225°) and the axle on the seat stay.
+  const S = DEMO_LAYOUTS.stephensonSixBar;
+  const a = (5 * Math.PI) / 4;
+  const shockFrameEye = { x: S.shockEye.x + 210 * Math.cos(a), y: S.shockEye.y + 210 * Math.sin(a) };
+  const shock = { eye: 'bellCrank', frameEye: 'chainStay' } as const;
+
+  it('names the bodies, and prints the curves suspensionCurves gives for the builder called directly', () => {
+    const { axle: _axle, axleBody: _axleBody, ...pivots } = { ...S, shockFrameEye };
+    const file = JSON.parse(exampleText) as Json;
+    file.name = 'six-bar, shock between two moving bodies';
+    file.layout = { kind: 'stephensonSixBar', pivots, axleBody: 'seatStay', shock };
+    const out = ok(JSON.stringify(file), '--steps', '21');
+    expect(out.layout).toBe('stephensonSixBar');
+    expect(out.bodies).toEqual({ axle: 'seatStay', shockEye: 'bellCrank', shockFrameEye: 'chainStay' });
+    const bike = (file as { bicycle: typeof DEMO_TRAIL_BIKE }).bicycle;
+    const direct = suspensionCurves(stephensonSixBar({ ...S, shockFrameEye, axleBody: 'seatStay', shock }), bike, { steps: 21 });
+    if (!direct.ok) throw new Error(direct.reason);
+    expect(out.curves.leverageRatio).toEqual(asJson(direct.report.curves.leverageRatio));
+    expect(out.curves.axleYMm).toEqual(asJson(direct.report.curves.axleYMm));
+    expect(out.caution).toBe(SUSPENSION_CAUTION);
+  });
+
+  it('names the bodies of a layout with the shock on the front frame', () => {
+    expect(ok(exampleText).bodies).toEqual({ axle: 'seatStay', shockEye: 'rocker', shockFrameEye: 'frontFrame' });
   });
 });

@@ -42,7 +42,7 @@ export const ExportPanel = memo(function ExportPanel({ bicycle, linkage, report,
       layout: {
         kind: layout.kind,
         pivots: layout.pivots,
-        ...(layout.kind === 'wattSixBar' || layout.kind === 'stephensonSixBar' ? { axleBody: layout.axleBody } : {}),
+        ...(layout.kind === 'wattSixBar' || layout.kind === 'stephensonSixBar' ? { axleBody: layout.axleBody, ...(layout.shock === undefined ? {} : { shock: layout.shock }) } : {}),
         ...(layout.floatingBrakeBody === null ? {} : { floatingBrakeBody: layout.floatingBrakeBody }),
       },
     };

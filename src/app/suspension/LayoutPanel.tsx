@@ -1,17 +1,37 @@
 /**
  * The layout: one of the generic kinds, its pivots (mm, at full extension) in a table,
- * the six-bars' axle body and an optional floating brake, and what keeps the layout
+ * the six-bars' axle body and shock bodies, an optional floating brake, and what keeps the layout
  * from working through its travel, in words.
  */
 import { memo, useState } from 'react';
 import { MAX_PIVOT_COORDINATE_MM } from '../../core/io/suspensionFile';
 import type { Linkage } from '../../core/linkage';
-import { LAYOUT_KINDS, LAYOUT_NAMES, LAYOUT_PIVOTS, type LayoutKind } from '../../core/suspension';
+import {
+  DEFAULT_SHOCK_BODIES,
+  LAYOUT_KINDS,
+  LAYOUT_NAMES,
+  LAYOUT_PIVOTS,
+  SHOCK_END_BODIES,
+  SIX_BAR_BODIES,
+  hasBodyChoice,
+  shockBodiesIssue,
+  type LayoutKind,
+  type ShockEndBody,
+  type SixBarBody,
+} from '../../core/suspension';
 import { useSuspension, useSuspensionDispatch } from './store';
 import { pivotLabel } from './labels';
 import { PickButton } from './trace';
 
-const SIX_BARS: readonly LayoutKind[] = ['wattSixBar', 'stephensonSixBar'];
+/** The six-bars' bodies in words. */
+const BODY_WORDS: Readonly<Record<ShockEndBody, string>> = {
+  chainStay: 'chain stay',
+  seatStay: 'seat stay',
+  rocker: 'rocker',
+  link: 'link',
+  bellCrank: 'bell crank',
+  frontFrame: 'front frame',
+};
 const NUMBER_TEXT = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
 
 /** One coordinate: kept as typed until it reads as a number within the accepted range. */
@@ -55,6 +75,8 @@ export const LayoutPanel = memo(function LayoutPanel({ linkage, problem }: { lin
   const layout = useSuspension((s) => s.layout);
   const names = LAYOUT_PIVOTS[layout.kind];
   const movingBodies = linkage?.bodies.map((b) => b.id) ?? [];
+  const shock = layout.shock ?? DEFAULT_SHOCK_BODIES;
+  const shockIssue = shockBodiesIssue(shock);
   return (
     <section className="panel susp-panel" aria-labelledby="susp-layout-title" data-testid="layout-panel">
       <h2 id="susp-layout-title">Layout</h2>
@@ -64,14 +86,31 @@ export const LayoutPanel = memo(function LayoutPanel({ linkage, problem }: { lin
           {LAYOUT_KINDS.map((k) => <option key={k} value={k}>{LAYOUT_NAMES[k]}</option>)}
         </select>
       </div>
-      {SIX_BARS.includes(layout.kind) && (
-        <div className="susp-field susp-field-wide">
-          <label htmlFor="susp-axle-body">Axle carried on</label>
-          <select id="susp-axle-body" value={layout.axleBody} onChange={(e) => dispatch({ type: 'axleBody', body: e.target.value as 'chainStay' | 'seatStay' })}>
-            <option value="seatStay">seat stay</option>
-            <option value="chainStay">chain stay</option>
-          </select>
-        </div>
+      {hasBodyChoice(layout.kind) && (
+        <>
+          <div className="susp-field susp-field-wide">
+            <label htmlFor="susp-axle-body">Axle on</label>
+            <select id="susp-axle-body" value={layout.axleBody} onChange={(e) => dispatch({ type: 'axleBody', body: e.target.value as SixBarBody })}>
+              {SIX_BAR_BODIES.map((b) => <option key={b} value={b}>{BODY_WORDS[b]}</option>)}
+            </select>
+          </div>
+          <fieldset className="susp-field susp-field-wide" data-testid="shock-bodies">
+            <legend>Shock between</legend>
+            <label htmlFor="susp-shock-eye-body">the shock eye on</label>
+            <select id="susp-shock-eye-body" value={shock.eye} onChange={(e) => dispatch({ type: 'shockBodies', shock: { ...shock, eye: e.target.value as SixBarBody } })}>
+              {SIX_BAR_BODIES.map((b) => <option key={b} value={b}>{BODY_WORDS[b]}</option>)}
+            </select>
+            <label htmlFor="susp-shock-frame-eye-body">and the other eye on</label>
+            <select
+              id="susp-shock-frame-eye-body"
+              value={shock.frameEye}
+              onChange={(e) => dispatch({ type: 'shockBodies', shock: { ...shock, frameEye: e.target.value as ShockEndBody } })}
+            >
+              {SHOCK_END_BODIES.map((b) => <option key={b} value={b}>{BODY_WORDS[b]}</option>)}
+            </select>
+            {shockIssue !== null && <span className="susp-issue" role="alert">{shockIssue}</span>}
+          </fieldset>
+        </>
       )}
       <div className="susp-field susp-field-wide">
         <label htmlFor="susp-brake-body">Brake caliper on</label>

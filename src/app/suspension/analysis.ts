@@ -33,7 +33,7 @@ export function analyse(reading: DraftReading, layout: LayoutDraft): Analysis {
       emptyReason: `No curves: the bicycle panel has ${n} problem${n === 1 ? '' : 's'} (shown beside the field${n === 1 ? '' : 's'}). Correct ${n === 1 ? 'it' : 'them'} to see the curves.`,
     };
   }
-  const linkage = buildLayout(layout.kind, layout.pivots, bicycle.rearAxleMm, layout.axleBody);
+  const linkage = buildLayout(layout.kind, layout.pivots, bicycle.rearAxleMm, layout.axleBody, layout.shock);
   const result = suspensionCurves(linkage, bicycle, layout.floatingBrakeBody === null ? {} : { floatingBrakeBody: layout.floatingBrakeBody });
   return { reading, bicycle, linkage, result, emptyReason: result.ok ? null : `No curves: ${result.reason}.` };
 }

@@ -1,6 +1,6 @@
 /**
  * The suspension workspace's state and its pure update function: the bicycle's fields
- * as typed, the layout (kind, pivots at full extension, axle body, floating brake), the
+ * as typed, the layout (kind, pivots at full extension, axle and shock bodies, floating brake), the
  * gear and travel shown, the last import's problems, and the search's set-up (targets,
  * regions, keep-outs, budget) with the side view's drawing tool for it.
  */
@@ -14,6 +14,7 @@ import {
   type GasLaw,
   type LayoutAxleBody,
   type LayoutKind,
+  type ShockBodies,
 } from '../../core/suspension';
 import { draftOf, switchFrontMode, type BicycleDraft, type DraftField, type FrontMode, type SpringMode } from './fields';
 import { demoSearchSetup, reduceSearchSetup, type SearchSetup, type SearchSetupAction, type SetupTool } from './targets/setup';
@@ -25,6 +26,8 @@ export interface LayoutDraft {
   readonly pivots: Readonly<Record<string, Vec2>>;
   /** The six-bars' axle-carrying body. */
   readonly axleBody: LayoutAxleBody;
+  /** The six-bars' shock bodies; absent (as in projects stored before the choice) means the bell crank to the front frame. */
+  readonly shock?: ShockBodies;
   /** A moving body holding a floating brake's caliper, or null. */
   readonly floatingBrakeBody: string | null;
 }
@@ -60,6 +63,7 @@ export type SuspensionAction =
   | { readonly type: 'layoutKind'; readonly kind: LayoutKind }
   | { readonly type: 'pivot'; readonly name: string; readonly at: Vec2 }
   | { readonly type: 'axleBody'; readonly body: LayoutAxleBody }
+  | { readonly type: 'shockBodies'; readonly shock: ShockBodies }
   | { readonly type: 'floatingBrake'; readonly body: string | null }
   | { readonly type: 'cog'; readonly index: number }
   | { readonly type: 'travelStep'; readonly step: number }
@@ -71,7 +75,7 @@ export type SuspensionAction =
   | { readonly type: 'searchStarted'; readonly running: RunningSearch }
   | { readonly type: 'searchFinished'; readonly run: SearchRun }
   | { readonly type: 'searchEnded' }
-  | { readonly type: 'openLayout'; readonly kind: LayoutKind; readonly pivots: Readonly<Record<string, Vec2>>; readonly axleBody: LayoutAxleBody };
+  | { readonly type: 'openLayout'; readonly kind: LayoutKind; readonly pivots: Readonly<Record<string, Vec2>>; readonly axleBody: LayoutAxleBody; readonly shock: ShockBodies };
 
 /** The kind the demo opens with: the four-bar with the axle on the seat stay. */
 export const DEMO_LAYOUT_KIND: LayoutKind = 'fourBarSeatStayAxle';
@@ -129,6 +133,8 @@ export function reduceSuspension(state: SuspensionState, action: SuspensionActio
     }
     case 'axleBody':
       return { ...state, layout: { ...state.layout, axleBody: action.body } };
+    case 'shockBodies':
+      return { ...state, layout: { ...state.layout, shock: action.shock } };
     case 'floatingBrake':
       return { ...state, layout: { ...state.layout, floatingBrakeBody: action.body } };
     case 'cog':
@@ -141,7 +147,7 @@ export function reduceSuspension(state: SuspensionState, action: SuspensionActio
       return {
         name: design.name ?? action.fallbackName,
         draft: draftOf(design.bicycle),
-        layout: layoutOf(l.kind, l.pivots, l.axleBody ?? demoAxleBody(l.kind), l.floatingBrakeBody ?? null),
+        layout: { ...layoutOf(l.kind, l.pivots, l.axleBody ?? demoAxleBody(l.kind), l.floatingBrakeBody ?? null), ...(l.shock === undefined ? {} : { shock: l.shock }) },
         pivotsByKind: {},
         cogIndex: 0,
         travelStep: 0,
@@ -172,7 +178,7 @@ export function reduceSuspension(state: SuspensionState, action: SuspensionActio
     case 'openLayout': {
       // A searched design opened in the workspace; the pivots of the kind it replaces are kept, as on a switch of kind.
       const kept = action.kind === state.layout.kind ? state.pivotsByKind : { ...state.pivotsByKind, [state.layout.kind]: state.layout.pivots };
-      return { ...state, pivotsByKind: kept, layout: layoutOf(action.kind, action.pivots, action.axleBody, null), travelStep: 0 };
+      return { ...state, pivotsByKind: kept, layout: { ...layoutOf(action.kind, action.pivots, action.axleBody, null), shock: action.shock }, travelStep: 0 };
     }
   }
 }

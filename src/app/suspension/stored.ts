@@ -6,7 +6,7 @@
  * checks it when read back.
  */
 import { z } from 'zod';
-import { LAYOUT_KINDS, LAYOUT_PIVOTS, type LayoutKind } from '../../core/suspension';
+import { LAYOUT_KINDS, LAYOUT_PIVOTS, SHOCK_END_BODIES, SIX_BAR_BODIES, type LayoutKind } from '../../core/suspension';
 import type { BicycleDraft } from './fields';
 import type { LayoutDraft, SuspensionState } from './state';
 import { demoSearchSetup, type SearchSetup } from './targets/setup';
@@ -60,7 +60,14 @@ export const storedSuspensionSchema = z.object({
   name: z.string().max(200),
   draft,
   layout: z
-    .object({ kind, pivots, axleBody: z.enum(['chainStay', 'seatStay']), floatingBrakeBody: z.string().max(64).nullable() })
+    .object({
+      kind,
+      pivots,
+      axleBody: z.enum(SIX_BAR_BODIES),
+      // Absent in projects stored before the six-bars' shock could join two moving bodies.
+      shock: z.object({ eye: z.enum(SIX_BAR_BODIES), frameEye: z.enum(SHOCK_END_BODIES) }).optional(),
+      floatingBrakeBody: z.string().max(64).nullable(),
+    })
     .refine((l) => hasEveryPivot(l.kind, l.pivots), 'expected every pivot of the layout kind'),
   pivotsByKind: z.partialRecord(kind, pivots),
   cogIndex: z.number().int().min(0),

@@ -6,7 +6,13 @@
  *   { "format": "loci-suspension", "version": 1, "name": "…", "units": "mm",
  *     "bicycle": { …every field of Bicycle… },
  *     "layout": { "kind": "fourBarSeatStayAxle", "pivots": { "mainPivot": { "x", "y" }, … },
- *                 "axleBody"?: "seatStay", "floatingBrakeBody"?: "chainStay" } }
+ *                 "axleBody"?: "seatStay", "shock"?: { "eye": "bellCrank", "frameEye": "frontFrame" },
+ *                 "floatingBrakeBody"?: "chainStay" } }
+ *
+ * `axleBody` and `shock` are the six-bars' only: the axle on any moving body, the shock's
+ * eye (`pivots.shockEye`) on a moving body and its other eye (`pivots.shockFrameEye`) on the
+ * front frame or another moving body. A file without `shock` (every file written before it
+ * existed) means the bell crank to the front frame; it is written only when it differs.
  *
  * The rear axle is the bicycle's `rearAxleMm`, not a pivot of the layout: one place
  * holds it. Reading runs stages that each stop on failure: length, JSON, envelope
@@ -22,13 +28,18 @@ import { UNPRINTABLE_ID_CHARS, escapeUnprintable, type Linkage } from '../linkag
 import type { Plan } from '../linkage/plan';
 import {
   BICYCLE_RANGES,
+  DEFAULT_SHOCK_BODIES,
   LAYOUT_KINDS,
+  SHOCK_END_BODIES,
+  SIX_BAR_BODIES,
+  shockBodiesIssue,
   LAYOUT_PIVOTS,
   buildLayout,
   validateBicycle,
   type Bicycle,
   type LayoutAxleBody,
   type LayoutKind,
+  type ShockBodies,
   type SpringSpec,
 } from '../suspension';
 
@@ -42,8 +53,9 @@ export const MAX_DESIGN_NAME_LENGTH = 200;
 /** Every pivot lies within this distance (mm) of the bottom bracket along x and along y: beyond any pedal bicycle. */
 export const MAX_PIVOT_COORDINATE_MM = 1500;
 
-/** The six-bars carry the axle on the chain stay or on the seat stay; the other kinds on their one axle-carrying body. */
-const AXLE_BODIES = ['chainStay', 'seatStay'] as const satisfies readonly LayoutAxleBody[];
+/** The six-bars carry the axle on any moving body; the other kinds on their one axle-carrying body. */
+const AXLE_BODIES = SIX_BAR_BODIES satisfies readonly LayoutAxleBody[];
+const quoted = (ids: readonly string[]) => ids.map((b) => `"${b}"`).join(', ');
 const SIX_BARS: readonly LayoutKind[] = ['wattSixBar', 'stephensonSixBar'];
 
 export interface SuspensionLayout {
@@ -52,6 +64,8 @@ export interface SuspensionLayout {
   readonly pivots: Readonly<Record<string, Vec2>>;
   /** The six-bars only: the body that carries the axle. */
   readonly axleBody?: LayoutAxleBody;
+  /** The six-bars only: the bodies the shock joins; absent means DEFAULT_SHOCK_BODIES. */
+  readonly shock?: ShockBodies;
   /** A moving body of the layout that holds a floating brake's caliper. */
   readonly floatingBrakeBody?: string;
 }
@@ -74,7 +88,7 @@ export type ParseSuspensionFileResult =
 
 /** The layout's linkage: the kind's builder with the bicycle's rear axle. The pivots must be the kind's (as a parsed design's are). */
 export function layoutLinkage(layout: SuspensionLayout, axle: Vec2): Linkage {
-  return buildLayout(layout.kind, layout.pivots, axle, layout.axleBody);
+  return buildLayout(layout.kind, layout.pivots, axle, layout.axleBody, layout.shock);
 }
 
 // ---------------------------------------------------------------------------------
@@ -137,10 +151,14 @@ function layoutVariant<K extends LayoutKind>(kind: K) {
   const names = LAYOUT_PIVOTS[kind];
   const pivots = strict(`the pivots of a ${kind} layout`, Object.fromEntries(names.map((n) => [n, pivot()])));
   return SIX_BARS.includes(kind)
-    ? strict(`a ${kind} layout { "kind", "pivots", "axleBody", "floatingBrakeBody"? }`, {
+    ? strict(`a ${kind} layout { "kind", "pivots", "axleBody", "shock"?, "floatingBrakeBody"? }`, {
       kind: z.literal(kind, { error: expected(kinds) }),
       pivots,
-      axleBody: z.enum(AXLE_BODIES, { error: expected('the body that carries the axle, "chainStay" or "seatStay"') }),
+      axleBody: z.enum(AXLE_BODIES, { error: expected(`the body that carries the axle, one of ${quoted(AXLE_BODIES)}`) }),
+      shock: strict('the bodies the shock joins { "eye", "frameEye" }', {
+        eye: z.enum(SIX_BAR_BODIES, { error: expected(`the moving body that carries pivots.shockEye, one of ${quoted(SIX_BAR_BODIES)}`) }),
+        frameEye: z.enum(SHOCK_END_BODIES, { error: expected(`the body that carries pivots.shockFrameEye, one of ${quoted(SHOCK_END_BODIES)}`) }),
+      }).optional(),
       floatingBrakeBody: bodyId.optional(),
     })
     : strict(`a ${kind} layout { "kind", "pivots", "floatingBrakeBody"? }`, {
@@ -231,6 +249,9 @@ export function parseSuspensionFile(json: unknown): ParseSuspensionFileResult {
   const bicycle = validateBicycle(design.bicycle);
   if (!bicycle.ok) return listed(bicycle.issues.map((i) => ({ path: i.path === '' ? 'bicycle' : `bicycle.${i.path}`, message: i.message })));
 
+  const shockIssue = design.layout.shock === undefined ? null : shockBodiesIssue(design.layout.shock);
+  if (shockIssue !== null) return fail('layout.shock', shockIssue);
+
   const linkage = layoutLinkage(design.layout, design.bicycle.rearAxleMm);
   const compiled = compile(linkage);
   if (!compiled.ok) {
@@ -254,6 +275,10 @@ function layoutPath(linkage: Linkage, where: string): string {
 
 // ---------------------------------------------------------------------------------
 // Copies, both ways
+
+function isDefaultShock(s: ShockBodies): boolean {
+  return s.eye === DEFAULT_SHOCK_BODIES.eye && s.frameEye === DEFAULT_SHOCK_BODIES.frameEye;
+}
 
 function copyXy(p: Vec2): { x: number; y: number } {
   return { x: p.x, y: p.y };
@@ -285,17 +310,19 @@ function copyLayout(l: SuspensionLayout): SuspensionLayout {
     kind: l.kind,
     pivots: Object.fromEntries(LAYOUT_PIVOTS[l.kind].map((n) => [n, copyXy(l.pivots[n])])),
     ...(l.axleBody === undefined ? {} : { axleBody: l.axleBody }),
+    ...(l.shock === undefined || isDefaultShock(l.shock) ? {} : { shock: { eye: l.shock.eye, frameEye: l.shock.frameEye } }),
     ...(l.floatingBrakeBody === undefined ? {} : { floatingBrakeBody: l.floatingBrakeBody }),
   };
 }
 
 function designFromFile(file: SuspensionFileV1): SuspensionDesign {
-  // The schema admits axleBody on the six-bars only.
-  const axleBody = (file.layout as { readonly axleBody?: LayoutAxleBody }).axleBody;
+  // The schema admits axleBody and shock on the six-bars only.
+  const { axleBody, shock } = file.layout as { readonly axleBody?: LayoutAxleBody; readonly shock?: ShockBodies };
   const layout: SuspensionLayout = {
     kind: file.layout.kind,
     pivots: file.layout.pivots,
     ...(axleBody === undefined ? {} : { axleBody }),
+    ...(shock === undefined ? {} : { shock }),
     ...(file.layout.floatingBrakeBody === undefined ? {} : { floatingBrakeBody: file.layout.floatingBrakeBody }),
   };
   return {

@@ -17,7 +17,8 @@
  *       "chainGrowthMm"?: { "max", "cogs"?, "as"?, "weight"?, "toleranceMm"? },
  *       "kickbackDeg"?: { "max", "cogs"?, "as"?, "weight"?, "toleranceDeg"? } },
  *     "keepOut"?: [{ "name"?, "x", "y", "r" }, …],
- *     "bounds"?: { "singlePivot": { "mainPivot.x": [lower, upper], "shockAngle": [lo, hi], … } } }
+ *     "bounds"?: { "singlePivot": { "mainPivot.x": [lower, upper], "shockAngle": [lo, hi], … } },
+ *     "layoutBodies"?: { "wattSixBar": { "axleBody"?: "seatStay", "shock"?: { "eye": "bellCrank", "frameEye": "frontFrame" } } } }
  *
  * The schema checks shapes and types, and refuses unknown fields; the meaning (ranges,
  * cogs of the bicycle, variable names, lower < upper) is createSuspensionProblem's.
@@ -25,7 +26,7 @@
 import * as z from 'zod';
 import { expected, strict } from './schemaMessages';
 import { bicycleSchema } from './suspensionFile';
-import { LAYOUT_KINDS } from '../suspension';
+import { LAYOUT_KINDS, SHOCK_END_BODIES, SIX_BAR_BODIES } from '../suspension';
 
 const num = (what: string) => z.number({ error: expected(what) }).refine(Number.isFinite, { error: expected(what) });
 const curvePoints = (what: string) =>
@@ -48,6 +49,7 @@ const leverageSchema = z.union(
   { error: expected('a leverage-ratio target: { "points" } or { "start", "end" }') },
 );
 
+const quoted = (ids: readonly string[]) => ids.map((b) => `"${b}"`).join(', ');
 const layoutEnum = z.enum(LAYOUT_KINDS, { error: expected(`a layout, one of ${LAYOUT_KINDS.map((k) => `"${k}"`).join(', ')}`) });
 
 export const suspensionProblemShape = {
@@ -104,5 +106,18 @@ export const suspensionProblemShape = {
     .partialRecord(layoutEnum, z.record(z.string(), z.tuple([num('a number'), num('a number')], { error: expected('[lower, upper], two numbers') }), { error: expected('an object of variable name → [lower, upper]') }), {
       error: expected('an object of layout → bounds'),
     })
+    .optional(),
+  layoutBodies: z
+    .partialRecord(
+      layoutEnum,
+      strict('a six-bar\'s bodies { "axleBody"?, "shock"? }', {
+        axleBody: z.enum(SIX_BAR_BODIES, { error: expected(`the body that carries the axle, one of ${quoted(SIX_BAR_BODIES)}`) }).optional(),
+        shock: strict('the bodies the shock joins { "eye", "frameEye" }', {
+          eye: z.enum(SIX_BAR_BODIES, { error: expected(`the moving body that carries the shock's eye, one of ${quoted(SIX_BAR_BODIES)}`) }),
+          frameEye: z.enum(SHOCK_END_BODIES, { error: expected(`the body that carries the shock's other eye, one of ${quoted(SHOCK_END_BODIES)}`) }),
+        }).optional(),
+      }),
+      { error: expected('an object of six-bar layout → its bodies') },
+    )
     .optional(),
 };

@@ -13,6 +13,10 @@ export {
   FRONT_FRAME,
   SHOCK_EYE,
   SHOCK_FRAME_EYE,
+  DEFAULT_SHOCK_BODIES,
+  SHOCK_END_BODIES,
+  SIX_BAR_BODIES,
+  shockBodiesIssue,
   fourBarSeatStayAxle,
   linkageDrivenSinglePivot,
   shortLinkFourBar,
@@ -24,7 +28,10 @@ export type {
   FourBarSeatStayAxlePositions,
   LinkageDrivenSinglePivotPositions,
   ShortLinkFourBarPositions,
+  ShockBodies,
+  ShockEndBody,
   SinglePivotPositions,
+  SixBarBody,
   StephensonSixBarPositions,
   WattSixBarPositions,
 } from './layouts';
@@ -42,7 +49,7 @@ export {
 } from './metrics';
 export type { SuspensionEvaluator, SuspensionOptions, SuspensionPoint, SuspensionPreparation, SuspensionReport, SuspensionResult } from './metrics';
 export { DEMO_TRAIL_BIKE, DEMO_LAYOUTS } from './demo';
-export { LAYOUT_KINDS, LAYOUT_NAMES, LAYOUT_PIVOTS, buildLayout, demoAxleBody, demoPivots } from './layoutKinds';
+export { LAYOUT_KINDS, LAYOUT_NAMES, LAYOUT_PIVOTS, buildLayout, demoAxleBody, demoPivots, hasBodyChoice } from './layoutKinds';
 export type { LayoutAxleBody, LayoutKind } from './layoutKinds';
 export { SIDE_VIEW_STROKE_TOL_MM, sideView } from './sideView';
 export type { SideViewDesign, SideViewPose, SideViewPrimitive, SideViewResult, SideViewRole } from './sideView';

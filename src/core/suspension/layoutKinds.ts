@@ -8,6 +8,7 @@ import type { Vec2 } from '../geometry';
 import type { Linkage } from '../linkage';
 import { DEMO_LAYOUTS } from './demo';
 import {
+  DEFAULT_SHOCK_BODIES,
   fourBarSeatStayAxle,
   linkageDrivenSinglePivot,
   shortLinkFourBar,
@@ -20,6 +21,8 @@ import {
   type SinglePivotPositions,
   type StephensonSixBarPositions,
   type WattSixBarPositions,
+  type ShockBodies,
+  type SixBarBody,
 } from './layouts';
 
 export const LAYOUT_KINDS = [
@@ -42,7 +45,7 @@ export const LAYOUT_NAMES: Readonly<Record<LayoutKind, string>> = {
   stephensonSixBar: 'Stephenson six-bar',
 };
 
-type Pivots<T> = Omit<T, 'axle' | 'axleBody'>;
+type Pivots<T> = Omit<T, 'axle' | 'axleBody' | 'shock'>;
 type PivotNames<T> = readonly (keyof Pivots<T>)[];
 
 /** The pivots each kind is drawn with (its builder's positions without the axle); each is a joint id of its linkage. */
@@ -59,19 +62,33 @@ export const LAYOUT_PIVOTS: { readonly [K in LayoutKind]: readonly string[] } = 
   ] satisfies PivotNames<StephensonSixBarPositions>,
 };
 
-/** The body the six-bars carry the axle on; the other kinds have one axle-carrying body. */
-export type LayoutAxleBody = 'chainStay' | 'seatStay';
+/** The body the six-bars carry the axle on (any moving body); the other kinds have one axle-carrying body. */
+export type LayoutAxleBody = SixBarBody;
 
-/** The kind's linkage from its pivots (LAYOUT_PIVOTS[kind], each present) and the bicycle's rear axle. */
-export function buildLayout(kind: LayoutKind, pivots: Readonly<Record<string, Vec2>>, axle: Vec2, axleBody: LayoutAxleBody = 'seatStay'): Linkage {
+/** Whether a kind lets the designer choose the axle's body and the shock's bodies. */
+export function hasBodyChoice(kind: LayoutKind): kind is 'wattSixBar' | 'stephensonSixBar' {
+  return kind === 'wattSixBar' || kind === 'stephensonSixBar';
+}
+
+/**
+ * The kind's linkage from its pivots (LAYOUT_PIVOTS[kind], each present) and the bicycle's
+ * rear axle; for the six-bars, the axle's body and the shock's bodies (the other kinds ignore them).
+ */
+export function buildLayout(
+  kind: LayoutKind,
+  pivots: Readonly<Record<string, Vec2>>,
+  axle: Vec2,
+  axleBody: LayoutAxleBody = 'seatStay',
+  shock: ShockBodies = DEFAULT_SHOCK_BODIES,
+): Linkage {
   const p = pivots as never;
   switch (kind) {
     case 'singlePivot': return singlePivot({ ...(p as Pivots<SinglePivotPositions>), axle });
     case 'linkageDrivenSinglePivot': return linkageDrivenSinglePivot({ ...(p as Pivots<LinkageDrivenSinglePivotPositions>), axle });
     case 'fourBarSeatStayAxle': return fourBarSeatStayAxle({ ...(p as Pivots<FourBarSeatStayAxlePositions>), axle });
     case 'shortLinkFourBar': return shortLinkFourBar({ ...(p as Pivots<ShortLinkFourBarPositions>), axle });
-    case 'wattSixBar': return wattSixBar({ ...(p as Pivots<WattSixBarPositions>), axle, axleBody });
-    case 'stephensonSixBar': return stephensonSixBar({ ...(p as Pivots<StephensonSixBarPositions>), axle, axleBody });
+    case 'wattSixBar': return wattSixBar({ ...(p as Pivots<WattSixBarPositions>), axle, axleBody, shock });
+    case 'stephensonSixBar': return stephensonSixBar({ ...(p as Pivots<StephensonSixBarPositions>), axle, axleBody, shock });
   }
 }
 

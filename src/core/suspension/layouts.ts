@@ -2,7 +2,8 @@
  * Rear-suspension layouts as linkages. Each builder takes pivot positions (mm, bicycle
  * frame: origin at the bottom bracket, x forward, y up) drawn at full extension and
  * returns a Linkage whose ground body is the front frame, driven by the shock's eye-to-eye
- * length (joint `shockEye` on the suspension to ground joint `shockFrameEye`), with the
+ * length (joint `shockEye` on the suspension to joint `shockFrameEye`, on the front frame
+ * or, in the six-bars, on a chosen moving body), with the
  * rear axle as the point `axle` on the axle-carrying body.
  *
  * Generic names only: single pivot, linkage-driven single pivot, four-bar with the axle
@@ -14,7 +15,7 @@ import { GROUND, type Linkage } from '../linkage';
 
 /** The id of the rear-axle point every layout carries. */
 export const AXLE_POINT = 'axle';
-/** Joint ids of the shock's eyes: on the suspension, and on the front frame. */
+/** Joint ids of the shock's eyes: on the suspension, and on the front frame (or a six-bar's chosen body). */
 export const SHOCK_EYE = 'shockEye';
 export const SHOCK_FRAME_EYE = 'shockFrameEye';
 /** The front frame is the linkage's ground body. */
@@ -164,11 +165,61 @@ export function shortLinkFourBar(at: ShortLinkFourBarPositions): Linkage {
   };
 }
 
+/** The moving bodies of the Watt and Stephenson six-bars, in the order the panels list them. */
+export const SIX_BAR_BODIES = ['chainStay', 'seatStay', 'rocker', 'link', 'bellCrank'] as const;
+export type SixBarBody = (typeof SIX_BAR_BODIES)[number];
+/** The bodies a six-bar's shock may end on: a moving body, or the front frame (the ground body). */
+export const SHOCK_END_BODIES = [...SIX_BAR_BODIES, 'frontFrame'] as const;
+export type ShockEndBody = (typeof SHOCK_END_BODIES)[number];
+
+/**
+ * Which bodies a six-bar's shock joins: its eye `shockEye` on `eye`, its other eye
+ * `shockFrameEye` on `frameEye` (the front frame, or another moving body). The default
+ * is the bell crank to the front frame.
+ */
+export interface ShockBodies {
+  readonly eye: SixBarBody;
+  readonly frameEye: ShockEndBody;
+}
+export const DEFAULT_SHOCK_BODIES: ShockBodies = { eye: 'bellCrank', frameEye: 'frontFrame' };
+
+/** Why a six-bar's shock cannot join these bodies, or null when it can. */
+export function shockBodiesIssue(shock: ShockBodies): string | null {
+  if (shock.eye === shock.frameEye) return `the shock's two eyes are both on the ${shock.eye}; its length could not change, so it cannot drive the layout — put its eyes on two different bodies`;
+  return null;
+}
+
+/** A six-bar's joints and bodies with the shock's eyes placed on the chosen bodies. */
+function sixBarLinkage(
+  fixedPivots: readonly ReturnType<typeof fixed>[],
+  freeJoints: readonly ReturnType<typeof free>[],
+  bodies: readonly { id: SixBarBody; joints: readonly string[] }[],
+  at: { readonly shockEye: Vec2; readonly shockFrameEye: Vec2; readonly axle: Vec2; readonly axleBody: SixBarBody },
+  shock: ShockBodies,
+): Linkage {
+  const onFrame = shock.frameEye === 'frontFrame';
+  return {
+    joints: [
+      ...fixedPivots,
+      ...(onFrame ? [fixed(SHOCK_FRAME_EYE, at.shockFrameEye)] : []),
+      ...freeJoints,
+      free(SHOCK_EYE, at.shockEye),
+      ...(onFrame ? [] : [free(SHOCK_FRAME_EYE, at.shockFrameEye)]),
+    ],
+    bodies: bodies.map((b) => ({
+      id: b.id,
+      joints: [...b.joints, ...(b.id === shock.eye ? [SHOCK_EYE] : []), ...(b.id === shock.frameEye ? [SHOCK_FRAME_EYE] : [])],
+    })),
+    points: axleOn(at.axleBody, at.axle),
+    driver: SHOCK_DRIVER,
+  };
+}
+
 /**
  * Watt six-bar: the four-bar of chain stay, seat stay and rocker, whose rocker (a
  * ternary link, joined to the ternary front frame at `rockerPivot`) drives a bell crank
- * through a link; the shock runs from the bell crank to the front frame. The axle rides
- * on the body `axleBody` names.
+ * through a link. The axle rides on the body `axleBody` names; the shock joins the
+ * bodies `shock` names (by default the bell crank and the front frame).
  */
 export interface WattSixBarPositions {
   readonly mainPivot: Vec2;
@@ -181,44 +232,37 @@ export interface WattSixBarPositions {
   readonly shockEye: Vec2;
   readonly shockFrameEye: Vec2;
   readonly axle: Vec2;
-  readonly axleBody: 'chainStay' | 'seatStay';
+  readonly axleBody: SixBarBody;
+  readonly shock?: ShockBodies;
 }
 
 /**
  * Bodies: `chainStay` [mainPivot, stayPivot], `seatStay` [stayPivot, rockerStayPin],
  * `rocker` [rockerPivot, rockerStayPin, rockerLinkPin], `link` [rockerLinkPin,
- * bellCrankLinkPin], `bellCrank` [bellCrankPivot, bellCrankLinkPin, shockEye].
+ * bellCrankLinkPin], `bellCrank` [bellCrankPivot, bellCrankLinkPin], each with the
+ * shock's eyes it carries.
  */
 export function wattSixBar(at: WattSixBarPositions): Linkage {
-  return {
-    joints: [
-      fixed('mainPivot', at.mainPivot),
-      fixed('rockerPivot', at.rockerPivot),
-      fixed('bellCrankPivot', at.bellCrankPivot),
-      fixed(SHOCK_FRAME_EYE, at.shockFrameEye),
-      free('stayPivot', at.stayPivot),
-      free('rockerStayPin', at.rockerStayPin),
-      free('rockerLinkPin', at.rockerLinkPin),
-      free('bellCrankLinkPin', at.bellCrankLinkPin),
-      free(SHOCK_EYE, at.shockEye),
-    ],
-    bodies: [
+  return sixBarLinkage(
+    [fixed('mainPivot', at.mainPivot), fixed('rockerPivot', at.rockerPivot), fixed('bellCrankPivot', at.bellCrankPivot)],
+    [free('stayPivot', at.stayPivot), free('rockerStayPin', at.rockerStayPin), free('rockerLinkPin', at.rockerLinkPin), free('bellCrankLinkPin', at.bellCrankLinkPin)],
+    [
       { id: 'chainStay', joints: ['mainPivot', 'stayPivot'] },
       { id: 'seatStay', joints: ['stayPivot', 'rockerStayPin'] },
       { id: 'rocker', joints: ['rockerPivot', 'rockerStayPin', 'rockerLinkPin'] },
       { id: 'link', joints: ['rockerLinkPin', 'bellCrankLinkPin'] },
-      { id: 'bellCrank', joints: ['bellCrankPivot', 'bellCrankLinkPin', SHOCK_EYE] },
+      { id: 'bellCrank', joints: ['bellCrankPivot', 'bellCrankLinkPin'] },
     ],
-    points: axleOn(at.axleBody, at.axle),
-    driver: SHOCK_DRIVER,
-  };
+    at,
+    at.shock ?? DEFAULT_SHOCK_BODIES,
+  );
 }
 
 /**
  * Stephenson six-bar: the four-bar of chain stay, seat stay and rocker, whose seat stay
  * (a ternary link, not joined to the ternary front frame) drives a bell crank through a
- * link; the shock runs from the bell crank to the front frame. The seat stay's three
- * joints close two loops at once, so the compiler solves them as one Newton block.
+ * link. The seat stay's three joints close two loops at once, so the compiler solves
+ * them as one Newton block. Axle and shock bodies as for the Watt six-bar.
  */
 export interface StephensonSixBarPositions {
   readonly mainPivot: Vec2;
@@ -231,35 +275,28 @@ export interface StephensonSixBarPositions {
   readonly shockEye: Vec2;
   readonly shockFrameEye: Vec2;
   readonly axle: Vec2;
-  readonly axleBody: 'chainStay' | 'seatStay';
+  readonly axleBody: SixBarBody;
+  readonly shock?: ShockBodies;
 }
 
 /**
  * Bodies: `chainStay` [mainPivot, stayPivot], `seatStay` [stayPivot, rockerStayPin,
  * stayLinkPin], `rocker` [rockerPivot, rockerStayPin], `link` [stayLinkPin,
- * bellCrankLinkPin], `bellCrank` [bellCrankPivot, bellCrankLinkPin, shockEye].
+ * bellCrankLinkPin], `bellCrank` [bellCrankPivot, bellCrankLinkPin], each with the
+ * shock's eyes it carries.
  */
 export function stephensonSixBar(at: StephensonSixBarPositions): Linkage {
-  return {
-    joints: [
-      fixed('mainPivot', at.mainPivot),
-      fixed('rockerPivot', at.rockerPivot),
-      fixed('bellCrankPivot', at.bellCrankPivot),
-      fixed(SHOCK_FRAME_EYE, at.shockFrameEye),
-      free('stayPivot', at.stayPivot),
-      free('rockerStayPin', at.rockerStayPin),
-      free('stayLinkPin', at.stayLinkPin),
-      free('bellCrankLinkPin', at.bellCrankLinkPin),
-      free(SHOCK_EYE, at.shockEye),
-    ],
-    bodies: [
+  return sixBarLinkage(
+    [fixed('mainPivot', at.mainPivot), fixed('rockerPivot', at.rockerPivot), fixed('bellCrankPivot', at.bellCrankPivot)],
+    [free('stayPivot', at.stayPivot), free('rockerStayPin', at.rockerStayPin), free('stayLinkPin', at.stayLinkPin), free('bellCrankLinkPin', at.bellCrankLinkPin)],
+    [
       { id: 'chainStay', joints: ['mainPivot', 'stayPivot'] },
       { id: 'seatStay', joints: ['stayPivot', 'rockerStayPin', 'stayLinkPin'] },
       { id: 'rocker', joints: ['rockerPivot', 'rockerStayPin'] },
       { id: 'link', joints: ['stayLinkPin', 'bellCrankLinkPin'] },
-      { id: 'bellCrank', joints: ['bellCrankPivot', 'bellCrankLinkPin', SHOCK_EYE] },
+      { id: 'bellCrank', joints: ['bellCrankPivot', 'bellCrankLinkPin'] },
     ],
-    points: axleOn(at.axleBody, at.axle),
-    driver: SHOCK_DRIVER,
-  };
+    at,
+    at.shock ?? DEFAULT_SHOCK_BODIES,
+  );
 }

@@ -17,7 +17,7 @@ export { gaitFiguresJson, isLegProblem, LEG_DEFECT_NAMES, LEG_TERM_NAMES } from 
 export type { LegProblem, LegProblemInput, LegProblemResult, LegTargets, LegTerm } from './legProblem';
 export { createLegProblem, DEFAULT_LEG_STEPS, LEG_FAMILY_IDS, LEG_FOOT_ID, LEG_STEPS_RANGE } from './legProblem';
 export { createObjective, isSuspensionProblem, objectiveVariableNames, REFINE_ITERATIONS, FREE_REFINE_MAX_STEP_RAD, SUSPENSION_DEFECT_NAMES, SUSPENSION_TERM_NAMES, plainSuspensionReport } from './objective';
-export type { BandMode, SuspensionKeepOut, SuspensionProblem, SuspensionProblemInput, SuspensionProblemIssue, SuspensionProblemResult, SuspensionTargets } from './suspensionProblem';
+export type { BandMode, LayoutBodies, SuspensionKeepOut, SuspensionProblem, SuspensionProblemInput, SuspensionProblemIssue, SuspensionProblemResult, SuspensionTargets } from './suspensionProblem';
 export { createSuspensionProblem, defaultLayoutBounds, layoutVariableNames, DEFAULT_TOLERANCES, DEFAULT_SUSPENSION_STEPS, SHOCK_ANGLE_VARIABLE } from './suspensionProblem';
 export type { Ranked } from './ranking';
 export { compareCandidates, compareRanks } from './ranking';

@@ -8,16 +8,30 @@
  * eye-to-eye length from the shock's other eye in the direction `shockAngle` (rad, CCW
  * from +x): the shock is then exactly at full extension in every design. The rear axle
  * is the bicycle's.
+ *
+ * The six-bars also take their bodies (not searched): the body that carries the axle and
+ * the bodies the shock joins, by default the demo drawing's axle body and the bell crank
+ * to the front frame, so a problem that names none searches exactly what it did before.
  */
 import {
+  DEFAULT_SHOCK_BODIES,
   LAYOUT_KINDS,
   LAYOUT_PIVOTS,
+  SHOCK_END_BODIES,
   SHOCK_EYE,
   SHOCK_FRAME_EYE,
+  SIX_BAR_BODIES,
+  demoAxleBody,
   demoPivots,
+  hasBodyChoice,
+  shockBodiesIssue,
   validateBicycle,
   type Bicycle,
+  type LayoutAxleBody,
   type LayoutKind,
+  type ShockBodies,
+  type ShockEndBody,
+  type SixBarBody,
   type ValidBicycle,
 } from '../suspension';
 
@@ -99,6 +113,17 @@ export interface SuspensionKeepOut {
   readonly r: number;
 }
 
+/** A six-bar's bodies: the one that carries the axle, and the two the shock joins. */
+export interface LayoutBodies {
+  readonly axleBody: LayoutAxleBody;
+  readonly shock: ShockBodies;
+}
+
+/** The bodies a problem builds a layout with: its own for a six-bar it names, else the defaults (demo axle body, bell crank to front frame). */
+export function layoutBodiesOf(problem: Pick<SuspensionProblem, 'layoutBodies'>, kind: LayoutKind): LayoutBodies {
+  return problem.layoutBodies[kind] ?? { axleBody: demoAxleBody(kind), shock: DEFAULT_SHOCK_BODIES };
+}
+
 export type SuspensionBounds = Readonly<Partial<Record<LayoutKind, Readonly<Record<string, readonly [number, number]>>>>>;
 
 export interface SuspensionProblem {
@@ -114,6 +139,8 @@ export interface SuspensionProblem {
   readonly keepOut: readonly SuspensionKeepOut[];
   /** Every variable's box for every listed layout: the defaults with the problem's overrides. */
   readonly bounds: Readonly<Partial<Record<LayoutKind, Readonly<Record<string, readonly [number, number]>>>>>;
+  /** Each listed six-bar's bodies (the defaults where the input names none); the other kinds have none. */
+  readonly layoutBodies: Readonly<Partial<Record<LayoutKind, LayoutBodies>>>;
 }
 
 /** Plain data, as a problem file carries it (after its schema). Optional weights default to 1, `as` to 'constraint'. */
@@ -136,6 +163,8 @@ export interface SuspensionProblemInput {
   };
   readonly keepOut?: readonly { readonly name?: string; readonly x: number; readonly y: number; readonly r: number }[];
   readonly bounds?: Readonly<Record<string, Readonly<Record<string, readonly number[]>>>>;
+  /** Six-bars only: the axle's body and the shock's bodies; what is left out takes the default. */
+  readonly layoutBodies?: Readonly<Record<string, { readonly axleBody?: string; readonly shock?: { readonly eye: string; readonly frameEye: string } }>>;
 }
 
 export interface SuspensionProblemIssue {
@@ -372,6 +401,7 @@ export function createSuspensionProblem(input: SuspensionProblemInput): Suspensi
       else own[name] = [lo, hi];
     }
   }
+  const layoutBodies = checkLayoutBodies(c, layouts, input.layoutBodies ?? {});
   if (c.issues.length > 0 || bike === null) return { ok: false, issues: c.issues };
   return {
     ok: true,
@@ -385,6 +415,45 @@ export function createSuspensionProblem(input: SuspensionProblemInput): Suspensi
       targets,
       keepOut,
       bounds,
+      layoutBodies,
     },
   };
+}
+
+/** Each listed six-bar's bodies from the input, checked, with the defaults filled in. */
+function checkLayoutBodies(c: Checker, layouts: readonly LayoutKind[], input: NonNullable<SuspensionProblemInput['layoutBodies']>): Partial<Record<LayoutKind, LayoutBodies>> {
+  const out: Partial<Record<LayoutKind, LayoutBodies>> = {};
+  for (const kind of layouts) if (hasBodyChoice(kind)) out[kind] = { axleBody: demoAxleBody(kind), shock: DEFAULT_SHOCK_BODIES };
+  const list = (ids: readonly string[]) => ids.map((b) => `"${b}"`).join(', ');
+  for (const [kind, given] of Object.entries(input)) {
+    const path = `layoutBodies.${kind}`;
+    if (!(LAYOUT_KINDS as readonly string[]).includes(kind) || !hasBodyChoice(kind as LayoutKind)) {
+      c.add(path, `"${kind}" has no body choice; expected a six-bar, "wattSixBar" or "stephensonSixBar"`);
+      continue;
+    }
+    const own = out[kind as LayoutKind];
+    if (own === undefined) {
+      c.add(path, `"${kind}" is not one of the problem's layouts (${layouts.join(', ')})`);
+      continue;
+    }
+    let { axleBody, shock } = own;
+    if (given.axleBody !== undefined) {
+      if ((SIX_BAR_BODIES as readonly string[]).includes(given.axleBody)) axleBody = given.axleBody as SixBarBody;
+      else c.add(`${path}.axleBody`, `"${given.axleBody}" is not a moving body; expected one of ${list(SIX_BAR_BODIES)}`);
+    }
+    if (given.shock !== undefined) {
+      const eyeOk = (SIX_BAR_BODIES as readonly string[]).includes(given.shock.eye);
+      const frameOk = (SHOCK_END_BODIES as readonly string[]).includes(given.shock.frameEye);
+      if (!eyeOk) c.add(`${path}.shock.eye`, `"${given.shock.eye}" is not a moving body; expected one of ${list(SIX_BAR_BODIES)}`);
+      if (!frameOk) c.add(`${path}.shock.frameEye`, `"${given.shock.frameEye}" is not a body of the layout; expected one of ${list(SHOCK_END_BODIES)}`);
+      if (eyeOk && frameOk) {
+        const chosen: ShockBodies = { eye: given.shock.eye as SixBarBody, frameEye: given.shock.frameEye as ShockEndBody };
+        const issue = shockBodiesIssue(chosen);
+        if (issue !== null) c.add(`${path}.shock`, issue);
+        else shock = chosen;
+      }
+    }
+    out[kind as LayoutKind] = { axleBody, shock };
+  }
+  return out;
 }

@@ -162,7 +162,7 @@ describe('suspension file: mistakes, each at its field', () => {
     expect(issuesOf({ ...example(), layout: { kind: 'fourBar', pivots: {} } })[0].message).toContain('"fourBarSeatStayAxle"');
     const watt = toSuspensionFile(demoDesign('wattSixBar')) as unknown as Json;
     delete (watt.layout as Json).axleBody;
-    expect(issuesOf(watt)).toContainEqual({ path: 'layout.axleBody', message: 'missing; expected the body that carries the axle, "chainStay" or "seatStay"' });
+    expect(issuesOf(watt)).toContainEqual({ path: 'layout.axleBody', message: 'missing; expected the body that carries the axle, one of "chainStay", "seatStay", "rocker", "link", "bellCrank"' });
     const four = example();
     (four.layout as Json).axleBody = 'seatStay';
     expect(issuesOf(four)[0].message).toContain('unknown field "axleBody"');
@@ -206,5 +206,59 @@ describe('suspension file: mistakes, each at its field', () => {
       path: 'layout.floatingBrakeBody',
       message: '"swingArm" is not a moving body of a fourBarSeatStayAxle layout; expected one of "chainStay", "seatStay", "rocker"',
     }]);
+  });
+});
+
+describe('suspension file: a six-bar with the axle and the shock on chosen bodies', () => {
+  // The Watt six-bar of the demo with its shock from the bell crank to the rocker, the other eye drawn 210 mm (the eye-to-eye length) above the eye, and the axle on the chain stay.
+  const W = DEMO_LAYOUTS.wattSixBar;
+  const frameEye = { x: W.shockEye.x, y: W.shockEye.y + 210 };
+  const shock = { eye: 'bellCrank', frameEye: 'rocker' } as const;
+  const design = (): SuspensionDesign => {
+    const d = demoDesign('wattSixBar');
+    return { ...d, layout: { ...d.layout, pivots: { ...d.layout.pivots, shockFrameEye: frameEye }, axleBody: 'chainStay', shock } };
+  };
+
+  it('round-trips through JSON text and builds the linkage its builder builds', () => {
+    const text = JSON.stringify(toSuspensionFile(design()));
+    expect(JSON.parse(text).layout.shock).toEqual(shock);
+    const r = parseSuspensionFileText(text);
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.design).toEqual(design());
+    expect(JSON.stringify(toSuspensionFile(r.design))).toBe(text);
+    // Second route: the builder called directly with the same positions and bodies.
+    expect(r.linkage).toEqual(wattSixBar({ ...W, shockFrameEye: frameEye, axleBody: 'chainStay', shock }));
+    expect(r.linkage.joints.find((j) => j.id === 'shockFrameEye')?.ground).toBeUndefined();
+    expect(r.linkage.bodies.find((b) => b.id === 'rocker')?.joints).toContain('shockFrameEye');
+  });
+
+  it('reads a file without "shock" (as every older file) as the bell crank to the front frame, and writes the default without it', () => {
+    const older = toSuspensionFile(demoDesign('wattSixBar')) as unknown as Json;
+    expect((older.layout as Json).shock).toBeUndefined();
+    const r = parseSuspensionFile(older);
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.design.layout.shock).toBeUndefined();
+    expect(r.linkage).toEqual(DIRECT.wattSixBar);
+    const d = demoDesign('wattSixBar');
+    const explicit = toSuspensionFile({ ...d, layout: { ...d.layout, shock: { eye: 'bellCrank', frameEye: 'frontFrame' } } }) as unknown as Json;
+    expect(explicit).toEqual(older);
+  });
+
+  it('refuses a shock with both eyes on one body, an unknown body, and "shock" on a four-bar', () => {
+    const same = toSuspensionFile(design()) as unknown as Json;
+    (same.layout as Json).shock = { eye: 'rocker', frameEye: 'rocker' };
+    const sameIssues = issuesOf(same);
+    expect(sameIssues).toHaveLength(1);
+    expect(sameIssues[0].path).toBe('layout.shock');
+    expect(sameIssues[0].message).toContain('both on the rocker');
+    const unknown = toSuspensionFile(design()) as unknown as Json;
+    (unknown.layout as Json).shock = { eye: 'bellCrank', frameEye: 'swingArm' };
+    expect(issuesOf(unknown)[0]).toMatchObject({ path: 'layout.shock.frameEye' });
+    expect(issuesOf(unknown)[0].message).toContain('"frontFrame"');
+    const four = example();
+    (four.layout as Json).shock = shock;
+    expect(issuesOf(four)[0].message).toContain('unknown field "shock"');
   });
 });

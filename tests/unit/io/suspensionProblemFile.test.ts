@@ -8,6 +8,8 @@ import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { parseProblemFile, parseSynthesisProblemFile } from '../../../src/core/io/problem';
 import { createObjective, isSuspensionProblem } from '../../../src/core/synthesis';
+import { createSuspensionResponse } from '../../../src/core/synthesis/objective/suspensionResponse';
+import { layoutVariableNames } from '../../../src/core/synthesis/suspensionProblem';
 
 const root = resolve(import.meta.dirname, '../../..');
 const example = (): Record<string, unknown> => JSON.parse(readFileSync(resolve(root, 'public/examples/trail-bike-suspension-problem.json'), 'utf8'));
@@ -74,5 +76,48 @@ describe('problem file of kind "suspension"', () => {
     const bike = example();
     (bike.bicycle as Record<string, unknown>).sag = 30;
     expect(issuesOf(bike).some((i) => i.startsWith('bicycle.sag') && i.includes('percentage'))).toBe(true);
+  });
+});
+
+describe('problem file of kind "suspension": a six-bar\'s bodies', () => {
+  it('reads the axle body and the shock bodies of a six-bar; a layout without them keeps the defaults', () => {
+    const json = example();
+    json.layoutBodies = { wattSixBar: { axleBody: 'chainStay', shock: { eye: 'bellCrank', frameEye: 'rocker' } } };
+    const read = parseSynthesisProblemFile(json);
+    if (!read.ok || !isSuspensionProblem(read.problem)) throw new Error(`not read: ${read.ok ? 'kind' : read.issues.map((i) => i.message).join('; ')}`);
+    expect(read.problem.layoutBodies.wattSixBar).toEqual({ axleBody: 'chainStay', shock: { eye: 'bellCrank', frameEye: 'rocker' } });
+    expect(read.problem.layoutBodies.singlePivot).toBeUndefined();
+    // The response builds the layout with them: the shock's other eye is a joint of the rocker, the axle on the chain stay.
+    const response = createSuspensionResponse(read.problem, 'wattSixBar', layoutVariableNames('wattSixBar'));
+    const linkage = response.plan.linkage;
+    expect(linkage.joints.find((j) => j.id === 'shockFrameEye')?.ground).toBeUndefined();
+    expect(linkage.bodies.find((b) => b.id === 'rocker')?.joints).toContain('shockFrameEye');
+    expect(linkage.points?.find((p) => p.id === 'axle')?.body).toBe('chainStay');
+    const objective = createObjective(read.problem, 'wattSixBar');
+    const x = new Float64Array(objective.dim);
+    for (let j = 0; j < objective.dim; j++) x[j] = 0.5 * (objective.lower[j] + objective.upper[j]);
+    const out = new Float64Array(2);
+    objective.evaluate(x, out);
+    expect(Number.isFinite(out[0])).toBe(true);
+
+    const plain = parseSynthesisProblemFile(example());
+    if (!plain.ok || !isSuspensionProblem(plain.problem)) throw new Error('example not read');
+    expect(plain.problem.layoutBodies.wattSixBar).toEqual({ axleBody: 'seatStay', shock: { eye: 'bellCrank', frameEye: 'frontFrame' } });
+  });
+
+  it('refuses bodies for a kind without a choice, for a layout not listed, and a shock with both eyes on one body', () => {
+    const json = example();
+    json.layoutBodies = {
+      singlePivot: { axleBody: 'seatStay' },
+      stephensonSixBar: { axleBody: 'rocker' },
+      wattSixBar: { shock: { eye: 'link', frameEye: 'link' } },
+    };
+    const issues = issuesOf(json);
+    expect(issues.some((i) => i.startsWith('layoutBodies.singlePivot: ') && i.includes('expected a six-bar')), issues.join(' | ')).toBe(true);
+    expect(issues.some((i) => i.startsWith('layoutBodies.stephensonSixBar: ') && i.includes('not one of the problem\'s layouts')), issues.join(' | ')).toBe(true);
+    expect(issues.some((i) => i.startsWith('layoutBodies.wattSixBar.shock: ') && i.includes('both on the link')), issues.join(' | ')).toBe(true);
+    const badName = example();
+    badName.layoutBodies = { wattSixBar: { axleBody: 'swingArm' } };
+    expect(issuesOf(badName).some((i) => i.startsWith('layoutBodies.wattSixBar.axleBody: ') && i.includes('"bellCrank"'))).toBe(true);
   });
 });

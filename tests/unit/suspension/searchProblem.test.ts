@@ -12,6 +12,7 @@ import { LAYOUT_KINDS, demoAxleBody, demoPivots, type Bicycle, type LayoutKind }
 import { createSuspensionProblem, defaultLayoutBounds, type SuspensionProblemInput } from '../../../src/core/synthesis/suspensionProblem';
 import { demoSuspensionState, reduceSuspension, type SuspensionAction, type SuspensionState } from '../../../src/app/suspension/state';
 import { readSearchProblem } from '../../../src/app/suspension/targets/searchProblem';
+import { runLayoutBodies } from '../../../src/app/suspension/search/compare';
 import { TARGET_KEYS, type SearchSetupAction, type TargetKey, type TargetTextField } from '../../../src/app/suspension/targets/setup';
 
 const root = resolve(import.meta.dirname, '../../..');
@@ -212,5 +213,24 @@ describe('readSearchProblem: every issue beside its field, with the core’s mes
     const got = issuesOf(state);
     expect(got.map((i) => i.field)).toEqual(['layouts', 'targets']);
     if (!core.ok) for (const [k, i] of core.issues.entries()) expect(got[k].message).toContain(i.message);
+  });
+});
+
+describe('the six-bar shown, as drawn', () => {
+  it('a searched six-bar is searched, and its designs analysed, with the bodies the layout panel shows', () => {
+    // The demo ticks the Watt six-bar; show it with the shock from the bell crank to the rocker.
+    let state = reduceSuspension(demoSuspensionState(), { type: 'layoutKind', kind: 'wattSixBar' });
+    const shock = { eye: 'bellCrank', frameEye: 'rocker' } as const;
+    state = reduceSuspension(state, { type: 'shockBodies', shock });
+    const reading = readSearchProblem(state);
+    expect(reading.ok).toBe(true);
+    if (!reading.ok) return;
+    expect(reading.problem.layoutBodies.wattSixBar).toEqual({ axleBody: state.layout.axleBody, shock });
+    // The compare view and an opened row build the design with the same bodies the run searched.
+    expect(runLayoutBodies(reading.input, 'wattSixBar')).toEqual({ axleBody: state.layout.axleBody, shock });
+    // Kinds not shown keep the defaults, and a default choice adds nothing to the problem.
+    expect(runLayoutBodies(reading.input, 'stephensonSixBar')).toEqual({ axleBody: demoAxleBody('stephensonSixBar'), shock: { eye: 'bellCrank', frameEye: 'frontFrame' } });
+    const plain = readSearchProblem(reduceSuspension(demoSuspensionState(), { type: 'layoutKind', kind: 'wattSixBar' }));
+    expect(plain.ok && plain.input.layoutBodies).toBe(undefined);
   });
 });

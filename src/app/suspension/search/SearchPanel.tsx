@@ -5,11 +5,11 @@
  * opening a design in the workspace, and the compare view of 2–4 ticked designs.
  */
 import { useMemo, useState, useSyncExternalStore } from 'react';
-import { SUSPENSION_CAUTION, demoAxleBody, LAYOUT_NAMES } from '../../../core/suspension';
+import { SUSPENSION_CAUTION, LAYOUT_NAMES } from '../../../core/suspension';
 import { figure } from '../labels';
 import { useSuspension, useSuspensionDispatch } from '../store';
 import { readSearchProblem } from '../targets/searchProblem';
-import { MAX_COMPARED, comparedDesigns } from './compare';
+import { MAX_COMPARED, comparedDesigns, runLayoutBodies } from './compare';
 import { CompareView } from './CompareView';
 import type { SearchSession } from './controller';
 import { useSearchController } from './controllerContext';
@@ -79,7 +79,10 @@ export function SearchPanel() {
   };
   const onOpen = (row: TableRow) => {
     const c = row.candidate;
-    dispatch({ type: 'openLayout', kind: c.family, pivots: c.pivots, axleBody: demoAxleBody(c.family) });
+    if (shownRun === null) return;
+    // With the bodies the run searched it with, so the side view and curves are the row's design.
+    const bodies = runLayoutBodies(shownRun.problem, c.family);
+    dispatch({ type: 'openLayout', kind: c.family, pivots: c.pivots, axleBody: bodies.axleBody, shock: bodies.shock });
     setTicks({ runId: shownId, ranks: compared, opened: c.rank });
     setOpenMessage(`Opened #${c.rank} (${row.layoutName}) in the side view and the curves above.`);
     // Focus follows the design: to the side view's heading, which the reader lands on.

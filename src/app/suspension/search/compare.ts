@@ -5,8 +5,19 @@
  * told apart by colour alone), and the CSV of the compared curves.
  */
 import type { Linkage } from '../../../core/linkage';
-import { buildLayout, demoAxleBody, LAYOUT_NAMES, SUSPENSION_CAUTION, suspensionCurves, type SuspensionReport } from '../../../core/suspension';
-import { DEFAULT_SUSPENSION_STEPS, type SuspensionProblemInput } from '../../../core/synthesis';
+import {
+  DEFAULT_SHOCK_BODIES,
+  LAYOUT_NAMES,
+  SUSPENSION_CAUTION,
+  buildLayout,
+  demoAxleBody,
+  suspensionCurves,
+  type LayoutAxleBody,
+  type LayoutKind,
+  type ShockBodies,
+  type SuspensionReport,
+} from '../../../core/suspension';
+import { DEFAULT_SUSPENSION_STEPS, type LayoutBodies, type SuspensionProblemInput } from '../../../core/synthesis';
 import type { SearchCandidate } from './results';
 
 /** At most this many designs are compared at once. */
@@ -37,9 +48,19 @@ export function designLabel(c: SearchCandidate): string {
   return `#${c.rank} ${LAYOUT_NAMES[c.family]}`;
 }
 
+/** The bodies a run searched a layout with: the problem's, checked when the run was made; absent means the defaults. */
+export function runLayoutBodies(problem: SuspensionProblemInput, kind: LayoutKind): LayoutBodies {
+  const given = problem.layoutBodies?.[kind];
+  return {
+    axleBody: (given?.axleBody as LayoutAxleBody | undefined) ?? demoAxleBody(kind),
+    shock: (given?.shock as ShockBodies | undefined) ?? DEFAULT_SHOCK_BODIES,
+  };
+}
+
 /** A searched design's linkage and curves on the problem's bicycle, as the search's report took them. */
 export function analyseCandidate(problem: SuspensionProblemInput, c: SearchCandidate): { linkage: Linkage; report: SuspensionReport | null; failure: string | null } {
-  const linkage = buildLayout(c.family, c.pivots, problem.bicycle.rearAxleMm, demoAxleBody(c.family));
+  const bodies = runLayoutBodies(problem, c.family);
+  const linkage = buildLayout(c.family, c.pivots, problem.bicycle.rearAxleMm, bodies.axleBody, bodies.shock);
   const result = suspensionCurves(linkage, problem.bicycle, { steps: problem.steps ?? DEFAULT_SUSPENSION_STEPS });
   return result.ok ? { linkage, report: result.report, failure: null } : { linkage, report: null, failure: result.reason };
 }

@@ -11,7 +11,7 @@
  * `budget.seconds`, `budget.evaluations`, `seed`, `steps`, `bicycle.<draft field>`.
  */
 import type { Bicycle } from '../../../core/suspension';
-import { LAYOUT_NAMES, type LayoutKind } from '../../../core/suspension';
+import { DEFAULT_SHOCK_BODIES, LAYOUT_NAMES, demoAxleBody, hasBodyChoice, type LayoutKind } from '../../../core/suspension';
 import {
   DEFAULT_SUSPENSION_STEPS,
   SHOCK_ANGLE_VARIABLE,
@@ -22,7 +22,7 @@ import {
 import { checkEvaluations, checkSeconds, checkSeed } from '../../state/fields';
 import { NUMBER_TEXT, readCogs, readDraft } from '../fields';
 import { pivotLabel } from '../labels';
-import type { SuspensionState } from '../state';
+import type { LayoutDraft, SuspensionState } from '../state';
 import { TARGET_KEYS, degToRad, type SearchSetup, type TargetDraft, type TargetKey, type TargetTextField } from './setup';
 import { TARGET_SPECS, targetFieldLabel } from './targetSpecs';
 
@@ -217,7 +217,19 @@ function readRun(r: Reader, setup: SearchSetup): SearchRunSettings {
  * The problem the workspace's set-up describes, with the run's budget and seed, or every
  * issue, each with its field. Reads the design's name, the bicycle's fields and the set-up.
  */
-export function readSearchProblem(state: Pick<SuspensionState, 'name' | 'draft' | 'search'>): SearchProblemReading {
+/**
+ * The body choice of the six-bar shown in the layout panel, when it is searched and not
+ * the default: the search then searches that six-bar as it is drawn, and a design opened
+ * from the results is analysed with the same bodies.
+ */
+function shownLayoutBodies(layout: LayoutDraft | undefined, layouts: readonly LayoutKind[]): SuspensionProblemInput['layoutBodies'] {
+  if (layout === undefined || !hasBodyChoice(layout.kind) || !layouts.includes(layout.kind)) return undefined;
+  const shock = layout.shock ?? DEFAULT_SHOCK_BODIES;
+  const isDefault = layout.axleBody === demoAxleBody(layout.kind) && shock.eye === DEFAULT_SHOCK_BODIES.eye && shock.frameEye === DEFAULT_SHOCK_BODIES.frameEye;
+  return isDefault ? undefined : { [layout.kind]: { axleBody: layout.axleBody, shock: { eye: shock.eye, frameEye: shock.frameEye } } };
+}
+
+export function readSearchProblem(state: Pick<SuspensionState, 'name' | 'draft' | 'search'> & { readonly layout?: LayoutDraft }): SearchProblemReading {
   const setup = state.search;
   const r = new Reader();
   const drafted = readDraft(state.draft);
@@ -239,6 +251,7 @@ export function readSearchProblem(state: Pick<SuspensionState, 'name' | 'draft' 
   const bounds = readBounds(r, setup);
   const run = readRun(r, setup);
   const steps = r.num('steps', setup.steps, `a whole number of samples over the stroke (empty: ${DEFAULT_SUSPENSION_STEPS})`, true);
+  const layoutBodies = shownLayoutBodies(state.layout, setup.layouts);
   const input: SuspensionProblemInput = {
     kind: 'suspension',
     name: state.name,
@@ -249,6 +262,7 @@ export function readSearchProblem(state: Pick<SuspensionState, 'name' | 'draft' 
     targets,
     keepOut,
     bounds,
+    ...(layoutBodies === undefined ? {} : { layoutBodies }),
   };
   const created = createSuspensionProblem(input);
   const unread = r.issues.map((i) => i.field);

@@ -138,7 +138,7 @@ export function createSuspensionObjective(problem: SuspensionProblem, kind: Layo
       contribution,
     }));
     const pivots = response.pivotsOf(x);
-    const linkage = buildLayout(kind, pivots, problem.bicycle.rearAxleMm, response.axleBody);
+    const linkage = buildLayout(kind, pivots, problem.bicycle.rearAxleMm, response.axleBody, response.shock);
     const analysed = suspensionCurves(linkage, problem.bicycleInput, { steps: problem.steps });
     let violation = out[1];
     if (!analysed.ok && violation <= 0) {

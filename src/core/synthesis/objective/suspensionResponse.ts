@@ -14,14 +14,15 @@ import {
   SHOCK_FRAME_EYE,
   LAYOUT_PIVOTS,
   buildLayout,
-  demoAxleBody,
   demoPivots,
   pitchRadiusMm,
   type LayoutKind,
   type ValidBicycle,
+  type LayoutAxleBody,
+  type ShockBodies,
 } from '../../suspension';
 import { chainAtFullExtensionInto, createChain0, createCurves, createCurveScratch, fillCurveSteps, type CurveContext, type SuspensionCurves } from '../../suspension/curves';
-import type { SuspensionKeepOut, SuspensionProblem } from '../suspensionProblem';
+import { layoutBodiesOf, type SuspensionKeepOut, type SuspensionProblem } from '../suspensionProblem';
 
 /** Violation slots of a suspension design; each normalised (~1 = badly broken). */
 export const S_BOUNDS = 0;
@@ -64,7 +65,9 @@ export interface SuspensionResponse {
   /** The cogs the curves hold (teeth), the union of those the targets read. */
   readonly cogTeeth: readonly number[];
   readonly parts: Float64Array;
-  readonly axleBody: 'chainStay' | 'seatStay';
+  readonly axleBody: LayoutAxleBody;
+  /** The bodies the shock joins (a six-bar's choice; the default for the other kinds). */
+  readonly shock: ShockBodies;
   /** Sets the design, steps the stroke, fills the curves and the feasibility slots (not S_BOUNDS, S_TRAVEL, S_BAND, S_UNDEFINED). */
   respond(x: Float64Array): void;
   /** The design's pivots (the shock's frame eye included), for its linkage. */
@@ -112,8 +115,8 @@ function segmentDepth(ax: number, ay: number, bx: number, by: number, c: Suspens
 export function createSuspensionResponse(problem: SuspensionProblem, kind: LayoutKind, names: readonly string[]): SuspensionResponse {
   const bicycle: ValidBicycle = problem.bicycle;
   const axle = bicycle.rearAxleMm;
-  const axleBodyId = demoAxleBody(kind);
-  const compiled = compile(buildLayout(kind, demoPivots(kind), axle, axleBodyId));
+  const { axleBody: axleBodyId, shock } = layoutBodiesOf(problem, kind);
+  const compiled = compile(buildLayout(kind, demoPivots(kind), axle, axleBodyId, shock));
   if (!compiled.ok) throw new Error(`layout ${kind} does not compile: ${compiled.issues.map((i) => `${i.where}: ${i.message}`).join('; ')}`);
   const plan = compiled.plan;
   const stride = 2 * plan.slotCount;
@@ -182,6 +185,7 @@ export function createSuspensionResponse(problem: SuspensionProblem, kind: Layou
     cogTeeth,
     parts,
     axleBody: axleBodyId,
+    shock,
     respond,
     pivotsOf,
   };
