@@ -10,10 +10,10 @@
  * Seeded; untimed warm-up per family; the rate is the search's own (optimizer included).
  */
 import { performance } from 'node:perf_hooks';
-import { demoTargetPoints } from '../src/app/demo/transferDemo';
 import { FAMILY_IDS, type FamilyId } from '../src/core/synthesis';
 import { DEFAULT_ARCHIVE } from '../src/engine/runSpec';
 import { Island } from '../workers/island';
+import { demoProblemFile } from './demoProblem';
 
 const SAMPLES = 180;
 const SEED = 1;
@@ -24,18 +24,6 @@ const WARM_UP_EVALUATIONS = 1_000;
 /** The stated error: 0.25 mm RMS on a target about 100 mm across (the demo's own four-bar follows it to 0.071 mm). */
 const REACH_RMS_MM = 0.25;
 
-function demoProblemFile(family: FamilyId) {
-  return {
-    format: 'loci-problem',
-    version: 1,
-    name: 'demo-transfer',
-    target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed: true },
-    timing: { mode: 'unprescribed', samples: SAMPLES },
-    placement: 'free',
-    families: [family],
-    measure: 'rms',
-  };
-}
 
 interface FamilyRun {
   readonly evaluations: number;
@@ -48,7 +36,7 @@ interface FamilyRun {
 function search(family: FamilyId, budget: number, capSeconds: number): FamilyRun {
   const made = Island.create({
     islandId: `bench-${family}`,
-    objective: { kind: 'synthesis', problem: demoProblemFile(family), family },
+    objective: { kind: 'synthesis', problem: demoProblemFile(family, SAMPLES), family },
     seed: SEED,
     stream: 0,
     optimizer: { kind: 'hybrid' },

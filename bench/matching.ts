@@ -16,11 +16,11 @@
  * Seeded throughout; untimed warm-up; each rate the best of interleaved rounds.
  */
 import { performance, PerformanceObserver } from 'node:perf_hooks';
-import { demoTargetPoints } from '../src/app/demo/transferDemo';
 import { compile, fourBar, run as runImport, type Plan } from '../src/core/linkage';
 import { Prng } from '../src/core/optimize/prng';
 import { createObjective, createProblem } from '../src/core/synthesis';
 import { DEFAULT_ARCHIVE } from '../src/engine/runSpec';
+import { demoProblemFile } from './demoProblem';
 import { Island } from '../workers/island';
 
 const run = runImport;
@@ -34,19 +34,6 @@ const OBJECTIVE_EVALUATIONS = 20_000;
 const PLAN_SOLVES = 4_000_000;
 const ROUNDS = 3;
 const INPUT_COUNT = 4096;
-
-function demoProblemFile() {
-  return {
-    format: 'loci-problem',
-    version: 1,
-    name: 'demo-transfer',
-    target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed: true },
-    timing: { mode: 'unprescribed', samples: SAMPLES },
-    placement: 'free',
-    families: [FAMILY],
-    measure: 'rms',
-  };
-}
 
 function planLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float64Array, pSlot: number): number {
   let acc = 0;
@@ -86,7 +73,7 @@ function search(problemFile: unknown, seed: number, budget: number): SearchRun {
 }
 
 export async function benchMatching(): Promise<Record<string, number | null>> {
-  const file = demoProblemFile();
+  const file = demoProblemFile(FAMILY, SAMPLES);
   const problem = createProblem({
     name: file.name,
     target: { points: file.target.points, closed: true },
