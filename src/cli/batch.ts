@@ -9,6 +9,7 @@
 import { mkdir, rename, stat } from 'node:fs/promises';
 import { basename, dirname, extname, isAbsolute, join, resolve } from 'node:path';
 import { parseBatchQueue, type BatchJob } from '../core/io/batchQueue';
+import { parseJsonText } from '../core/io/jsonText';
 import { parseSynthesisProblemFile } from '../core/io/problem';
 import { fnv1a64Hex } from '../engine';
 import { checkpointPathsFor, fsReason, writeFileAtomic } from '../engine/node';
@@ -225,14 +226,12 @@ export async function run(args: readonly string[], io: CliIo): Promise<number> {
     io.stderr(`loci batch: ${read.message}\n`);
     return EXIT_USAGE;
   }
-  let json: unknown;
-  try {
-    json = JSON.parse(read.text.charCodeAt(0) === 0xfeff ? read.text.slice(1) : read.text);
-  } catch (error) {
-    io.stderr(`loci batch: ${queueFile}: not valid JSON: ${error instanceof Error ? error.message : String(error)}\n`);
+  const json = parseJsonText(read.text);
+  if (!json.ok) {
+    io.stderr(`loci batch: ${queueFile}: ${json.message}\n`);
     return EXIT_USAGE;
   }
-  const parsed = parseBatchQueue(json);
+  const parsed = parseBatchQueue(json.json);
   if (!parsed.ok) {
     io.stderr(parsed.issues.map((issue) => `loci batch: ${queueFile}: ${issue.path === '' ? '' : `${issue.path}: `}${issue.message}\n`).join(''));
     return EXIT_USAGE;

@@ -1,4 +1,5 @@
 /** Reading a problem file for `loci fit` and `loci check`: the file, its JSON, then parseSynthesisProblemFile. */
+import { parseJsonText } from '../core/io/jsonText';
 import { MAX_PROBLEM_FILE_CHARS, parseSynthesisProblemFile } from '../core/io/problem';
 import type { SynthesisProblem } from '../core/synthesis';
 import type { CliIo } from './command';
@@ -15,12 +16,9 @@ export async function readProblemFile(path: string, io: CliIo): Promise<ReadProb
     const kb = Math.round(read.text.length / 1000).toLocaleString('en-GB');
     return { ok: false, lines: [`${path}: the file is ${kb} kB; a problem file may be at most ${(MAX_PROBLEM_FILE_CHARS / 1000).toLocaleString('en-GB')} kB`] };
   }
-  let json: unknown;
-  try {
-    json = JSON.parse(read.text.charCodeAt(0) === 0xfeff ? read.text.slice(1) : read.text);
-  } catch (error) {
-    return { ok: false, lines: [`${path}: not valid JSON: ${error instanceof Error ? error.message : String(error)}`] };
-  }
+  const text = parseJsonText(read.text);
+  if (!text.ok) return { ok: false, lines: [`${path}: ${text.message}`] };
+  const json = text.json;
   const parsed = parseSynthesisProblemFile(json);
   if (!parsed.ok) {
     return { ok: false, lines: parsed.issues.map((issue) => `${path}: ${issue.path === '' ? '' : `${issue.path}: `}${issue.message}`) };

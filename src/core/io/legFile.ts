@@ -19,7 +19,7 @@
 import * as z from 'zod';
 import { MAX_PHASED_LEGS, validateLeg, type LegSpec } from '../gait';
 import type { Linkage } from '../linkage';
-import { escapeUnprintable } from '../linkage/model';
+import { parseJsonText } from './jsonText';
 import { readLinkageFile, toLinkageFile, MAX_NAME_LENGTH } from './linkageFile';
 import { crankDirectionSchema, groundSchema, walkingDirectionSchema } from './legProblemFile';
 import { capIssues, envelopeIssue, expected, formatPath, isPlainObject, strict } from './schemaMessages';
@@ -84,14 +84,8 @@ function listed(issues: readonly LegFileIssue[]): { ok: false; issues: LegFileIs
 /** Parses the text of a leg file: length, JSON, then as `parseLegFile`. */
 export function parseLegFileText(text: string): ParseLegFileResult {
   if (text.length > MAX_LEG_FILE_CHARS) return fail('', `the file has ${text.length} characters; the limit for a leg file is ${MAX_LEG_FILE_CHARS}`);
-  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  let json: unknown;
-  try {
-    json = JSON.parse(body);
-  } catch (error) {
-    return fail('', `not valid JSON: ${escapeUnprintable(error instanceof Error ? error.message : String(error))}`);
-  }
-  return parseLegFile(json);
+  const read = parseJsonText(text);
+  return read.ok ? parseLegFile(read.json) : fail('', read.message);
 }
 
 /** Validates a parsed leg file. On success the design is a fresh copy whose linkage compiles and whose leg checks. */

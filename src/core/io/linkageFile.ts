@@ -15,6 +15,7 @@
  * issues is cut at MAX_LISTED_ISSUES, with a count of the rest.
  */
 import * as z from 'zod';
+import { parseJsonText } from './jsonText';
 import { capIssues, envelopeIssue, expected, formatPath, strict } from './schemaMessages';
 import { compile } from '../linkage/compile';
 import {
@@ -26,7 +27,6 @@ import {
   MAX_SLIDER_ANGLE_RAD,
   MAX_SLIDERS,
   UNPRINTABLE_ID_CHARS,
-  escapeUnprintable,
   type DriverSpec,
   type JointSpec,
   type Linkage,
@@ -190,30 +190,13 @@ export function readLinkageFileText(text: string): ReadLinkageFileResult {
   if (text.length > MAX_LINKAGE_FILE_CHARS) {
     return fail('', `the file has ${text.length} characters; the limit for a linkage file is ${MAX_LINKAGE_FILE_CHARS}`);
   }
-  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  let json: unknown;
-  try {
-    json = JSON.parse(body);
-  } catch (error) {
-    const message = error instanceof Error ? error.message : String(error);
-    // The parser's message quotes the file's text: escape it, as a message shows any id.
-    return fail('', `not valid JSON: ${escapeUnprintable(message)}${lineAndColumn(body, message)}`);
-  }
-  return readLinkageFile(json);
+  const read = parseJsonText(text);
+  return read.ok ? readLinkageFile(read.json) : fail('', read.message);
 }
 
 function withoutPlan(read: ReadLinkageFileResult): ParseLinkageFileResult {
   if (!read.ok) return read;
   return read.name === undefined ? { ok: true, linkage: read.linkage } : { ok: true, linkage: read.linkage, name: read.name };
-}
-
-/** ` (line 3, column 7)` for a JSON.parse message that gives a character position, else ''. */
-function lineAndColumn(text: string, message: string): string {
-  const match = /position (\d+)/.exec(message);
-  if (!match) return '';
-  const before = text.slice(0, Number(match[1]));
-  const lines = before.split('\n');
-  return ` (line ${lines.length}, column ${lines[lines.length - 1].length + 1})`;
 }
 
 /**

@@ -21,10 +21,11 @@
  * must assemble). A list of issues is cut at MAX_LISTED_ISSUES with a count of the rest.
  */
 import * as z from 'zod';
+import { parseJsonText } from './jsonText';
 import { capIssues, describeValue, envelopeIssue, expected, formatPath, isPlainObject, strict } from './schemaMessages';
 import type { Vec2 } from '../geometry';
 import { compile } from '../linkage/compile';
-import { UNPRINTABLE_ID_CHARS, escapeUnprintable, type Linkage } from '../linkage/model';
+import { UNPRINTABLE_ID_CHARS, type Linkage } from '../linkage/model';
 import type { Plan } from '../linkage/plan';
 import {
   BICYCLE_RANGES,
@@ -206,13 +207,8 @@ function listed(issues: readonly SuspensionFileIssue[]): { ok: false; issues: Su
 
 /** The `format` of a JSON text, when it is an object that names one; for a caller choosing a reader. */
 export function fileFormatOf(text: string): string | undefined {
-  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  try {
-    const json: unknown = JSON.parse(body);
-    return isPlainObject(json) && typeof json.format === 'string' ? json.format : undefined;
-  } catch {
-    return undefined;
-  }
+  const read = parseJsonText(text);
+  return read.ok && isPlainObject(read.json) && typeof read.json.format === 'string' ? read.json.format : undefined;
 }
 
 /** Parses the text of a suspension file: length, JSON, then as `parseSuspensionFile`. */
@@ -220,15 +216,8 @@ export function parseSuspensionFileText(text: string): ParseSuspensionFileResult
   if (text.length > MAX_SUSPENSION_FILE_CHARS) {
     return fail('', `the file has ${text.length} characters; the limit for a suspension file is ${MAX_SUSPENSION_FILE_CHARS}`);
   }
-  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  let json: unknown;
-  try {
-    json = JSON.parse(body);
-  } catch (error) {
-    const message = error instanceof Error ? error.message : String(error);
-    return fail('', `not valid JSON: ${escapeUnprintable(message)}`);
-  }
-  return parseSuspensionFile(json);
+  const read = parseJsonText(text);
+  return read.ok ? parseSuspensionFile(read.json) : fail('', read.message);
 }
 
 /** Validates a parsed suspension file and builds its layout. On success the design is a fresh copy whose linkage compiles. */
