@@ -10,7 +10,7 @@ import { memo, useMemo, useRef, type PointerEvent } from 'react';
 import type { Vec2 } from '../../core/geometry';
 import type { Linkage } from '../../core/linkage';
 import { IC_FINITE } from '../../core/linkage/analysis';
-import { sideView, type Bicycle, type SideViewPrimitive, type SuspensionReport } from '../../core/suspension';
+import { sideView, sideViewExtent, type Bicycle, type SideViewPrimitive, type SuspensionReport } from '../../core/suspension';
 import { figure, pivotLabel } from './labels';
 import { useSuspensionDispatch } from './store';
 import { RegionsLayer } from './targets/RegionsLayer';
@@ -34,31 +34,10 @@ interface Frame {
   readonly pxPerMm: number;
 }
 
+/** The drawing's box with its margin, from the origin out: [x0, x1, y0, y1], mm. */
 function boundsOf(primitives: readonly SideViewPrimitive[], extra: readonly Vec2[]): [number, number, number, number] {
-  let x0 = 0;
-  let x1 = 0;
-  let y0 = 0;
-  let y1 = 0;
-  const take = (x: number, y: number) => {
-    if (!(Number.isFinite(x) && Number.isFinite(y))) return;
-    x0 = Math.min(x0, x);
-    x1 = Math.max(x1, x);
-    y0 = Math.min(y0, y);
-    y1 = Math.max(y1, y);
-  };
-  for (const p of primitives) {
-    if (p.kind === 'circle') {
-      take(p.cxMm - p.rMm, p.cyMm - p.rMm);
-      take(p.cxMm + p.rMm, p.cyMm + p.rMm);
-    } else if (p.kind === 'segment') {
-      take(p.x1Mm, p.y1Mm);
-      take(p.x2Mm, p.y2Mm);
-    } else {
-      take(p.xMm, p.yMm);
-    }
-  }
-  for (const p of extra) take(p.x, p.y);
-  return [x0 - MARGIN_MM, x1 + MARGIN_MM, y0 - MARGIN_MM, y1 + MARGIN_MM];
+  const b = sideViewExtent(primitives, { minX: 0, maxX: 0, minY: 0, maxY: 0 }, extra);
+  return [b.minX - MARGIN_MM, b.maxX + MARGIN_MM, b.minY - MARGIN_MM, b.maxY + MARGIN_MM];
 }
 
 function frameOf([x0, x1, y0, y1]: [number, number, number, number]): Frame {

@@ -4,7 +4,7 @@
  * axes at the origin (the bottom bracket), a 100 mm scale bar, and the caution as text.
  * The drawing's y is up, as the bicycle frame's; SVG's is down, so every y is negated.
  */
-import type { SideViewPrimitive, SideViewRole } from '../suspension';
+import { sideViewExtent, type SideViewPrimitive, type SideViewRole } from '../suspension';
 
 export interface SideViewSvgOptions {
   /** Printed under the drawing and kept whole in the file's <desc>. */
@@ -60,35 +60,10 @@ function wrap(text: string, width: number): string[] {
   return lines;
 }
 
-interface Box { minX: number; maxX: number; minY: number; maxY: number }
-
-function boundsOf(primitives: readonly SideViewPrimitive[]): Box {
-  const box: Box = { minX: -AXIS_MM, maxX: AXIS_MM, minY: -AXIS_MM, maxY: AXIS_MM };
-  const add = (x: number, y: number) => {
-    if (!(Number.isFinite(x) && Number.isFinite(y))) return;
-    box.minX = Math.min(box.minX, x);
-    box.maxX = Math.max(box.maxX, x);
-    box.minY = Math.min(box.minY, y);
-    box.maxY = Math.max(box.maxY, y);
-  };
-  for (const p of primitives) {
-    if (p.kind === 'circle') {
-      add(p.cxMm - p.rMm, p.cyMm - p.rMm);
-      add(p.cxMm + p.rMm, p.cyMm + p.rMm);
-    } else if (p.kind === 'segment') {
-      add(p.x1Mm, p.y1Mm);
-      add(p.x2Mm, p.y2Mm);
-    } else {
-      add(p.xMm, p.yMm);
-    }
-  }
-  return box;
-}
-
 /** The SVG text of a side view. */
 export function sideViewSvg(primitives: readonly SideViewPrimitive[], options: SideViewSvgOptions): string {
   const title = options.title ?? 'Rear suspension, side view';
-  const box = boundsOf(primitives);
+  const box = sideViewExtent(primitives, { minX: -AXIS_MM, maxX: AXIS_MM, minY: -AXIS_MM, maxY: AXIS_MM });
   const width = box.maxX - box.minX + 2 * MARGIN_MM;
   const font = Math.max(8, width / 90);
   const caution = wrap(options.caution, CAUTION_LINE_CHARS);

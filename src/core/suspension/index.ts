@@ -51,5 +51,5 @@ export type { SuspensionEvaluator, SuspensionOptions, SuspensionPoint, Suspensio
 export { DEMO_TRAIL_BIKE, DEMO_LAYOUTS } from './demo';
 export { LAYOUT_KINDS, LAYOUT_NAMES, LAYOUT_PIVOTS, buildLayout, demoAxleBody, demoPivots, hasBodyChoice } from './layoutKinds';
 export type { LayoutAxleBody, LayoutKind } from './layoutKinds';
-export { SIDE_VIEW_STROKE_TOL_MM, sideView } from './sideView';
-export type { SideViewDesign, SideViewPose, SideViewPrimitive, SideViewResult, SideViewRole } from './sideView';
+export { SIDE_VIEW_STROKE_TOL_MM, sideView, sideViewExtent } from './sideView';
+export type { SideViewBox, SideViewDesign, SideViewPose, SideViewPrimitive, SideViewResult, SideViewRole } from './sideView';

@@ -38,6 +38,42 @@ export type SideViewPrimitive =
   | { readonly kind: 'point'; readonly role: SideViewRole; readonly label: string; readonly xMm: number; readonly yMm: number };
 
 /** What the side view draws: the bicycle and the layout's linkage (as built for that bicycle). */
+/** A box in bicycle coordinates, mm. */
+export interface SideViewBox {
+  readonly minX: number;
+  readonly maxX: number;
+  readonly minY: number;
+  readonly maxY: number;
+}
+
+/**
+ * The box that holds `start`, every primitive (a circle whole) and the `extra` points,
+ * for a view or an export to frame the drawing; points that are not finite are left out.
+ */
+export function sideViewExtent(primitives: readonly SideViewPrimitive[], start: SideViewBox, extra: readonly { readonly x: number; readonly y: number }[] = []): SideViewBox {
+  let { minX, maxX, minY, maxY } = start;
+  const take = (x: number, y: number) => {
+    if (!(Number.isFinite(x) && Number.isFinite(y))) return;
+    minX = Math.min(minX, x);
+    maxX = Math.max(maxX, x);
+    minY = Math.min(minY, y);
+    maxY = Math.max(maxY, y);
+  };
+  for (const p of primitives) {
+    if (p.kind === 'circle') {
+      take(p.cxMm - p.rMm, p.cyMm - p.rMm);
+      take(p.cxMm + p.rMm, p.cyMm + p.rMm);
+    } else if (p.kind === 'segment') {
+      take(p.x1Mm, p.y1Mm);
+      take(p.x2Mm, p.y2Mm);
+    } else {
+      take(p.xMm, p.yMm);
+    }
+  }
+  for (const p of extra) take(p.x, p.y);
+  return { minX, maxX, minY, maxY };
+}
+
 export interface SideViewDesign {
   readonly bicycle: Bicycle;
   readonly linkage: Linkage;
