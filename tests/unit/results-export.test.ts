@@ -2,7 +2,8 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { parseLinkageFileText } from '../../src/core/io/linkageFile';
 import { fourBar, type Linkage } from '../../src/core/linkage';
-import { drawingSvg, linkageFileText, pathsCsv, wrapWords } from '../../src/app/results/export';
+import { drawingSvg, linkageFileText, pathsCsv } from '../../src/app/results/export';
+import { wrapWords } from '../../src/core/io/svgText';
 import { computeMotion, DETAIL_STEPS, type CandidateMotion } from '../../src/app/results/motion';
 import type { ResultsTarget } from '../../src/app/results/types';
 

@@ -8,6 +8,7 @@ import { toLinkageFile } from '../../core/io/linkageFile';
 import { centreGeometry, drawingFrame, errorWhiskersD, linkageShapes, markerD, num, pointsBox, polylineD, scaleLabel, unionBox, viewOf, type View } from './drawing';
 import { driverDisplayValue, type CandidateMotion } from './motion';
 import type { ResultsTarget } from './types';
+import { escapeXml, wrapWords } from '../../core/io/svgText';
 
 /** The line every exported drawing and the detail view carry. */
 export const KINEMATICS_ONLY_CAUTION =
@@ -187,20 +188,6 @@ function legendLines(motion: CandidateMotion): [string, string][] {
   return entries.flatMap(([colour, text]) => wrapWords(text, LEGEND_LINE_CHARS).map((line): [string, string] => [colour, line]));
 }
 
-/** Words of `text` in lines of at most `width` characters (a longer word gets a line of its own). */
-export function wrapWords(text: string, width: number): string[] {
-  const lines: string[] = [];
-  let line = '';
-  for (const word of text.split(/\s+/)) {
-    if (word === '') continue;
-    if (line !== '' && line.length + 1 + word.length > width) {
-      lines.push(line);
-      line = word;
-    } else line = line === '' ? word : `${line} ${word}`;
-  }
-  if (line !== '') lines.push(line);
-  return lines;
-}
 
 /** The first pose of the motion that assembled (the reference pose if none did). */
 export function firstAssembledPose(motion: CandidateMotion): Float64Array {
@@ -213,8 +200,4 @@ export function firstAssembledPose(motion: CandidateMotion): Float64Array {
 /** A file name stem of our own: `loci-fourbar-rank-3`. */
 export function exportFileStem(family: string, rank: number): string {
   return `loci-${family.replace(/[^a-z0-9-]+/gi, '-').toLowerCase()}-rank-${rank}`;
-}
-
-export function escapeXml(text: string): string {
-  return text.replace(/[<>&"']/g, (c) => ({ '<': '&lt;', '>': '&gt;', '&': '&amp;', '"': '&quot;', "'": '&apos;' })[c] ?? c);
 }

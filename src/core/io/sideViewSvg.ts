@@ -5,6 +5,7 @@
  * The drawing's y is up, as the bicycle frame's; SVG's is down, so every y is negated.
  */
 import { sideViewExtent, type SideViewPrimitive, type SideViewRole } from '../suspension';
+import { escapeXml, wrapWords } from './svgText';
 
 export interface SideViewSvgOptions {
   /** Printed under the drawing and kept whole in the file's <desc>. */
@@ -36,29 +37,12 @@ const ROLE_STYLE: Readonly<Record<SideViewRole, { readonly stroke: string; reado
   axle: { stroke: '#39424e', widthMm: 1.5 },
 };
 
-function escapeXml(text: string): string {
-  return text.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&apos;' })[c] as string);
-}
 
 /** A coordinate for the file: 0.001 mm is finer than any drawing needs. */
 function n(v: number): string {
   return String(Math.round(v * 1000) / 1000);
 }
 
-function wrap(text: string, width: number): string[] {
-  const lines: string[] = [];
-  let line = '';
-  for (const word of text.split(/\s+/)) {
-    if (line !== '' && line.length + 1 + word.length > width) {
-      lines.push(line);
-      line = word;
-    } else {
-      line = line === '' ? word : `${line} ${word}`;
-    }
-  }
-  if (line !== '') lines.push(line);
-  return lines;
-}
 
 /** The SVG text of a side view. */
 export function sideViewSvg(primitives: readonly SideViewPrimitive[], options: SideViewSvgOptions): string {
@@ -66,7 +50,7 @@ export function sideViewSvg(primitives: readonly SideViewPrimitive[], options: S
   const box = sideViewExtent(primitives, { minX: -AXIS_MM, maxX: AXIS_MM, minY: -AXIS_MM, maxY: AXIS_MM });
   const width = box.maxX - box.minX + 2 * MARGIN_MM;
   const font = Math.max(8, width / 90);
-  const caution = wrap(options.caution, CAUTION_LINE_CHARS);
+  const caution = wrapWords(options.caution, CAUTION_LINE_CHARS);
   const below = 3 * font + caution.length * font * 1.4;
   // Sheet coordinates: x as drawn, y negated.
   const left = box.minX - MARGIN_MM;
