@@ -17,12 +17,12 @@
  * when the figures are taken.
  */
 import * as z from 'zod';
-import { MAX_PHASED_LEGS, validateLeg, type LegSpec } from '../gait';
+import { GAIT_CAUTION, MAX_PHASED_LEGS, validateLeg, type LegSpec } from '../gait';
 import type { Linkage } from '../linkage';
 import { parseJsonText } from './jsonText';
 import { readLinkageFile, toLinkageFile, MAX_NAME_LENGTH } from './linkageFile';
 import { crankDirectionSchema, groundSchema, walkingDirectionSchema } from './legProblemFile';
-import { capIssues, envelopeIssue, expected, formatPath, isPlainObject, strict } from './schemaMessages';
+import { capIssues, envelopeIssue, expected, formatPath, isPlainObject, MAX_CAUTION_CHARS, strict } from './schemaMessages';
 
 export const LEG_FILE_FORMAT = 'loci-leg';
 /** The version this code writes, and the newest it reads. */
@@ -69,6 +69,8 @@ const fileSchema = strict('a leg file', {
     legs: num(`a whole number of legs from 1 to ${MAX_PHASED_LEGS}`),
     phasesDeg: z.array(num('a phase in degrees'), { error: expected('an array of phases in degrees, one per leg') }),
   }).optional(),
+  // Written with every file so the caution travels with the design; read and not kept.
+  caution: z.string({ error: expected('the caution as a string') }).max(MAX_CAUTION_CHARS, { error: expected(`the caution, at most ${MAX_CAUTION_CHARS} characters`) }).optional(),
 });
 
 export type LegFileV1 = z.infer<typeof fileSchema>;
@@ -135,5 +137,6 @@ export function toLegFile(design: LegDesign): LegFileV1 {
     walkingDirection: design.leg.walkingDirection,
     ...(design.leg.footPath === undefined ? {} : { footPath: design.leg.footPath.map((p) => [p.x, p.y] as [number, number]) }),
     ...(design.phased === undefined ? {} : { phased: { legs: design.phased.legs, phasesDeg: [...design.phased.phasesDeg] } }),
+    caution: GAIT_CAUTION,
   };
 }

@@ -70,6 +70,9 @@ export function formatPath(path: readonly PropertyKey[]): string {
 /** A reader lists at most this many issues and counts the rest, so a bad file gives a readable answer. */
 export const MAX_LISTED_ISSUES = 12;
 
+/** Longest caution a design file may carry (characters): the file's own caution is a few hundred. */
+export const MAX_CAUTION_CHARS = 2000;
+
 /** The first MAX_LISTED_ISSUES of `issues`, then one more saying how many were left out. */
 export function capIssues<T>(issues: readonly T[], more: (count: number) => T): T[] {
   if (issues.length <= MAX_LISTED_ISSUES) return [...issues];

@@ -22,7 +22,7 @@
  */
 import * as z from 'zod';
 import { parseJsonText } from './jsonText';
-import { capIssues, describeValue, envelopeIssue, expected, formatPath, isPlainObject, strict } from './schemaMessages';
+import { capIssues, describeValue, envelopeIssue, expected, formatPath, isPlainObject, MAX_CAUTION_CHARS, strict } from './schemaMessages';
 import type { Vec2 } from '../geometry';
 import { compile } from '../linkage/compile';
 import { UNPRINTABLE_ID_CHARS, type Linkage } from '../linkage/model';
@@ -33,6 +33,7 @@ import {
   LAYOUT_KINDS,
   SHOCK_END_BODIES,
   SIX_BAR_BODIES,
+  SUSPENSION_CAUTION,
   shockBodiesIssue,
   LAYOUT_PIVOTS,
   buildLayout,
@@ -189,6 +190,8 @@ const fileSchema = strict('a suspension file', {
   units: z.literal('mm', { error: expected('"mm" (lengths in millimetres; `sag` a share of travel; other units in the key names)') }),
   bicycle: bicycleSchema,
   layout: layoutSchema,
+  // Written with every file so the caution travels with the design; read and not kept.
+  caution: z.string({ error: expected('the caution as a string') }).max(MAX_CAUTION_CHARS, { error: expected(`the caution, at most ${MAX_CAUTION_CHARS} characters`) }).optional(),
 });
 
 /** A suspension file of the current version, as written by `toSuspensionFile`. */
@@ -336,5 +339,6 @@ export function toSuspensionFile(design: SuspensionDesign): SuspensionFileV1 {
     units: 'mm',
     bicycle: copyBicycle(design.bicycle),
     layout: copyLayout(design.layout),
+    caution: SUSPENSION_CAUTION,
   } as SuspensionFileV1;
 }

@@ -3,7 +3,7 @@
  * unchanged, through JSON text; the envelope and the linkage's own issues are named.
  */
 import { describe, expect, it } from 'vitest';
-import { DEMO_TOY_LEG, DEMO_TOY_LEG_LINKAGE, type LegSpec } from '../../../src/core/gait';
+import { DEMO_TOY_LEG, DEMO_TOY_LEG_LINKAGE, GAIT_CAUTION, type LegSpec } from '../../../src/core/gait';
 import { LEG_FILE_FORMAT, parseLegFile, parseLegFileText, toLegFile } from '../../../src/core/io/legFile';
 
 describe('leg file', () => {
@@ -19,6 +19,19 @@ describe('leg file', () => {
     const read = parseLegFileText(JSON.stringify(file, null, 2));
     expect(read.ok).toBe(true);
     if (read.ok) expect(read.design).toEqual(design);
+  });
+
+  // The mission's rule: every export of a design that can hurt someone says Loci computes kinematics only.
+  it('carries the walking-machine caution, and reads a file with or without it', () => {
+    const design = { linkage: DEMO_TOY_LEG_LINKAGE, leg: DEMO_TOY_LEG };
+    const file = toLegFile(design);
+    expect(file.caution).toBe(GAIT_CAUTION);
+    const { caution: _dropped, ...without } = file;
+    const read = parseLegFile(without);
+    expect(read.ok).toBe(true);
+    const tooLong = parseLegFile({ ...file, caution: 'x'.repeat(5000) });
+    expect(tooLong.ok).toBe(false);
+    if (!tooLong.ok) expect(tooLong.issues[0]!.path).toBe('caution');
   });
 
   it('names what is wrong: envelope, units, the linkage inside it', () => {

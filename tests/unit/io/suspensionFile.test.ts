@@ -29,6 +29,7 @@ import {
   stephensonSixBar,
   wattSixBar,
   type LayoutKind,
+  SUSPENSION_CAUTION,
 } from '../../../src/core/suspension';
 
 const EXAMPLE = resolve(import.meta.dirname, '../../../public/examples/trail-bike-four-bar.json');
@@ -77,6 +78,17 @@ describe('suspension file: reading and writing', () => {
     expect(fileFormatOf('[1]')).toBeUndefined();
     expect(fileFormatOf('not json')).toBeUndefined();
     expect(toSuspensionFile(r.design)).toEqual(example());
+  });
+
+  // The mission's rule: every export of a frame design says Loci computes kinematics only.
+  it('carries the caution in every file it writes, and reads files without it', () => {
+    const r = parseSuspensionFileText(exampleText);
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    const file = toSuspensionFile(r.design);
+    expect(file.caution).toBe(SUSPENSION_CAUTION);
+    const { caution: _dropped, ...without } = file;
+    expect(parseSuspensionFileText(JSON.stringify(without)).ok).toBe(true);
   });
 
   for (const kind of LAYOUT_KINDS) {
