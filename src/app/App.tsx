@@ -9,6 +9,7 @@ import { RunControls } from './run/RunControls';
 import { runTitle } from './run/runTitle';
 import { ServicesContext } from './services';
 import { SuspensionEntry, SuspensionStart, storedOf, type SuspensionState } from './suspension';
+import { LegEntry, LegStart, storedLegOf, type LegState } from './leg';
 import { SettingsPanel } from './settings/SettingsPanel';
 import { startIssuesOf } from './run/runInput';
 import { ProjectName } from './settings/ProjectName';
@@ -107,6 +108,9 @@ export function App() {
   // The rear-suspension workspace, when open: it keeps its own store, and the project keeps its design.
   const [suspension, setSuspension] = useState<SuspensionState | null>(null);
   const saveSuspension = useCallback((state: SuspensionState) => workspace?.store.dispatch({ type: 'project/suspension', suspension: storedOf(state) }), [workspace]);
+  // The walking-leg workspace, when open: its own store too, its set-up and results kept in the project.
+  const [leg, setLeg] = useState<LegState | null>(null);
+  const saveLeg = useCallback((state: LegState) => workspace?.store.dispatch({ type: 'project/leg', leg: storedLegOf(state) }), [workspace]);
   useEffect(() => {
     let cancelled = false;
     bootWorkspace().then(
@@ -131,9 +135,12 @@ export function App() {
       <aside className="caution" role="note" aria-label="Caution">
         <strong className="caution-label">Caution.</strong> {CAUTION_TEXT}
       </aside>
-      {suspension === null && <SuspensionStart saved={workspace?.store.getState().project.suspension} onOpen={setSuspension} />}
+      {suspension === null && leg === null && <SuspensionStart saved={workspace?.store.getState().project.suspension} onOpen={setSuspension} />}
+      {suspension === null && leg === null && <LegStart saved={workspace?.store.getState().project.leg} onOpen={setLeg} />}
       <main className="app-main">
-        {suspension !== null ? (
+        {leg !== null ? (
+          <LegEntry initial={leg} onClose={() => setLeg(null)} onChange={saveLeg} />
+        ) : suspension !== null ? (
           <SuspensionEntry initial={suspension} onClose={() => setSuspension(null)} onChange={saveSuspension} />
         ) : workspace === null ? (
           <p className="panel-note">{bootError === null ? 'Opening the project…' : `The workspace could not start: ${bootError}`}</p>

@@ -7,6 +7,7 @@
 import type { CandidateReport } from '../../core/synthesis';
 import type { FamilyId } from './families';
 import type { StoredSuspension } from '../suspension/stored';
+import type { StoredLeg } from '../leg/stored';
 
 export const PROJECT_FORMAT = 'loci-workspace-project';
 /**
@@ -141,6 +142,8 @@ export interface Project {
   readonly candidatesTarget: TargetSnapshot | null;
   /** The rear-suspension workspace's design (the bicycle's fields and the layout); absent until one is opened. */
   readonly suspension?: StoredSuspension;
+  /** The walking-leg workspace's set-up and search results; absent until one is opened (and in projects kept before it). */
+  readonly leg?: StoredLeg;
 }
 
 /** A target as the results views take it: points [x, y] in mm, open or closed. */

@@ -10,6 +10,7 @@ import type { FamilyId } from './families';
 import { IDLE_RUN, isLocked, type BackgroundImage, type KeepOutRegion, type Measure, type Placement, type Project, type RunState, type TargetPoint, type TargetSnapshot, type TargetState, type TimingMode } from './project';
 import { checkProjectName } from './fields';
 import type { StoredSuspension } from '../suspension/stored';
+import type { StoredLeg } from '../leg/stored';
 import * as S from './settings';
 import * as T from './target';
 
@@ -54,6 +55,7 @@ export type Action =
   | { readonly type: 'project/load'; readonly project: Project }
   | { readonly type: 'project/rename'; readonly name: string }
   | { readonly type: 'project/suspension'; readonly suspension: StoredSuspension }
+  | { readonly type: 'project/leg'; readonly leg: StoredLeg }
   | { readonly type: 'storage/status'; readonly storage: UiState['storage'] }
   | { readonly type: 'target/replace'; readonly points: readonly TargetPoint[]; readonly closed?: boolean; readonly timing?: TimingMode; readonly notice?: Notice | null }
   | { readonly type: 'target/add'; readonly x: number; readonly y: number }
@@ -279,6 +281,8 @@ export function reduce(state: WorkspaceState, action: Action): WorkspaceState {
       return { project: action.project, ui: { ...state.ui, selectedPoint: null, calibration: [], setAside: null, fitRequest: state.ui.fitRequest + 1 } };
     case 'project/suspension':
       return state.project.suspension === action.suspension ? state : { ...state, project: { ...state.project, suspension: action.suspension } };
+    case 'project/leg':
+      return state.project.leg === action.leg ? state : { ...state, project: { ...state.project, leg: action.leg } };
     case 'project/rename': {
       const named = checkProjectName(action.name);
       if (!named.ok || named.value === state.project.name) return state;

@@ -12,6 +12,7 @@ import { DEFAULT_GUIDELINE_DEG } from '../state/settings';
 import { FAMILY_CHOICES, type FamilyId } from '../state/families';
 import { PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../state/project';
 import { storedSuspensionSchema } from '../suspension/stored';
+import { storedLegSchema } from '../leg/stored';
 
 const finite = z.number().refine(Number.isFinite, 'expected a finite number');
 const familyIds = FAMILY_CHOICES.map((f) => f.id) as [FamilyId, ...FamilyId[]];
@@ -102,6 +103,8 @@ const project = z.object({
   candidates: z.array(candidate),
   candidatesTarget: snapshot.nullable(),
   suspension: storedSuspensionSchema.optional(),
+  // Absent in projects kept before the walking-leg workspace: none.
+  leg: storedLegSchema.optional(),
 });
 
 export type ReadProject = { readonly ok: true; readonly project: Project } | { readonly ok: false; readonly reason: string };
