@@ -261,7 +261,7 @@ describe('the views, rendered once on the demo leg', () => {
     expect(html).toContain('How these figures are defined');
     expect(html).toContain('crank angle from the reference pose (°)');
     expect(html).toContain('foot height (mm)');
-    expect(html).toContain('backward speed (mm per rad of crank)');
+    expect(html).toContain('backward speed (mm/rad of crank)');
     expect(html).toContain('shaft angle from the reference pose (°)');
     expect(html).toContain('Body height ripple');
     expect(html.split(caution)).toHaveLength(2);

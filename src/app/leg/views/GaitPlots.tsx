@@ -50,7 +50,7 @@ export const GaitPlotsOf = memo(function GaitPlotsOf({ legs, caution = true }: {
   return (
     <div className="leg-plots">
       <TurnPlot title="Foot height above the ground line" yLabel="foot height (mm)" series={height} bands={bands} zeroLine testId="leg-height-plot" />
-      <TurnPlot title="Backward foot speed along the ground" yLabel="backward speed (mm per rad of crank)" series={speed} zeroLine testId="leg-speed-plot" />
+      <TurnPlot title="Backward foot speed along the ground" yLabel="backward speed (mm/rad of crank)" series={speed} zeroLine testId="leg-speed-plot" />
       {!sameTolerance && <p className="leg-note">The legs have different stance tolerances, so no common tolerance band is drawn; each leg’s stance strip uses its own.</p>}
       <p className="leg-note">
         Backward speed: the foot’s speed relative to the body along the ground line, positive when it pushes the body forward, in mm per radian of crank (mm/s at 1 rad/s).
