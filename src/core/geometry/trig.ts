@@ -32,6 +32,12 @@ const C5 = 2.08757232129817482790e-9;
 const C6 = -1.13596475577881948265e-11;
 
 /**
+ * The reduction and kernel constants of polarInto, for kernels generated from the same
+ * arithmetic (src/core/linkage/specialise.ts), so those give polarInto's bits.
+ */
+export const SINCOS_CONSTANTS = { TWO_OVER_PI, PIO2_HI, PIO2_LO, S1, S2, S3, S4, S5, S6, C1, C2, C3, C4, C5, C6 } as const;
+
+/**
  * Writes cx + r cos(angleRad) and cy + r sin(angleRad) to out[offset] and
  * out[offset + 1]: the tip of a link of length r turned to angleRad about (cx, cy).
  */

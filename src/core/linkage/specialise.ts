@@ -1,15 +1,21 @@
 /**
  * A plan's operations as one straight-line function, generated once per compile (one
- * topology), with every slot offset and param index a literal. Measured on the bench's
- * four-bar: the interpreter in run.ts spends its time reloading opcodes and offsets from
- * the Int32Array and dispatching, which the generated code does not do at all.
+ * topology), with every slot offset and param index a literal. The interpreter in
+ * run.ts reloads opcodes and offsets from the Int32Array and dispatches; the generated
+ * code does neither.
  *
- * Dimensions stay in the plan's params, so setReferencePose works unchanged. The
- * generated code performs exactly the interpreter's arithmetic, calling the same
- * geometry functions, so both give bit-identical poses (tests/unit/linkage-run.test.ts).
+ * The kernel is a leaf: the geometry of every operation is written out in it rather than
+ * called (only a Newton block calls solveBlock), and each coordinate it places is kept in
+ * a local as well as written to the pose, so later operations read registers. A call
+ * left in it would be inlined only while V8's inlining budget lasts, and a call that is
+ * not inlined boxes every double it is passed: an allocation per argument per run.
+ *
+ * Dimensions stay in the plan's params, so setReferencePose works unchanged. The code
+ * performs exactly the arithmetic of the interpreter's geometry functions
+ * (circleCircleIntersectInto, circleLineIntersectInto, polarInto), in the same order, so
+ * both give bit-identical poses (tests/unit/kernel-js.test.ts).
  */
-import { circleCircleIntersectInto, circleLineIntersectInto } from '../geometry/intersect';
-import { polarInto } from '../geometry/trig';
+import { SINCOS_CONSTANTS, SINCOS_REDUCTION_LIMIT } from '../geometry/trig';
 import { solveBlock } from './newton';
 import {
   OP_CIRCLE_BODY_LINE,
@@ -25,36 +31,137 @@ import {
 } from './plan';
 
 /** The generated code's free names, bound once when the function is created. */
-const BINDINGS = ['p', 'prm', 'dv', 'polarInto', 'circleCircleIntersectInto', 'circleLineIntersectInto', 'solveBlock'] as const;
+const BINDINGS = ['p', 'prm', 'dv', 'solveBlock'] as const;
 
-function operationSource(p: PlanInternal, op: number): string {
+/** A double as a source literal that reads back as the same double. */
+function lit(x: number): string {
+  return Object.is(x, -0) ? '-0' : String(x);
+}
+
+const K = SINCOS_CONSTANTS;
+const S_POLY = `(${lit(K.S1)} + z * (${lit(K.S2)} + z * (${lit(K.S3)} + z * (${lit(K.S4)} + z * (${lit(K.S5)} + z * ${lit(K.S6)})))))`;
+const C_POLY = `(${lit(K.C1)} + z * (${lit(K.C2)} + z * (${lit(K.C3)} + z * (${lit(K.C4)} + z * (${lit(K.C5)} + z * ${lit(K.C6)})))))`;
+
+/**
+ * One generated function's body: its lines, and the pose offsets whose coordinates it
+ * holds in locals x<offset>, y<offset>. Every write to a slot goes to its locals and the
+ * pose alike, so a local never goes stale.
+ */
+interface Body {
+  readonly lines: string[];
+  readonly held: Set<number>;
+  /** Offsets whose locals are declared (a Newton block's slots are declared but not held after it). */
+  readonly declared: Set<number>;
+}
+
+function hold(body: Body, off: number, x: string, y: string): void {
+  body.lines.push(`${body.declared.has(off) ? '' : 'let '}x${off} = ${x}, y${off} = ${y};`);
+  body.held.add(off);
+  body.declared.add(off);
+}
+
+/** The locals holding slot `off`, loaded from the pose on first use. */
+function read(body: Body, off: number): [string, string] {
+  if (!body.held.has(off)) hold(body, off, `pose[${off}]`, `pose[${off + 1}]`);
+  return [`x${off}`, `y${off}`];
+}
+
+/** Slot `off` := (x, y) computed by `code` into locals cx, cy; kept in locals and written to the pose. */
+function place(body: Body, off: number, code: string): void {
+  if (!body.declared.has(off)) body.lines.push(`let x${off}, y${off};`);
+  body.lines.push(`{ ${code}`, `x${off} = cx; y${off} = cy; }`, `pose[${off}] = x${off}; pose[${off + 1}] = y${off};`);
+  body.held.add(off);
+  body.declared.add(off);
+}
+
+/** circleCircleIntersectInto's arithmetic: returns `op` where the circles do not meet. */
+function circleCircle(ax: string, ay: string, rA: string, bx: string, by: string, rB: string, branch: string, op: number): string {
+  return `const dx = ${bx} - ${ax}; const dy = ${by} - ${ay}; const inv = 1 / (dx * dx + dy * dy);
+  const rA = ${rA}; const rB = ${rB};
+  const k = 0.5 * (rA * rA - rB * rB) * inv + 0.5; const h2 = rA * rA * inv - k * k;
+  if (!(h2 >= 0) || !(inv < Infinity)) return ${op};
+  const m = ${branch} * Math.sqrt(h2);
+  const cx = ${ax} + k * dx - m * dy; const cy = ${ay} + k * dy + m * dx;`;
+}
+
+/** circleLineIntersectInto's arithmetic, after `setup` has defined ox, oy, r, px, py, lx, ly, branch. */
+function circleLine(setup: string, op: number): string {
+  return `${setup}
+  const inv = 1 / Math.sqrt(lx * lx + ly * ly); const ux = lx * inv; const uy = ly * inv;
+  const wx = ox - px; const wy = oy - py; const t0 = wx * ux + wy * uy; const h = ux * wy - uy * wx;
+  const disc = r * r - h * h;
+  if (!(disc >= 0) || !(inv < Infinity)) return ${op};
+  const t = t0 + branch * Math.sqrt(disc);
+  const cx = px + t * ux; const cy = py + t * uy;`;
+}
+
+/** polarInto's arithmetic for the driver angle d: (ax, ay) + r (cos d, sin d). */
+function polar(ax: string, ay: string, r: string): string {
+  return `const r = ${r}; let cx, cy;
+  if (!(Math.abs(d) <= ${lit(SINCOS_REDUCTION_LIMIT)})) { cx = ${ax} + r * Math.cos(d); cy = ${ay} + r * Math.sin(d); }
+  else {
+    const n = Math.round(d * ${lit(K.TWO_OVER_PI)}); const x = d - n * ${lit(K.PIO2_HI)} - n * ${lit(K.PIO2_LO)}; const z = x * x;
+    const sinX = x + x * z * ${S_POLY};
+    const hz = 0.5 * z; const w = 1 - hz;
+    const cosX = w + ((1 - w - hz) + z * z * ${C_POLY});
+    let c, s;
+    switch (n & 3) { case 0: c = cosX; s = sinX; break; case 1: c = -sinX; s = cosX; break; case 2: c = -cosX; s = -sinX; break; default: c = sinX; s = -cosX; break; }
+    cx = ${ax} + r * c; cy = ${ay} + r * s;
+  }`;
+}
+
+function emitOperation(body: Body, p: PlanInternal, op: number): void {
   const ops = p.ops;
   const o = op * OP_STRIDE;
   const a = ops[o + 1];
   const b = ops[o + 2];
   const c = ops[o + 3];
-  const d = ops[o + 4];
+  const e = ops[o + 4];
   const q = ops[o + 5];
   switch (ops[o]) {
     case OP_SET:
-      return `pose[${c}] = prm[${q}]; pose[${c + 1}] = prm[${q + 1}];`;
-    case OP_ROTATE:
-      return `polarInto(pose, ${c}, pose[${a}], pose[${a + 1}], prm[${q}], d);`;
-    case OP_RIGID:
-      return `{ const ax = pose[${a}]; const ay = pose[${a + 1}]; const wx = pose[${b}] - ax; const wy = pose[${b + 1}] - ay;
-        const u = prm[${q}]; const v = prm[${q + 1}];
-        pose[${c}] = ax + u * wx - v * wy; pose[${c + 1}] = ay + u * wy + v * wx; }`;
-    case OP_DYAD:
-      return `if (!circleCircleIntersectInto(pose[${a}], pose[${a + 1}], prm[${q}], pose[${b}], pose[${b + 1}], prm[${q + 1}], prm[${q + 2}], pose, ${c})) return ${op};`;
-    case OP_CIRCLE_GROUND_LINE:
-      return `if (!circleLineIntersectInto(pose[${a}], pose[${a + 1}], prm[${q}], prm[${q + 2}], prm[${q + 3}], prm[${q + 4}], prm[${q + 5}], prm[${q + 1}], pose, ${c})) return ${op};`;
-    case OP_CIRCLE_BODY_LINE:
-      return `{ const ex = pose[${b}]; const ey = pose[${b + 1}]; const wx = pose[${d}] - ex; const wy = pose[${d + 1}] - ey;
-        const u = prm[${q + 2}]; const v = prm[${q + 3}]; const alpha = prm[${q + 4}]; const beta = prm[${q + 5}];
-        if (!circleLineIntersectInto(pose[${a}], pose[${a + 1}], prm[${q}], ex + u * wx - v * wy, ey + u * wy + v * wx,
-          alpha * wx - beta * wy, alpha * wy + beta * wx, prm[${q + 1}], pose, ${c})) return ${op}; }`;
+      place(body, c, `const cx = prm[${q}]; const cy = prm[${q + 1}];`);
+      return;
+    case OP_ROTATE: {
+      const [ax, ay] = read(body, a);
+      place(body, c, polar(ax, ay, `prm[${q}]`));
+      return;
+    }
+    case OP_RIGID: {
+      const [ax, ay] = read(body, a);
+      const [bx, by] = read(body, b);
+      place(body, c, `const wx = ${bx} - ${ax}; const wy = ${by} - ${ay}; const u = prm[${q}]; const v = prm[${q + 1}];
+  const cx = ${ax} + u * wx - v * wy; const cy = ${ay} + u * wy + v * wx;`);
+      return;
+    }
+    case OP_DYAD: {
+      const [ax, ay] = read(body, a);
+      const [bx, by] = read(body, b);
+      place(body, c, circleCircle(ax, ay, `prm[${q}]`, bx, by, `prm[${q + 1}]`, `prm[${q + 2}]`, op));
+      return;
+    }
+    case OP_CIRCLE_GROUND_LINE: {
+      const [ax, ay] = read(body, a);
+      place(body, c, circleLine(`const ox = ${ax}; const oy = ${ay}; const r = prm[${q}]; const branch = prm[${q + 1}];
+  const px = prm[${q + 2}]; const py = prm[${q + 3}]; const lx = prm[${q + 4}]; const ly = prm[${q + 5}];`, op));
+      return;
+    }
+    case OP_CIRCLE_BODY_LINE: {
+      const [ax, ay] = read(body, a);
+      const [ex, ey] = read(body, b);
+      const [fx, fy] = read(body, e);
+      place(body, c, circleLine(`const ox = ${ax}; const oy = ${ay}; const r = prm[${q}]; const branch = prm[${q + 1}];
+  const wx0 = ${fx} - ${ex}; const wy0 = ${fy} - ${ey};
+  const u = prm[${q + 2}]; const v = prm[${q + 3}]; const alpha = prm[${q + 4}]; const beta = prm[${q + 5}];
+  const px = ${ex} + u * wx0 - v * wy0; const py = ${ey} + u * wy0 + v * wx0;
+  const lx = alpha * wx0 - beta * wy0; const ly = alpha * wy0 + beta * wx0;`, op));
+      return;
+    }
     case OP_NEWTON:
-      return `if (!solveBlock(p, ${a}, pose)) return ${op};`;
+      // solveBlock reads and writes the pose; the slots it places are loaded from it when used.
+      body.lines.push(`if (!solveBlock(p, ${a}, pose)) return ${op};`);
+      for (let k = 0; k < p.blockUnknownCount[a]; k++) body.held.delete(p.blockUnknowns[p.blockUnknownStart[a] + k]);
+      return;
     default:
       throw new Error(`specialise: unknown opcode ${ops[o]} at operation ${op}`);
   }
@@ -68,15 +175,19 @@ function operationSource(p: PlanInternal, op: number): string {
  */
 export const KERNEL_CHUNK_OPS = 1024;
 
+function operations(p: PlanInternal, first: number, end: number): string[] {
+  const body: Body = { lines: [], held: new Set(), declared: new Set() };
+  for (let op = first; op < end; op++) emitOperation(body, p, op);
+  return body.lines;
+}
+
 /** The kernel's body; the driver checks and writes are those of run.ts's interpreter. */
 function kernelSource(p: PlanInternal): string {
   const lines = ['"use strict";'];
   const chunked = p.opCount > KERNEL_CHUNK_OPS;
   if (chunked) {
     for (let first = 0, c = 0; first < p.opCount; first += KERNEL_CHUNK_OPS, c++) {
-      lines.push(`function chunk${c}(pose, d) {`);
-      for (let op = first; op < Math.min(first + KERNEL_CHUNK_OPS, p.opCount); op++) lines.push(operationSource(p, op));
-      lines.push('return -1;', '}');
+      lines.push(`function chunk${c}(pose, d) {`, ...operations(p, first, Math.min(first + KERNEL_CHUNK_OPS, p.opCount)), 'return -1;', '}');
     }
   }
   lines.push('return function kernel(pose) {', 'const d = dv[0];');
@@ -90,7 +201,7 @@ function kernelSource(p: PlanInternal): string {
     lines.push('let failed = -1;');
     for (let c = 0; c * KERNEL_CHUNK_OPS < p.opCount; c++) lines.push(`if ((failed = chunk${c}(pose, d)) >= 0) return failed;`);
   } else {
-    for (let op = 0; op < p.opCount; op++) lines.push(operationSource(p, op));
+    lines.push(...operations(p, 0, p.opCount));
   }
   lines.push('return -1;', '};');
   return lines.join('\n');
@@ -109,5 +220,5 @@ export function specialise(p: PlanInternal): Kernel | null {
     if (error instanceof EvalError) return null;
     throw error;
   }
-  return factory(p, p.params, p.driverValue, polarInto, circleCircleIntersectInto, circleLineIntersectInto, solveBlock);
+  return factory(p, p.params, p.driverValue, solveBlock);
 }
