@@ -1,57 +1,245 @@
 /**
- * Engine scaling: evaluations per second of one search at 1 and at 2 workers, in one
- * process a moment apart, and their ratio (2 would be perfect scaling; the machine's
- * other load and the messages between rounds keep it lower).
+ * Engine scaling, in one run: evaluations per second of the engine at 1 and 2 workers on
+ * the three published four-bar problems (tests/reference/problems), beside the machine's
+ * own two-thread ratio for plain arithmetic; then 16 islands on 16 workers against the
+ * same 16 islands on 2 workers, both on this machine's cores.
  *
- * Both runs are the same deterministic search (same seed, islands and evaluation
- * budget), so they do exactly the same evaluations and must end on the same best
- * value: the checksum printed is that value, and the bench fails if the two differ.
- * Rates are over the search itself (`elapsedMs` leaves out worker start-up). There is no
- * separate warm-up run: every run starts fresh workers, so their JIT warm-up falls
- * inside both measurements alike, and a warm-up run would only add a worker start-up.
+ * Each engine run is the search the synthesis bench times: 4 islands of the hybrid
+ * optimizer, 400,000 evaluations, deterministic (same seed and budget at every worker
+ * count, so the same evaluations, and the bench fails if they end on different best
+ * values). Rates are the steady state: from the first slice every island has done to the
+ * last, so fresh workers' start-up and JIT warm-up and the final description fall
+ * outside. Worker counts are interleaved over rounds and each keeps its best rate, as is
+ * the plain-arithmetic control's. Beside each rate, where the time went: the share of the
+ * window each worker's event loop was busy (the rest it waited for a message), the
+ * main thread's, messages per million evaluations, and CPU milliseconds per million
+ * evaluations of the main thread and of the other threads (the workers; equal at 1 and
+ * 2 workers when the engine adds no work, whatever the load).
+ *
+ * The 16-worker figure is simulated, not a 16-core measurement: on 2 cores, 16 workers
+ * share the cores 8 to a core, so what it shows is the cost of orchestrating 16 workers
+ * (messages, merges, waits) against 2 on the same work: `sixteenOverTwoWorkerRatio` is
+ * 1 when that costs nothing. The main thread's busy time per evaluation, times the
+ * evaluations/s 16 cores would give, says how busy it would be on a 16-core machine.
  */
-import { readFileSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
+import { availableParallelism, loadavg } from 'node:os';
+import { performance, type EventLoopUtilization } from 'node:perf_hooks';
+import { Worker } from 'node:worker_threads';
 import { createRun, type RunInput } from '../src/engine';
-import { nodeEnvironment } from '../src/engine/node';
+import { nodeEnvironment, spawnNodeSearchWorker, type NodeWorkerHandle } from '../src/engine/node';
 
-/** Four islands: two per worker at 2 workers, all four on one worker at 1. */
+const CASES = ['line6-untimed', 'timed5', 'closed18-untimed'] as const;
 const ISLANDS = 4;
-/** Large enough that fresh workers' start-up and JIT warm-up are a small share of the run (at 30,000 they dominated). */
-const EVALUATIONS = 1_500_000;
+const EVALUATIONS = 400_000;
+/** Interleaved rounds of 1 and 2 workers (and of the control); each keeps its best. */
+const ROUNDS = 2;
+const SIMULATED_WORKERS = 16;
+const SIMULATED_EVALUATIONS = 800_000;
 
-/**
- * A real synthesis workload: the five-point prescribed-timing four-bar problem of
- * Cabrera, Simon and Prado (2002), in the problem file the reference tests and the
- * synthesis bench read.
- */
-const TIMED5: unknown = JSON.parse(readFileSync(new URL('../tests/reference/problems/timed5.json', import.meta.url), 'utf8'));
+function problemFile(caseId: string): unknown {
+  return JSON.parse(readFileSync(new URL(`../tests/reference/problems/${caseId}.json`, import.meta.url), 'utf8'));
+}
 
-function spec(evaluations: number): RunInput {
+function spec(caseId: string, islands: number, evaluations: number): RunInput {
   return {
-    jobs: [{ id: 'timed5', objective: { kind: 'synthesis', problem: TIMED5, family: 'fourbar-lengths' }, seed: 1, islands: ISLANDS }],
+    jobs: [{ id: caseId, objective: { kind: 'synthesis', problem: problemFile(caseId), family: 'fourbar-lengths' }, seed: 1, islands, optimizer: { kind: 'hybrid' } }],
     budget: { evaluations },
     deterministic: true,
   };
 }
 
-async function measure(workers: number, evaluations: number): Promise<{ evalsPerS: number; best: number }> {
-  const made = createRun(nodeEnvironment(), spec(evaluations), { workers, topK: 1 });
-  if (!made.ok) throw new Error(made.reason);
-  const result = await made.run.start();
-  if (!result.ok) throw new Error(result.reason);
-  return { evalsPerS: (result.evaluations * 1000) / result.elapsedMs, best: result.candidates[0]?.value ?? NaN };
+/** Clock ticks per second of /proc's CPU times (USER_HZ; 100 on Linux). */
+const USER_HZ = 100;
+const MAIN_THREAD_STAT = `/proc/self/task/${process.pid}/stat`;
+
+/**
+ * CPU milliseconds the main thread has used (Linux /proc, 10 ms resolution), or null
+ * elsewhere. CPU time, unlike the event loop's busy time, does not grow while other
+ * processes hold the cores.
+ */
+function mainThreadCpuMs(): number | null {
+  if (!existsSync(MAIN_THREAD_STAT)) return null;
+  const stat = readFileSync(MAIN_THREAD_STAT, 'utf8');
+  // Fields after the command name (which may hold spaces) in parentheses: utime and stime are the 12th and 13th.
+  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  return ((Number(fields[11]) + Number(fields[12])) * 1000) / USER_HZ;
 }
 
-export async function benchScaling(): Promise<Record<string, number>> {
-  const one = await measure(1, EVALUATIONS);
-  const two = await measure(2, EVALUATIONS);
-  if (!Object.is(one.best, two.best)) {
-    throw new Error(`the 1- and 2-worker runs ended on different best values (${one.best} and ${two.best}); the schedule is not deterministic`);
-  }
+/** CPU milliseconds of the whole process (every thread). */
+function processCpuMs(): number {
+  const { user, system } = process.cpuUsage();
+  return (user + system) / 1000;
+}
+
+interface Measured {
+  readonly evalsPerS: number;
+  readonly best: number;
+  /** Share of the steady window each worker's event loop was busy, mean over the workers. */
+  readonly workerBusyShare: number;
+  readonly mainBusyShare: number;
+  /** Main-thread busy milliseconds per million evaluations (event loop). */
+  readonly mainMsPerMillionEvals: number;
+  /** Main-thread CPU milliseconds per million evaluations; null off Linux. */
+  readonly mainCpuMsPerMillionEvals: number | null;
+  /** CPU milliseconds of every other thread (the workers, mostly) per million evaluations. */
+  readonly otherCpuMsPerMillionEvals: number | null;
+  readonly messagesPerMillionEvals: number;
+}
+
+interface Mark {
+  readonly evaluations: number;
+  readonly ms: number;
+  readonly main: EventLoopUtilization;
+  readonly workers: EventLoopUtilization[];
+  readonly messages: number;
+  readonly mainCpuMs: number | null;
+  readonly processCpuMs: number;
+}
+
+async function measure(input: RunInput, workers: number): Promise<Measured> {
+  const handles: NodeWorkerHandle[] = [];
+  let messages = 0;
+  const env = nodeEnvironment(() => {
+    const handle = spawnNodeSearchWorker();
+    handles.push(handle);
+    const post = handle.endpoint.postMessage.bind(handle.endpoint);
+    handle.endpoint.postMessage = (message: unknown, transfer?: Transferable[]) => {
+      messages++;
+      post(message, transfer);
+    };
+    return handle;
+  });
+  const made = createRun(env, input, { workers, topK: 1 });
+  if (!made.ok) throw new Error(made.reason);
+  const marks: Mark[] = [];
+  made.run.onProgress((p) => {
+    if (p.status !== 'running' || p.rounds < 1) return;
+    const mark = {
+      evaluations: p.evaluations,
+      ms: performance.now(),
+      main: performance.eventLoopUtilization(),
+      workers: handles.map((h) => h.worker.performance.eventLoopUtilization()),
+      messages,
+      mainCpuMs: mainThreadCpuMs(),
+      processCpuMs: processCpuMs(),
+    };
+    // Only the first and the latest are read.
+    if (marks.length < 2) marks.push(mark);
+    else marks[1] = mark;
+  });
+  const result = await made.run.start();
+  if (!result.ok) throw new Error(result.reason);
+  if (marks.length < 2) throw new Error('bench: the run reported fewer than two slices; give it more evaluations');
+  const [first, last] = marks;
+  const evaluations = last.evaluations - first.evaluations;
+  const ms = last.ms - first.ms;
+  const main = performance.eventLoopUtilization(last.main, first.main);
+  const busy = last.workers.flatMap((w, k) => (k < first.workers.length ? [performance.eventLoopUtilization(w, first.workers[k]).utilization] : []));
+  const mainCpu = last.mainCpuMs === null || first.mainCpuMs === null ? null : last.mainCpuMs - first.mainCpuMs;
   return {
-    evalsPerS1Worker: one.evalsPerS,
-    evalsPerS2Workers: two.evalsPerS,
-    twoOverOneWorkerRatio: two.evalsPerS / one.evalsPerS,
-    bestValueChecksum: one.best,
+    evalsPerS: (evaluations * 1000) / ms,
+    mainCpuMsPerMillionEvals: mainCpu === null ? null : (mainCpu * 1e6) / evaluations,
+    otherCpuMsPerMillionEvals: mainCpu === null ? null : ((last.processCpuMs - first.processCpuMs - mainCpu) * 1e6) / evaluations,
+    best: result.candidates[0]?.value ?? NaN,
+    workerBusyShare: busy.reduce((a, b) => a + b, 0) / busy.length,
+    mainBusyShare: main.utilization,
+    mainMsPerMillionEvals: (main.active * 1e6) / evaluations,
+    messagesPerMillionEvals: ((last.messages - first.messages) * 1e6) / evaluations,
   };
+}
+
+/** Arithmetic for one thread: what the machine's own two-thread ratio is measured with. */
+const SPIN_SOURCE = `const { parentPort, workerData } = require('node:worker_threads');
+let acc = 0;
+for (let i = 0; i < workerData; i++) acc += Math.sqrt(i);
+parentPort.postMessage(acc);`;
+const SPIN_ITERATIONS = 100_000_000;
+
+/** Threads × runs per second of the fixed arithmetic, in `threads` threads at once. */
+function spin(threads: number): Promise<number> {
+  const t0 = performance.now();
+  const one = () =>
+    new Promise<void>((resolve, reject) => {
+      const worker = new Worker(SPIN_SOURCE, { eval: true, workerData: SPIN_ITERATIONS });
+      worker.once('message', () => void worker.terminate().then(() => resolve()));
+      worker.once('error', reject);
+    });
+  return Promise.all(Array.from({ length: threads }, one)).then(() => (threads * 1000) / (performance.now() - t0));
+}
+
+type Row = Record<string, number | string | null>;
+
+export async function benchScaling(): Promise<Row[]> {
+  const loadAtStart = loadavg()[0];
+  const best = new Map<string, { one: Measured | null; two: Measured | null }>(CASES.map((c) => [c, { one: null, two: null }]));
+  let spinOne = 0;
+  let spinTwo = 0;
+  for (let round = 0; round < ROUNDS; round++) {
+    spinOne = Math.max(spinOne, await spin(1));
+    spinTwo = Math.max(spinTwo, await spin(2));
+    for (const caseId of CASES) {
+      const entry = best.get(caseId) as { one: Measured | null; two: Measured | null };
+      for (const workers of [1, 2] as const) {
+        const m = await measure(spec(caseId, ISLANDS, EVALUATIONS), workers);
+        const other = workers === 1 ? entry.two : entry.one;
+        const same = workers === 1 ? entry.one : entry.two;
+        for (const seen of [other, same]) {
+          if (seen !== null && !Object.is(seen.best, m.best)) {
+            throw new Error(`${caseId}: runs ended on different best values (${seen.best} and ${m.best}); the schedule is not deterministic`);
+          }
+        }
+        if (workers === 1 && (entry.one === null || m.evalsPerS > entry.one.evalsPerS)) entry.one = m;
+        if (workers === 2 && (entry.two === null || m.evalsPerS > entry.two.evalsPerS)) entry.two = m;
+      }
+    }
+  }
+  const control = spinTwo / spinOne;
+  const rows: Row[] = [];
+  for (const caseId of CASES) {
+    const { one, two } = best.get(caseId) as { one: Measured; two: Measured };
+    const ratio = two.evalsPerS / one.evalsPerS;
+    rows.push({
+      case: caseId,
+      evalsPerS1Worker: one.evalsPerS,
+      evalsPerS2Workers: two.evalsPerS,
+      twoOverOneWorkerRatio: ratio,
+      ratioOverControlRatio: ratio / control,
+      workerBusyShare1Worker: one.workerBusyShare,
+      workerBusyShare2Workers: two.workerBusyShare,
+      mainBusyShare2Workers: two.mainBusyShare,
+      mainCpuMsPerMillionEvals2Workers: two.mainCpuMsPerMillionEvals,
+      workerCpuMsPerMillionEvals1Worker: one.otherCpuMsPerMillionEvals,
+      workerCpuMsPerMillionEvals2Workers: two.otherCpuMsPerMillionEvals,
+      messagesPerMillionEvals2Workers: two.messagesPerMillionEvals,
+      bestValueChecksum: one.best,
+    });
+  }
+  rows.push({ case: 'plain-arithmetic control', twoOverOneThreadRatio: control });
+
+  const two = await measure(spec('timed5', SIMULATED_WORKERS, SIMULATED_EVALUATIONS), 2);
+  const sixteen = await measure(spec('timed5', SIMULATED_WORKERS, SIMULATED_EVALUATIONS), SIMULATED_WORKERS);
+  if (!Object.is(two.best, sixteen.best)) throw new Error(`16 islands: 2 and 16 workers ended on different best values (${two.best}, ${sixteen.best})`);
+  const oneCoreRate = (best.get('timed5') as { one: Measured }).one.evalsPerS;
+  // Main-thread CPU ms per evaluation × the evaluations/s of 16 cores, each as fast as one worker here.
+  const mainMsPerEval = (sixteen.mainCpuMsPerMillionEvals ?? sixteen.mainMsPerMillionEvals) / 1e6;
+  const projectedMainBusyShareAt16Cores = (mainMsPerEval * SIMULATED_WORKERS * oneCoreRate) / 1000;
+  rows.push({
+    case: `timed5, ${SIMULATED_WORKERS} islands (simulated: ${SIMULATED_WORKERS} workers on ${availableParallelism()} cores)`,
+    evalsPerS2Workers: two.evalsPerS,
+    evalsPerS16Workers: sixteen.evalsPerS,
+    sixteenOverTwoWorkerRatio: sixteen.evalsPerS / two.evalsPerS,
+    mainCpuMsPerMillionEvals2Workers: two.mainCpuMsPerMillionEvals,
+    mainCpuMsPerMillionEvals16Workers: sixteen.mainCpuMsPerMillionEvals,
+    workerCpuMsPerMillionEvals2Workers: two.otherCpuMsPerMillionEvals,
+    workerCpuMsPerMillionEvals16Workers: sixteen.otherCpuMsPerMillionEvals,
+    workerBusyShare16Workers: sixteen.workerBusyShare,
+    // Above 1: each evaluation costs the workers more CPU at 16 (JIT warm-up per worker, caches refilled 8 threads to a core), not waiting.
+    workerCpuPerEvalSixteenOverTwoRatio:
+      sixteen.otherCpuMsPerMillionEvals === null || two.otherCpuMsPerMillionEvals === null ? null : sixteen.otherCpuMsPerMillionEvals / two.otherCpuMsPerMillionEvals,
+    messagesPerMillionEvals16Workers: sixteen.messagesPerMillionEvals,
+    projectedMainBusyShareAt16Cores,
+  });
+  rows.push({ case: 'load', loadAverage1MinStart: loadAtStart, loadAverage1MinEnd: loadavg()[0], cores: availableParallelism() });
+  return rows;
 }

@@ -81,6 +81,24 @@ export interface IslandProgress {
   readonly restarts: number;
 }
 
+/**
+ * One island's part of an `advance` call: immigrants to place first (the ring
+ * neighbour's emigrants of an earlier slice), then one step of `slice`, then its
+ * `emigrants` best distinct candidates to send on.
+ */
+export interface AdvanceRequest {
+  readonly islandId: string;
+  readonly slice: StepSlice;
+  readonly immigrants: readonly Individual[];
+  readonly emigrants: number;
+}
+
+export interface AdvanceResult {
+  readonly progress: IslandProgress;
+  /** The island's best distinct candidates after the step (as many as asked, or fewer). */
+  readonly emigrants: Individual[];
+}
+
 export interface IslandInfo {
   readonly islandId: string;
   readonly dim: number;
@@ -132,12 +150,13 @@ export interface SearchWorkerApi {
   /** Creates (or replaces) an island from an exported state. */
   importState(state: IslandState): Outcome<{ readonly island: IslandInfo }>;
   exportState(islandId: string): Outcome<{ readonly state: IslandState }>;
-  /** Runs ask/evaluate/tell for one slice; a stopped island returns at once. */
-  step(islandId: string, slice: StepSlice): Outcome<{ readonly progress: IslandProgress }>;
+  /**
+   * Immigrate, step and emigrate each island named, in order: one message per worker for
+   * a whole slice of the run, however many islands the worker hosts.
+   */
+  advance(requests: readonly AdvanceRequest[]): Outcome<{ readonly results: AdvanceResult[] }>;
   /** The island's `count` best distinct candidates, to send to its neighbour. */
   emigrants(islandId: string, count: number): Outcome<{ readonly individuals: Individual[] }>;
-  /** Takes candidates from a neighbour into the population (replacing its worst members). */
-  immigrate(islandId: string, individuals: readonly Individual[]): Outcome<{ readonly accepted: number }>;
   /** The island's `count` best distinct candidates, described. */
   topCandidates(islandId: string, count: number): Outcome<{ readonly candidates: DescribedCandidate[] }>;
   /** Describes given designs with the island's objective (real coordinates). */

@@ -2,7 +2,7 @@
  * The search worker's API over a set of islands. Plain functions of plain data, so it
  * runs the same behind comlink in a worker and directly in one thread (tests, tools).
  */
-import type { DescribedCandidate, IslandProgress, Outcome, SearchWorkerApi } from './api';
+import type { AdvanceResult, DescribedCandidate, Outcome, SearchWorkerApi, StepSlice } from './api';
 import { createDesignDescriber } from './describeDesigns';
 import { Island } from './island';
 
@@ -12,6 +12,14 @@ function countProblem(count: unknown): string | null {
   return typeof count === 'number' && Number.isInteger(count) && count >= 0 && count <= MAX_COUNT
     ? null
     : `count is ${JSON.stringify(count)}; expected an integer in [0, ${MAX_COUNT}]`;
+}
+
+function sliceProblem(slice: StepSlice): string | null {
+  const ms = (slice as { ms?: unknown }).ms;
+  const evaluations = (slice as { evaluations?: unknown }).evaluations;
+  const timed = typeof ms === 'number' && ms >= 0;
+  const counted = typeof evaluations === 'number' && Number.isInteger(evaluations) && evaluations >= 1;
+  return timed === counted ? 'slice must be { ms: number ≥ 0 } or { evaluations: integer ≥ 1 }' : null;
 }
 
 /** A fresh API with no islands; `nowMs` is the clock `step` slices time with. */
@@ -41,26 +49,31 @@ export function createSearchWorkerApi(nowMs: () => number): SearchWorkerApi {
     exportState(islandId) {
       return withIsland(islandId, (island) => ({ ok: true, state: island.exportState() }));
     },
-    step(islandId, slice) {
-      return withIsland<{ progress: IslandProgress }>(islandId, (island) => {
-        const ms = (slice as { ms?: unknown }).ms;
-        const evaluations = (slice as { evaluations?: unknown }).evaluations;
-        const timed = typeof ms === 'number' && ms >= 0;
-        const counted = typeof evaluations === 'number' && Number.isInteger(evaluations) && evaluations >= 1;
-        if (timed === counted) return { ok: false, reason: 'slice must be { ms: number ≥ 0 } or { evaluations: integer ≥ 1 }' };
-        return { ok: true, progress: island.step(slice, nowMs) };
-      });
+    advance(requests) {
+      if (!Array.isArray(requests)) return { ok: false, reason: 'requests is not an array' };
+      // Names, slices and counts are checked before any island moves; each island checks its immigrants.
+      for (const [k, request] of requests.entries()) {
+        if (!islands.has(request.islandId)) return { ok: false, reason: `requests[${k}]: no island ${JSON.stringify(request.islandId)} in this worker` };
+        const problem = sliceProblem(request.slice) ?? countProblem(request.emigrants);
+        if (problem !== null) return { ok: false, reason: `requests[${k}]: ${problem}` };
+        if (!Array.isArray(request.immigrants)) return { ok: false, reason: `requests[${k}]: immigrants is not an array` };
+      }
+      const results: AdvanceResult[] = [];
+      for (const [k, request] of requests.entries()) {
+        const island = islands.get(request.islandId) as Island;
+        if (request.immigrants.length > 0) {
+          const placed = island.immigrate(request.immigrants);
+          if ('reason' in placed) return { ok: false, reason: `requests[${k}]: ${placed.reason}` };
+        }
+        const progress = island.step(request.slice, nowMs);
+        results.push({ progress, emigrants: island.emigrants(request.emigrants) });
+      }
+      return { ok: true, results };
     },
     emigrants(islandId, count) {
       const problem = countProblem(count);
       if (problem !== null) return { ok: false, reason: problem };
       return withIsland(islandId, (island) => ({ ok: true, individuals: island.emigrants(count) }));
-    },
-    immigrate(islandId, individuals) {
-      return withIsland<{ accepted: number }>(islandId, (island) => {
-        const placed = island.immigrate(individuals);
-        return 'reason' in placed ? { ok: false, reason: placed.reason } : { ok: true, accepted: placed.accepted };
-      });
     },
     topCandidates(islandId, count) {
       const problem = countProblem(count);

@@ -30,6 +30,12 @@ export interface CheckpointPayload {
   readonly restarts: number;
   /** Every island, in the order of `planIslands(spec)`. */
   readonly islands: readonly IslandState[];
+  /**
+   * Emigrants published at the end of a slice and not yet placed in the next island of
+   * the ring (by island index); absent in checkpoints of Loci before the pipelined
+   * engine, which placed them at once.
+   */
+  readonly emigrants?: readonly { readonly island: number; readonly slice: number; readonly individuals: readonly Individual[] }[];
   /** The run's archive of each job, best first. */
   readonly archive: readonly { readonly jobId: string; readonly entries: readonly Individual[] }[];
 }
@@ -46,7 +52,7 @@ const HASH_STEP_CHARS = 128 * 1024;
  * holds a thread for long however many islands there are.
  */
 function* encodeSteps(payload: CheckpointPayload): Generator<void, string, void> {
-  const { islands, archive, ...counters } = payload;
+  const { islands, emigrants, archive, ...counters } = payload;
   const head = JSON.stringify(counters);
   const pieces = [head.length > 2 ? `${head.slice(0, -1)},"islands":[` : '{"islands":['];
   for (const [k, island] of islands.entries()) {
@@ -54,7 +60,9 @@ function* encodeSteps(payload: CheckpointPayload): Generator<void, string, void>
     pieces.push(k === 0 ? JSON.stringify(island) : `,${JSON.stringify(island)}`);
   }
   yield;
-  pieces.push(`],"archive":${JSON.stringify(archive)}}`);
+  pieces.push(emigrants === undefined ? ']' : `],"emigrants":${JSON.stringify(emigrants)}`);
+  yield;
+  pieces.push(`,"archive":${JSON.stringify(archive)}}`);
   const body = pieces.join('');
   const hash = new Fnv1a64();
   for (let from = 0; from < body.length; ) {
@@ -90,6 +98,26 @@ function isObject(v: unknown): v is Record<string, unknown> {
 
 function isCount(v: unknown): v is number {
   return typeof v === 'number' && Number.isInteger(v) && v >= 0;
+}
+
+function isIndividual(v: unknown): boolean {
+  if (!isObject(v)) return false;
+  const { x, value, violation } = v;
+  return Array.isArray(x) && x.every((c) => Number.isFinite(c)) && Number.isFinite(value) && typeof violation === 'number' && violation >= 0 && Number.isFinite(violation);
+}
+
+/** What is wrong with a checkpoint's emigrants, or null; absent is fine (an older checkpoint). */
+function checkEmigrants(v: unknown, islands: number, rounds: number): string | null {
+  if (v === undefined) return null;
+  if (!Array.isArray(v)) return 'not an array';
+  for (const [k, sent] of v.entries()) {
+    if (!(isObject(sent) && Number.isInteger(sent.island) && (sent.island as number) >= 0 && (sent.island as number) < islands)) {
+      return `[${k}].island is not an island index in [0, ${islands - 1}]`;
+    }
+    if (!(Number.isInteger(sent.slice) && (sent.slice as number) >= 1 && (sent.slice as number) <= rounds)) return `[${k}].slice is not a round in [1, ${rounds}]`;
+    if (!(Array.isArray(sent.individuals) && sent.individuals.every(isIndividual))) return `[${k}].individuals is not an array of { x, value, violation }`;
+  }
+  return null;
 }
 
 /**
@@ -135,6 +163,8 @@ export function decodeCheckpoint(text: string): DecodeResult {
       return { ok: false, reason: `checkpoint islands[${k}] is not the state of island ${plan.islandId}` };
     }
   }
+  const emigrantsProblem = checkEmigrants(p.emigrants, plans.length, p.rounds as number);
+  if (emigrantsProblem !== null) return { ok: false, reason: `checkpoint emigrants: ${emigrantsProblem}` };
   if (!(Array.isArray(p.archive) && p.archive.length === spec.jobs.length)) {
     return { ok: false, reason: `checkpoint archive is not an array of ${spec.jobs.length} job archives` };
   }

@@ -1,23 +1,27 @@
 /**
- * A search run: the islands of a spec spread over N workers, stepped in rounds.
+ * A search run: the islands of a spec spread over N workers, stepped in slices.
  *
- * One round steps every running island once (the islands of one worker in turn, the
- * workers in parallel). After a round the engine merges the islands' new elites into
- * the run's archive, reports progress, migrates the best few individuals around each
- * job's ring every few rounds (island k sends to island k + 1), and checkpoints at a
- * fixed interval. Pause checkpoints and waits between rounds; cancel stops between
- * rounds. A worker that dies or stops answering is replaced, and the whole run goes
+ * Slice t steps every running island once. The slices go to the workers through a
+ * pipeline with no barrier (pipeline.ts): each worker gets one message per slice for all
+ * its islands, has its next slice queued while it computes, and waits only for an
+ * island it takes immigrants from that is more than one slice behind. Every few slices
+ * each island publishes its best few, and the next island of its job's ring (island k
+ * sends to island k + 1) places them two slices later. The engine merges the islands'
+ * new elites into the run's archive slice by slice in island order and reports
+ * progress. Checkpoints, pause, cancel and exports happen at cuts: slices every island
+ * stops at. A worker that dies or stops answering is replaced, and the whole run goes
  * back to the last checkpoint, so a deterministic run still ends as it would have.
  *
  * Every evaluation happens in the workers; this side only orchestrates.
  */
 import { precedes } from '../core/optimize';
-import type { DescribedCandidate, IslandInfo, IslandProgress, IslandState, IslandStopReason, StepSlice } from '../../workers/api';
+import type { AdvanceResult, DescribedCandidate, IslandInfo, IslandProgress, IslandState, IslandStopReason, StepSlice } from '../../workers/api';
 import { CandidateArchive } from '../../workers/archive';
 import { isObjectiveError } from '../../workers/objectiveError';
 import { decodeCheckpoint, encodeCheckpointInSteps, type CheckpointPayload } from './checkpoint';
 import type { CheckpointListing, CheckpointStore } from './checkpointStore';
 import type { EngineEnvironment } from './environment';
+import { EmigrantLedger, PIPELINE_DEPTH, runPipeline, TIMED_PIPELINE_DEPTH, type CutRule, type PipelineIsland } from './pipeline';
 import { defineRun, planIslands, type IslandPlan, type RunInput, type RunSpec } from './runSpec';
 import { WorkerClient, WorkerLost, WorkerRefused } from './workerClient';
 
@@ -28,6 +32,7 @@ export type RunStopReason = 'budget' | 'time' | 'converged' | 'target' | 'cancel
 
 export interface RunProgress {
   readonly status: RunStatus;
+  /** Rounds (slices) every island has done. */
   readonly rounds: number;
   /** Evaluations of all islands so far (after a worker restart: since the checkpoint it went back to). */
   readonly evaluations: number;
@@ -121,16 +126,19 @@ export interface Run {
   readonly spec: RunSpec;
   status(): RunStatus;
   progress(): RunProgress;
-  /** Called after every round and on every change of status; returns the unsubscribe function. */
+  /** Called after every round, every checkpoint and every change of status; returns the unsubscribe function. */
   onProgress(listener: (progress: RunProgress) => void): () => void;
   /** Runs to the end (budget, convergence or cancel). Call once. */
   start(): Promise<RunResult>;
-  /** Stops after the current round, checkpoints, and waits; resolves once paused. */
+  /**
+   * Stops at the next round every island can stop at (the rounds already sent to the
+   * workers, at most a few), checkpoints, and waits; resolves once paused.
+   */
   pause(): Promise<void>;
   resume(): void;
-  /** Stops after the current round (at once if paused); `start()` then resolves with stopReason 'cancelled'. */
+  /** Stops as `pause` does (at once if paused); `start()` then resolves with stopReason 'cancelled'. */
   cancel(): void;
-  /** The whole run's checkpoint, taken between rounds. */
+  /** The whole run's checkpoint, taken at a round every island stops at. */
   exportCheckpoint(): Promise<string>;
 }
 
@@ -139,7 +147,7 @@ export type MakeRunResult = { readonly ok: true; readonly run: Run } | { readonl
 export const DEFAULT_TOP_K = 10;
 const DEFAULT_CALL_TIMEOUT_MS = 120_000;
 const DEFAULT_MAX_RESTARTS = 3;
-/** Every loop has a cap: no run goes beyond this many rounds. */
+/** Every loop has a cap: no run goes beyond this many rounds (slices), nor this many cuts. */
 const MAX_ROUNDS = 1_000_000_000;
 /** A time-budget step is never shorter than this, ms. */
 const MIN_STEP_MS = 1;
@@ -246,6 +254,10 @@ class Engine implements Run {
   private saveError: string | null = null;
   private readonly workerCount: number;
   private readonly islands: IslandView[];
+  private readonly pipelineIslands: PipelineIsland[];
+  /** Emigrants published and not yet placed; part of every checkpoint. */
+  private ledger: EmigrantLedger;
+  private checkpointWanted = false;
   private readonly listeners = new Set<(progress: RunProgress) => void>();
   private readonly from: CheckpointPayload | null;
 
@@ -290,12 +302,23 @@ class Engine implements Run {
     const plans = planIslands(spec);
     this.workerCount = Math.min(plans.length, options.workers ?? env.defaultWorkerCount());
     this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null }));
+    this.pipelineIslands = this.islands.map((island, k) => ({ islandId: island.plan.islandId, worker: island.worker, sender: this.senderOf(k) }));
+    this.ledger = new EmigrantLedger(this.islands.length);
     this.archives = spec.jobs.map(() => null);
     if (from !== null) {
       this.rounds = from.rounds;
       this.restarts = from.restarts;
       this.elapsedBeforeMs = from.elapsedMs;
     }
+  }
+
+  /** The island before island k in its job's ring, or −1 when it takes no immigrants. */
+  private senderOf(k: number): number {
+    if (this.spec.migration.count === 0) return -1;
+    const ring = this.islands.map((island, j) => (island.plan.jobIndex === this.islands[k].plan.jobIndex ? j : -1)).filter((j) => j >= 0);
+    if (ring.length < 2) return -1;
+    const at = ring.indexOf(k);
+    return ring[(at + ring.length - 1) % ring.length];
   }
 
   status(): RunStatus {
@@ -432,20 +455,24 @@ class Engine implements Run {
       }
       const stop = this.stopReason();
       if (stop !== null) return stop;
+      if (this.rounds >= MAX_ROUNDS) throw new RunFailure(`the run reached the cap of ${MAX_ROUNDS} rounds`);
       try {
-        await this.round();
-        this.rounds++;
-        if (this.spec.migration.count > 0 && this.rounds % this.spec.migration.everyRounds === 0) await this.migrate();
-        if (this.env.now() - this.lastCheckpointAtMs >= this.checkpointEveryMs) await this.checkpoint();
+        // Slices until a cut: every island then stands at the same slice.
+        await this.runSlices();
+        if (this.checkpointWanted) {
+          await this.checkpoint();
+          // Its round (and a failed save's reason) reach the listeners now, not a slice later.
+          this.emit();
+        }
         await this.answerExports();
       } catch (error) {
         if (isObjectiveError(error)) throw new ObjectiveFailure(error.message);
         if (!(error instanceof WorkerLost)) throw error;
         await this.recover(error);
+        this.emit();
       }
-      this.emit();
     }
-    throw new RunFailure(`the run reached the cap of ${MAX_ROUNDS} rounds`);
+    throw new RunFailure(`the run reached the cap of ${MAX_ROUNDS} cuts`);
   }
 
   private stopReason(): RunStopReason | null {
@@ -470,22 +497,44 @@ class Engine implements Run {
     return { ms };
   }
 
-  /** Steps every running island once: the islands of a worker in turn, the workers in parallel. */
-  private async round(): Promise<void> {
-    const slice = this.slice();
-    const results: (IslandProgress | null)[] = this.islands.map(() => null);
-    const settled = await Promise.allSettled(
-      this.workers.map(async (worker, w) => {
-        for (const [k, island] of this.islands.entries()) {
-          if (island.worker !== w || island.stopReason !== null) continue;
-          const { progress } = await worker.call('step', this.callTimeoutMs, (api) => api.step(island.plan.islandId, slice));
-          results[k] = progress;
-        }
-      }),
-    );
-    throwFirst(settled);
-    // In island order, whatever order the workers answered in: the archive then does not depend on timing.
-    for (const [k, progress] of results.entries()) if (progress !== null) this.record(this.islands[k], progress);
+  private runSlices(): Promise<void> {
+    const { count, everyRounds } = this.spec.migration;
+    return runPipeline({
+      islands: this.pipelineIslands,
+      workers: this.workers,
+      callTimeoutMs: this.callTimeoutMs,
+      depth: this.spec.deterministic ? PIPELINE_DEPTH : TIMED_PIPELINE_DEPTH,
+      done: this.rounds,
+      stopped: this.islands.map((island) => island.stopReason !== null),
+      migration: { every: everyRounds, count },
+      ledger: this.ledger,
+      slice: () => this.slice(),
+      merged: (t, results) => this.merged(t, results),
+    });
+  }
+
+  /**
+   * One slice every island has done, its results in island order whatever order the
+   * workers answered in: the archive then does not depend on timing. Says where to cut.
+   * The clock is read here only, once per slice in slice order, so a run on a clock that
+   * moves with each reading (tests) is the same on any schedule.
+   */
+  private merged(t: number, results: readonly (AdvanceResult | null)[]): CutRule {
+    for (const [k, result] of results.entries()) {
+      const island = this.islands[k];
+      // An island stopped in an earlier slice may have been sent this one before that was known: nothing to record.
+      if (result !== null && island.stopReason === null) this.record(island, result.progress);
+    }
+    this.rounds = t;
+    if (this.env.now() - this.lastCheckpointAtMs >= this.checkpointEveryMs) this.checkpointWanted = true;
+    this.emit();
+    if (this.cancelRequested || this.pauseRequested || this.exportRequests.length > 0 || t >= MAX_ROUNDS) return 'cut';
+    const stop = this.stopReason();
+    if (stop !== null && stop !== 'time') return 'cut';
+    if (stop !== 'time' && !this.checkpointWanted) return 'go';
+    // A fixed number of slices after the time is up or a checkpoint falls due, so where a
+    // deterministic run stops, and where it saves, is the same on any schedule.
+    return this.spec.deterministic ? 'cut-after-lead' : 'cut';
   }
 
   private record(island: IslandView, progress: IslandProgress): void {
@@ -494,30 +543,6 @@ class Engine implements Run {
     this.sessionEvaluations += progress.stepEvaluations;
     const archive = this.archives[island.plan.jobIndex];
     if (archive !== null) for (const elite of progress.elites) archive.offer(elite.x, elite.value, elite.violation);
-  }
-
-  /** Each island of a ring sends its best few to the next one. */
-  private async migrate(): Promise<void> {
-    const { count } = this.spec.migration;
-    const rings = this.spec.jobs.map((_, j) => this.islands.filter((island) => island.plan.jobIndex === j)).filter((ring) => ring.length > 1);
-    if (rings.length === 0) return;
-    const outgoing = await Promise.allSettled(
-      rings.flat().map((island) =>
-        this.workers[island.worker].call('emigrants', this.callTimeoutMs, (api) => api.emigrants(island.plan.islandId, count)),
-      ),
-    );
-    const sent = throwFirst(outgoing);
-    const byIsland = new Map(rings.flat().map((island, k) => [island.plan.islandId, sent[k].individuals]));
-    const incoming = await Promise.allSettled(
-      rings.flatMap((ring) =>
-        ring.map((island, k) => {
-          const target = ring[(k + 1) % ring.length];
-          const individuals = byIsland.get(island.plan.islandId) ?? [];
-          return this.workers[target.worker].call('immigrate', this.callTimeoutMs, (api) => api.immigrate(target.plan.islandId, individuals));
-        }),
-      ),
-    );
-    throwFirst(incoming);
   }
 
   private async pauseHere(): Promise<void> {
@@ -553,6 +578,7 @@ class Engine implements Run {
       await this.placeIslands(null);
     }
     if (from !== null) this.loadArchives(from);
+    await this.loadLedger(from);
     const payload = await this.collect();
     this.snapshot = payload;
     this.checkpointRound = this.rounds;
@@ -611,7 +637,23 @@ class Engine implements Run {
     });
   }
 
-  /** Every island's state, the archives and the counters, taken between rounds. */
+  /**
+   * The emigrants a checkpoint holds, and each stopped island's last emigrants (what it
+   * sends from then on, asked of its worker).
+   */
+  private async loadLedger(payload: CheckpointPayload | null): Promise<void> {
+    const ledger = new EmigrantLedger(this.islands.length);
+    for (const sent of payload?.emigrants ?? []) ledger.publish(sent.island, sent.slice, sent.individuals);
+    const { count } = this.spec.migration;
+    const stopped = this.islands.flatMap((island, k) => (island.stopReason === null ? [] : [k]));
+    const settled = await Promise.allSettled(
+      stopped.map((k) => this.workers[this.islands[k].worker].call('emigrants', this.callTimeoutMs, (api) => api.emigrants(this.islands[k].plan.islandId, count))),
+    );
+    for (const [j, answer] of throwFirst(settled).entries()) ledger.stopped(stopped[j], answer.individuals);
+    this.ledger = ledger;
+  }
+
+  /** Every island's state, the archives, the emigrants not yet placed and the counters, taken at a cut. */
   private async collect(): Promise<CheckpointPayload> {
     const settled = await Promise.allSettled(
       this.islands.map((island) =>
@@ -626,6 +668,7 @@ class Engine implements Run {
       evaluations: this.islands.reduce((sum, island) => sum + island.evaluations, 0),
       restarts: this.restarts,
       islands: states,
+      emigrants: this.ledger.entries(),
       archive: this.spec.jobs.map((job, j) => ({
         jobId: job.id,
         entries: (this.archives[j]?.entries() ?? []).map((entry) => ({ x: Array.from(entry.x), value: entry.value, violation: entry.violation })),
@@ -663,6 +706,7 @@ class Engine implements Run {
     this.checkpointRound = this.rounds;
     this.lastCheckpointAtMs = this.env.now();
     this.restartsSinceCheckpoint = 0;
+    this.checkpointWanted = false;
   }
 
   private async answerExports(): Promise<void> {
@@ -691,6 +735,7 @@ class Engine implements Run {
     }
     this.rounds = snapshot.rounds;
     this.loadArchives(snapshot);
+    await this.loadLedger(snapshot);
     this.emit();
   }
 

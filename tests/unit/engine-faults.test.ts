@@ -12,6 +12,7 @@ import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import { describe, expect, it } from 'vitest';
 import { createRun, decodeCheckpoint, memoryCheckpointStore, type CheckpointStore, type EngineEnvironment, type RunInput, type WorkerHandle } from '../../src/engine';
 import { nodeEnvironment } from '../../src/engine/node';
+import { MAX_LEAD } from '../../src/engine/pipeline';
 import { Island } from '../../workers/island';
 import { buildObjective } from '../../workers/objective';
 import { isObjectiveError, objectiveError } from '../../workers/objectiveError';
@@ -103,9 +104,12 @@ describe('checkpointEveryMs', () => {
 
   it('sets how often the run saves: at launch, every so many ms of its clock, and at the end', async () => {
     // The clock moves when a round is reported, after the round's checkpoint test: round
-    // k is tested at (k − 1) s since launch (at 0 s). Saves every 3 s: at launch, after
-    // round 4 (at 3 s), round 7 (at 6 s), then the final one after round 8.
-    expect(await savedRounds(3000)).toEqual([0, 4, 7, 8]);
+    // k is tested at (k − 1) s since launch (at 0 s). Saves every 3 s: at launch; due at
+    // round 4 (at 3 s) and taken MAX_LEAD = 3 rounds on, at round 7, the first round every
+    // island can stop at whatever the workers' timing (then reported, at 7 s); round 8 is
+    // tested at 8 s, 1 s after it; then the final one after round 8.
+    expect(MAX_LEAD).toBe(3);
+    expect(await savedRounds(3000)).toEqual([0, 7, 8]);
     // The spec's default (30 s) is longer than the whole run: launch and end only.
     expect(await savedRounds(undefined)).toEqual([0, 8]);
   });
@@ -175,9 +179,10 @@ describe('an objective that throws', () => {
       const real = createSearchWorkerApi(() => performance.now());
       const api: SearchWorkerApi = {
         ...real,
-        step(islandId, slice) {
-          if (islandId === 'rosenbrock#1' && ++steps === 4) throw objectiveError(islandId, [1, 2, 3], new TypeError('x.foo is not a function'));
-          return real.step(islandId, slice);
+        advance(requests) {
+          const islandId = 'rosenbrock#1';
+          if (requests.some((r) => r.islandId === islandId) && ++steps === 4) throw objectiveError(islandId, [1, 2, 3], new TypeError('x.foo is not a function'));
+          return real.advance(requests);
         },
       };
       const { port1, port2 } = new MessageChannel();
@@ -201,7 +206,9 @@ describe('an objective that throws', () => {
     const values = candidates.map((c) => c.value);
     expect(values).toEqual([...values].sort((a, b) => a - b));
     if (candidates[0].detail.kind === 'test-function') expect(candidates[0].detail.value).toBe(candidates[0].value);
-    // The store keeps the last checkpoint taken before the fault, whole.
-    expect(roundsOf([store.texts[0]])).toEqual([3]);
+    // The store keeps the last checkpoint taken before the fault, whole: the one at launch,
+    // since the one due after round 1 is taken MAX_LEAD = 3 rounds on, at round 4, the
+    // round that fails.
+    expect(roundsOf([store.texts[0]])).toEqual([0]);
   });
 });
