@@ -1,19 +1,30 @@
 /**
  * Newton–Raphson blocks: joints no dyad can place (a Stephenson III driven from its
  * dyad side) solved together on their distance, rigid-body and slider equations,
- * started from the incoming pose. Also the implicit differentiation of those equations
+ * started from the incoming pose; a triad among them by its one-unknown reduction. Also the implicit differentiation of those equations
  * for exact rates. Everything works in the plan's preallocated scratch.
  */
 import type { EQ_DIST, EQ_RIGID, EQ_SLIDER_BODY, EQ_SLIDER_GROUND, EQ_STRIDE, PlanInternal } from './plan';
 import * as tolerances from './tolerances';
+import {
+  solveTriad as solveTriadImport,
+  triadLayout,
+  triadRates as triadRatesImport,
+  type TRIAD_NO_START,
+  type TRIAD_SOLVED,
+} from './triad';
 
-// Literals checked against plan.ts by `satisfies`, and tolerances read once: see the
-// note in run.ts on dev-time module transforms.
+// Imports bound to locals, literals checked against plan.ts and triad.ts by `satisfies`,
+// and tolerances read once: see the note in run.ts on dev-time module transforms.
 const STRIDE = 5 satisfies typeof EQ_STRIDE;
 const DIST = 0 satisfies typeof EQ_DIST;
 const RIGID = 1 satisfies typeof EQ_RIGID;
 const SLIDER_GROUND = 2 satisfies typeof EQ_SLIDER_GROUND;
 const SLIDER_BODY = 3 satisfies typeof EQ_SLIDER_BODY;
+const solveTriad = solveTriadImport;
+const triadRates = triadRatesImport;
+const NO_START = -1 satisfies typeof TRIAD_NO_START;
+const SOLVED = 1 satisfies typeof TRIAD_SOLVED;
 const NEWTON_MAX_ITERATIONS = tolerances.NEWTON_MAX_ITERATIONS;
 const NEWTON_MAX_HALVINGS = tolerances.NEWTON_MAX_HALVINGS;
 const NEWTON_ROUNDING_FLOOR_FACTOR = tolerances.NEWTON_ROUNDING_FLOOR_FACTOR;
@@ -181,19 +192,16 @@ function blockResidual(p: PlanInternal, block: number, pose: Float64Array, withJ
 
 /**
  * Solves block `block` in place in pose, starting from the pose's current values of its
- * joints (the reference pose where they are not finite). Damped Newton: a step that does
- * not lower the largest residual is halved, at most NEWTON_MAX_HALVINGS times; at most
- * NEWTON_MAX_ITERATIONS iterations. False when it does not converge, the Jacobian is
- * singular, or a number turns non-finite.
+ * joints (the reference pose where they are not finite). A triad (triad.ts: the
+ * floating ternary link of a Stephenson II or III) is solved as one unknown; any other
+ * block, or a triad none of whose dyads assembles at the start, by damped Newton on the
+ * block's equations. False when it does not converge, the Jacobian is singular, or a
+ * number turns non-finite.
  */
 export function solveBlock(p: PlanInternal, block: number, pose: Float64Array): boolean {
   const first = p.blockUnknownStart[block];
   const joints = p.blockUnknownCount[block];
-  const n = 2 * joints;
   const unknowns = p.blockUnknowns;
-  const step = p.step;
-  const saved = p.saved;
-  const tol = p.newtonTolMm;
   for (let k = 0; k < joints; k++) {
     const s = unknowns[first + k];
     if (!(Number.isFinite(pose[s]) && Number.isFinite(pose[s + 1]))) {
@@ -201,6 +209,39 @@ export function solveBlock(p: PlanInternal, block: number, pose: Float64Array): 
       pose[s + 1] = p.reference[s + 1];
     }
   }
+  const triad = triadsOf(p)[block];
+  if (triad !== null) {
+    const outcome = solveTriad(p, triad, pose, p.newtonTolMm);
+    if (outcome !== NO_START) return outcome === SOLVED;
+  }
+  return dampedNewton(p, block, pose);
+}
+
+/** Each plan's blocks that are triads (triad.ts), found on first use: the topology of a plan does not change. */
+const TRIADS = new WeakMap<PlanInternal, readonly (Int32Array | null)[]>();
+
+function triadsOf(p: PlanInternal): readonly (Int32Array | null)[] {
+  let found = TRIADS.get(p);
+  if (found === undefined) {
+    found = Array.from({ length: p.blockCount }, (_, b) => triadLayout(p, b));
+    TRIADS.set(p, found);
+  }
+  return found;
+}
+
+/**
+ * Damped Newton on the block's equations: a step that does not lower the largest
+ * residual is halved, at most NEWTON_MAX_HALVINGS times; at most NEWTON_MAX_ITERATIONS
+ * iterations.
+ */
+function dampedNewton(p: PlanInternal, block: number, pose: Float64Array): boolean {
+  const first = p.blockUnknownStart[block];
+  const joints = p.blockUnknownCount[block];
+  const n = 2 * joints;
+  const unknowns = p.blockUnknowns;
+  const step = p.step;
+  const saved = p.saved;
+  const tol = p.newtonTolMm;
   let norm = blockResidual(p, block, pose, false, null);
   for (let iteration = 0; iteration < NEWTON_MAX_ITERATIONS; iteration++) {
     if (norm <= tol) return true;
@@ -243,6 +284,8 @@ export function solveBlock(p: PlanInternal, block: number, pose: Float64Array): 
 
 /** Rates of the block's joints from the rates already known: the block Jacobian solve of the differentiated equations. */
 export function blockRates(p: PlanInternal, block: number, pose: Float64Array, rates: Float64Array): boolean {
+  const triad = triadsOf(p)[block];
+  if (triad !== null && triadRates(p, triad, pose, rates)) return true;
   const first = p.blockUnknownStart[block];
   const joints = p.blockUnknownCount[block];
   const n = 2 * joints;

@@ -3,9 +3,10 @@
  * reference-pose positions of the joints and of the output point P (mm), in the plan's
  * slot order. The family is compiled once; each evaluation sets the new reference pose
  * (same topology) and runs the plan per driver value, warm-started along the sweep so a
- * Newton block starts from the previous pose. Driver values are the crank's rotation
- * from its reference-pose angle. The assembly branch of every dyad is the one of the
- * reference pose. A slider's direction stays that of the family's default.
+ * Newton block starts from the previous pose moved on to the new value (by its rates,
+ * or the secant through the two before: PREDICT_MAX_STEP_RAD). Driver values are the
+ * crank's rotation from its reference-pose angle. The assembly branch of every dyad is
+ * the one of the reference pose. A slider's direction stays that of the family's default.
  *
  * Locks: the search samples a motion every MOTION_CHECK_STEP_RAD; for a design otherwise
  * feasible `verify` finds the locks between samples (Grashof's criterion for the
@@ -75,11 +76,40 @@ export type PoseFamilyId = Exclude<FamilyId, 'fourbar-lengths'>;
 // Every pose family has a builder: the ids of FamilyId and the builders' keys agree.
 const BUILDERS: Readonly<Record<PoseFamilyId, () => Linkage>> = POSE_FAMILY_BUILDERS;
 
+/**
+ * A solve starts from the last pose solved moved on to its driver value, when that pose
+ * is at most this far away (rad): by its exact rates when the last solve had them
+ * (tangent predictor), else along the secant through the last two poses solved. A Newton
+ * block then starts within the square of the step of its solution, and converges in a
+ * step or two. Further away a straight-line prediction is no better than the pose itself.
+ */
+const PREDICT_MAX_STEP_RAD = 4 * MOTION_CHECK_STEP_RAD;
+
+/** Secants through poses solved closer than this (rad) are rounding: no prediction from them. */
+const SECANT_MIN_SPAN_RAD = 1e-6;
+
+/**
+ * No prediction where some joint moves faster than this many crank lengths per radian
+ * (where the assembly margin is below 1 / (1 + this)): near a lock's edge the motion
+ * turns like a square root, a straight line overshoots it, and the last pose itself is
+ * the safer start, on the side of the fold that assembles.
+ */
+const PREDICT_MAX_SPEED = 8;
+
 class PlanCurve implements CurveEvaluator, MarginCurve {
   readonly secondDerivatives = false;
   readonly plan: Plan;
   readonly pose: Float64Array;
   readonly rates: Float64Array;
+  /** The pose solved before the last one, at driver value previousT (NaN: none). */
+  private readonly previous: Float64Array;
+  private previousT = NaN;
+  /** Driver value of the last pose solved (NaN: none since a failure or reset). */
+  private lastT = NaN;
+  /** The rates in `rates` are the last pose's. */
+  private lastHasRates = false;
+  /** Only a Newton block starts from the pose it is given; dyads need no prediction. */
+  private readonly predicts: boolean;
   private readonly pSlot: number;
   private readonly pivotSlot: number;
   private readonly tipSlot: number;
@@ -89,6 +119,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.plan = plan;
     this.pose = new Float64Array(2 * plan.slotCount);
     this.rates = new Float64Array(2 * plan.slotCount);
+    this.previous = new Float64Array(2 * plan.slotCount);
+    this.predicts = plan.newtonUnknowns > 0;
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
     this.tipSlot = tipSlot;
@@ -97,7 +129,46 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   reset(): void {
     const ref = this.plan.reference;
     this.pose.set(ref);
+    this.lastT = NaN;
+    this.previousT = NaN;
     this.crankMm = Math.hypot(ref[this.tipSlot] - ref[this.pivotSlot], ref[this.tipSlot + 1] - ref[this.pivotSlot + 1]);
+  }
+  /** Moves the pose on to driver value t (see PREDICT_MAX_STEP_RAD), keeping the last pose solved in `previous`. */
+  private predict(t: number): void {
+    const pose = this.pose;
+    const previous = this.previous;
+    const rates = this.rates;
+    const dt = t - this.lastT;
+    const span = this.lastT - this.previousT;
+    const tangent = this.lastHasRates;
+    // Per radian: the rates, or the secant's slope.
+    const slope = tangent ? 1 : Math.abs(span) >= SECANT_MIN_SPAN_RAD ? 1 / span : 0;
+    let fastest = 0;
+    for (let i = 0; i < pose.length; i++) {
+      const speed = Math.abs(tangent ? rates[i] : (pose[i] - previous[i]) * slope);
+      if (!(speed <= fastest)) fastest = speed;
+    }
+    const predict = slope !== 0 && Math.abs(dt) <= PREDICT_MAX_STEP_RAD && fastest <= PREDICT_MAX_SPEED * this.crankMm;
+    for (let i = 0; i < pose.length; i++) {
+      const x = pose[i];
+      if (predict) {
+        const moved = x + (tangent ? rates[i] : (x - previous[i]) * slope) * dt;
+        if (Number.isFinite(moved)) pose[i] = moved;
+      }
+      previous[i] = x;
+    }
+    this.previousT = this.lastT;
+  }
+  /** After a solve at t: a failure leaves a sane start for the next Newton block, the reference pose, and no history. */
+  private solved(t: number, ok: boolean, withRates: boolean): void {
+    if (ok) {
+      this.lastT = t;
+      this.lastHasRates = withRates;
+      return;
+    }
+    this.pose.set(this.plan.reference);
+    this.lastT = NaN;
+    this.previousT = NaN;
   }
   /**
    * Assembly margin c / (c + max |d(joint)/dt|), c the crank length: every joint's rate
@@ -106,10 +177,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   marginAt(t: number): number {
     const plan = this.plan;
-    if (!runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates)) {
-      this.pose.set(plan.reference);
-      return -1;
-    }
+    if (this.predicts) this.predict(t);
+    const ok = runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates);
+    this.solved(t, ok, true);
+    if (!ok) return -1;
     const rates = this.rates;
     let fastest = 0;
     for (let i = 0; i < rates.length; i++) {
@@ -122,11 +193,12 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
     const plan = this.plan;
     const value = plan.driverReferenceValue + t;
+    if (this.predicts) this.predict(t);
     const ok = order === 0 ? run(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates);
+    this.solved(t, ok, order > 0);
     const s = this.pSlot;
     if (!ok) {
-      // A finite stand-in (the reference point), and a sane start for the next Newton block.
-      this.pose.set(plan.reference);
+      // A finite stand-in: the reference point.
       out[CURVE_X] = plan.reference[s];
       out[CURVE_Y] = plan.reference[s + 1];
       out[CURVE_DX] = 0;

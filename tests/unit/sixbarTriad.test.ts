@@ -1,0 +1,276 @@
+import { describe, expect, it } from 'vitest';
+import {
+  closureResidualMm,
+  compile,
+  run,
+  runWithRates,
+  stephensonII,
+  stephensonIII,
+  STEPHENSON_II_DEFAULT,
+  STEPHENSON_III_DEFAULT,
+  type Linkage,
+  type Plan,
+} from '../../src/core/linkage';
+import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
+
+/**
+ * The floating ternary link of a Stephenson II or III (a triad: three joints of one
+ * rigid link, each on a circle about a joint placed before it) checked against an
+ * independent solution written here: every assembly of the triad at a driver value,
+ * found by sampling the angle of its first joint about its centre on both branches of
+ * the second joint's circle–circle intersection and bisecting each sign change of the
+ * third joint's distance error; the branch followed from the reference pose by fine
+ * continuation (the root nearest the last one, eight sub-steps per sample).
+ */
+
+type Pt = readonly [number, number];
+
+interface Case {
+  readonly name: string;
+  readonly build: (at: never) => Linkage;
+  readonly defaults: Record<string, { x: number; y: number }>;
+  /** The triad's joints, and the joint each turns about. */
+  readonly joints: readonly string[];
+  readonly centres: readonly string[];
+  readonly pivot: string;
+  /** Centres that turn with the driver about the pivot. */
+  readonly driven: readonly string[];
+}
+
+const CASES: readonly Case[] = [
+  {
+    name: 'Stephenson II', build: stephensonII as Case['build'], defaults: { ...STEPHENSON_II_DEFAULT },
+    joints: ['C', 'D', 'E'], centres: ['A', 'B', 'G0'], pivot: 'A0', driven: ['A', 'B'],
+  },
+  {
+    name: 'Stephenson III', build: stephensonIII as Case['build'], defaults: { ...STEPHENSON_III_DEFAULT },
+    joints: ['A', 'B', 'C'], centres: ['A0', 'B0', 'D'], pivot: 'C0', driven: ['D'],
+  },
+];
+
+const SAMPLES = 180;
+const SUB_STEPS = 8;
+const GRID = 1500;
+const DESIGNS = 14;
+
+/** A seeded linear congruential generator (test data only). */
+function lcg(seed: number): () => number {
+  let s = seed;
+  return () => {
+    s = (s * 1103515245 + 12345) % 2147483648;
+    return s / 2147483648;
+  };
+}
+
+/** Every assembly (X1, X2, X3 as six numbers) of the triad with these centres, radii and link shape. */
+function triadRoots(K: readonly Pt[], r: readonly number[], shape: readonly Pt[]): number[][] {
+  const d12 = Math.hypot(shape[1][0] - shape[0][0], shape[1][1] - shape[0][1]);
+  const bx = shape[1][0] - shape[0][0];
+  const by = shape[1][1] - shape[0][1];
+  const qx = shape[2][0] - shape[0][0];
+  const qy = shape[2][1] - shape[0][1];
+  const place = (a: number, side: number): number[] | null => {
+    const x1 = K[0][0] + r[0] * Math.cos(a);
+    const y1 = K[0][1] + r[0] * Math.sin(a);
+    const dx = K[1][0] - x1;
+    const dy = K[1][1] - y1;
+    const d = Math.hypot(dx, dy);
+    const along = (d12 * d12 - r[1] * r[1] + d * d) / (2 * d);
+    const h2 = d12 * d12 - along * along;
+    if (!(h2 >= 0)) return null;
+    const h = side * Math.sqrt(h2);
+    const x2 = x1 + (along * dx - h * dy) / d;
+    const y2 = y1 + (along * dy + h * dx) / d;
+    // The link's rotation and scale from its frame: (X2 − X1) / (b2 − b1) as complex numbers.
+    const c = ((x2 - x1) * bx + (y2 - y1) * by) / (bx * bx + by * by);
+    const s = ((y2 - y1) * bx - (x2 - x1) * by) / (bx * bx + by * by);
+    const x3 = x1 + c * qx - s * qy;
+    const y3 = y1 + s * qx + c * qy;
+    return [x1, y1, x2, y2, x3, y3, Math.hypot(x3 - K[2][0], y3 - K[2][1]) - r[2]];
+  };
+  const roots: number[][] = [];
+  for (const side of [1, -1]) {
+    let before = place(0, side);
+    let aBefore = 0;
+    for (let m = 1; m <= GRID; m++) {
+      const a = (2 * Math.PI * m) / GRID;
+      const now = place(a, side);
+      if (before !== null && now !== null && Math.sign(before[6]) !== Math.sign(now[6])) {
+        let lo = aBefore;
+        let hi = a;
+        let fLo = before[6];
+        for (let it = 0; it < 200 && hi - lo > 1e-15; it++) {
+          const mid = 0.5 * (lo + hi);
+          const f = place(mid, side);
+          if (f === null) break;
+          if (Math.sign(f[6]) === Math.sign(fLo)) {
+            lo = mid;
+            fLo = f[6];
+          } else {
+            hi = mid;
+          }
+        }
+        const f = place(0.5 * (lo + hi), side);
+        if (f !== null && Math.abs(f[6]) < 1e-7) roots.push(f.slice(0, 6));
+      }
+      before = now;
+      aBefore = a;
+    }
+  }
+  return roots;
+}
+
+interface Design {
+  readonly plan: Plan;
+  readonly slot: (id: string) => number;
+  /** The triad's joints at driver rotation t (from the reference), NaN where the branch has ended. */
+  readonly truth: Float64Array[];
+  readonly fullTurn: boolean;
+  readonly scaleMm: number;
+}
+
+/** The seeded design, and its triad's branch from the reference pose at each sample t_k = 2πk / SAMPLES. */
+function design(c: Case, random: () => number): Design | null {
+  const at: Record<string, { x: number; y: number }> = {};
+  for (const [id, p] of Object.entries(c.defaults)) at[id] = { x: p.x + (random() - 0.5) * 60, y: p.y + (random() - 0.5) * 60 };
+  const compiled = compile(c.build(at as never));
+  if (!compiled.ok) return null;
+  const plan = compiled.plan;
+  const slot = (id: string) => 2 * (plan.slotIndex.get(id) ?? -1);
+  const ref = plan.reference;
+  const pt = (id: string): Pt => [ref[slot(id)], ref[slot(id) + 1]];
+  const radii = c.joints.map((j, m) => Math.hypot(pt(j)[0] - pt(c.centres[m])[0], pt(j)[1] - pt(c.centres[m])[1]));
+  const shape = c.joints.map(pt);
+  const o = pt(c.pivot);
+  const centresAt = (t: number): Pt[] => c.centres.map((id) => {
+    const p = pt(id);
+    if (!c.driven.includes(id)) return p;
+    const x = p[0] - o[0];
+    const y = p[1] - o[1];
+    return [o[0] + Math.cos(t) * x - Math.sin(t) * y, o[1] + Math.sin(t) * x + Math.cos(t) * y];
+  });
+  let scaleMm = 0;
+  for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
+  let last: number[] | null = c.joints.flatMap(pt);
+  const truth: Float64Array[] = [];
+  for (let k = 1; k <= SAMPLES; k++) {
+    for (let q = 1; q <= SUB_STEPS && last !== null; q++) {
+      const t = (2 * Math.PI * (k - 1 + q / SUB_STEPS)) / SAMPLES;
+      let nearest: number[] | null = null;
+      let gap = Infinity;
+      for (const root of triadRoots(centresAt(t), radii, shape)) {
+        let d = 0;
+        for (let i = 0; i < 6; i += 2) d = Math.max(d, Math.hypot(root[i] - last[i], root[i + 1] - last[i + 1]));
+        if (d < gap) {
+          gap = d;
+          nearest = root;
+        }
+      }
+      // A continuous branch moves little in an eighth of a 2° step; a larger gap is another assembly.
+      last = nearest !== null && gap < 0.05 * scaleMm ? nearest : null;
+    }
+    truth.push(last === null ? new Float64Array(6).fill(NaN) : Float64Array.from(last));
+  }
+  return { plan, slot, truth, fullTurn: last !== null, scaleMm };
+}
+
+function designs(c: Case, seed: number): Design[] {
+  const random = lcg(seed);
+  const out: Design[] = [];
+  for (let i = 0; i < DESIGNS; i++) {
+    const d = design(c, random);
+    if (d !== null) out.push(d);
+  }
+  return out;
+}
+
+describe.each(CASES)('$name triad against direct circle–circle geometry', (c) => {
+  const all = designs(c, c.name.length * 7919);
+
+  it('follows the reference branch sample by sample, and assembles over the turn exactly where the branch does', () => {
+    let compared = 0;
+    let full = 0;
+    for (const d of all) {
+      const { plan, slot, truth } = d;
+      const pose = Float64Array.from(plan.reference);
+      let assembledAll = true;
+      for (let k = 1; k <= SAMPLES; k++) {
+        const ok = run(plan, plan.driverReferenceValue + (2 * Math.PI * k) / SAMPLES, pose);
+        if (!ok) {
+          assembledAll = false;
+          pose.set(plan.reference);
+        }
+        if (Number.isNaN(truth[k - 1][0])) continue;
+        // Until the branch ends, every sample assembles on it.
+        expect(ok).toBe(true);
+        c.joints.forEach((j, m) => {
+          // Source: theorem — the triad's assembly is a root of the closure; the branch is the continuous one.
+          expect(Math.hypot(pose[slot(j)] - truth[k - 1][2 * m], pose[slot(j) + 1] - truth[k - 1][2 * m + 1])).toBeLessThan(1e-7 * d.scaleMm);
+        });
+        // Source: theorem — a solved pose meets every constraint.
+        expect(closureResidualMm(plan, pose)).toBeLessThan(1e-9 * d.scaleMm);
+        compared++;
+      }
+      expect(assembledAll).toBe(d.fullTurn);
+      if (d.fullTurn) full++;
+    }
+    expect(compared).toBeGreaterThan(SAMPLES);
+    // The seeds hold designs of both kinds, so both directions of the last check are exercised.
+    expect(full).toBeGreaterThan(0);
+    expect(full).toBeLessThan(all.length);
+  });
+
+  it('gives exact rates: the derivative of the branch by the driver', () => {
+    let compared = 0;
+    for (const d of all.filter((x) => x.fullTurn).slice(0, 3)) {
+      const { plan, slot, truth } = d;
+      const pose = Float64Array.from(plan.reference);
+      const rates = new Float64Array(pose.length);
+      const h = (2 * Math.PI) / SAMPLES;
+      for (let k = 2; k < SAMPLES; k += 7) {
+        // Solve along the branch up to sample k, then take the rates there.
+        pose.set(plan.reference);
+        for (let j = 1; j <= k; j++) expect(run(plan, plan.driverReferenceValue + j * h, pose)).toBe(true);
+        expect(runWithRates(plan, plan.driverReferenceValue + k * h, pose, rates)).toBe(true);
+        c.joints.forEach((j, m) => {
+          for (const axis of [0, 1]) {
+            // Source: theorem — a central difference of the branch over the samples either side, error O(h²).
+            const central = (truth[k][2 * m + axis] - truth[k - 2][2 * m + axis]) / (2 * h);
+            expect(Math.abs(rates[slot(j) + axis] - central)).toBeLessThan(2e-3 * d.scaleMm);
+          }
+        });
+        compared++;
+      }
+    }
+    expect(compared).toBeGreaterThan(0);
+  });
+
+  it('draws the same coupler curve through the family encoding, in any order of driver values', () => {
+    const d = all.find((x) => x.fullTurn);
+    expect(d).toBeDefined();
+    if (d === undefined) return;
+    const family = c.name === 'Stephenson II' ? 'stephenson-ii' : 'stephenson-iii';
+    const encoding = createPoseFamily(family, {}, { cx: 0, cy: 0, size: 200 });
+    encoding.load(Float64Array.from(d.plan.reference), 0, new Float64Array(16));
+    const out = new Float64Array(8);
+    const p = d.slot('P');
+    const ref = d.plan.reference;
+    // Forward, back and jumping: the solve's start comes from the poses before.
+    const order = [...Array.from({ length: SAMPLES }, (_, k) => k + 1), ...Array.from({ length: 40 }, (_, k) => SAMPLES - 3 * k), 7, 90, 8, 91, 92, 30];
+    for (const k of order) {
+      expect(encoding.curve.at((2 * Math.PI * k) / SAMPLES, k % 2 === 0 ? 0 : 1, out)).toBe(1);
+      // P rides the link of the triad: place it from the independent X1, X2 by the reference shape.
+      const x = d.truth[k - 1];
+      const j1 = d.slot(c.joints[0]);
+      const j2 = d.slot(c.joints[1]);
+      const bx = ref[j2] - ref[j1];
+      const by = ref[j2 + 1] - ref[j1 + 1];
+      const qx = ref[p] - ref[j1];
+      const qy = ref[p + 1] - ref[j1 + 1];
+      const cs = ((x[2] - x[0]) * bx + (x[3] - x[1]) * by) / (bx * bx + by * by);
+      const sn = ((x[3] - x[1]) * bx - (x[2] - x[0]) * by) / (bx * bx + by * by);
+      // Source: theorem — a point of a rigid link follows the link.
+      expect(Math.hypot(out[0] - (x[0] + cs * qx - sn * qy), out[1] - (x[1] + sn * qx + cs * qy))).toBeLessThan(1e-7 * d.scaleMm);
+    }
+  });
+});
