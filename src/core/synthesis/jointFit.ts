@@ -5,7 +5,8 @@
  * matrix, solved through its 4 × 4 Schur complement: O(n) work per step. Alternating
  * "refine the tᵢ, refit the placement" converges linearly; this converges
  * quadratically on a path the mechanism can trace. Steps are capped and halved until
- * the sum falls; each tᵢ stays between its neighbours.
+ * the sum falls; each tᵢ stays between its neighbours. A trial's evaluation of the
+ * curve keeps the rates too, so an accepted step's normal equations need no second one.
  */
 import type { CurveEvaluator } from './curve';
 
@@ -39,10 +40,16 @@ export interface JointFit {
 }
 
 export function createJointFit(n: number): JointFit {
+  /** The curve at the driver values in force: point and rate, per target point. */
   const px = new Float64Array(n);
   const py = new Float64Array(n);
   const dpx = new Float64Array(n);
   const dpy = new Float64Array(n);
+  /** The same at the trial values; swapped with the above when a trial is accepted. */
+  const tx = new Float64Array(n);
+  const ty = new Float64Array(n);
+  const tdx = new Float64Array(n);
+  const tdy = new Float64Array(n);
   const dt = new Float64Array(n);
   const dInv = new Float64Array(n);
   const c = new Float64Array(4 * n);
@@ -52,15 +59,34 @@ export function createJointFit(n: number): JointFit {
   const dTheta = new Float64Array(4);
   const trialPlacement = new Float64Array(4);
   const buf = new Float64Array(8);
-  const gx = new Float64Array(4);
-  const gy = new Float64Array(4);
-  gx[2] = 1;
-  gy[3] = 1;
+  /** Which of the two sets of arrays holds the values in force (0: px…, 1: tx…). */
+  let current = 0;
 
-  function sumSquares(curve: CurveEvaluator, targets: Float64Array, weights: Float64Array | undefined, ts: Float64Array, to: number, p: Float64Array): number {
+  /**
+   * Σ wᵢ |S P(tᵢ) + T − Qᵢ|² at driver values ts[to …], keeping each point and rate in
+   * the set `into` (their rates serve the next step's normal equations: positions are
+   * those of order 0 either way, so one evaluation serves both).
+   */
+  function sumSquares(
+    curve: CurveEvaluator,
+    targets: Float64Array,
+    weights: Float64Array | undefined,
+    ts: Float64Array,
+    to: number,
+    p: Float64Array,
+    into: number,
+  ): number {
+    const ox = into === 0 ? px : tx;
+    const oy = into === 0 ? py : ty;
+    const odx = into === 0 ? dpx : tdx;
+    const ody = into === 0 ? dpy : tdy;
     let sum = 0;
     for (let i = 0; i < n; i++) {
-      curve.at(ts[to + i], 0, buf);
+      curve.at(ts[to + i], 1, buf);
+      ox[i] = buf[0];
+      oy[i] = buf[1];
+      odx[i] = buf[2];
+      ody[i] = buf[3];
       const x = p[A] * buf[0] - p[B] * buf[1] + p[TX] - targets[2 * i];
       const y = p[B] * buf[0] + p[A] * buf[1] + p[TY] - targets[2 * i + 1];
       sum += (weights === undefined ? 1 : weights[i]) * (x * x + y * y);
@@ -98,41 +124,91 @@ export function createJointFit(n: number): JointFit {
   return {
     refine(curve, targets, weights, t, o, placement, limits) {
       const maxStep = limits[2];
-      let f = sumSquares(curve, targets, weights, t, o, placement);
+      current = 0;
+      let f = sumSquares(curve, targets, weights, t, o, placement, current);
       for (let it = 0; it < JOINT_FIT_ITERATIONS; it++) {
         const a = placement[A];
         const b = placement[B];
-        m.fill(0);
+        const ox = current === 0 ? px : tx;
+        const oy = current === 0 ? py : ty;
+        const odx = current === 0 ? dpx : tdx;
+        const ody = current === 0 ? dpy : tdy;
+        // E = Σ w Gᵀ G and −g_θ = −Σ w Gᵀ r, minus the Schur terms, G = [[px, −py, 1, 0],
+        // [py, px, 0, 1]] (columns ∂r/∂(a, b, tx, ty)). Each entry is written out in the
+        // general form's order of operations (so the sums are those of the 4 × 4 loop, to
+        // the bit), the lower triangle mirrored from the upper.
+        let m00 = 0;
+        let m01 = 0;
+        let m02 = 0;
+        let m03 = 0;
+        let m11 = 0;
+        let m12 = 0;
+        let m13 = 0;
+        let m22 = 0;
+        let m23 = 0;
+        let m33 = 0;
+        let r0 = 0;
+        let r1 = 0;
+        let r2 = 0;
+        let r3 = 0;
         for (let i = 0; i < n; i++) {
-          curve.at(t[o + i], 1, buf);
-          px[i] = buf[0];
-          py[i] = buf[1];
-          dpx[i] = buf[2];
-          dpy[i] = buf[3];
+          const x = ox[i];
+          const y = oy[i];
+          const nx = -y;
           const w = weights === undefined ? 1 : weights[i];
-          const rx = a * px[i] - b * py[i] + placement[TX] - targets[2 * i];
-          const ry = b * px[i] + a * py[i] + placement[TY] - targets[2 * i + 1];
-          const jx = a * dpx[i] - b * dpy[i];
-          const jy = b * dpx[i] + a * dpy[i];
-          // G = [[px, −py, 1, 0], [py, px, 0, 1]]: columns ∂r/∂(a, b, tx, ty).
-          gx[0] = px[i];
-          gy[0] = py[i];
-          gx[1] = -py[i];
-          gy[1] = px[i];
+          const rx = a * x - b * y + placement[TX] - targets[2 * i];
+          const ry = b * x + a * y + placement[TY] - targets[2 * i + 1];
+          const jx = a * odx[i] - b * ody[i];
+          const jy = b * odx[i] + a * ody[i];
           const d = w * (jx * jx + jy * jy);
-          dInv[i] = d > 0 ? 1 / d : 0;
+          const di = d > 0 ? 1 / d : 0;
+          dInv[i] = di;
+          const c0 = w * (jx * x + jy * y);
+          const c1 = w * (jx * nx + jy * x);
+          const c2 = w * jx;
+          const c3 = w * jy;
           const ci = 4 * i;
-          c[ci] = w * (jx * gx[0] + jy * gy[0]);
-          c[ci + 1] = w * (jx * gx[1] + jy * gy[1]);
-          c[ci + 2] = w * jx;
-          c[ci + 3] = w * jy;
-          gt[i] = w * (jx * rx + jy * ry);
-          // E = Σ w Gᵀ G and −g_θ = −Σ w Gᵀ r, then minus the Schur terms.
-          for (let r = 0; r < 4; r++) {
-            for (let k = 0; k < 4; k++) m[5 * r + k] += w * (gx[r] * gx[k] + gy[r] * gy[k]) - c[ci + r] * c[ci + k] * dInv[i];
-            m[5 * r + 4] += -w * (gx[r] * rx + gy[r] * ry) + c[ci + r] * gt[i] * dInv[i];
-          }
+          c[ci] = c0;
+          c[ci + 1] = c1;
+          c[ci + 2] = c2;
+          c[ci + 3] = c3;
+          const g = w * (jx * rx + jy * ry);
+          gt[i] = g;
+          m00 += w * (x * x + y * y) - c0 * c0 * di;
+          m01 += w * (x * nx + y * x) - c0 * c1 * di;
+          m02 += w * (x * 1 + y * 0) - c0 * c2 * di;
+          m03 += w * (x * 0 + y * 1) - c0 * c3 * di;
+          m11 += w * (nx * nx + x * x) - c1 * c1 * di;
+          m12 += w * (nx * 1 + x * 0) - c1 * c2 * di;
+          m13 += w * (nx * 0 + x * 1) - c1 * c3 * di;
+          m22 += w * (1 * 1 + 0 * 0) - c2 * c2 * di;
+          m23 += w * (1 * 0 + 0 * 1) - c2 * c3 * di;
+          m33 += w * (0 * 0 + 1 * 1) - c3 * c3 * di;
+          r0 += -w * (x * rx + y * ry) + c0 * g * di;
+          r1 += -w * (nx * rx + x * ry) + c1 * g * di;
+          r2 += -w * (1 * rx + 0 * ry) + c2 * g * di;
+          r3 += -w * (0 * rx + 1 * ry) + c3 * g * di;
         }
+        m[0] = m00;
+        m[1] = m01;
+        m[2] = m02;
+        m[3] = m03;
+        m[4] = r0;
+        m[5] = m01;
+        m[6] = m11;
+        m[7] = m12;
+        m[8] = m13;
+        m[9] = r1;
+        m[10] = m02;
+        m[11] = m12;
+        m[12] = m22;
+        m[13] = m23;
+        m[14] = r2;
+        m[15] = m03;
+        m[16] = m13;
+        m[17] = m23;
+        m[18] = m33;
+        m[19] = r3;
         if (!solve4()) break;
         for (let i = 0; i < n; i++) {
           const ci = 4 * i;
@@ -152,7 +228,7 @@ export function createJointFit(n: number): JointFit {
             trial[i] = v;
           }
           for (let k = 0; k < 4; k++) trialPlacement[k] = placement[k] + scale * dTheta[k];
-          fNew = sumSquares(curve, targets, weights, trial, 0, trialPlacement);
+          fNew = sumSquares(curve, targets, weights, trial, 0, trialPlacement, 1 - current);
           if (fNew < f) {
             accepted = true;
             break;
@@ -160,6 +236,7 @@ export function createJointFit(n: number): JointFit {
           scale *= 0.5;
         }
         if (!accepted) break;
+        current = 1 - current;
         for (let i = 0; i < n; i++) t[o + i] = trial[i];
         for (let k = 0; k < 4; k++) placement[k] = trialPlacement[k];
         const gain = f - fNew;

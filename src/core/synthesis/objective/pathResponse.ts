@@ -238,8 +238,11 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     for (let j = 1; j <= sampleCount; j++) {
       const a = j - 1;
       const b = j % sampleCount;
-      const seg = valid[a] === 1 && valid[b] === 1 ? Math.hypot(samples[2 * b] - samples[2 * a], samples[2 * b + 1] - samples[2 * a + 1]) : 0;
-      arc[j] = arc[j - 1] + seg;
+      // Math.sqrt, not Math.hypot: hypot allocates its answer in V8, and the sides here are
+      // mm, far from overflow.
+      const dx = samples[2 * b] - samples[2 * a];
+      const dy = samples[2 * b + 1] - samples[2 * a + 1];
+      arc[j] = arc[j - 1] + (valid[a] === 1 && valid[b] === 1 ? Math.sqrt(dx * dx + dy * dy) : 0);
     }
     const total = arc[sampleCount];
     const step = TAU / sampleCount;
@@ -250,9 +253,17 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       for (let i = 0; i < n; i++) {
         let share = offset + targetArc[i];
         if (share >= 1) share -= 1;
-        // targetArc increases, so j only moves forward, once around the loop at most.
+        // targetArc increases, so j only moves forward, once around the loop at most: the
+        // first j from here with arc[j + 1] past the share (arc never decreases, and once
+        // NaN stays NaN), found by bisection.
         if (i === 0 || share < offset) j = 0;
-        while (j < sampleCount - 1 && arc[j + 1] <= share * total) j++;
+        const at = share * total;
+        let hi = sampleCount - 1;
+        while (j < hi) {
+          const mid = (j + hi) >> 1;
+          if (arc[mid + 1] <= at) j = mid + 1;
+          else hi = mid;
+        }
         points[2 * i] = samples[2 * j];
         points[2 * i + 1] = samples[2 * j + 1];
         matched[i] = j;
