@@ -1,20 +1,27 @@
 /**
  * The leg workspace with its own store: what the page mounts to open it. The page hears
- * of each change of the set-up or the results (to keep them in the project) through
- * `onChange`. Closing while a search runs asks first; closing stops it.
+ * of each change of the set-up, the results or the running search (to keep them in the
+ * project) through `onChange`. A search the project holds as running (a reload
+ * interrupted it) resumes on opening. Closing while a search runs asks first; closing
+ * stops it.
  */
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { browserEnvironment } from '../../engine/browser';
-import { CloseWhileRunningLeg } from './search/CloseWhileRunningLeg';
+import { CloseWhileRunning } from '../search/CloseWhileRunning';
+import { ResumeNotice } from '../search/ResumeNotice';
+import { useWorkspaceSearch } from '../search/useWorkspaceSearch';
+import { useWorkspaceStore } from '../search/useWorkspaceStore';
+import { legSearchCheckpoints, newLegRunId } from './search/checkpoints';
 import { LegSearchController } from './search/controller';
 import type { LegState } from './state';
 import { LegStoreContext, createLegStore } from './store';
 import { LegWorkspace } from './LegWorkspace';
 
-let runCounter = 0;
-function newLegRunId(): string {
-  return `leg-${Date.now().toString(36)}-${(runCounter++).toString(36)}`;
-}
+/** What closing the workspace while a search runs does. */
+const LEG_CLOSE_WORDS = 'A search is running. Closing the walking-leg workspace stops it; the designs it has found so far are kept in the project.';
+
+/** Every change of the leg state is one the project keeps. */
+const sameState = (a: LegState, b: LegState) => a === b;
 
 export function LegEntry({ initial, onClose, onChange }: { initial: LegState; onClose?: () => void; onChange?: (state: LegState) => void }) {
   const [store] = useState(() => createLegStore(initial));
@@ -22,24 +29,17 @@ export function LegEntry({ initial, onClose, onChange }: { initial: LegState; on
     env: browserEnvironment(),
     wallNow: () => Date.now(),
     newRunId: newLegRunId,
+    checkpoints: legSearchCheckpoints(),
+    onStarted: (running) => store.dispatch({ type: 'searchStarted', running }),
     onFinished: (run) => store.dispatch({ type: 'searchFinished', run }),
+    onEnded: () => store.dispatch({ type: 'searchEnded' }),
   }));
-  const [asking, setAsking] = useState(false);
-  useEffect(() => {
-    if (onChange === undefined) return undefined;
-    let kept = store.getState();
-    return store.subscribe(() => {
-      const now = store.getState();
-      if (now === kept) return;
-      kept = now;
-      onChange(now);
-    });
-  }, [store, onChange]);
-  useEffect(() => () => controller.stop(), [controller]);
-  const close = onClose === undefined ? undefined : () => (controller.busy ? setAsking(true) : onClose());
+  useWorkspaceStore(store, onChange, sameState);
+  const { asking, close, keepOpen } = useWorkspaceSearch(controller, () => store.getState().searchRunning, onClose);
   return (
     <LegStoreContext.Provider value={store}>
-      {asking && onClose !== undefined && <CloseWhileRunningLeg controller={controller} onClose={onClose} onCancel={() => setAsking(false)} />}
+      <ResumeNotice controller={controller} headingId="legws-search-title" testId="leg-search-resume-notice" />
+      {asking && onClose !== undefined && <CloseWhileRunning controller={controller} onClose={onClose} onCancel={keepOpen} words={LEG_CLOSE_WORDS} testId="leg-close-while-running" />}
       <LegWorkspace controller={controller} onClose={close} />
     </LegStoreContext.Provider>
   );

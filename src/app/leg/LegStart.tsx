@@ -9,8 +9,8 @@ export function LegStart({ saved, onOpen }: { saved: StoredLeg | undefined; onOp
       {saved !== undefined && <button type="button" onClick={() => onOpen(saved)}>{`Walking leg: ${saved.setup.name}`}</button>}
       <button
         type="button"
-        title={saved === undefined ? undefined : 'Opens the demo; a change to it replaces the walking-leg set-up this project keeps'}
-        onClick={() => onOpen(saved?.results === undefined ? { setup: demoLegSetup() } : { setup: demoLegSetup(), results: saved.results })}
+        title={saved === undefined ? undefined : 'Opens the demo; a change to it replaces the walking-leg set-up this project keeps (its runs, and a search a reload interrupted, go on with it)'}
+        onClick={() => onOpen({ setup: demoLegSetup(), ...(saved?.results === undefined ? {} : { results: saved.results }), ...(saved?.searchRunning === undefined ? {} : { searchRunning: saved.searchRunning }) })}
       >
         Walking leg demo (toy walker)
       </button>

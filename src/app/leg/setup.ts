@@ -8,6 +8,7 @@
  */
 import type { PoseFamilyId } from '../../core/synthesis/poseFamilies';
 import { LEG_FAMILY_IDS } from '../../core/synthesis/legProblem';
+import type { KeepOutDraft } from '../suspension/targets/setup';
 
 /** The gait targets besides the foot trajectory, in the order the panel lists them. */
 export const LEG_TARGET_KEYS = ['strideMm', 'stepHeightMm', 'minDutyFactor', 'maxFlatnessMm', 'maxSpeedVariation', 'minTransmissionDegInStance', 'sizeBoxMm'] as const;
@@ -34,12 +35,8 @@ export interface RegionDraft {
   readonly max: string;
 }
 
-export interface KeepOutDraft {
-  readonly name: string;
-  readonly x: string;
-  readonly y: string;
-  readonly r: string;
-}
+/** A keep-out circle as typed: the same draft as the suspension set-up's. */
+export type { KeepOutDraft };
 
 export interface LegSetup {
   readonly name: string;

@@ -1,9 +1,9 @@
 /**
- * The leg workspace's state: the set-up as typed, and the latest search run with the one
- * before it. Pure updates.
+ * The leg workspace's state: the set-up as typed, the latest search run with the one
+ * before it, and the search running now. Pure updates.
  */
 import { reduceLegSetup, type LegSetup, type LegSetupAction } from './setup';
-import type { LegSearchRun } from './search/results';
+import type { LegSearchRun, RunningLegSearch } from './search/results';
 
 /** The latest run, and the one before it (kept, labelled, when a new search ends). */
 export interface LegSearchRecord {
@@ -14,9 +14,22 @@ export interface LegSearchRecord {
 export interface LegState {
   readonly setup: LegSetup;
   readonly results?: LegSearchRecord;
+  /** The search running now, until it ends: a reload resumes it from its checkpoints. */
+  readonly searchRunning?: RunningLegSearch;
 }
 
-export type LegAction = { readonly type: 'setup'; readonly action: LegSetupAction } | { readonly type: 'replaceSetup'; readonly setup: LegSetup } | { readonly type: 'searchFinished'; readonly run: LegSearchRun };
+export type LegAction =
+  | { readonly type: 'setup'; readonly action: LegSetupAction }
+  | { readonly type: 'replaceSetup'; readonly setup: LegSetup }
+  | { readonly type: 'searchStarted'; readonly running: RunningLegSearch }
+  | { readonly type: 'searchFinished'; readonly run: LegSearchRun }
+  /** A search ended with no run to keep (a resume that found nothing, or a stop before any design). */
+  | { readonly type: 'searchEnded' };
+
+function withoutRunning(state: LegState): LegState {
+  const { searchRunning: _ended, ...rest } = state;
+  return rest;
+}
 
 export function reduceLeg(state: LegState, action: LegAction): LegState {
   switch (action.type) {
@@ -26,7 +39,11 @@ export function reduceLeg(state: LegState, action: LegAction): LegState {
     }
     case 'replaceSetup':
       return { ...state, setup: action.setup };
+    case 'searchStarted':
+      return { ...state, searchRunning: action.running };
     case 'searchFinished':
-      return { ...state, results: { current: action.run, previous: state.results?.current ?? null } };
+      return { ...withoutRunning(state), results: { current: action.run, previous: state.results?.current ?? null } };
+    case 'searchEnded':
+      return state.searchRunning === undefined ? state : withoutRunning(state);
   }
 }

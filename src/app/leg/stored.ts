@@ -1,6 +1,7 @@
 /**
  * The leg workspace as the project keeps it: the set-up as typed (a field still being
- * corrected is kept too) and the latest search run with the one before it. Plain JSON;
+ * corrected is kept too), the latest search run with the one before it, and the search
+ * running now (a reload resumes it). Plain JSON;
  * its schema checks it when the project is read back, so a damaged or hand-edited record
  * is refused, not shown. A kept design is its leg file, read again by the leg file's
  * reader when it is opened.
@@ -73,13 +74,33 @@ const run = z.object({
   candidates: z.array(candidate).max(1000),
 });
 
+/**
+ * The running search: absent (a project kept before leg searches resumed, or none
+ * running), or a whole record; one that does not read is left out (the search is not
+ * resumed, nothing else is refused).
+ */
+const running = z
+  .object({
+    runId: z.string().min(1).max(200),
+    startedAt: z.string().max(100),
+    problem: z.object({ ...legProblemShape, name: z.string().max(10_000) }),
+    settings: z.object({ seed: z.number().int().min(0), budget: z.object({ evaluations: z.number().int().min(1).nullable(), seconds: z.number().positive().nullable() }) }),
+  })
+  .optional()
+  .catch(undefined);
+
 export const storedLegSchema = z.object({
   setup,
   results: z.object({ current: run, previous: run.nullable() }).optional(),
+  searchRunning: running,
 });
 
 /** What the project keeps of the workspace (the state as it is: it holds nothing else). */
 export function storedLegOf(state: LegState): StoredLeg {
-  return state.results === undefined ? { setup: state.setup } : { setup: state.setup, results: state.results };
+  return {
+    setup: state.setup,
+    ...(state.results === undefined ? {} : { results: state.results }),
+    ...(state.searchRunning === undefined ? {} : { searchRunning: state.searchRunning }),
+  };
 }
 

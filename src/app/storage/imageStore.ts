@@ -21,10 +21,12 @@ export async function getImage(db: LociDb | null, imageId: string): Promise<Blob
 
 /** The id of every image traced under the suspension side view starts so; the path editor's images are kept apart from it. */
 export const TRACE_IMAGE_PREFIX = 'suspension-trace-';
+/** The id of every image the walking-leg workspace's foot trajectory is traced over starts so. */
+export const LEG_TRACE_IMAGE_PREFIX = 'leg-trace-';
 
-const isTraceImage = (key: string) => key.startsWith(TRACE_IMAGE_PREFIX);
+const isTraceImage = (key: string) => key.startsWith(TRACE_IMAGE_PREFIX) || key.startsWith(LEG_TRACE_IMAGE_PREFIX);
 
-/** Removes every path-editor image but `keepId` (the path editor shows one at a time; the suspension trace image is its own). */
+/** Removes every path-editor image but `keepId` (the path editor shows one at a time; each workspace's traced image is its own). */
 export async function dropImagesExcept(db: LociDb | null, keepId: string | null): Promise<void> {
   for (const key of [...sessionImages.keys()]) if (key !== keepId && !isTraceImage(key)) sessionImages.delete(key);
   if (db === null) return;

@@ -3,17 +3,22 @@
  * page hears of each change (to keep the design in the project) through `onChange`. A
  * search the project holds as running (a reload interrupted it) resumes on opening.
  */
-import { useEffect, useState } from 'react';
+import { useState } from 'react';
 import { browserEnvironment } from '../../engine/browser';
-import { browserSearchCheckpoints, newSuspensionRunId } from './search/checkpoints';
-import { CloseWhileRunning } from './search/CloseWhileRunning';
+import { newSuspensionRunId, suspensionSearchCheckpoints } from './search/checkpoints';
+import { CloseWhileRunning } from '../search/CloseWhileRunning';
+import { ResumeNotice } from '../search/ResumeNotice';
+import { useWorkspaceSearch } from '../search/useWorkspaceSearch';
+import { useWorkspaceStore } from '../search/useWorkspaceStore';
 import { SuspensionSearchController } from './search/controller';
 import { SearchControllerContext } from './search/controllerContext';
-import { ResumeNotice } from './search/ResumeNotice';
 import { demoSuspensionState, type SuspensionState } from './state';
 import { sameDesign } from './stored';
 import { SuspensionStoreContext, createSuspensionStore } from './store';
 import { SuspensionWorkspace } from './SuspensionWorkspace';
+
+/** What closing the workspace while a search runs does. */
+const SUSPENSION_CLOSE_WORDS = 'A search is running. Closing the rear-suspension workspace stops it; the designs it has found so far are kept with the design.';
 
 export function SuspensionEntry({ initial, onClose, onChange }: {
   initial?: SuspensionState;
@@ -25,34 +30,19 @@ export function SuspensionEntry({ initial, onClose, onChange }: {
     env: browserEnvironment(),
     wallNow: () => Date.now(),
     newRunId: newSuspensionRunId,
-    checkpoints: browserSearchCheckpoints(),
+    checkpoints: suspensionSearchCheckpoints(),
     onStarted: (running) => store.dispatch({ type: 'searchStarted', running }),
     onFinished: (run) => store.dispatch({ type: 'searchFinished', run }),
     onEnded: () => store.dispatch({ type: 'searchEnded' }),
   }));
-  const [asking, setAsking] = useState(false);
-  useEffect(() => {
-    if (onChange === undefined) return undefined;
-    let kept = store.getState();
-    return store.subscribe(() => {
-      const now = store.getState();
-      // Moving the travel slider or an import's message is not a change of the design.
-      if (sameDesign(kept, now)) return;
-      kept = now;
-      onChange(now);
-    });
-  }, [store, onChange]);
-  useEffect(() => {
-    const running = store.getState().searchRunning;
-    if (running !== undefined) void controller.resume(running);
-    return () => controller.stop();
-  }, [store, controller]);
-  const close = onClose === undefined ? undefined : () => (controller.busy ? setAsking(true) : onClose());
+  // Moving the travel slider or an import's message is not a change of the design.
+  useWorkspaceStore(store, onChange, sameDesign);
+  const { asking, close, keepOpen } = useWorkspaceSearch(controller, () => store.getState().searchRunning, onClose);
   return (
     <SuspensionStoreContext.Provider value={store}>
       <SearchControllerContext.Provider value={controller}>
-        <ResumeNotice controller={controller} />
-        {asking && onClose !== undefined && <CloseWhileRunning controller={controller} onClose={onClose} onCancel={() => setAsking(false)} />}
+        <ResumeNotice controller={controller} headingId="susp-search-title" testId="search-resume-notice" />
+        {asking && onClose !== undefined && <CloseWhileRunning controller={controller} onClose={onClose} onCancel={keepOpen} words={SUSPENSION_CLOSE_WORDS} testId="close-while-running" />}
         <SuspensionWorkspace onClose={close} />
       </SearchControllerContext.Provider>
     </SuspensionStoreContext.Provider>

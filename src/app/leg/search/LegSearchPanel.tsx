@@ -9,35 +9,21 @@ import { GAIT_CAUTION } from '../../../core/gait';
 import { parseLegFile, type LegDesign, type LegPhasing } from '../../../core/io/legFile';
 import { FAMILY_NAMES } from '../../../core/synthesis/problem';
 import { SetupField } from '../../suspension/targets/SetupField';
-import { figure } from '../../suspension/labels';
 import { issueLine } from '../issues';
 import type { SetupIssue } from '../readSetup';
 import { useLeg, useSetupDispatch } from '../store';
 import { LegCompareView, LegDesignView, MAX_COMPARED_LEGS } from '../views';
-import type { LegSearchController, LegSearchSession } from './controller';
+import { DropOlderRunConfirm, RunShownSelect, SearchMessage, runEndWords } from '../../search/SearchParts';
+import { SearchProgress } from '../../search/SearchProgress';
+import type { LegSearchController } from './controller';
 import type { LegCandidate, LegSearchRun } from './results';
 import { LegResultsTable } from './ResultsTable';
 import type { LegProblemInput } from '../../../core/synthesis/legProblem';
+import type { PoseFamilyId } from '../../../core/synthesis/poseFamilies';
 import type { LegSearchSettings } from '../readSetup';
 
 function runSummary(run: LegSearchRun): string {
-  const when = run.finishedAt.replace('T', ' ').replace(/\.\d+Z$/, ' UTC');
-  const why = { budget: 'its budget', time: 'its time budget', converged: 'convergence', target: 'its target', cancelled: 'Stop' }[run.stopReason];
-  return `${run.problem.families.length} famil${run.problem.families.length === 1 ? 'y' : 'ies'}, seed ${run.seed}, ${run.evaluations.toLocaleString('en-GB')} evaluations, ended by ${why} at ${when}`;
-}
-
-function Progress({ session }: { session: LegSearchSession }) {
-  if (session.status === 'idle') return null;
-  const budget = session.budgetEvaluations === null ? '' : ` of ${session.budgetEvaluations.toLocaleString('en-GB')}`;
-  const state = { running: 'Searching', stopping: 'Stopping', finished: 'Finished', failed: 'Stopped' }[session.status];
-  return (
-    <div className="legws-progress" role="status" data-testid="leg-search-progress" data-status={session.status}>
-      <p>{`${state}: ${session.evaluations.toLocaleString('en-GB')}${budget} evaluations, ${(session.elapsedMs / 1000).toFixed(1)} s`}</p>
-      {session.bestPerFamily.length > 0 && (
-        <ul>{session.bestPerFamily.map((b) => <li key={b.family}>{`${FAMILY_NAMES[b.family]}: best score ${figure(b.value)}${b.violation > 0 ? `, infeasible (violation ${figure(b.violation, 3)})` : ', feasible'}`}</li>)}</ul>
-      )}
-    </div>
-  );
+  return `${run.problem.families.length} famil${run.problem.families.length === 1 ? 'y' : 'ies'}, ${runEndWords(run)}`;
 }
 
 /** The design of a kept candidate, read again from its leg file; null with the reason when it does not read. */
@@ -99,7 +85,7 @@ export function LegSearchPanel({ controller, ready, issues, phasing }: {
 
   return (
     <section className="panel susp-panel legws-search" aria-labelledby="legws-search-title" data-testid="leg-search">
-      <h2 id="legws-search-title">Search</h2>
+      <h2 id="legws-search-title" tabIndex={-1}>Search</h2>
       <p className="caution leg-caution" role="note"><strong className="caution-label">Caution:</strong> {GAIT_CAUTION}</p>
       <div className="legws-row">
         <SetupField field="budget.evaluations" label="Budget in evaluations" value={budget.evaluations} hint="all families together; alone, the search is repeatable" onChange={(text) => dispatch({ type: 'budget', field: 'evaluations', text })} />
@@ -111,11 +97,7 @@ export function LegSearchPanel({ controller, ready, issues, phasing }: {
         <button type="button" onClick={() => controller.stop()} disabled={!running}>Stop</button>
       </div>
       {confirming && record !== undefined && record.previous !== null && (
-        <div className="susp-confirm" role="alertdialog" aria-label="Drop the older run?">
-          <p>{`A new search keeps the latest run as the previous run; the older previous run (${runSummary(record.previous)}) is dropped.`}</p>
-          <button type="button" onClick={start}>Start and drop the older run</button>
-          <button type="button" onClick={() => setConfirming(false)}>Cancel</button>
-        </div>
+        <DropOlderRunConfirm olderSummary={runSummary(record.previous)} onStart={start} onCancel={() => setConfirming(false)} />
       )}
       {issues.length > 0 && (
         <div id="legws-start-issues" className="susp-problem" data-testid="leg-start-issues">
@@ -123,23 +105,12 @@ export function LegSearchPanel({ controller, ready, issues, phasing }: {
           <ul>{issues.map((i, k) => <li key={k}>{issueLine(i)}</li>)}</ul>
         </div>
       )}
-      <Progress session={session} />
-      {session.message !== null && (
-        <p className="susp-problem" role="alert" data-testid="leg-search-message">
-          {session.message}
-          {session.messageDetail !== null && <><br /><small>{`Details: ${session.messageDetail}`}</small></>}
-        </p>
-      )}
+      <SearchProgress session={session} jobName={(job) => FAMILY_NAMES[job as PoseFamilyId]} className="legws-progress" testId="leg-search-progress" />
+      <SearchMessage session={session} testId="leg-search-message" />
       {record !== undefined && shownRun !== null && (
         <>
           <div className="legws-row">
-            <label>
-              Run shown{' '}
-              <select value={showPrevious && record.previous !== null ? 'previous' : 'latest'} onChange={(e) => setShowPrevious(e.target.value === 'previous')} disabled={record.previous === null}>
-                <option value="latest">Latest run</option>
-                {record.previous !== null && <option value="previous">Previous run</option>}
-              </select>
-            </label>
+            <RunShownSelect hasPrevious={record.previous !== null} showPrevious={showPrevious} onShowPrevious={setShowPrevious} />
           </div>
           <p className="susp-note" data-testid="leg-run-summary">{`${showPrevious && record.previous !== null ? 'Previous run' : 'Latest run'}: ${runSummary(shownRun)}.`}</p>
           {problemChanged && <p className="susp-note" data-testid="leg-results-stale">This run searched another problem than the set-up now holds: its figures and ranks are for what it ran with.</p>}

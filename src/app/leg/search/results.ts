@@ -10,7 +10,7 @@ import type { LegProblemInput } from '../../../core/synthesis/legProblem';
 import type { PoseFamilyId } from '../../../core/synthesis/poseFamilies';
 import { toLegFile, type LegFileV1 } from '../../../core/io/legFile';
 import { MAX_NAME_LENGTH } from '../../../core/io/linkageFile';
-import type { RunStopReason } from '../../../engine';
+import type { RunningSearchOf, SearchRunOf } from '../../search/controller';
 
 /** The figures the table shows of a design, from its gait figures (null where the leg has no stance). */
 export interface LegRowFigures {
@@ -42,18 +42,11 @@ export interface LegCandidate {
   readonly legFile: LegFileV1;
 }
 
-export interface LegSearchRun {
-  readonly id: string;
-  /** When it ended, ISO 8601. */
-  readonly finishedAt: string;
-  readonly problem: LegProblemInput;
-  readonly seed: number;
-  readonly budget: { readonly evaluations: number | null; readonly seconds: number | null };
-  readonly evaluations: number;
-  readonly stopReason: RunStopReason;
-  /** Ranked best first (the engine's ranking: feasibility first, then value). */
-  readonly candidates: readonly LegCandidate[];
-}
+/** A finished leg search as the project keeps it. */
+export type LegSearchRun = SearchRunOf<LegProblemInput, LegCandidate>;
+
+/** A leg search running now, as the project keeps it until the search ends (resumed after a reload). */
+export type RunningLegSearch = RunningSearchOf<LegProblemInput>;
 
 export function rowFiguresOf(g: GaitFiguresJson): LegRowFigures {
   return {

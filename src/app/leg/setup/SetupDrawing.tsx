@@ -8,7 +8,8 @@ import { useMemo, useRef, useState, type MouseEvent } from 'react';
 import { fitPlacement, placementMatrix, toTenthMm } from '../../suspension/trace/placement';
 import { useLeg, useSetupDispatch } from '../store';
 import type { LegSetup } from '../setup';
-import { imageCornersMm, mmToPixel, type TraceImage } from './traceImage';
+import { imageCornersMm, mmToPixel } from './traceImage';
+import { useLegTrace } from './traceStore';
 import { TraceControls, type CalibrationStep } from './TraceControls';
 
 const WIDTH_PX = 640;
@@ -67,9 +68,9 @@ export function SetupDrawing() {
   const dispatch = useSetupDispatch();
   const setup = useLeg((s) => s.setup);
   const [adding, setAdding] = useState(false);
-  const [image, setImage] = useState<TraceImage | null>(null);
+  const image = useLegTrace((s) => s.image);
+  const hidden = useLegTrace((s) => s.hidden);
   const [calibrating, setCalibrating] = useState<CalibrationStep>(null);
-  const [hidden, setHidden] = useState(false);
   const svgRef = useRef<SVGSVGElement | null>(null);
   const d = useMemo(() => drawnOf(setup), [setup]);
   const frame = useMemo(() => {
@@ -107,9 +108,9 @@ export function SetupDrawing() {
       <label className="legws-row">
         <input type="checkbox" checked={adding} onChange={(e) => setAdding(e.target.checked)} /> Click to add points to the foot trajectory
       </label>
-      <TraceControls image={image} onImage={setImage} calibrating={calibrating} onCalibrating={setCalibrating} hidden={hidden} onHidden={setHidden} />
+      <TraceControls calibrating={calibrating} onCalibrating={setCalibrating} />
       <svg ref={svgRef} className="legws-drawing" viewBox={`0 0 ${WIDTH_PX} ${HEIGHT_PX}`} role="img" aria-label="The foot trajectory wanted, the ground line and the keep-out circles, mm" data-testid="leg-setup-drawing" onClick={onClick} style={{ cursor: adding || calibrating !== null ? 'crosshair' : 'default' }}>
-        {image !== null && shownPlacement !== null && !hidden && (
+        {image !== null && image.url !== null && shownPlacement !== null && !hidden && (
           <image className="legws-trace-image" href={image.url} width={image.widthPx} height={image.heightPx} preserveAspectRatio="none" transform={`matrix(${placementMatrix(shownPlacement, sx(0), sy(0), frame.scale).join(' ')})`} />
         )}
         {g !== null && (

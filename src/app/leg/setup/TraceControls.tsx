@@ -1,43 +1,27 @@
 /**
  * Tracing the foot trajectory over an image: load it (PNG, JPEG or WebP, checked by its
  * first bytes), calibrate it by clicking two of its points and typing where they are in
- * mm, show or hide it. The image stays for this page only (the project keeps the points
- * traced, not the image); what went wrong is said beside the buttons.
+ * mm, show or hide it. The image and its calibration are kept with the project
+ * (traceStore.ts); what went wrong is said beside the buttons.
  */
-import { useState } from 'react';
-import { MAX_IMAGE_BYTES, imageSize } from '../../target/BackgroundControls';
-import { SIGNATURE_BYTES, TRACE_IMAGE_FORMATS, traceFileProblem } from '../../suspension/trace/imageFile';
+import { useEffect, useState } from 'react';
+import { TRACE_IMAGE_FORMATS } from '../../suspension/trace/imageFile';
 import { placementFromPairs, type PixelPoint } from '../../suspension/trace/placement';
-import type { TraceImage } from './traceImage';
+import { hideLegTrace, loadLegTraceFile, placeLegTrace, removeLegTrace, startLegTrace, useLegTrace } from './traceStore';
 
 export type CalibrationStep = { readonly marks: readonly PixelPoint[] } | null;
 
-export function TraceControls({ image, onImage, calibrating, onCalibrating, hidden, onHidden }: {
-  image: TraceImage | null;
-  onImage: (image: TraceImage | null) => void;
+export function TraceControls({ calibrating, onCalibrating }: {
   /** The calibration clicks so far, or null when not calibrating. */
   calibrating: CalibrationStep;
   onCalibrating: (step: CalibrationStep) => void;
-  hidden: boolean;
-  onHidden: (hidden: boolean) => void;
 }) {
+  useEffect(startLegTrace, []);
+  const image = useLegTrace((s) => s.image);
+  const hidden = useLegTrace((s) => s.hidden);
+  const notice = useLegTrace((s) => s.notice);
   const [note, setNote] = useState<string | null>(null);
   const [known, setKnown] = useState({ x1: '', y1: '', x2: '', y2: '' });
-  const load = async (file: File) => {
-    const head = new Uint8Array(await file.slice(0, SIGNATURE_BYTES).arrayBuffer());
-    const problem = traceFileProblem(file.size, head, MAX_IMAGE_BYTES);
-    if (problem !== null) return setNote(`Could not load ${file.name}: ${problem}.`);
-    let size: { width: number; height: number };
-    try {
-      size = await imageSize(file);
-    } catch {
-      return setNote(`Could not load ${file.name}: this browser could not decode it (a damaged or cut-short file?).`);
-    }
-    if (image !== null) URL.revokeObjectURL(image.url);
-    onImage({ url: URL.createObjectURL(file), name: file.name, widthPx: size.width, heightPx: size.height, placement: null });
-    onCalibrating(null);
-    setNote(`${file.name} is shown for this page only; calibrate it before tracing so the points are in mm.`);
-  };
   const marks = calibrating?.marks ?? [];
   const setScale = () => {
     if (image === null || marks.length < 2) return;
@@ -45,21 +29,22 @@ export function TraceControls({ image, onImage, calibrating, onCalibrating, hidd
     if (!v.every(Number.isFinite)) return setNote('Type both points\u2019 x and y in mm before setting the scale.');
     const placed = placementFromPairs(marks[0], { x: v[0], y: v[1] }, marks[1], { x: v[2], y: v[3] });
     if (!placed.ok) return setNote(`Not calibrated: ${placed.reason}.`);
-    onImage({ ...image, placement: placed.placement });
     onCalibrating(null);
-    setNote(`Calibrated: ${(1 / placed.placement.mmPerPx).toPrecision(4)} px per mm. Tick "Click to add points" and click along the foot path.`);
+    setNote(null);
+    placeLegTrace(placed.placement, `Calibrated: ${(1 / placed.placement.mmPerPx).toPrecision(4)} px per mm. Tick "Click to add points" and click along the foot path.`);
   };
+  const shown = note ?? notice;
   return (
     <div className="legws-trace" data-testid="leg-trace">
       <label>
         Trace over an image ({TRACE_IMAGE_FORMATS.join(', ')}){' '}
-        <input type="file" accept="image/png,image/jpeg,image/webp" onChange={(e) => { const f = e.target.files?.[0]; if (f !== undefined) void load(f); e.target.value = ''; }} />
+        <input type="file" accept="image/png,image/jpeg,image/webp" onChange={(e) => { const f = e.target.files?.[0]; if (f !== undefined) { setNote(null); onCalibrating(null); void loadLegTraceFile(f); } e.target.value = ''; }} />
       </label>
       {image !== null && (
         <div className="legws-row">
-          <button type="button" onClick={() => onCalibrating(calibrating === null ? { marks: [] } : null)}>{calibrating === null ? 'Calibrate: click two points of the image' : 'Cancel calibration'}</button>
-          <label><input type="checkbox" checked={hidden} onChange={(e) => onHidden(e.target.checked)} /> Hide the image</label>
-          <button type="button" onClick={() => { URL.revokeObjectURL(image.url); onImage(null); onCalibrating(null); setNote(null); }}>Remove the image</button>
+          <button type="button" onClick={() => onCalibrating(calibrating === null ? { marks: [] } : null)} disabled={image.url === null}>{calibrating === null ? 'Calibrate: click two points of the image' : 'Cancel calibration'}</button>
+          <label><input type="checkbox" checked={hidden} onChange={(e) => hideLegTrace(e.target.checked)} /> Hide the image</label>
+          <button type="button" onClick={() => { onCalibrating(null); setNote(null); void removeLegTrace(); }}>Remove the image</button>
         </div>
       )}
       {calibrating !== null && (
@@ -75,7 +60,7 @@ export function TraceControls({ image, onImage, calibrating, onCalibrating, hidd
           )}
         </div>
       )}
-      {note !== null && <p className="susp-note" role="status">{note}</p>}
+      {shown !== null && <p className="susp-note" role="status" data-testid="leg-trace-notice">{shown}</p>}
     </div>
   );
 }

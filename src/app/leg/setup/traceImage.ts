@@ -1,17 +1,16 @@
 /**
  * An image to trace the foot trajectory over (a photograph or drawing of a leg's foot
- * path): loaded for this page only, shown fitted into the drawing until two of its points
- * are given in mm, then placed by that similarity (placement.ts of the suspension trace).
- * Pure parts: the loading check and the mm ↔ image-pixel maps.
+ * path): kept with the project (traceStore.ts), shown fitted into the drawing until two
+ * of its points are given in mm, then placed by that similarity (placement.ts of the
+ * suspension trace). Pure parts: the image as shown and the mm ↔ image-pixel maps.
  */
 import type { Vec2 } from '../../../core/geometry';
+import type { KeptImageRef } from '../../suspension/trace/keptImage';
 import { pixelToBicycleMm, type ImagePlacement, type PixelPoint } from '../../suspension/trace/placement';
 
-export interface TraceImage {
-  readonly url: string;
-  readonly name: string;
-  readonly widthPx: number;
-  readonly heightPx: number;
+export interface TraceImage extends KeptImageRef {
+  /** A blob: URL of the image for this page; null when its kept bytes could not be read back (the notice says why). */
+  readonly url: string | null;
   /** Null until calibrated: shown fitted into the view, only to click on. */
   readonly placement: ImagePlacement | null;
 }

@@ -5,43 +5,20 @@
  * opening a design in the workspace, and the compare view of 2–4 ticked designs.
  */
 import { useMemo, useState, useSyncExternalStore } from 'react';
-import { SUSPENSION_CAUTION, LAYOUT_NAMES } from '../../../core/suspension';
-import { figure } from '../labels';
+import { SUSPENSION_CAUTION, LAYOUT_NAMES, type LayoutKind } from '../../../core/suspension';
 import { useSuspension, useSuspensionDispatch } from '../store';
 import { readSearchProblem } from '../targets/searchProblem';
 import { MAX_COMPARED, comparedDesigns, runLayoutBodies } from './compare';
 import { CompareView } from './CompareView';
-import type { SearchSession } from './controller';
+import { DropOlderRunConfirm, RunShownSelect, SearchMessage, runEndWords } from '../../search/SearchParts';
+import { SearchProgress } from '../../search/SearchProgress';
 import { useSearchController } from './controllerContext';
 import type { SearchRun } from './results';
 import { ResultsTable } from './ResultsTable';
 import type { TableRow } from './rows';
 
-function seconds(ms: number): string {
-  return `${(ms / 1000).toFixed(1)} s`;
-}
-
 function runSummary(run: SearchRun): string {
-  const when = run.finishedAt.replace('T', ' ').replace(/\.\d+Z$/, ' UTC');
-  const why = { budget: 'its budget', time: 'its time budget', converged: 'convergence', target: 'its target', cancelled: 'Stop' }[run.stopReason];
-  return `${run.problem.layouts.length} layouts, seed ${run.seed}, ${run.evaluations.toLocaleString('en-GB')} evaluations, ended by ${why} at ${when}`;
-}
-
-function Progress({ session }: { session: SearchSession }) {
-  if (session.status === 'idle') return null;
-  const budget = session.budgetEvaluations === null ? '' : ` of ${session.budgetEvaluations.toLocaleString('en-GB')}`;
-  return (
-    <div className="susp-search-progress" role="status" data-testid="search-progress" data-status={session.status}>
-      <p>{`${session.status === 'running' ? 'Searching' : session.status === 'stopping' ? 'Stopping' : session.status === 'finished' ? 'Finished' : 'Stopped'}: ${session.evaluations.toLocaleString('en-GB')}${budget} evaluations, ${seconds(session.elapsedMs)}`}</p>
-      {session.bestPerLayout.length > 0 && (
-        <ul>
-          {session.bestPerLayout.map((b) => (
-            <li key={b.layout}>{`${LAYOUT_NAMES[b.layout]}: best score ${figure(b.value)}${b.violation > 0 ? `, infeasible (violation ${figure(b.violation, 3)})` : ', feasible'}`}</li>
-          ))}
-        </ul>
-      )}
-    </div>
-  );
+  return `${run.problem.layouts.length} layouts, ${runEndWords(run)}`;
 }
 
 export function SearchPanel() {
@@ -116,29 +93,14 @@ export function SearchPanel() {
         {why !== null && <span id="susp-search-why" className="susp-problem" data-testid="search-not-ready">{`Not ready: ${why}`}</span>}
       </div>
       {confirming && record !== undefined && record.previous !== null && (
-        <div className="susp-confirm" role="alertdialog" aria-label="Drop the older run?">
-          <p>{`A new search keeps the latest run as the previous run; the older previous run (${runSummary(record.previous)}) is dropped.`}</p>
-          <button type="button" onClick={start}>Start and drop the older run</button>
-          <button type="button" onClick={() => setConfirming(false)}>Cancel</button>
-        </div>
+        <DropOlderRunConfirm olderSummary={runSummary(record.previous)} onStart={start} onCancel={() => setConfirming(false)} />
       )}
-      <Progress session={session} />
-      {session.message !== null && (
-        <p className="susp-problem" role="alert" data-testid="search-message">
-          {session.message}
-          {session.messageDetail !== null && <><br /><small>{`Details: ${session.messageDetail}`}</small></>}
-        </p>
-      )}
+      <SearchProgress session={session} jobName={(job) => LAYOUT_NAMES[job as LayoutKind]} className="susp-search-progress" testId="search-progress" />
+      <SearchMessage session={session} testId="search-message" />
       {record !== undefined && shownRun !== null && (
         <>
           <div className="susp-search-runs">
-            <label>
-              Run shown{' '}
-              <select value={showPrevious && record.previous !== null ? 'previous' : 'latest'} onChange={(e) => setShowPrevious(e.target.value === 'previous')} disabled={record.previous === null}>
-                <option value="latest">Latest run</option>
-                {record.previous !== null && <option value="previous">Previous run</option>}
-              </select>
-            </label>
+            <RunShownSelect hasPrevious={record.previous !== null} showPrevious={showPrevious} onShowPrevious={setShowPrevious} />
             <label>
               Gear for the per-gear columns{' '}
               <select value={cogIndex} onChange={(e) => setCogChoice(Number(e.target.value))}>

@@ -8,7 +8,7 @@
 import type { Vec2 } from '../../../core/geometry';
 import type { LayoutKind } from '../../../core/suspension';
 import type { PlainSuspensionReport, SuspensionCandidateReport, SuspensionProblemInput } from '../../../core/synthesis';
-import type { RunStopReason } from '../../../engine';
+import type { RunningSearchOf, SearchRunOf } from '../../search/controller';
 
 /** The figures of a design the table shows, per cog where a figure depends on the gear. */
 export interface CandidateFigures {
@@ -42,32 +42,11 @@ export interface SearchCandidate {
   readonly failure: string | null;
 }
 
-export interface SearchRun {
-  readonly id: string;
-  /** When it ended, ISO 8601. */
-  readonly finishedAt: string;
-  readonly problem: SuspensionProblemInput;
-  readonly seed: number;
-  /** The budget asked: evaluations and seconds of the whole search (null: not limited by it). */
-  readonly budget: { readonly evaluations: number | null; readonly seconds: number | null };
-  /** Evaluations made. */
-  readonly evaluations: number;
-  readonly stopReason: RunStopReason;
-  /** Ranked best first (the engine's ranking: feasibility first, then value). */
-  readonly candidates: readonly SearchCandidate[];
-}
+/** A finished suspension search as the project keeps it. */
+export type SearchRun = SearchRunOf<SuspensionProblemInput, SearchCandidate>;
 
-/**
- * A search running now, as the project keeps it until the search ends: what a reload
- * needs to resume it from its checkpoints (kept under `runId`) and to keep its designs.
- */
-export interface RunningSearch {
-  readonly runId: string;
-  /** When it started, ISO 8601. */
-  readonly startedAt: string;
-  readonly problem: SuspensionProblemInput;
-  readonly settings: { readonly seed: number; readonly budget: { readonly evaluations: number | null; readonly seconds: number | null } };
-}
+/** A search running now, as the project keeps it until the search ends (resumed after a reload). */
+export type RunningSearch = RunningSearchOf<SuspensionProblemInput>;
 
 /** The latest run, and the one before it (kept, labelled, when a new search ends). */
 export interface SearchRecord {

@@ -4,16 +4,14 @@
  * the seed and the budget. An evaluation budget alone makes the run deterministic: the
  * same problem, seed and budget give the same designs.
  */
-import { PROBLEM_FILE_FORMAT, PROBLEM_FILE_VERSION } from '../../../core/io/problem';
 import { createSuspensionProblem, type SuspensionProblemInput, type SuspensionProblemIssue } from '../../../core/synthesis';
 import { defineRun, type RunInput } from '../../../engine';
 
+import type { SearchSettings } from '../../search/controller';
+import { jobsRunInput } from '../../search/runInput';
+
 /** The seed and budget of a suspension search (the set-up's SearchRunSettings). */
-export interface SearchSettings {
-  readonly seed: number;
-  /** Evaluations and seconds of the whole search (all layouts); null: not limited by it; at least one is given. */
-  readonly budget: { readonly evaluations: number | null; readonly seconds: number | null };
-}
+export type { SearchSettings } from '../../search/controller';
 
 /** Best distinct designs of each layout kept in the results. */
 export const RESULTS_PER_LAYOUT = 5;
@@ -23,31 +21,8 @@ export const RESULTS_PER_LAYOUT = 5;
  */
 export const SEARCH_CHECKPOINT_EVERY_MS = 1_000;
 
-/** The problem file's JSON for a problem input (what a worker reads). */
-export function suspensionProblemFile(input: SuspensionProblemInput): Record<string, unknown> {
-  return { format: PROBLEM_FILE_FORMAT, version: PROBLEM_FILE_VERSION, ...JSON.parse(JSON.stringify(input)) as object };
-}
-
-/** Islands per layout: enough for every worker to have one, at least one each. */
-function islandsPerLayout(layouts: number, workers: number): number {
-  return Math.max(1, Math.ceil(workers / Math.max(1, layouts)));
-}
-
 export function suspensionRunInput(input: SuspensionProblemInput, settings: SearchSettings, workers: number): RunInput {
-  const problem = suspensionProblemFile(input);
-  const islands = islandsPerLayout(input.layouts.length, workers);
-  return {
-    jobs: input.layouts.map((layout) => ({
-      id: layout,
-      objective: { kind: 'synthesis', problem, family: layout as never },
-      seed: settings.seed,
-      islands,
-      optimizer: { kind: 'hybrid' },
-    })),
-    budget: { evaluations: settings.budget.evaluations, seconds: settings.budget.seconds },
-    deterministic: settings.budget.seconds === null,
-    checkpointEveryMs: SEARCH_CHECKPOINT_EVERY_MS,
-  };
+  return jobsRunInput(input, input.layouts, settings, workers, SEARCH_CHECKPOINT_EVERY_MS);
 }
 
 /** The engine's fields, as the page names them. */

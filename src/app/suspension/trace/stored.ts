@@ -20,14 +20,25 @@ export interface StoredTrace {
 }
 
 const finite = z.number().refine(Number.isFinite, 'expected a finite number');
+/** Which image (its id in the images store, name and size): the same in every workspace's trace record. */
+export const keptImageSchema = z.object({ imageId: z.string().max(200), name: z.string().max(1000), widthPx: z.number().int().positive(), heightPx: z.number().int().positive() });
+/** Where the image lies in the workspace's mm; null until calibrated. */
+export const placementSchema = z.object({ originXMm: finite, originYMm: finite, mmPerPx: z.number().positive().refine(Number.isFinite, 'expected a finite number'), rotationRad: finite }).nullable();
+
 const schema = z.object({
   format: z.literal(TRACE_FORMAT),
   version: z.literal(TRACE_VERSION),
-  image: z.object({ imageId: z.string().max(200), name: z.string().max(1000), widthPx: z.number().int().positive(), heightPx: z.number().int().positive() }),
-  placement: z.object({ originXMm: finite, originYMm: finite, mmPerPx: z.number().positive().refine(Number.isFinite, 'expected a finite number'), rotationRad: finite }).nullable(),
+  image: keptImageSchema,
+  placement: placementSchema,
   opacity: z.number().min(0).max(1),
   hidden: z.boolean(),
 });
+
+/** The first thing wrong with a record that did not read, at its field. */
+export function firstIssue(error: z.ZodError): string {
+  const first = error.issues[0];
+  return `${first.path.length > 0 ? first.path.join('.') : 'the record'}: ${first.message}`;
+}
 
 export function storedTraceOf(state: TraceState): StoredTrace | null {
   if (state.image === null) return null;
@@ -36,7 +47,5 @@ export function storedTraceOf(state: TraceState): StoredTrace | null {
 
 export function readStoredTrace(value: unknown): { readonly ok: true; readonly trace: StoredTrace } | { readonly ok: false; readonly reason: string } {
   const parsed = schema.safeParse(value);
-  if (parsed.success) return { ok: true, trace: parsed.data };
-  const first = parsed.error.issues[0];
-  return { ok: false, reason: `${first.path.length > 0 ? first.path.join('.') : 'the record'}: ${first.message}` };
+  return parsed.success ? { ok: true, trace: parsed.data } : { ok: false, reason: firstIssue(parsed.error) };
 }

@@ -9,7 +9,6 @@ import {
   TRACE_IMAGE_PREFIX,
   deleteImage,
   deleteTraceRecord,
-  getImage,
   loadTraceRecord,
   openLociDb,
   putImage,
@@ -18,6 +17,7 @@ import {
 } from '../../storage';
 import { MAX_IMAGE_BYTES, imageSize } from '../../target/BackgroundControls';
 import { SIGNATURE_BYTES, imageFormatOf, traceFileProblem } from './imageFile';
+import { errorMessage, keepRecordChanges, readKeptImage } from './keptImage';
 import { readStoredTrace, storedTraceOf, type StoredTrace } from './stored';
 import { INITIAL_TRACE, reduceTrace, type TraceAction, type TraceState } from './traceState';
 
@@ -36,7 +36,7 @@ function db(): Promise<LociDb | null> {
   return database;
 }
 
-const message = (error: unknown) => (error instanceof Error ? error.message : String(error));
+const message = errorMessage;
 const error = (text: string): TraceAction => ({ type: 'notice', notice: { kind: 'error', text } });
 
 function revokeShown(): void {
@@ -113,37 +113,18 @@ async function restore(): Promise<void> {
     return;
   }
   const t = read.trace;
-  const restored = (url: string | null, problem: string | null) =>
-    store.dispatch({ type: 'restored', image: t.image, url, placement: t.placement, opacity: t.opacity, hidden: t.hidden, notice: problem === null ? null : { kind: 'error', text: problem } });
-  const blob = await getImage(kept, t.image.imageId).catch(() => null);
-  if (blob === null) return restored(null, `The image ${t.image.name} is missing from this browser's storage; its record is kept. Load the image again to trace over it.`);
-  let size: { width: number; height: number };
-  try {
-    size = await imageSize(blob);
-  } catch {
-    return restored(null, `The kept image ${t.image.name} could not be read as an image (damaged in storage?); load it again.`);
-  }
-  if (size.width !== t.image.widthPx || size.height !== t.image.heightPx) {
-    return restored(null, `The kept image ${t.image.name} is ${size.width} × ${size.height} px but its calibration was made on ${t.image.widthPx} × ${t.image.heightPx} px; load it again.`);
-  }
-  restored(URL.createObjectURL(blob), null);
+  const bytes = await readKeptImage(kept, t.image);
+  store.dispatch({ type: 'restored', image: t.image, url: bytes.ok ? bytes.url : null, placement: t.placement, opacity: t.opacity, hidden: t.hidden, notice: bytes.ok ? null : { kind: 'error', text: bytes.problem } });
 }
 
 function keepChanges(): void {
-  let saved = storedTraceOf(store.getState());
-  let writing: Promise<void> = Promise.resolve();
-  store.subscribe(() => {
-    const next = storedTraceOf(store.getState());
-    if (sameStored(next, saved)) return;
-    saved = next;
-    // Writes go one after another, so an older record never lands after a newer one.
-    writing = writing
-      .then(async () => {
-        const kept = await db();
-        if (kept === null) return;
-        if (next === null) await deleteTraceRecord(kept);
-        else await saveTraceRecord(kept, next);
-      })
-      .catch((e: unknown) => store.dispatch(error(`The traced image could not be kept in this browser's storage (${message(e)}).`)));
+  keepRecordChanges({
+    subscribe: store.subscribe,
+    record: () => storedTraceOf(store.getState()),
+    same: sameStored,
+    db,
+    save: (kept, record) => saveTraceRecord(kept, record),
+    remove: (kept) => deleteTraceRecord(kept),
+    onError: (e) => store.dispatch(error(`The traced image could not be kept in this browser's storage (${message(e)}).`)),
   });
 }
