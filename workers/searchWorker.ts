@@ -4,6 +4,7 @@
  * and as a Node worker_threads worker (its parent port through comlink's Node adapter).
  * The Node modules are imported by a computed name so a browser bundle leaves them out.
  */
+import './browserPolicy';
 import { expose } from 'comlink';
 import { createSearchWorkerApi } from './searchWorkerApi';
 

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { createDemoProject } from '../../src/app/demo/demoProject';
-import { failureWords } from '../../src/app/run/searchController';
+import { failureWords } from '../../src/app/run/failureWords';
 import { problemFileOf } from '../../src/app/run/runInput';
 import { checkEvaluations, checkSeconds } from '../../src/app/state/fields';
 import { PROJECT_VERSION, type Project, type TargetState } from '../../src/app/state/project';

@@ -208,16 +208,32 @@ function kernelSource(p: PlanInternal): string {
 }
 
 /**
+ * Set by the first refusal, or up front where the realm runs under a policy that refuses
+ * code built from strings: each refusal is a reported policy violation, and the policy
+ * does not change.
+ */
+let codeGenerationRefused = false;
+
+/** From now on this realm's plans are interpreted (run.ts), with the same results; no code is generated. */
+export function forgoKernelGeneration(): void {
+  codeGenerationRefused = true;
+}
+
+/**
  * The plan's kernel, or null where the environment forbids code generation (a
- * Content-Security-Policy without 'unsafe-eval' makes Function throw EvalError); run.ts
- * then interprets the operations.
+ * Content-Security-Policy without 'unsafe-eval' makes Function throw EvalError) or it was
+ * forgone; run.ts then interprets the operations.
  */
 export function specialise(p: PlanInternal): Kernel | null {
+  if (codeGenerationRefused) return null;
   let factory: (...bound: unknown[]) => Kernel;
   try {
     factory = new Function(...BINDINGS, kernelSource(p)) as typeof factory;
   } catch (error) {
-    if (error instanceof EvalError) return null;
+    if (error instanceof EvalError) {
+      codeGenerationRefused = true;
+      return null;
+    }
     throw error;
   }
   return factory(p, p.params, p.driverValue, solveBlock);

@@ -10,7 +10,7 @@ import type { LegProblemInput } from '../../../core/synthesis/legProblem';
 import type { PoseFamilyId } from '../../../core/synthesis/poseFamilies';
 import { toLegFile, type LegFileV1 } from '../../../core/io/legFile';
 import { MAX_NAME_LENGTH } from '../../../core/io/linkageFile';
-import type { RunningSearchOf, SearchRunOf } from '../../search/controller';
+import type { RunningSearchOf, SearchRunOf } from '../../search/types';
 
 /** The figures the table shows of a design, from its gait figures (null where the leg has no stance). */
 export interface LegRowFigures {

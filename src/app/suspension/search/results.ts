@@ -8,7 +8,7 @@
 import type { Vec2 } from '../../../core/geometry';
 import type { LayoutKind } from '../../../core/suspension';
 import type { PlainSuspensionReport, SuspensionCandidateReport, SuspensionProblemInput } from '../../../core/synthesis';
-import type { RunningSearchOf, SearchRunOf } from '../../search/controller';
+import type { RunningSearchOf, SearchRunOf } from '../../search/types';
 
 /** The figures of a design the table shows, per cog where a figure depends on the gear. */
 export interface CandidateFigures {

@@ -7,11 +7,11 @@
 import { createSuspensionProblem, type SuspensionProblemInput, type SuspensionProblemIssue } from '../../../core/synthesis';
 import { defineRun, type RunInput } from '../../../engine';
 
-import type { SearchSettings } from '../../search/controller';
+import type { SearchSettings } from '../../search/types';
 import { jobsRunInput } from '../../search/runInput';
 
 /** The seed and budget of a suspension search (the set-up's SearchRunSettings). */
-export type { SearchSettings } from '../../search/controller';
+export type { SearchSettings } from '../../search/types';
 
 /** Best distinct designs of each layout kept in the results. */
 export const RESULTS_PER_LAYOUT = 5;
