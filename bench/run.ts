@@ -11,6 +11,7 @@ import { benchAnalyzeChain } from './analyzeChain';
 import { benchFamilies } from './families';
 import { benchKernel } from './kernel';
 import { benchMatching } from './matching';
+import { benchReach, benchReachQuick } from './reach';
 import { benchScaling } from './scaling';
 import { benchSuspension } from './suspension';
 import { benchSynthesis } from './synthesis';
@@ -23,6 +24,8 @@ type Row = Record<string, number | string | null>;
 interface Bench {
   readonly name: string;
   run(): Promise<Figures | Row[]>;
+  /** Runs only when named (minutes long); `npm run bench` alone leaves it out. */
+  readonly onlyByName?: boolean;
 }
 
 const BENCHES: readonly Bench[] = [
@@ -33,6 +36,8 @@ const BENCHES: readonly Bench[] = [
   { name: 'analyze-chain', run: benchAnalyzeChain },
   { name: 'matching', run: benchMatching },
   { name: 'families', run: benchFamilies },
+  { name: 'reach', run: benchReach, onlyByName: true },
+  { name: 'reach-quick', run: benchReachQuick },
 ];
 
 type Outcome =
@@ -94,7 +99,7 @@ async function runOne(bench: Bench): Promise<Outcome> {
 }
 
 function selectBenches(names: readonly string[]): readonly Bench[] | string {
-  if (names.length === 0) return BENCHES;
+  if (names.length === 0) return BENCHES.filter((bench) => bench.onlyByName !== true);
   const known = new Map(BENCHES.map((bench) => [bench.name, bench]));
   const unknown = names.filter((name) => !known.has(name));
   if (unknown.length > 0) {

@@ -143,13 +143,16 @@ export function maxPopulation(dim: number): number {
 function readRestart(o: Fields, where: string, common: ResolvedCommon): ResolvedRestart {
   const innerInput = o.inner === undefined || o.inner === null ? { kind: 'lshade' } : readObject(o.inner, `${where}.inner`);
   readLiteral(innerInput.kind, `${where}.inner.kind`, INNER_KINDS);
-  const { dim, maxEvaluations, seed, stream, targetValue } = common;
+  const { dim, maxEvaluations, seed, stream } = common;
+  // A target given with the inner search (an island wraps a job's search, target and all) stops the scheme too.
+  const targetValue = common.targetValue ?? readOptionalNumber(innerInput.targetValue, `${where}.inner.targetValue`);
   const resolved = resolveConfig({ ...innerInput, dim, maxEvaluations, seed, stream, targetValue }, `${where}.inner`);
   if (resolved.kind === 'restart') fail(`${where}.inner.kind`, resolved.kind, 'a search that is not itself a restart scheme');
   const inner = withoutCommon(resolved);
   return {
     kind: 'restart',
     ...common,
+    targetValue,
     inner,
     populationGrowth: readNumber(o.populationGrowth ?? 2, `${where}.populationGrowth`, 1, MAX_POPULATION_GROWTH),
     stallShare: readNumber(o.stallShare ?? 0.25, `${where}.stallShare`, 0, 1, true),

@@ -136,10 +136,13 @@ export type HybridConfig = CommonConfig & {
     | ({ readonly kind: 'de-rand-1-bin' } & Partial<RandOneBinOptions>);
   readonly polish?: Partial<Omit<NelderMeadOptions, 'x0'>>;
 };
-/** A search that is not itself a restart scheme, less the fields the scheme fills in per run. */
+/**
+ * A search that is not itself a restart scheme, less the fields the scheme fills in per
+ * run; a target it carries is the scheme's when the scheme names none.
+ */
 export type InnerConfig = (LshadeConfig | RandOneBinConfig | NelderMeadConfig | HybridConfig) extends infer C
   ? C extends CommonConfig
-    ? Omit<C, keyof CommonConfig>
+    ? Omit<C, Exclude<keyof CommonConfig, 'targetValue'>>
     : never
   : never;
 

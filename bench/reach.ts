@@ -1,0 +1,206 @@
+/**
+ * Reach: does the default search find the optimum, not a neighbourhood of it? On the reach
+ * set (bench/reachCases.ts: targets sampled from known linkages, so the optimum is zero),
+ * each case runs SEEDS seeds of the search a job gets by default (the island's: the app's
+ * and the command line's `{ kind: 'hybrid' }` inside the restart scheme, restart runs of
+ * RUN_EVALUATIONS), each up to BUDGET evaluations, stopped as soon as its best feasible
+ * RMS is at most the case's reach error (REACH_SHARE × the target's size): a target-error
+ * stop, so a seed that reaches ends early. Per case: the seeds that reach, the median
+ * evaluations to reach (null when the median seed does not), the worst best RMS of the
+ * seeds that do not, as a share of the size, and the seconds spent.
+ *
+ * The seeds run in worker threads, one per core (at most two), each the search alone in
+ * its thread (an island without the engine's rounds); the figures other than seconds do
+ * not depend on the machine: the same code and seeds give the same evaluations and RMS.
+ * `reach-quick` runs REACH_QUICK_IDS with QUICK_SEEDS seeds at the same budget; `npm run bench`
+ * alone runs it and leaves `reach` out (tens of minutes on two cores).
+ */
+import { availableParallelism, loadavg } from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import { createOptimizer, type OptimizerConfig } from '../src/core/optimize';
+import { createObjective, createProblem } from '../src/core/synthesis';
+import { RUN_EVALUATIONS } from '../workers/island';
+import { REACH_QUICK_IDS, REACH_SHARE, reachCases, type ReachCase } from './reachCases';
+
+export const SEEDS = 10;
+export const BUDGET = 200_000;
+const QUICK_SEEDS = 3;
+/** The full budget: L-SHADE sizes its schedule by the budget, so a smaller one would measure another search. */
+const QUICK_BUDGET = BUDGET;
+/** Most worker threads: the machine has two cores. */
+const MAX_THREADS = 2;
+/** Ask/tell rounds of one seed at most (every round spends at least one evaluation). */
+const MAX_ROUNDS = 10_000_000;
+
+/** The optimizer a job gets when it names none: what src/cli/fit.ts and the app pass. */
+export const DEFAULT_JOB_OPTIMIZER: Record<string, unknown> = { kind: 'hybrid' };
+
+export interface SeedRun {
+  readonly caseId: string;
+  readonly seed: number;
+  readonly reached: boolean;
+  /** Evaluations spent: to the reach error when reached, else the budget (or fewer if the search stopped). */
+  readonly evaluations: number;
+  /** Best feasible RMS, mm; null when no feasible design was seen. */
+  readonly bestRmsMm: number | null;
+  readonly seconds: number;
+}
+
+/**
+ * One seed of one case: the island's optimizer (the job's optimizer inside the restart
+ * scheme, as workers/island.ts builds it), stopped at the reach error or the budget.
+ */
+export function runReachSeed(c: ReachCase, seed: number, budget: number, optimizer: Record<string, unknown> = DEFAULT_JOB_OPTIMIZER): SeedRun {
+  const made = createProblem(c.problem);
+  if (!made.ok) throw new Error(`reach ${c.id}: ${JSON.stringify(made.issues)}`);
+  const objective = createObjective(made.problem, c.family);
+  const common = { dim: objective.dim, maxEvaluations: budget, seed, stream: 0, targetValue: c.reachRmsMm };
+  const config = (optimizer.kind === 'restart' ? { ...optimizer, ...common } : { kind: 'restart', inner: optimizer, runEvaluations: RUN_EVALUATIONS, ...common }) as OptimizerConfig;
+  const built = createOptimizer(config);
+  if (!built.ok) throw new Error(`reach ${c.id}: ${built.reason}`);
+  const opt = built.optimizer;
+  const x = new Float64Array(objective.dim);
+  const out = new Float64Array(2);
+  let values = new Float64Array(0);
+  let violations = new Float64Array(0);
+  const t0 = performance.now();
+  for (let round = 0; round < MAX_ROUNDS && !opt.done(); round++) {
+    const points = opt.ask();
+    const n = points.length;
+    if (n === 0) break;
+    if (values.length !== n) {
+      values = new Float64Array(n);
+      violations = new Float64Array(n);
+    }
+    for (let k = 0; k < n; k++) {
+      objective.evaluate(objective.fromSearchBoxInto(points[k], x), out);
+      values[k] = out[0];
+      violations[k] = out[1];
+    }
+    opt.tell(points, values, violations);
+  }
+  const best = opt.best();
+  const feasible = opt.evaluations() > 0 && best.violation <= 0 && best.value < Infinity;
+  return {
+    caseId: c.id,
+    seed,
+    reached: opt.stopReason() === 'target',
+    evaluations: opt.evaluations(),
+    bestRmsMm: feasible ? best.value : null,
+    seconds: (performance.now() - t0) / 1000,
+  };
+}
+
+interface Task {
+  readonly caseId: string;
+  readonly seed: number;
+  readonly budget: number;
+  readonly optimizer: Record<string, unknown>;
+}
+
+// A worker thread of this bench: started through the engine's bootstrap (which registers
+// tsx in the thread), it runs the tasks it is sent, one at a time.
+if (!isMainThread && parentPort !== null && (workerData as { reachWorker?: boolean } | null)?.reachWorker === true) {
+  const port = parentPort;
+  const cache = new Map<string, ReachCase>();
+  port.on('message', (task: Task) => {
+    let c = cache.get(task.caseId);
+    if (c === undefined) {
+      c = reachCases([task.caseId])[0];
+      cache.set(task.caseId, c);
+    }
+    port.postMessage(runReachSeed(c, task.seed, task.budget, task.optimizer));
+  });
+}
+
+/** Runs the tasks on `threads` worker threads, each thread taking the next task when it is free; results in task order. */
+export async function runTasks(tasks: readonly Task[], threads: number, onRun?: (run: SeedRun) => void): Promise<SeedRun[]> {
+  const bootstrap = new URL('../src/engine/node/workerBootstrap.mjs', import.meta.url);
+  const entry = new URL('./reach.ts', import.meta.url).href;
+  const results: SeedRun[] = new Array<SeedRun>(tasks.length);
+  let next = 0;
+  const workers = Array.from({ length: Math.max(1, Math.min(threads, tasks.length)) }, () => new Worker(bootstrap, { workerData: { entry, reachWorker: true } }));
+  try {
+    await Promise.all(
+      workers.map(
+        (worker) =>
+          new Promise<void>((resolve, reject) => {
+            let current = -1;
+            const give = () => {
+              if (next >= tasks.length) {
+                resolve();
+                return;
+              }
+              current = next++;
+              worker.postMessage(tasks[current]);
+            };
+            worker.on('message', (run: SeedRun) => {
+              results[current] = run;
+              onRun?.(run);
+              give();
+            });
+            worker.on('error', reject);
+            worker.on('exit', (code) => {
+              if (next < tasks.length || current >= 0 && results[current] === undefined) reject(new Error(`reach: a worker exited with code ${code}`));
+            });
+            give();
+          }),
+      ),
+    );
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+  return results;
+}
+
+function median(values: readonly number[]): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 === 1 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
+}
+
+export type ReachRow = Record<string, string | number | null>;
+
+/** One row per case from its seeds' runs. */
+export function reachRow(c: ReachCase, runs: readonly SeedRun[], budget: number): ReachRow {
+  const reached = runs.filter((r) => r.reached);
+  const missed = runs.filter((r) => !r.reached);
+  const medianEvaluations = median(runs.map((r) => (r.reached ? r.evaluations : Infinity)));
+  const worstMiss = missed.reduce((worst, r) => Math.max(worst, r.bestRmsMm ?? Infinity), -Infinity);
+  return {
+    case: c.id,
+    family: c.family,
+    timing: c.timing,
+    path: c.shape,
+    placement: c.placement,
+    dim: c.design.length,
+    seedsReached: reached.length,
+    seeds: runs.length,
+    budget,
+    medianEvaluations: Number.isFinite(medianEvaluations) ? medianEvaluations : null,
+    worstMissRmsOverSize: missed.length === 0 ? null : Number.isFinite(worstMiss) ? worstMiss / c.sizeMm : null,
+    reachRmsOverSize: REACH_SHARE,
+    seconds: runs.reduce((s, r) => s + r.seconds, 0),
+  };
+}
+
+/** The rows of `cases` at `seeds` seeds (1 … seeds) and `budget` evaluations, run on both cores. */
+export async function reachRows(cases: readonly ReachCase[], seeds: number, budget: number, optimizer: Record<string, unknown> = DEFAULT_JOB_OPTIMIZER): Promise<ReachRow[]> {
+  // Seed-major order: every case's first seeds run before any case's last, so a long case does not come last alone.
+  const tasks: Task[] = [];
+  for (let seed = 1; seed <= seeds; seed++) for (const c of cases) tasks.push({ caseId: c.id, seed, budget, optimizer });
+  const threads = Math.min(MAX_THREADS, availableParallelism());
+  const runs = await runTasks(tasks, threads);
+  const rows = cases.map((c) => reachRow(c, runs.filter((r) => r.caseId === c.id), budget));
+  const load = loadavg()[0];
+  return rows.map((row) => ({ ...row, threads, loadAverage: load }));
+}
+
+export function benchReach(): Promise<ReachRow[]> {
+  return reachRows(reachCases(), SEEDS, BUDGET);
+}
+
+export function benchReachQuick(): Promise<ReachRow[]> {
+  return reachRows(reachCases(REACH_QUICK_IDS), QUICK_SEEDS, QUICK_BUDGET);
+}
