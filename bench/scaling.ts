@@ -25,9 +25,9 @@
 import { existsSync, readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
 import { performance, type EventLoopUtilization } from 'node:perf_hooks';
-import { Worker } from 'node:worker_threads';
 import { createRun, type RunInput } from '../src/engine';
 import { nodeEnvironment, spawnNodeSearchWorker, type NodeWorkerHandle } from '../src/engine/node';
+import { spin } from './plainThreads';
 
 const CASES = ['line6-untimed', 'timed5', 'closed18-untimed'] as const;
 const ISLANDS = 4;
@@ -147,25 +147,6 @@ async function measure(input: RunInput, workers: number): Promise<Measured> {
     mainMsPerMillionEvals: (main.active * 1e6) / evaluations,
     messagesPerMillionEvals: ((last.messages - first.messages) * 1e6) / evaluations,
   };
-}
-
-/** Arithmetic for one thread: what the machine's own two-thread ratio is measured with. */
-const SPIN_SOURCE = `const { parentPort, workerData } = require('node:worker_threads');
-let acc = 0;
-for (let i = 0; i < workerData; i++) acc += Math.sqrt(i);
-parentPort.postMessage(acc);`;
-const SPIN_ITERATIONS = 100_000_000;
-
-/** Threads × runs per second of the fixed arithmetic, in `threads` threads at once. */
-function spin(threads: number): Promise<number> {
-  const t0 = performance.now();
-  const one = () =>
-    new Promise<void>((resolve, reject) => {
-      const worker = new Worker(SPIN_SOURCE, { eval: true, workerData: SPIN_ITERATIONS });
-      worker.once('message', () => void worker.terminate().then(() => resolve()));
-      worker.once('error', reject);
-    });
-  return Promise.all(Array.from({ length: threads }, one)).then(() => (threads * 1000) / (performance.now() - t0));
 }
 
 type Row = Record<string, number | string | null>;

@@ -33,7 +33,6 @@ import { existsSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
-import { Worker } from 'node:worker_threads';
 import { parseProblemFile } from '../src/core/io/problem';
 import { Prng } from '../src/core/optimize';
 import { createObjective, type Objective } from '../src/core/synthesis';
@@ -42,6 +41,7 @@ import { nodeEnvironment } from '../src/engine/node';
 import { DEFAULT_ARCHIVE } from '../src/engine/runSpec';
 import { fmin } from '../tests/support/fmin';
 import { Island } from '../workers/island';
+import { spin } from './plainThreads';
 
 /**
  * The cases of tests/reference/data/path-synthesis.json with its `reference_best`.
@@ -417,24 +417,6 @@ async function benchCase(caseId: string, referenceBest: number, lib: Optimizatio
   row.evals_per_s_1_worker = finiteOrNull(rates.one);
   row.evals_per_s_2_workers = finiteOrNull(rates.two);
   return { row, lines, checksum };
-}
-
-/** Arithmetic for one thread: what the machine's own two-thread ratio is measured with. */
-const SPIN_SOURCE = `const { parentPort, workerData } = require('node:worker_threads');
-let acc = 0;
-for (let i = 0; i < workerData; i++) acc += Math.sqrt(i);
-parentPort.postMessage(acc);`;
-const SPIN_ITERATIONS = 100_000_000;
-
-function spin(threads: number): Promise<number> {
-  const t0 = performance.now();
-  const one = () =>
-    new Promise<void>((resolve, reject) => {
-      const worker = new Worker(SPIN_SOURCE, { eval: true, workerData: SPIN_ITERATIONS });
-      worker.once('message', () => void worker.terminate().then(() => resolve()));
-      worker.once('error', reject);
-    });
-  return Promise.all(Array.from({ length: threads }, one)).then(() => (threads * 1000) / (performance.now() - t0));
 }
 
 /**
