@@ -222,6 +222,19 @@ function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number)
   return place(s, s[PHI], NOW);
 }
 
+/** Pair c's dyad's squared sine at X_j: |(X_j − X_i) × (X_j − K_j)|² over both lengths squared (0 at its dead centre). */
+function pairScore(t: Int32Array, pose: Float64Array, c: number): number {
+  const xi = t[PAIR_I[c]];
+  const xj = t[PAIR_J[c]];
+  const kj = t[F_CENTRE + PAIR_J[c]];
+  const ax = pose[xj] - pose[xi];
+  const ay = pose[xj + 1] - pose[xi + 1];
+  const cx = pose[xj] - pose[kj];
+  const cy = pose[xj + 1] - pose[kj + 1];
+  const cross = ax * cy - ay * cx;
+  return (cross * cross) / ((ax * ax + ay * ay) * (cx * cx + cy * cy));
+}
+
 /**
  * Solves the triad in place in pose from its joints' current values (finite; the caller
  * sees to that). Returns TRIAD_SOLVED with every equation within tolMm (or at the
@@ -233,15 +246,7 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
   // Start from the pair whose dyad's sine at X_j, |(X_j − X_i) × (X_j − K_j)|, is
   // largest, else the next that assembles at the start's angle.
   for (let c = 0; c < 6; c++) {
-    const xi = t[PAIR_I[c]];
-    const xj = t[PAIR_J[c]];
-    const kj = t[F_CENTRE + PAIR_J[c]];
-    const ax = pose[xj] - pose[xi];
-    const ay = pose[xj + 1] - pose[xi + 1];
-    const cx = pose[xj] - pose[kj];
-    const cy = pose[xj + 1] - pose[kj + 1];
-    const cross = ax * cy - ay * cx;
-    const score = (cross * cross) / ((ax * ax + ay * ay) * (cx * cx + cy * cy));
+    const score = pairScore(t, pose, c);
     s[SCORE + c] = score >= 0 ? score : -1;
   }
   let pair = -1;
@@ -322,15 +327,7 @@ export function triadRates(p: PlanInternal, t: Int32Array, pose: Float64Array, r
   let pair = -1;
   let best = -1;
   for (let c = 0; c < 6; c++) {
-    const xi = t[PAIR_I[c]];
-    const xj = t[PAIR_J[c]];
-    const kj = t[F_CENTRE + PAIR_J[c]];
-    const ax = pose[xj] - pose[xi];
-    const ay = pose[xj + 1] - pose[xi + 1];
-    const cx = pose[xj] - pose[kj];
-    const cy = pose[xj + 1] - pose[kj + 1];
-    const cross = ax * cy - ay * cx;
-    const score = (cross * cross) / ((ax * ax + ay * ay) * (cx * cx + cy * cy));
+    const score = pairScore(t, pose, c);
     if (score > best) {
       best = score;
       pair = c;
