@@ -13,7 +13,7 @@ import { describeBrowser, saveScreenshot, useBrowser } from './harness';
 import { storedTextHas } from './storedProject';
 
 /** Long enough that the search is still running when the page reloads (it stops on Stop or its time budget). */
-const BUDGET_S = '20';
+const BUDGET_S = '10';
 const LONG_MS = 180_000;
 
 interface StoredCheckpoint {
