@@ -7,12 +7,12 @@
  * the leg file: its gait figures, taken again in Node, are the row's.
  */
 import { readFile } from 'node:fs/promises';
-import { crc32, deflateSync } from 'node:zlib';
 import type { Download, Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { GAIT_CAUTION, gaitFigures } from '../../src/core/gait';
 import { parseLegFileText } from '../../src/core/io/legFile';
 import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { greyPng, screenOfPixel } from './legTraceImage';
 import { storedTextHas } from './storedProject';
 
 const VIEWPORT = { width: 1920, height: 1080 };
@@ -24,35 +24,6 @@ async function rowValues(page: Page, rank: string): Promise<Record<string, numbe
   const cells = page.getByTestId('leg-results-best').locator(`tr[data-rank="${rank}"] td[data-column]`);
   const pairs = await cells.evaluateAll((tds) => tds.map((td) => [td.getAttribute('data-column') ?? '', td.getAttribute('data-value') ?? '']));
   return Object.fromEntries(pairs.map(([k, v]) => [k, v === 'null' ? null : Number(v)]));
-}
-
-/** A plain grey PNG of w × h pixels, written here (Source: W3C, "Portable Network Graphics (PNG) Specification", 2003, sections 5 and 11). */
-function greyPng(w: number, h: number): Buffer {
-  const chunk = (type: string, data: Buffer) => {
-    const body = Buffer.concat([Buffer.from(type, 'ascii'), data]);
-    const out = Buffer.alloc(body.length + 8);
-    out.writeUInt32BE(data.length, 0);
-    body.copy(out, 4);
-    out.writeUInt32BE(crc32(body), body.length + 4);
-    return out;
-  };
-  const ihdr = Buffer.alloc(13);
-  ihdr.writeUInt32BE(w, 0);
-  ihdr.writeUInt32BE(h, 4);
-  ihdr.set([8, 0, 0, 0, 0], 8); // 8-bit greyscale, no interlace
-  const rows = Buffer.alloc((w + 1) * h, 0xc0);
-  for (let y = 0; y < h; y++) rows[y * (w + 1)] = 0; // filter type 0 on each row
-  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(rows)), chunk('IEND', Buffer.alloc(0))]);
-}
-
-/** Where image pixel (u, v) is on the screen now. */
-function screenOfPixel(page: Page, u: number, v: number): Promise<{ x: number; y: number }> {
-  return page.locator('image.legws-trace-image').evaluate((el, [pu, pv]) => {
-    const m = (el as SVGGraphicsElement).getScreenCTM();
-    if (m === null) throw new Error('the traced image has no screen matrix');
-    const p = new DOMPoint(pu, pv).matrixTransform(m);
-    return { x: p.x, y: p.y };
-  }, [u, v] as const);
 }
 
 async function setTarget(page: Page, key: string, on: boolean): Promise<void> {

@@ -3,107 +3,22 @@
  * traced over: the toy walker demo with a deterministic budget (evaluations only, a fixed
  * seed), an image loaded and calibrated, the search started and checkpointed into
  * IndexedDB, the page reloaded and its newest checkpoint damaged, the workspace opened
- * again; the run resumes from the checkpoint before, says so, and ends by its budget with
- * its designs; the image is shown again where it was calibrated. Then closing the
+ * again; the run resumes from the checkpoint before, says so, and, stopped, ends with its
+ * designs; the image is shown again where it was calibrated. Then closing the
  * workspace while a search runs asks, and a damaged image record is said on reopening.
  * Every wait polls for a state; nothing is timed.
  */
-import { crc32, deflateSync } from 'node:zlib';
 import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { GAIT_CAUTION } from '../../src/core/gait';
 import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { damageNewestCheckpoint, storedCheckpoints, type StoredCheckpoint } from './storedCheckpoints';
+import { greyPng, screenOfPixel } from './legTraceImage';
 import { storedTextHas } from './storedProject';
 
 /** Evaluations of the whole search: enough that it is still running when the page reloads, on any machine the test runs on. */
 const BUDGET_EVALUATIONS = '150000';
 const LONG_MS = 300_000;
-
-interface StoredCheckpoint {
-  readonly runId: string;
-  readonly seq: number;
-  readonly evaluations: number | null;
-}
-
-/** A plain grey PNG of w × h pixels, written here (Source: W3C, "Portable Network Graphics (PNG) Specification", 2003, sections 5 and 11). */
-function greyPng(w: number, h: number): Buffer {
-  const chunk = (type: string, data: Buffer) => {
-    const body = Buffer.concat([Buffer.from(type, 'ascii'), data]);
-    const out = Buffer.alloc(body.length + 8);
-    out.writeUInt32BE(data.length, 0);
-    body.copy(out, 4);
-    out.writeUInt32BE(crc32(body), body.length + 4);
-    return out;
-  };
-  const ihdr = Buffer.alloc(13);
-  ihdr.writeUInt32BE(w, 0);
-  ihdr.writeUInt32BE(h, 4);
-  ihdr.set([8, 0, 0, 0, 0], 8); // 8-bit greyscale, no interlace
-  const rows = Buffer.alloc((w + 1) * h, 0xc0);
-  for (let y = 0; y < h; y++) rows[y * (w + 1)] = 0; // filter type 0 on each row
-  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(rows)), chunk('IEND', Buffer.alloc(0))]);
-}
-
-/** Where image pixel (u, v) is on the screen now. */
-function screenOfPixel(page: Page, u: number, v: number): Promise<{ x: number; y: number }> {
-  return page.locator('image.legws-trace-image').evaluate((el, [pu, pv]) => {
-    const m = (el as SVGGraphicsElement).getScreenCTM();
-    if (m === null) throw new Error('the traced image has no screen matrix');
-    const p = new DOMPoint(pu, pv).matrixTransform(m);
-    return { x: p.x, y: p.y };
-  }, [u, v] as const);
-}
-
-/** The leg search's checkpoints in the app's IndexedDB (run ids `leg-…`), read from inside the page. */
-function legCheckpoints(page: Page): Promise<StoredCheckpoint[]> {
-  return page.evaluate(() => new Promise<StoredCheckpoint[]>((resolve) => {
-    const open = indexedDB.open('loci');
-    open.onsuccess = () => {
-      const db = open.result;
-      const all = db.transaction('checkpoints', 'readonly').objectStore('checkpoints').getAll();
-      all.onsuccess = () => {
-        db.close();
-        const records = all.result as { runId: string; seq: number; text: string }[];
-        resolve(records.filter((r) => r.runId.startsWith('leg-')).map((r) => {
-          let evaluations: number | null;
-          try {
-            evaluations = (JSON.parse(r.text) as { payload: { evaluations: number } }).payload.evaluations;
-          } catch {
-            evaluations = null;
-          }
-          return { runId: r.runId, seq: r.seq, evaluations };
-        }));
-      };
-      all.onerror = () => resolve([]);
-    };
-    open.onerror = () => resolve([]);
-  }));
-}
-
-/** Changes the newest leg checkpoint's evaluation count under its unchanged checksum: a damaged write. */
-function damageNewestCheckpoint(page: Page): Promise<boolean> {
-  return page.evaluate(() => new Promise<boolean>((resolve) => {
-    const open = indexedDB.open('loci');
-    open.onsuccess = () => {
-      const db = open.result;
-      const tx = db.transaction('checkpoints', 'readwrite');
-      const store = tx.objectStore('checkpoints');
-      const all = store.getAll();
-      let done = false;
-      all.onsuccess = () => {
-        const records = (all.result as { runId: string; seq: number; text: string }[]).filter((r) => r.runId.startsWith('leg-')).sort((a, b) => b.seq - a.seq);
-        if (records.length === 0) return;
-        const doc = JSON.parse(records[0].text) as { payload: { evaluations: number } };
-        doc.payload.evaluations += 1;
-        store.put({ ...records[0], text: JSON.stringify(doc) });
-        done = true;
-      };
-      tx.oncomplete = () => { db.close(); resolve(done); };
-      tx.onerror = () => resolve(false);
-    };
-    open.onerror = () => resolve(false);
-  }));
-}
 
 /** Writes `record` as the leg trace's record beside the project (what a damaged or hand-edited write leaves). */
 function putLegTraceRecord(page: Page, record: unknown): Promise<boolean> {
@@ -167,15 +82,15 @@ describeBrowser('walking-leg search over a reload', () => {
     await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
 
     // Two checkpoints with evaluations in them (the run's first is taken before any), and the running search kept in the project.
-    await expect.poll(async () => counted(await legCheckpoints(page)), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(2);
+    await expect.poll(async () => counted(await storedCheckpoints(page, 'leg')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(2);
     await expect.poll(() => storedTextHas(page, 'searchRunning', 'Leg resume check'), { timeout: 10_000 }).toBe(true);
-    expect(new Set((await legCheckpoints(page)).map((c) => c.runId)).size).toBe(1);
+    expect(new Set((await storedCheckpoints(page, 'leg')).map((c) => c.runId)).size).toBe(1);
 
     // Reload mid-run; damage the newest checkpoint before the workspace is opened again.
     await page.reload();
     const reopen = page.getByRole('button', { name: 'Walking leg: Leg resume check' });
     await reopen.waitFor();
-    expect(await damageNewestCheckpoint(page)).toBe(true);
+    expect(await damageNewestCheckpoint(page, 'leg')).toBe(true);
     await reopen.click();
     await page.getByTestId('leg-workspace').waitFor();
 
@@ -195,13 +110,15 @@ describeBrowser('walking-leg search over a reload', () => {
     expect(await page.getByTestId('leg-trace-notice').textContent()).toMatch(/^foot-path\.png, kept with the project, is shown again \(calibrated at/);
     await saveScreenshot(page, 'leg-search-resumed');
 
-    // It ends by its evaluation budget with its designs; its checkpoints go once it has ended.
+    // Stopped (the unit test follows a resumed run to its budget): it ends with its designs, under the seed it ran
+    // with; its checkpoints go once it has ended.
+    if ((await progress.getAttribute('data-status')) === 'running') await page.getByRole('button', { name: 'Stop' }).click();
     await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS, interval: 500 }).toBe('finished');
     await page.getByTestId('leg-results-best').waitFor();
-    expect(await summary.textContent()).toMatch(/^Latest run: .*seed 5, [\d,]+ evaluations, ended by its budget/);
+    expect(await summary.textContent()).toMatch(/^Latest run: .*seed 5, [\d,]+ evaluations, ended by (Stop|its budget)/);
     expect(await page.getByTestId('leg-results-best').locator('tr[data-family]').count()).toBeGreaterThan(0);
     expect(await notice.textContent()).toMatch(/^The search a reload interrupted has ended/);
-    await expect.poll(async () => (await legCheckpoints(page)).length, { timeout: 10_000 }).toBe(0);
+    await expect.poll(async () => (await storedCheckpoints(page, 'leg')).length, { timeout: 10_000 }).toBe(0);
     await expect.poll(() => storedTextHas(page, 'searchRunning'), { timeout: 10_000 }).toBe(false);
 
     // Closing the workspace while a search runs asks; Keep searching leaves it running; Stop and close keeps what it found.

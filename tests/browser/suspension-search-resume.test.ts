@@ -6,72 +6,15 @@
  * the oldest kept run, and closing the workspace while it runs asks before it stops it.
  * Every wait polls for a state; nothing is timed.
  */
-import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { SUSPENSION_CAUTION } from '../../src/core/suspension';
 import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { damageNewestCheckpoint, storedCheckpoints, type StoredCheckpoint } from './storedCheckpoints';
 import { storedTextHas } from './storedProject';
 
 /** Long enough that the search is still running when the page reloads (it stops on Stop or its time budget). */
 const BUDGET_S = '10';
 const LONG_MS = 180_000;
-
-interface StoredCheckpoint {
-  readonly runId: string;
-  readonly seq: number;
-  readonly evaluations: number | null;
-}
-
-/** The suspension search's checkpoints in the app's IndexedDB (run ids `suspension-…`), read from inside the page. */
-function suspensionCheckpoints(page: Page): Promise<StoredCheckpoint[]> {
-  return page.evaluate(() => new Promise<StoredCheckpoint[]>((resolve) => {
-    const open = indexedDB.open('loci');
-    open.onsuccess = () => {
-      const db = open.result;
-      const all = db.transaction('checkpoints', 'readonly').objectStore('checkpoints').getAll();
-      all.onsuccess = () => {
-        db.close();
-        const records = all.result as { runId: string; seq: number; text: string }[];
-        resolve(records.filter((r) => r.runId.startsWith('suspension-')).map((r) => {
-          let evaluations: number | null;
-          try {
-            evaluations = (JSON.parse(r.text) as { payload: { evaluations: number } }).payload.evaluations;
-          } catch {
-            evaluations = null;
-          }
-          return { runId: r.runId, seq: r.seq, evaluations };
-        }));
-      };
-      all.onerror = () => resolve([]);
-    };
-    open.onerror = () => resolve([]);
-  }));
-}
-
-/** Changes the newest suspension checkpoint's evaluation count under its unchanged checksum: a damaged write. */
-function damageNewestCheckpoint(page: Page): Promise<boolean> {
-  return page.evaluate(() => new Promise<boolean>((resolve) => {
-    const open = indexedDB.open('loci');
-    open.onsuccess = () => {
-      const db = open.result;
-      const tx = db.transaction('checkpoints', 'readwrite');
-      const store = tx.objectStore('checkpoints');
-      const all = store.getAll();
-      let done = false;
-      all.onsuccess = () => {
-        const records = (all.result as { runId: string; seq: number; text: string }[]).filter((r) => r.runId.startsWith('suspension-')).sort((a, b) => b.seq - a.seq);
-        if (records.length === 0) return;
-        const doc = JSON.parse(records[0].text) as { payload: { evaluations: number } };
-        doc.payload.evaluations += 1;
-        store.put({ ...records[0], text: JSON.stringify(doc) });
-        done = true;
-      };
-      tx.oncomplete = () => { db.close(); resolve(done); };
-      tx.onerror = () => resolve(false);
-    };
-    open.onerror = () => resolve(false);
-  }));
-}
 
 const counted = (cs: readonly StoredCheckpoint[]) => cs.filter((c) => c.evaluations !== null && c.evaluations > 0).length;
 
@@ -99,16 +42,16 @@ describeBrowser('suspension search over a reload', () => {
     await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
 
     // Two checkpoints with evaluations in them (the run's first is taken before any), and the running search kept in the project.
-    await expect.poll(async () => counted(await suspensionCheckpoints(page)), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(2);
+    await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(2);
     await expect.poll(() => storedTextHas(page, 'searchRunning', 'Resume check'), { timeout: 10_000 }).toBe(true);
-    const runIds = new Set((await suspensionCheckpoints(page)).map((c) => c.runId));
+    const runIds = new Set((await storedCheckpoints(page, 'suspension')).map((c) => c.runId));
     expect(runIds.size).toBe(1);
 
     // Reload mid-run; damage the newest checkpoint before the design is opened again.
     await page.reload();
     const reopen = page.getByRole('button', { name: 'Rear suspension: Resume check' });
     await reopen.waitFor();
-    expect(await damageNewestCheckpoint(page)).toBe(true);
+    expect(await damageNewestCheckpoint(page, 'suspension')).toBe(true);
     await reopen.click();
     await page.getByTestId('suspension-workspace').waitFor();
 
@@ -131,14 +74,14 @@ describeBrowser('suspension search over a reload', () => {
     expect(await summary.textContent()).toMatch(/^Latest run: .*ended by its time budget/);
     expect(await notice.textContent()).toMatch(/^The search a reload interrupted has ended/);
     expect(await page.getByTestId('all-ranked').locator('tr[data-rank]').count()).toBeGreaterThan(0);
-    await expect.poll(async () => (await suspensionCheckpoints(page)).length, { timeout: 10_000 }).toBe(0);
+    await expect.poll(async () => (await storedCheckpoints(page, 'suspension')).length, { timeout: 10_000 }).toBe(0);
     await expect.poll(() => storedTextHas(page, 'searchRunning'), { timeout: 10_000 }).toBe(false);
 
     // A second run, stopped: the designs it found are kept, and the resumed run is the previous one.
     await start.click();
     await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
     expect(await notice.count()).toBe(0);
-    await expect.poll(async () => counted(await suspensionCheckpoints(page)), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
+    await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
     await stop.click();
     await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('finished');
     expect(await message.textContent()).toBe('Stopped: the designs found so far are kept below.');
@@ -160,7 +103,7 @@ describeBrowser('suspension search over a reload', () => {
     await start.click();
     await drop.getByRole('button', { name: 'Start and drop the older run' }).click();
     await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
-    await expect.poll(async () => counted(await suspensionCheckpoints(page)), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
+    await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
 
     // Closing the workspace while it runs asks; Keep searching leaves it running.
     const back = page.getByRole('button', { name: 'Back to path synthesis' });
