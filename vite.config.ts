@@ -1,6 +1,6 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
-import { CONTENT_SECURITY_POLICY } from './csp';
+import { CONTENT_SECURITY_POLICY } from './csp.ts';
 
 export default defineConfig({
   plugins: [react()],

@@ -13,6 +13,7 @@ import { bestOfEachFamily, type LegSearchRun } from '../../../src/app/leg/search
 import { readLegSetup } from '../../../src/app/leg/readSetup';
 import { reduceLegSetup, emptyLegSetup, type LegSetupAction } from '../../../src/app/leg/setup';
 import { storedLegSchema } from '../../../src/app/leg/stored';
+import { metCount, targetJudges, targetMarksOf } from '../../../src/app/leg/search/targetMarks';
 
 /** An own small foot trajectory (mm), a step height and a duty factor, on a level ground line. */
 const ACTIONS: LegSetupAction[] = [
@@ -84,12 +85,42 @@ describe('leg search through the engine', () => {
         heightMm: f.size.heightMm,
       });
       expect(c.figures.dutyToleranceMm).toBe(1);
+      // common practice: a value target is met within its tolerance (a mm target takes the stance tolerance, 1 mm, unless set), a limit on its side; judged here from the analysed file's figures.
+      expect(targetMarksOf(targetJudges(run.problem), c)).toEqual({
+        trajectoryRmsMm: { met: c.trajectoryRmsMm !== null && c.trajectoryRmsMm <= 1, wanted: '≤ 1 mm' },
+        stepHeightMm: { met: Math.abs(f.stepHeightMm - 8) <= 1, wanted: '8 ± 1 mm' },
+        dutyFactor: { met: f.dutyFactor.value >= 0.4, wanted: '≥ 0.4' },
+      });
       checked++;
     }
     expect(checked).toBeGreaterThan(0);
     // What the project keeps of the run reads back through its schema.
     expect(storedLegSchema.safeParse(JSON.parse(JSON.stringify({ setup: setupOf(), results: { current: run, previous: null } }))).success).toBe(true);
   }, 120_000);
+
+  it('marks each target met or missed on the figures a row shows, and a figure the leg lacks as missed', () => {
+    const reading = readLegSetup(setupOf());
+    if (!reading.ok) throw new Error(JSON.stringify(reading.issues));
+    const problem = {
+      ...reading.input,
+      targets: { ...reading.input.targets, strideMm: { value: 30, toleranceMm: 2 }, maxFlatnessMm: { max: 0.5 }, sizeBoxMm: { widthMm: 100, heightMm: 60 } },
+    };
+    const judges = targetJudges(problem);
+    const figures = { strideMm: 32, stepHeightMm: 9.5, dutyFactor: 0.4, dutyToleranceMm: 1, flatnessPeakToPeakMm: 0.6, speedVariation: 0.1, worstTransmissionInStanceDeg: 40, widthMm: 100, heightMm: 61 };
+    const candidate = { rank: 1, family: 'fourbar', value: 0, violation: 0, feasible: true, defects: [], trajectoryRmsMm: null, figures, failure: null } as unknown as Parameters<typeof targetMarksOf>[1];
+    // Boundaries by hand: no trajectory RMS (missed), 32 is 30 + 2 (met), 9.5 is 8 + 1.5 (missed), 0.4 = 0.4 (met), 0.6 > 0.5 (missed), 100 = 100 (met), 61 > 60 (missed).
+    const marks = targetMarksOf(judges, candidate);
+    expect(Object.fromEntries(Object.entries(marks).map(([k, m]) => [k, m.met]))).toEqual({
+      trajectoryRmsMm: false, strideMm: true, stepHeightMm: false, dutyFactor: true, flatnessPeakToPeakMm: false, widthMm: true, heightMm: false,
+    });
+    expect(metCount(marks)).toEqual({ met: 3, of: 7 });
+    // No stance: no stride and no flatness, so those targets are missed, not passed by default.
+    const noStance = targetMarksOf(judges, { ...candidate, figures: { ...figures, strideMm: null, flatnessPeakToPeakMm: null } });
+    expect(noStance.strideMm?.met).toBe(false);
+    expect(noStance.flatnessPeakToPeakMm?.met).toBe(false);
+    // Refused by the gait analysis: nothing judged.
+    expect(targetMarksOf(judges, { ...candidate, figures: null })).toEqual({});
+  });
 
   it('Stop ends the run between rounds and keeps the designs found so far', async () => {
     const reading = readLegSetup(reduceLegSetup(setupOf(), { type: 'budget', field: 'evaluations', text: '5000000' }));

@@ -9,6 +9,7 @@ import { memo } from 'react';
 import { FAMILY_NAMES } from '../../../core/synthesis/problem';
 import { figure } from '../../suspension/labels';
 import { bestOfEachFamily, type LegCandidate, type LegSearchRun } from './results';
+import { metCount, targetJudges, targetMarksOf, type MarkedColumn, type TargetMark } from './targetMarks';
 
 interface Column {
   readonly key: string;
@@ -38,9 +39,20 @@ function columns(run: LegSearchRun): Column[] {
   return cols;
 }
 
-function Row({ c, cols, section, compared, onToggleCompare, onOpen, compareFull, opened }: {
+function Mark({ mark }: { mark: TargetMark }) {
+  const said = `${mark.met ? 'met' : 'missed'}: wanted ${mark.wanted}`;
+  return (
+    <span className={mark.met ? 'legws-met' : 'legws-missed'} title={said} data-met={String(mark.met)}>
+      <span aria-hidden="true">{mark.met ? ' ✓' : ' ✗'}</span>
+      <span className="visually-hidden">{` (${said})`}</span>
+    </span>
+  );
+}
+
+function Row({ c, cols, judges, section, compared, onToggleCompare, onOpen, compareFull, opened }: {
   c: LegCandidate;
   cols: readonly Column[];
+  judges: ReturnType<typeof targetJudges>;
   section: 'best' | 'all';
   compared: boolean;
   onToggleCompare: (rank: number) => void;
@@ -49,17 +61,26 @@ function Row({ c, cols, section, compared, onToggleCompare, onOpen, compareFull,
   opened: boolean;
 }) {
   const label = `#${c.rank} ${FAMILY_NAMES[c.family]}`;
+  const marks = targetMarksOf(judges, c);
+  const { met, of } = metCount(marks);
   return (
     <tr data-rank={c.rank} data-family={c.family} data-section={section} aria-current={opened ? 'true' : undefined} className={c.feasible ? undefined : 'legws-infeasible'}>
       <th scope="row">{c.rank}</th>
       <td>{FAMILY_NAMES[c.family]}</td>
       <td title={c.defects.join('; ')}>{c.feasible ? 'feasible' : `violation ${figure(c.violation, 3)}`}</td>
+      <td data-targets-met={met} data-targets-of={of} className={met < of ? 'legws-missed' : undefined}>{of === 0 ? '—' : `${met} of ${of}`}</td>
       {c.figures === null ? (
         <td colSpan={cols.length - 1} className="legws-failure">{`No gait figures: ${c.failure ?? 'the analysis refused the design'}`}</td>
       ) : null}
       {cols.filter((col) => c.figures !== null || col.key === 'value').map((col) => {
         const v = col.value(c);
-        return <td key={col.key} data-column={col.key} data-value={v === null ? 'null' : String(v)}>{v === null ? '—' : figure(v, col.digits)}</td>;
+        const mark = marks[col.key as MarkedColumn];
+        return (
+          <td key={col.key} data-column={col.key} data-value={v === null ? 'null' : String(v)}>
+            {v === null ? '—' : figure(v, col.digits)}
+            {mark === undefined ? null : <Mark mark={mark} />}
+          </td>
+        );
       })}
       <td>
         <button type="button" aria-label={`Open ${label}`} onClick={() => onOpen(c)}>Open</button>
@@ -80,6 +101,7 @@ export const LegResultsTable = memo(function LegResultsTable({ run, compared, on
   opened: number | null;
 }) {
   const cols = columns(run);
+  const judges = targetJudges(run.problem);
   const best = bestOfEachFamily(run.candidates);
   const all = [...run.candidates].sort((a, b) => a.rank - b.rank);
   const head = (
@@ -87,12 +109,13 @@ export const LegResultsTable = memo(function LegResultsTable({ run, compared, on
       <th scope="col">Rank</th>
       <th scope="col">Family</th>
       <th scope="col">Feasibility</th>
+      <th scope="col" title="Targets met: a value target within its tolerance, a limit on its side (its tolerance only scales the search's penalty); ✓ and ✗ beside each figure">Targets met</th>
       {cols.map((col) => <th key={col.key} scope="col" title={col.title}>{col.head}{col.unit === '' ? '' : ` (${col.unit})`}</th>)}
       <th scope="col"><span className="visually-hidden">Actions</span></th>
     </tr>
   );
   const rows = (list: readonly LegCandidate[], section: 'best' | 'all') => list.map((c) => (
-    <Row key={`${section}-${c.rank}`} c={c} cols={cols} section={section} compared={compared.includes(c.rank)} onToggleCompare={onToggleCompare} onOpen={onOpen} compareFull={compareFull} opened={opened === c.rank} />
+    <Row key={`${section}-${c.rank}`} c={c} cols={cols} judges={judges} section={section} compared={compared.includes(c.rank)} onToggleCompare={onToggleCompare} onOpen={onOpen} compareFull={compareFull} opened={opened === c.rank} />
   ));
   return (
     <div className="legws-table-wrap">
