@@ -6,11 +6,10 @@
  * the checkpoints an interrupted run left, skipping a corrupt newest one and saying so.
  */
 import { describe, expect, it } from 'vitest';
-import { decodeCheckpoint, memoryCheckpointStore, type CheckpointStore } from '../../../src/engine';
+import { decodeCheckpoint } from '../../../src/engine';
 import { nodeEnvironment } from '../../../src/engine/node';
 import { checkpointScope } from '../../../src/app/storage/checkpointStore';
 import type { LociDb } from '../../../src/app/storage';
-import type { SearchCheckpoints } from '../../../src/app/search/checkpoints';
 import { LEG_RUN_SCOPE, legSearchCheckpoints, newLegRunId } from '../../../src/app/leg/search/checkpoints';
 import { SUSPENSION_RUN_SCOPE, newSuspensionRunId, suspensionSearchCheckpoints } from '../../../src/app/suspension/search/checkpoints';
 import { LegSearchController } from '../../../src/app/leg/search/controller';
@@ -19,6 +18,7 @@ import { readLegSetup } from '../../../src/app/leg/readSetup';
 import { emptyLegSetup, reduceLegSetup, type LegSetupAction } from '../../../src/app/leg/setup';
 import { reduceLeg } from '../../../src/app/leg/state';
 import { storedLegOf, storedLegSchema } from '../../../src/app/leg/stored';
+import { memoryCheckpoints, pollUntil } from '../../support/searchCheckpoints';
 
 /** An own small foot trajectory (mm) on a level ground line, a step height and a duty factor; two families. */
 const ACTIONS = [
@@ -29,7 +29,7 @@ const ACTIONS = [
   { type: 'targetText', key: 'stepHeightMm', field: 'value', text: '8' },
   { type: 'family', family: 'watt-i', on: true },
   { type: 'budget', field: 'evaluations', text: '' },
-  { type: 'budget', field: 'seconds', text: '6' },
+  { type: 'budget', field: 'seconds', text: '600' },
   { type: 'seed', text: '4' },
 ] as LegSetupAction[];
 const setup = ACTIONS.reduce(reduceLegSetup, emptyLegSetup());
@@ -39,35 +39,8 @@ const { input, settings } = reading;
 
 /** One worker: the machine's cores are shared. */
 const env = { ...nodeEnvironment(), defaultWorkerCount: () => 1 };
-/** Polls are capped; each waits this long, ms (a wait, never a measured time). */
-const POLL_MS = 50;
-const POLL_CAP = 2400;
 
 const running: RunningLegSearch = { runId: 'leg-test-1', startedAt: '2026-01-01T00:00:00.000Z', problem: input, settings };
-
-/** Checkpoints in memory, as the browser's IndexedDB store keeps them: the newest three of each run. */
-function memoryCheckpoints(seed: Record<string, readonly string[]> = {}): SearchCheckpoints & { stores: Map<string, CheckpointStore & { texts: readonly string[] }> } {
-  const stores = new Map<string, CheckpointStore & { texts: readonly string[] }>();
-  const storeOf = (runId: string) => {
-    let s = stores.get(runId);
-    if (s === undefined) {
-      s = memoryCheckpointStore(3);
-      // Oldest first, so the newest ends first.
-      for (const text of [...(seed[runId] ?? [])].reverse()) void s.save(text);
-      stores.set(runId, s);
-    }
-    return s;
-  };
-  return {
-    stores,
-    store: storeOf,
-    dropExcept: (keep) => {
-      for (const id of [...stores.keys()]) if (!keep.includes(id)) stores.delete(id);
-      return Promise.resolve();
-    },
-    durable: () => Promise.resolve(true),
-  };
-}
 
 /**
  * The checkpoints object store as idb gives it, in memory: keys [runId, seq], the byRun
@@ -87,11 +60,6 @@ function memoryLociDb(): { db: LociDb; runIds: () => string[] } {
     getAllFromIndex: (_s: string, _i: string, runId: string) => Promise.resolve([...records.values()].filter((r) => r.runId === runId)),
   };
   return { db: db as unknown as LociDb, runIds: () => [...new Set([...records.values()].map((r) => r.runId))].sort() };
-}
-
-async function pollUntil(done: () => boolean): Promise<void> {
-  for (let i = 0; i < POLL_CAP && !done(); i++) await new Promise((r) => setTimeout(r, POLL_MS));
-  if (!done()) throw new Error('gave up waiting');
 }
 
 describe('the running leg search kept in the project', () => {
@@ -164,7 +132,7 @@ describe('resuming a leg search after a reload', () => {
     return texts;
   }
 
-  async function resumeFrom(texts: readonly string[]): Promise<{ runs: LegSearchRun[]; firstMessage: string | null; firstEvaluations: number; ended: number; c: LegSearchController }> {
+  async function resumeFrom(texts: readonly string[], stopPast?: number): Promise<{ runs: LegSearchRun[]; firstMessage: string | null; firstEvaluations: number; ended: number; c: LegSearchController }> {
     const runs: LegSearchRun[] = [];
     let ended = 0;
     const c = new LegSearchController({ env, wallNow: () => 0, newRunId: () => 'unused', checkpoints: memoryCheckpoints({ [running.runId]: texts }), onFinished: (r) => runs.push(r), onEnded: () => ended++ });
@@ -177,23 +145,29 @@ describe('resuming a leg search after a reload', () => {
         firstEvaluations = s.evaluations;
       }
     });
-    await c.resume(running);
+    // Stopped once it has gone on, not left to its budget: a time budget can be spent in one slice on a loaded machine.
+    const resumed = c.resume(running);
+    if (stopPast !== undefined) {
+      await pollUntil(() => c.session.getState().evaluations > stopPast || c.session.getState().status !== 'running');
+      c.stop();
+    }
+    await resumed;
     unsubscribe();
     return { runs, firstMessage, firstEvaluations, ended, c };
   }
 
-  it('goes on from the newest checkpoint and ends with the designs of every family', async () => {
+  it('goes on from the newest checkpoint, and a stop then keeps the designs of every family', async () => {
     const texts = await interrupted();
     const newest = decodeCheckpoint(texts[0]);
     if (!newest.ok) throw new Error(newest.reason);
-    const r = await resumeFrom(texts);
+    const r = await resumeFrom(texts, newest.payload.evaluations);
     // common practice: a resumed run goes on from the counts of the checkpoint it read (decoded here, apart from the engine's restore).
     expect(r.firstEvaluations).toBe(newest.payload.evaluations);
     expect(r.firstMessage).toMatch(/^Resumed after a reload: the search goes on from its last checkpoint/);
     expect(r.firstMessage).not.toMatch(/damaged/);
     expect(r.runs).toHaveLength(1);
     expect(r.runs[0].id).toBe(running.runId);
-    expect(r.runs[0].stopReason).toBe('time');
+    expect(r.runs[0].stopReason).toBe('cancelled');
     expect(r.runs[0].evaluations).toBeGreaterThan(newest.payload.evaluations);
     expect(new Set(r.runs[0].candidates.map((c) => c.family))).toEqual(new Set(input.families));
     expect(r.ended).toBe(1);
@@ -207,7 +181,7 @@ describe('resuming a leg search after a reload', () => {
     doc.payload.evaluations += 1;
     const before = decodeCheckpoint(texts[1]);
     if (!before.ok) throw new Error(before.reason);
-    const r = await resumeFrom([JSON.stringify(doc), texts[1]]);
+    const r = await resumeFrom([JSON.stringify(doc), texts[1]], before.payload.evaluations);
     expect(r.firstEvaluations).toBe(before.payload.evaluations);
     expect(r.firstMessage).toMatch(/The newest checkpoint was damaged \(checkpoint is corrupt\) and skipped/);
     expect(r.runs).toHaveLength(1);

@@ -9,14 +9,15 @@ import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { SuspensionProblemInput } from '../../../src/core/synthesis';
-import { decodeCheckpoint, memoryCheckpointStore, type CheckpointStore } from '../../../src/engine';
+import { decodeCheckpoint } from '../../../src/engine';
 import { nodeEnvironment } from '../../../src/engine/node';
 import { checkpointScope } from '../../../src/app/storage/checkpointStore';
-import { SUSPENSION_RUN_SCOPE, newSuspensionRunId, type SearchCheckpoints } from '../../../src/app/suspension/search/checkpoints';
+import { SUSPENSION_RUN_SCOPE, newSuspensionRunId } from '../../../src/app/suspension/search/checkpoints';
 import { SuspensionSearchController } from '../../../src/app/suspension/search/controller';
 import type { RunningSearch, SearchRun } from '../../../src/app/suspension/search/results';
 import { demoSuspensionState, reduceSuspension } from '../../../src/app/suspension/state';
 import { stateOf, storedOf, storedSuspensionSchema } from '../../../src/app/suspension/stored';
+import { memoryCheckpoints, pollUntil } from '../../support/searchCheckpoints';
 
 const EXAMPLE = resolve(import.meta.dirname, '../../../public/examples/trail-bike-suspension-problem.json');
 const { format: _f, version: _v, description: _d, ...inputJson } = JSON.parse(readFileSync(EXAMPLE, 'utf8')) as Record<string, unknown>;
@@ -24,40 +25,8 @@ const input = inputJson as unknown as SuspensionProblemInput;
 
 /** One worker: the machine's cores are shared. */
 const env = { ...nodeEnvironment(), defaultWorkerCount: () => 1 };
-/** Polls are capped; each waits this long, ms (a wait, never a measured time). */
-const POLL_MS = 50;
-const POLL_CAP = 2400;
 
-const running: RunningSearch = { runId: 'suspension-test-1', startedAt: '2026-01-01T00:00:00.000Z', problem: input, settings: { seed: 4, budget: { evaluations: null, seconds: 6 } } };
-
-/** Checkpoints in memory, as the browser's IndexedDB store keeps them: the newest three of each run. */
-function memoryCheckpoints(seed: Record<string, readonly string[]> = {}): SearchCheckpoints & { stores: Map<string, CheckpointStore & { texts: readonly string[] }> } {
-  const stores = new Map<string, CheckpointStore & { texts: readonly string[] }>();
-  const storeOf = (runId: string) => {
-    let s = stores.get(runId);
-    if (s === undefined) {
-      s = memoryCheckpointStore(3);
-      // Oldest first, so the newest ends first.
-      for (const text of [...(seed[runId] ?? [])].reverse()) void s.save(text);
-      stores.set(runId, s);
-    }
-    return s;
-  };
-  return {
-    stores,
-    store: storeOf,
-    dropExcept: (keep) => {
-      for (const id of [...stores.keys()]) if (!keep.includes(id)) stores.delete(id);
-      return Promise.resolve();
-    },
-    durable: () => Promise.resolve(true),
-  };
-}
-
-async function pollUntil(done: () => boolean): Promise<void> {
-  for (let i = 0; i < POLL_CAP && !done(); i++) await new Promise((r) => setTimeout(r, POLL_MS));
-  if (!done()) throw new Error('gave up waiting');
-}
+const running: RunningSearch = { runId: 'suspension-test-1', startedAt: '2026-01-01T00:00:00.000Z', problem: input, settings: { seed: 4, budget: { evaluations: null, seconds: 600 } } };
 
 describe('the running search kept in the project', () => {
   it('is kept from start to end, and older projects without it still read', () => {
@@ -110,7 +79,7 @@ describe('resuming a suspension search after a reload', () => {
     return texts;
   }
 
-  async function resumeFrom(texts: readonly string[]): Promise<{ runs: SearchRun[]; firstMessage: string | null; firstEvaluations: number; ended: number; c: SuspensionSearchController }> {
+  async function resumeFrom(texts: readonly string[], stopPast?: number): Promise<{ runs: SearchRun[]; firstMessage: string | null; firstEvaluations: number; ended: number; c: SuspensionSearchController }> {
     const runs: SearchRun[] = [];
     let ended = 0;
     const c = new SuspensionSearchController({ env, wallNow: () => 0, newRunId: () => 'unused', checkpoints: memoryCheckpoints({ [running.runId]: texts }), onFinished: (r) => runs.push(r), onEnded: () => ended++ });
@@ -123,23 +92,29 @@ describe('resuming a suspension search after a reload', () => {
         firstEvaluations = s.evaluations;
       }
     });
-    await c.resume(running);
+    // Stopped once it has gone on, not left to its budget: a time budget can be spent in one slice on a loaded machine.
+    const resumed = c.resume(running);
+    if (stopPast !== undefined) {
+      await pollUntil(() => c.session.getState().evaluations > stopPast || c.session.getState().status !== 'running');
+      c.stop();
+    }
+    await resumed;
     unsubscribe();
     return { runs, firstMessage, firstEvaluations, ended, c };
   }
 
-  it('goes on from the newest checkpoint and ends with the designs of every layout', async () => {
+  it('goes on from the newest checkpoint, and a stop then keeps the designs of every layout', async () => {
     const texts = await interrupted();
     const newest = decodeCheckpoint(texts[0]);
     if (!newest.ok) throw new Error(newest.reason);
-    const r = await resumeFrom(texts);
+    const r = await resumeFrom(texts, newest.payload.evaluations);
     // common practice: a resumed run goes on from the counts of the checkpoint it read (decoded here, apart from the engine's restore).
     expect(r.firstEvaluations).toBe(newest.payload.evaluations);
     expect(r.firstMessage).toMatch(/^Resumed after a reload: the search goes on from its last checkpoint/);
     expect(r.firstMessage).not.toMatch(/damaged/);
     expect(r.runs).toHaveLength(1);
     expect(r.runs[0].id).toBe(running.runId);
-    expect(r.runs[0].stopReason).toBe('time');
+    expect(r.runs[0].stopReason).toBe('cancelled');
     expect(r.runs[0].evaluations).toBeGreaterThan(newest.payload.evaluations);
     expect(new Set(r.runs[0].candidates.map((c) => c.family))).toEqual(new Set(input.layouts));
     expect(r.ended).toBe(1);
@@ -153,7 +128,7 @@ describe('resuming a suspension search after a reload', () => {
     doc.payload.evaluations += 1;
     const before = decodeCheckpoint(texts[1]);
     if (!before.ok) throw new Error(before.reason);
-    const r = await resumeFrom([JSON.stringify(doc), texts[1]]);
+    const r = await resumeFrom([JSON.stringify(doc), texts[1]], before.payload.evaluations);
     expect(r.firstEvaluations).toBe(before.payload.evaluations);
     expect(r.firstMessage).toMatch(/The newest checkpoint was damaged \(checkpoint is corrupt\) and skipped/);
     expect(r.runs).toHaveLength(1);
