@@ -3,11 +3,13 @@
  * and search settings beside the search controls and the drawing, the results below.
  */
 import { useCallback, useDeferredValue, useEffect, useMemo, useState } from 'react';
+import { BatchPanel } from './batch/BatchPanel';
+import { bootQueue } from './batch/bootQueue';
 import { bootWorkspace, type Workspace } from './boot';
 import { ResultsView } from './results';
 import { RunControls } from './run/RunControls';
 import { runTitle } from './run/runTitle';
-import { ServicesContext } from './services';
+import { ServicesContext, useServices } from './services';
 import { SuspensionEntry, SuspensionStart, storedOf, type SuspensionState } from './suspension';
 import { LegEntry, LegStart, storedLegOf, type LegState } from './leg';
 import { SettingsPanel } from './settings/SettingsPanel';
@@ -84,6 +86,7 @@ function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
   useRunTitle();
   const { familyBounds, regions } = useFamilyBounds();
   const startIssues = useStartIssues(defaultWorkers);
+  const { db } = useServices();
   return (
     <>
       <ProjectName />
@@ -97,6 +100,7 @@ function WorkspaceView({ defaultWorkers }: { defaultWorkers: number }) {
           <TargetDrawing regions={regions} />
         </div>
       </div>
+      <BatchPanel db={db} defaultWorkers={defaultWorkers} />
       <ResultsSection />
     </>
   );
@@ -115,6 +119,8 @@ export function App() {
     let cancelled = false;
     bootWorkspace().then(
       (ws) => {
+        // The queue goes on after a reload whichever workspace is open.
+        bootQueue(ws.db);
         if (!cancelled) setWorkspace(ws);
       },
       (error: unknown) => setBootError(error instanceof Error ? error.message : String(error)),

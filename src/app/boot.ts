@@ -17,7 +17,8 @@ export interface Workspace {
   readonly defaultWorkers: number;
 }
 
-const RUN_LOCK = 'loci-search';
+/** The lock a search holds while it runs (a queued job takes it too, src/app/batch). */
+export const RUN_LOCK = 'loci-search';
 /** A reloaded page waits this long for the page it replaces to let go of the lock, ms. */
 const RUN_LOCK_WAIT_MS = 5000;
 

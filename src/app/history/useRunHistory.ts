@@ -11,6 +11,7 @@ import { useWorkspace } from '../state/store';
 import type { LociDb } from '../storage';
 import { deleteKeptRun, deletePin, getKeptRun, isKept, keepRun, listKeptRuns, listPins, putPin, renameKeptRun } from '../storage';
 import { pinKeyOf, type KeptRun, type KeptRunSummary, type PinnedDesign } from './types';
+import { onHistoryChanged, onShowKeptRun } from './historyEvents';
 import type { TargetSnapshot } from '../state/project';
 
 export interface RunHistory {
@@ -91,6 +92,16 @@ export function useRunHistory(db: LociDb): RunHistory {
     };
   }, [db, apply]);
 
+  // Runs kept elsewhere (a batch queue's jobs) join the list; a request to show one shows it.
+  const showKept = useCallback((id: string) => {
+    void getKeptRun(db, id).then(
+      (run) => (run === null ? setProblem('That run could not be read back.') : setShown(run)),
+      (error: unknown) => setProblem(`That run could not be read: ${message(error)}`),
+    );
+  }, [db]);
+  useEffect(() => onHistoryChanged(() => void reload()), [reload]);
+  useEffect(() => onShowKeptRun(showKept), [showKept]);
+
   // Keep the run once it has ended with designs (again after a reload, if it was not kept then).
   useEffect(() => {
     const target = candidatesTarget;
@@ -129,14 +140,8 @@ export function useRunHistory(db: LociDb): RunHistory {
     currentRunId: runId,
     problem,
     show: (id) => {
-      if (id === null) {
-        setShown(null);
-        return;
-      }
-      void getKeptRun(db, id).then(
-        (run) => (run === null ? setProblem('That run could not be read back.') : setShown(run)),
-        (error: unknown) => setProblem(`That run could not be read: ${message(error)}`),
-      );
+      if (id === null) setShown(null);
+      else showKept(id);
     },
     rename: (id, name) => {
       if (shown?.runId === id) setShown({ ...shown, name });

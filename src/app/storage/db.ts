@@ -1,14 +1,14 @@
 /**
  * Loci's IndexedDB database: the project, the run checkpoints, the background images,
- * the kept runs (run history) and the shortlist of pinned designs.
+ * the kept runs (run history), the shortlist of pinned designs and the batch queue.
  * Every write goes through a transaction (idb wraps each call in one, or we open one
  * across stores where two writes must land together).
  */
 import { openDB, type DBSchema, type IDBPDatabase } from 'idb';
 
 export const DB_NAME = 'loci';
-/** 2 adds the kept runs and the pinned designs. */
-export const DB_VERSION = 2;
+/** 2 adds the kept runs and the pinned designs; 3 the batch queue. */
+export const DB_VERSION = 3;
 /** The key of the project the workspace opens. */
 export const CURRENT_PROJECT_KEY = 'current';
 
@@ -29,6 +29,8 @@ export interface LociSchema extends DBSchema {
   runs: { key: string; value: unknown };
   /** One record per pinned design, by pin key. */
   pins: { key: string; value: unknown };
+  /** The batch queue (src/app/storage/queueStore.ts): its state, and its lease where the browser has no Web Locks. */
+  queue: { key: string; value: unknown };
 }
 
 export type LociDb = IDBPDatabase<LociSchema>;
@@ -47,6 +49,8 @@ export function openLociDb(): Promise<LociDb> {
         db.createObjectStore('runs');
         db.createObjectStore('pins');
       }
+      // Adds a store and touches none of the others: every earlier record stays.
+      if (oldVersion < 3) db.createObjectStore('queue');
     },
   });
 }
