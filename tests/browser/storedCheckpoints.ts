@@ -61,3 +61,77 @@ export function damageNewestCheckpoint(page: Page, scope: string): Promise<boole
     open.onerror = () => resolve(false);
   }), `${scope}-`);
 }
+
+/** The checkpoint the path workspace says it last saved (its round and evaluations), or null before the first. */
+export async function pathCheckpointShown(page: Page): Promise<{ round: number; evaluations: number } | null> {
+  const note = page.getByTestId('run-checkpoint');
+  if ((await note.count()) === 0) return null;
+  return { round: Number(await note.getAttribute('data-round')), evaluations: Number(await note.getAttribute('data-evaluations')) };
+}
+
+/** The evaluations the path workspace's progress shows ("1,234 of 5,000,000" → 1234). */
+export async function pathEvaluationsShown(page: Page): Promise<number> {
+  const text = (await page.getByTestId('run-evaluations').textContent()) ?? '';
+  return Number(text.split(' of ')[0].replace(/,/g, ''));
+}
+
+/**
+ * An init script (`context.addInitScript({ content })`) that tears the `nth` checkpoint
+ * write of the page's session: right after the record is put, its transaction is
+ * aborted and the page reloads, as a reload or crash does to a transaction not yet
+ * committed. Once per tab (sessionStorage remembers it across the reload), noting the
+ * evaluations of the torn checkpoint and of the one written before it under
+ * `loci-test-torn-write`.
+ */
+export function tornCheckpointWriteScript(nth: number): string {
+  return `(() => {
+    const KEY = 'loci-test-torn-write';
+    if (sessionStorage.getItem(KEY) !== null) return;
+    const put = IDBObjectStore.prototype.put;
+    const evaluationsOf = (text) => { try { return JSON.parse(text).payload.evaluations; } catch { return null; } };
+    let writes = 0;
+    let before = null;
+    IDBObjectStore.prototype.put = function (...args) {
+      const request = put.apply(this, args);
+      if (this.name === 'checkpoints') {
+        writes += 1;
+        const evaluations = evaluationsOf(args[0].text);
+        if (writes === ${nth}) {
+          sessionStorage.setItem(KEY, JSON.stringify({ torn: evaluations, before }));
+          this.transaction.abort();
+          location.reload();
+        }
+        before = evaluations;
+      }
+      return request;
+    };
+  })();`;
+}
+
+/** What `tornCheckpointWriteScript` noted: the evaluations of the torn checkpoint and of the one before it; null until it tore one. */
+export async function tornCheckpointWrite(page: Page): Promise<{ torn: number; before: number } | null> {
+  const text = await page.evaluate(() => sessionStorage.getItem('loci-test-torn-write'));
+  return text === null ? null : (JSON.parse(text) as { torn: number; before: number });
+}
+
+/**
+ * An init script that lets a test fill the storage: while `setStorageFull(page, true)`
+ * holds, every checkpoint write throws QuotaExceededError, the error the browser's
+ * IndexedDB gives when the disk or the site's quota is full. (Chromium 156's
+ * `Storage.overrideQuotaForOrigin` reports the override active but did not refuse
+ * IndexedDB writes in a test context, so the fault is made here, in the page.)
+ */
+export const STORAGE_FULL_SCRIPT = `(() => {
+  const put = IDBObjectStore.prototype.put;
+  IDBObjectStore.prototype.put = function (...args) {
+    if (this.name === 'checkpoints' && window.__lociTestStorageFull === true) throw new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+    return put.apply(this, args);
+  };
+})();`;
+
+/** Fills (true) or frees (false) the storage of a page that runs STORAGE_FULL_SCRIPT. */
+export async function setStorageFull(page: Page, full: boolean): Promise<void> {
+  await page.evaluate((value) => {
+    (window as unknown as { __lociTestStorageFull: boolean }).__lociTestStorageFull = value;
+  }, full);
+}

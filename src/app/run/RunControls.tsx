@@ -1,5 +1,6 @@
 /** Start, pause, resume and stop the search, and how far it has got: evaluations, best error (mm), rate and time left. */
 import { useEffect, useState } from 'react';
+import { LongRunAids } from '../search/LongRunAids';
 import { useServices } from '../services';
 import { isActive, previousResultsTarget, type RunState, type RunStatus } from '../state/project';
 import { useWorkspace } from '../state/store';
@@ -150,6 +151,7 @@ export function RunControls({ startIssues }: { startIssues: readonly string[] })
           </details>
         )}
       </div>
+      <LongRunAids running={active} />
     </section>
   );
 }

@@ -27,7 +27,8 @@ export function progressPatch(progress: RunProgress, run: RunState, wallNowMs: n
     patch.bestFeasible = !(progress.best.violation > 0);
   }
   const round = progress.checkpointRound;
-  if (round !== null && (run.checkpoint === null || run.checkpoint.round !== round)) {
+  // A checkpoint the store refused is no place a reload goes back to: the note keeps the last one saved.
+  if (round !== null && progress.checkpointError === undefined && (run.checkpoint === null || run.checkpoint.round !== round)) {
     patch.checkpoint = { round, evaluations: progress.evaluations, savedAtMs: wallNowMs };
   }
   return patch;

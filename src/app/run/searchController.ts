@@ -25,6 +25,7 @@ import { CANDIDATES_SHOWN, buildRunInput, problemFileOf } from './runInput';
 import { progressPatch } from './progress';
 import { InterimDescriber, newestReadable } from './interimCandidates';
 import { failureWords } from './failureWords';
+import { askPersistenceOnStart, workerRestartMessage } from '../search/longRun';
 
 /** Progress reaches the store at most this often, ms. */
 export const PROGRESS_EVERY_MS = 250;
@@ -58,6 +59,8 @@ export class SearchController {
   private lastDispatchMs = -Infinity;
   private trailing: ReturnType<typeof setTimeout> | null = null;
   private unsubscribe: (() => void) | null = null;
+  /** Worker restarts of the run followed, as its first report gave them (a resumed run counts those before). */
+  private restartsSeen: number | null = null;
 
   constructor(store: Store, deps: SearchDeps) {
     this.store = store;
@@ -147,6 +150,7 @@ export class SearchController {
       withTerms: problemFileOf(project).terms !== undefined,
     });
     this.store.dispatch({ type: 'run/candidates', candidates: [], target: this.runTarget });
+    askPersistenceOnStart();
     if (this.deps.db !== null) await dropCheckpointsExcept(this.deps.db, [runId]).catch(() => {});
     await this.drive(made.run, false);
   }
@@ -178,6 +182,7 @@ export class SearchController {
   private async follow(run: Run, resumed: boolean): Promise<void> {
     this.run = run;
     this.restoredPaused = false;
+    this.restartsSeen = null;
     let first = true;
     this.unsubscribe = run.onProgress((progress) => {
       if (resumed && first && progress.status === 'running') {
@@ -196,6 +201,11 @@ export class SearchController {
   }
 
   private onProgress(progress: RunProgress): void {
+    if (this.restartsSeen === null) this.restartsSeen = progress.restarts;
+    if (progress.restarts > this.restartsSeen) {
+      this.restartsSeen = progress.restarts;
+      this.update({ message: workerRestartMessage(progress) });
+    }
     const statusNow = this.project.run.status;
     const status = progress.status === 'running' && statusNow === 'starting' ? 'running' : null;
     // A new checkpoint goes through at once: its evaluation count is exact only at this report.

@@ -4,6 +4,7 @@
  */
 import { figure } from '../suspension/labels';
 import type { SearchSession } from './controller';
+import { LongRunAids } from './LongRunAids';
 
 const STATE_WORDS = { running: 'Searching', stopping: 'Stopping', finished: 'Finished', failed: 'Stopped' } as const;
 
@@ -26,6 +27,7 @@ export function SearchProgress({ session, jobName, className, testId }: {
           ))}
         </ul>
       )}
+      <LongRunAids running={session.status === 'running' || session.status === 'stopping'} />
     </div>
   );
 }

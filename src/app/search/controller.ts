@@ -28,6 +28,7 @@ import { createReducerStore, type ReducerStore } from '../reducerStore';
 import { newestReadable } from '../run/interimCandidates';
 import { failureWords } from '../run/failureWords';
 import type { SearchCheckpoints } from './checkpoints';
+import { askPersistenceOnStart, workerRestartMessage } from './longRun';
 import type { RankedDesign, RunningSearchOf, SearchRunOf, SearchSettings, SearchStatus } from './types';
 
 export type { RankedDesign, RunningSearchOf, SearchRunOf, SearchSettings, SearchStatus } from './types';
@@ -133,6 +134,8 @@ export class SearchController<P, C extends RankedDesign> {
   private unsubscribe: (() => void) | null = null;
   private lastDispatchMs = -Infinity;
   private trailing: ReturnType<typeof setTimeout> | null = null;
+  /** Worker restarts of the run followed, as its first report gave them (a resumed run counts those before). */
+  private restartsSeen: number | null = null;
 
   constructor(kind: SearchKind<P, C>, deps: SearchControllerDeps<P, C>) {
     this.kind = kind;
@@ -195,6 +198,7 @@ export class SearchController<P, C extends RankedDesign> {
     if (this.deps.checkpoints !== undefined && !(await this.deps.checkpoints.durable().catch(() => false))) {
       this.update({ message: 'This browser keeps no storage (private window?): a reload loses this search. Stop keeps the designs found so far.' });
     }
+    askPersistenceOnStart();
     // Older runs' checkpoints of this scope are of no use now (a run whose resume failed leaves some).
     await this.deps.checkpoints?.dropExcept([running.runId]).catch(() => {});
     this.deps.onStarted?.(running);
@@ -272,6 +276,7 @@ export class SearchController<P, C extends RankedDesign> {
   }
 
   private async follow(run: Run, running: RunningSearchOf<P>, ended: () => void): Promise<void> {
+    this.restartsSeen = null;
     this.unsubscribe = run.onProgress((progress) => this.onProgress(progress));
     let result: RunResult;
     try {
@@ -286,6 +291,11 @@ export class SearchController<P, C extends RankedDesign> {
   }
 
   private onProgress(progress: RunProgress): void {
+    if (this.restartsSeen === null) this.restartsSeen = progress.restarts;
+    if (progress.restarts > this.restartsSeen) {
+      this.restartsSeen = progress.restarts;
+      this.update({ message: workerRestartMessage(progress) });
+    }
     const now = performance.now();
     if (now - this.lastDispatchMs < SEARCH_PROGRESS_EVERY_MS) {
       // Keep the latest for a trailing update, so the last numbers are never lost.

@@ -7,26 +7,46 @@
  */
 import type { CheckpointStore } from '../../engine';
 import type { LociDb } from './db';
+import { saveFailureReason, storageStatus, type StorageStatusStore } from './storageStatus';
 
 /** Checkpoints kept per run: the latest and two before it. */
 export const CHECKPOINTS_KEPT = 3;
 
-export function indexedDbCheckpointStore(db: LociDb, runId: string, keep = CHECKPOINTS_KEPT): CheckpointStore {
+/**
+ * Each save's outcome also goes to `status` (the page's storage status), so the page can
+ * say that checkpoints are not being saved (a full disk or quota: QuotaExceededError)
+ * while the search goes on, and that they are again.
+ */
+export function indexedDbCheckpointStore(db: LociDb, runId: string, keep = CHECKPOINTS_KEPT, status: StorageStatusStore = storageStatus): CheckpointStore {
   return {
     async save(text) {
-      const tx = db.transaction('checkpoints', 'readwrite');
-      const index = tx.store.index('byRun');
-      const keys = (await index.getAllKeys(runId)).sort((a, b) => a[1] - b[1]);
-      const seq = keys.length === 0 ? 1 : keys[keys.length - 1][1] + 1;
-      await tx.store.put({ runId, seq, text, savedAt: Date.now() });
-      for (const key of keys.slice(0, Math.max(0, keys.length + 1 - keep))) await tx.store.delete(key);
-      await tx.done;
+      try {
+        await saveInOneTransaction(db, runId, keep, text);
+      } catch (error) {
+        status.failed(saveFailureReason(error));
+        throw error;
+      }
+      status.saved();
     },
     async load() {
       const records = await db.getAllFromIndex('checkpoints', 'byRun', runId);
       return records.sort((a, b) => b.seq - a.seq).map((r) => r.text);
     },
   };
+}
+
+/** Adds the checkpoint and drops the oldest beyond `keep`, all or nothing. */
+async function saveInOneTransaction(db: LociDb, runId: string, keep: number, text: string): Promise<void> {
+  const tx = db.transaction('checkpoints', 'readwrite');
+  // Every request's failure is the transaction's: read it once, from `done`.
+  const done = tx.done;
+  done.catch(() => {});
+  const index = tx.store.index('byRun');
+  const keys = (await index.getAllKeys(runId)).sort((a, b) => a[1] - b[1]);
+  const seq = keys.length === 0 ? 1 : keys[keys.length - 1][1] + 1;
+  await tx.store.put({ runId, seq, text, savedAt: Date.now() });
+  for (const key of keys.slice(0, Math.max(0, keys.length + 1 - keep))) await tx.store.delete(key);
+  await done;
 }
 
 /**

@@ -1,9 +1,11 @@
 /** The engine's environment in a browser: search workers are module Workers, the clock is performance.now. */
 import type { EngineEnvironment, WorkerHandle } from '../environment';
+import { lifeLockName, watchLifeLock } from './lifeLock';
 
 export function spawnBrowserSearchWorker(): WorkerHandle {
+  const name = lifeLockName();
   // Written out in full so the bundler sees the worker entry and builds it.
-  const worker = new Worker(new URL('../../../workers/searchWorker.ts', import.meta.url), { type: 'module' });
+  const worker = new Worker(new URL('./searchWorkerEntry.ts', import.meta.url), { type: 'module', name });
   const listeners: ((reason: string) => void)[] = [];
   let failed = false;
   const fail = (reason: string) => {
@@ -13,6 +15,8 @@ export function spawnBrowserSearchWorker(): WorkerHandle {
   };
   worker.addEventListener('error', (event) => fail(event.message || 'the worker could not start or threw'));
   worker.addEventListener('messageerror', () => fail('a message could not be read'));
+  // A worker that closed itself or was stopped by the browser says nothing; its life lock does.
+  if (name !== undefined) watchLifeLock(worker, name, () => fail('the worker ended (it closed, or the browser stopped it)'));
   return {
     endpoint: worker,
     onFailure(listener) {
