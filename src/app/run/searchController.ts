@@ -168,7 +168,7 @@ export class SearchController {
       this.update(
         resumed
           ? { message: 'This search is running in another Loci tab or window; it goes on there.' }
-          : { status: 'idle', message: 'Another Loci tab or window is running a search; stop it there first.' },
+          : { status: 'idle', message: 'Another search is running: in another Loci tab or window, or a job of the batch queue. Stop it there, or pause the queue, first.' },
       );
       return;
     }
