@@ -126,3 +126,75 @@ export class LockSearch {
     return curve.marginAt(t);
   }
 }
+
+/** Layout of fourBarLockArcs' output: per arc its centre and half-width in crank angle from the ground line (rad); half-width < 0 when there is none. */
+export const LOCK_ARC_CENTRE_NEAR = 0;
+export const LOCK_ARC_HALF_NEAR = 1;
+export const LOCK_ARC_CENTRE_FAR = 2;
+export const LOCK_ARC_HALF_FAR = 3;
+/** Slot 4: the crank's angle from the ground line in the reference pose (rad). */
+export const LOCK_ARC_CRANK_AT = 4;
+export const LOCK_ARC_LENGTH = 5;
+
+/**
+ * Where a four-bar's crank cannot go, in closed form: with ground g = |B0 − A0|, crank
+ * r = |A − A0|, coupler b = |B − A| and rocker c = |B − B0| (offsets of x, y in `pose`),
+ * the pin A is d from B0, d² = g² + r² − 2gr cos ψ (law of cosines, ψ the crank's angle
+ * from A0 → B0), and the dyad A–B–B0 closes only while |b − c| ≤ d ≤ b + c. The crank
+ * locks where coupler and rocker line up: cos ψ = (g² + r² − (b − c)²) / 2gr (folded,
+ * near ψ = 0) or (g² + r² − (b + c)²) / 2gr (stretched, near ψ = π). Writes the two
+ * arcs of ψ that do not assemble (closed, edges included: a dead centre is a lock) and
+ * the reference ψ, in LOCK_ARC_* layout.
+ */
+export function fourBarLockArcs(pose: Float64Array, a0: number, a: number, b: number, b0: number, out: Float64Array): void {
+  const gx = pose[b0] - pose[a0];
+  const gy = pose[b0 + 1] - pose[a0 + 1];
+  const rx = pose[a] - pose[a0];
+  const ry = pose[a + 1] - pose[a0 + 1];
+  const cx = pose[b] - pose[a];
+  const cy = pose[b + 1] - pose[a + 1];
+  const ox = pose[b] - pose[b0];
+  const oy = pose[b + 1] - pose[b0 + 1];
+  const g2 = gx * gx + gy * gy;
+  const r2 = rx * rx + ry * ry;
+  const coupler = Math.sqrt(cx * cx + cy * cy);
+  const rocker = Math.sqrt(ox * ox + oy * oy);
+  const twoGr = 2 * Math.sqrt(g2 * r2);
+  const folded = (g2 + r2 - (coupler - rocker) * (coupler - rocker)) / twoGr;
+  const stretched = (g2 + r2 - (coupler + rocker) * (coupler + rocker)) / twoGr;
+  out[LOCK_ARC_CENTRE_NEAR] = 0;
+  // cos ψ ≥ folded fails: |ψ| ≤ acos(folded); none when folded > 1. A crank or ground
+  // of no length (±∞ or NaN here): d is constant, so a motion that assembled has no lock.
+  out[LOCK_ARC_HALF_NEAR] = folded <= 1 ? Math.acos(Math.max(-1, folded)) : -1;
+  out[LOCK_ARC_CENTRE_FAR] = Math.PI;
+  // cos ψ ≤ stretched fails: |ψ − π| ≤ π − acos(stretched).
+  out[LOCK_ARC_HALF_FAR] = stretched >= -1 ? Math.PI - Math.acos(Math.min(1, stretched)) : -1;
+  out[LOCK_ARC_CRANK_AT] = Math.atan2(gx * ry - gy * rx, gx * rx + gy * ry);
+}
+
+/**
+ * The locks a four-bar's crank meets over driver spans (from, to) spans[2i], spans[2i + 1]
+ * (rotations from the reference pose, rad): the copies (every turn) of the arcs of
+ * `arcs` (fourBarLockArcs) that touch each span, summed over the spans. A span starting
+ * or ending inside an arc meets that lock too.
+ */
+export function fourBarLockCount(arcs: Float64Array, spans: Float64Array, count: number): number {
+  const turn = 2 * Math.PI;
+  const at = arcs[LOCK_ARC_CRANK_AT];
+  let locks = 0;
+  for (let i = 0; i < count; i++) {
+    const lo = at + spans[2 * i];
+    const hi = at + spans[2 * i + 1];
+    if (!(hi >= lo)) continue;
+    for (let q = 0; q < 4; q += 2) {
+      const half = arcs[q + 1];
+      if (!(half >= 0)) continue;
+      const centre = arcs[q];
+      // Copies k with centre + k·turn − half ≤ hi and centre + k·turn + half ≥ lo.
+      const first = Math.ceil((lo - half - centre) / turn);
+      const last = Math.floor((hi + half - centre) / turn);
+      if (last >= first) locks += last - first + 1;
+    }
+  }
+  return locks;
+}

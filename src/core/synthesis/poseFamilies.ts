@@ -9,15 +9,16 @@
  * the one of the reference pose. A slider's direction stays that of the family's default.
  *
  * Locks: the search samples a motion every MOTION_CHECK_STEP_RAD; for a design otherwise
- * feasible `verify` finds the locks between samples (Grashof's criterion for the
- * four-bar's full turn, a margin search in lockSearch.ts for the rest). A report draws
- * the design in its pose at the driver value asked for (the objective asks for target
- * point 1's), so an exported linkage sits on its fitted motion.
+ * feasible `verify` finds the locks between samples (for the four-bar in closed form:
+ * Grashof's criterion for its full turn, the crank's limit angles for a motion; a margin
+ * search in lockSearch.ts for the rest). A report draws the design in its pose at the
+ * driver value asked for (the objective asks for target point 1's), so an exported
+ * linkage sits on its fitted motion.
  */
 import {
   compile,
-  run,
-  runWithRates,
+  run as runBinding,
+  runWithRates as runWithRatesBinding,
   setReferencePose,
   type Linkage,
   type Plan,
@@ -47,11 +48,12 @@ import {
 } from './encoding';
 import { POSE_FAMILY_BUILDERS, poseVariableNames } from './familyVariables';
 import { crankViolation, inputTurnsFully } from './grashofTurn';
-import { LockSearch, type MarginCurve } from './lockSearch';
+import { LOCK_ARC_LENGTH, LockSearch, fourBarLockArcs, fourBarLockCount, type MarginCurve } from './lockSearch';
 import type { Constraints, FamilyId } from './problem';
 
-// Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
-// imported binding into a getter call, which the hot loops below cannot afford.
+// Imported constants and kernel entries as locals: a module transform (tsx, vitest) may
+// turn each read of an imported binding into a getter call, which the hot loops below
+// cannot afford.
 const CURVE_DX = CURVE_DX_BINDING;
 const CURVE_DY = CURVE_DY_BINDING;
 const CURVE_X = CURVE_X_BINDING;
@@ -62,6 +64,8 @@ const V_KEEP_OUT = V_KEEP_OUT_BINDING;
 const V_LINK_LENGTH = V_LINK_LENGTH_BINDING;
 const V_TRANSMISSION = V_TRANSMISSION_BINDING;
 const EXTENT_COS = EXTENT_COS_BINDING;
+const run = runBinding;
+const runWithRates = runWithRatesBinding;
 
 const TAU = 2 * Math.PI;
 /** Driver step of the lock and transmission checks along a motion: 72 per turn. */
@@ -253,6 +257,9 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   // The four-bar's full turn is Grashof's criterion on its one loop, exactly; the other
   // families' needs every loop: a margin search.
   const grashofLoop = family === 'fourbar' ? driven : undefined;
+  // The four-bar's locks along a motion: its crank's limit angles, in closed form.
+  const lockArcs = new Float64Array(LOCK_ARC_LENGTH);
+  const fourBarSlots = family === 'fourbar' ? Int32Array.from(['A0', 'A', 'B', 'B0'].map(slotOfJoint)) : undefined;
   const fullTurn = constraints.fullTurnCrank === true;
   const cosLimit = transmissionCosLimit(constraints.minTransmissionRad);
   const linkLimits = constraints.linkLengthMm;
@@ -330,6 +337,11 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       if (fullTurn) {
         // Grashof's criterion in load was exact already.
         if (grashofLoop === undefined) parts[V_CRANK] += LOCK_SHARE * fullTurnLocks();
+        return;
+      }
+      if (fourBarSlots !== undefined) {
+        fourBarLockArcs(plan.reference, fourBarSlots[0], fourBarSlots[1], fourBarSlots[2], fourBarSlots[3], lockArcs);
+        parts[V_BRANCH] += LOCK_SHARE * fourBarLockCount(lockArcs, spans, count);
         return;
       }
       curve.reset();
