@@ -1,7 +1,8 @@
 /**
  * Kernel throughput on one core: four-bar coupler-point solves per second through the
- * compiled plan (its generated kernel, and the interpreter that replaces it where a
- * Content-Security-Policy forbids code generation), beside a hand-written four-bar loop
+ * compiled plan (its generated kernel, called per driver value and through the batch
+ * entry runBatch, and the interpreter that replaces it where a Content-Security-Policy
+ * forbids code generation), beside a hand-written four-bar loop
  * on typed arrays doing the same arithmetic, the same loop in C (bench/c/fourbar.c,
  * gcc -O3, skipped when gcc is absent) and the plan as a WebAssembly module
  * (bench/wasmKernel.ts: through run's interface, and with the pose left in its memory),
@@ -14,7 +15,7 @@
  * ratio the median of the ratios within a round. Results fold into
  * checksums reported outside the timed regions, and every coupler point of the plan is
  * compared bit for bit with the hand-written loop's, the interpreter's, the WebAssembly
- * module's and the C program's.
+ * module's, the batch entry's (generated and interpreted) and the C program's.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -24,6 +25,7 @@ import { fileURLToPath } from 'node:url';
 import { polarInto as polarImport } from '../src/core/geometry';
 import { SINCOS_CONSTANTS, SINCOS_REDUCTION_LIMIT } from '../src/core/geometry/trig';
 import { FOUR_BAR_DEFAULT, STEPHENSON_III_DEFAULT, compile, fourBar, run as runImport, stephensonIII, type Plan } from '../src/core/linkage';
+import { runBatch as runBatchImport } from '../src/core/linkage/run';
 import type { PlanInternal } from '../src/core/linkage/plan';
 import { runWasm as runWasmImport, wasmKernel, type WasmKernel } from './wasmKernel';
 import { Prng } from '../src/core/optimize/prng';
@@ -31,6 +33,7 @@ import { Prng } from '../src/core/optimize/prng';
 // Hot loops call module-local functions: tsx turns imported bindings into getters, a
 // call per use that would also stop inlining (see src/core/linkage/run.ts).
 const run = runImport;
+const runBatch = runBatchImport;
 const polarInto = polarImport;
 const runWasm = runWasmImport;
 
@@ -56,6 +59,30 @@ function planLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float6
   for (let i = 0; i < solves; i++) {
     run(plan, angles[i & mask], pose);
     acc += pose[pSlot] + pose[pSlot + 1];
+  }
+  return acc;
+}
+
+/** The batch entry: the angles in calls of INPUT_COUNT (the rest in one shorter call), P's (x, y) out of each. */
+interface Batch {
+  readonly slots: Int32Array;
+  readonly out: Float64Array;
+  readonly tail: Float64Array;
+  readonly tailOut: Float64Array;
+}
+
+function batchFor(angles: Float64Array, solves: number, pSlot: number): Batch {
+  const rest = solves % angles.length;
+  return { slots: Int32Array.of(pSlot), out: new Float64Array(2 * angles.length), tail: angles.subarray(0, rest), tailOut: new Float64Array(2 * rest) };
+}
+
+function batchLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float64Array, b: Batch): number {
+  let acc = 0;
+  for (let done = 0; done < solves; done += angles.length) {
+    const whole = solves - done >= angles.length;
+    const out = whole ? b.out : b.tailOut;
+    runBatch(plan, whole ? angles : b.tail, pose, b.slots, out);
+    for (let i = 0; i < out.length; i += 2) acc += out[i] + out[i + 1];
   }
   return acc;
 }
@@ -303,8 +330,12 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
   const native = buildNative(angles, dims);
   if (typeof native === 'string') console.log(`kernel: the C comparison is skipped: ${native}`);
 
+  const batch4 = batchFor(angles, FOURBAR_SOLVES, p4);
+  const poseB = Float64Array.from(plan4.reference);
+
   // Warm-up: let the JIT compile every loop before timing.
   planLoop(plan4, angles, 200_000, pose4, p4);
+  batchLoop(plan4, angles, 200_000, poseB, batchFor(angles, 200_000, p4));
   handLoop(dims, angles, 200_000, hand);
   handLoopMathTrig(dims, angles, 200_000, hand);
   wasmLoop(wasm, plan4 as PlanInternal, angles, 200_000, poseW, p4);
@@ -316,8 +347,10 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
     { solves: FOURBAR_SOLVES, body: () => handLoopMathTrig(dims, angles, FOURBAR_SOLVES, hand) },
     { solves: FOURBAR_SOLVES, body: () => wasmLoop(wasm, plan4 as PlanInternal, angles, FOURBAR_SOLVES, poseW, p4) },
     { solves: FOURBAR_SOLVES, body: () => wasmInMemoryLoop(wasm, angles, FOURBAR_SOLVES, p4) },
+    { solves: FOURBAR_SOLVES, body: () => batchLoop(plan4, angles, FOURBAR_SOLVES, poseB, batch4) },
   ];
-  const C_LOOP = 5;
+  const BATCH_LOOP = 5;
+  const C_LOOP = 6;
   if (typeof native !== 'string') {
     // The C loop times itself inside its process, so the spawn is not counted.
     let nativeRate = 0;
@@ -344,10 +377,14 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
   const interpreted = compiled(fourBar()) as PlanInternal;
   interpreted.kernel = null;
   const poseI = Float64Array.from(interpreted.reference);
+  const poseIB = Float64Array.from(interpreted.reference);
+  const batchI = batchFor(angles, INTERPRETER_SOLVES, p4);
   planLoop(interpreted, angles, 50_000, poseI, p4);
+  batchLoop(interpreted, angles, 50_000, poseIB, batchFor(angles, 50_000, p4));
   const fallback = interleaved([
     { solves: FOURBAR_SOLVES, body: () => planLoop(plan4, angles, FOURBAR_SOLVES, pose4, p4) },
     { solves: INTERPRETER_SOLVES, body: () => planLoop(interpreted, angles, INTERPRETER_SOLVES, poseI, p4) },
+    { solves: INTERPRETER_SOLVES, body: () => batchLoop(interpreted, angles, INTERPRETER_SOLVES, poseIB, batchI) },
   ]);
 
   const plan6 = compiled(stephensonIII(STEPHENSON_III_DEFAULT));
@@ -384,7 +421,14 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
     if (runWasm(wasm, plan4 as PlanInternal, poseW) !== -1) throw new Error(`bench: the WebAssembly kernel failed at ${angles[i]} rad`);
     wasmPoints.set(poseW.subarray(p4, p4 + 2), 2 * i);
   }
-  const against: [string, Float64Array][] = [['the hand-written loop', handPoints], ['the interpreter', interpretedPoints], ['the WebAssembly kernel', wasmPoints]];
+  const batchPoints = new Float64Array(2 * INPUT_COUNT);
+  const interpretedBatchPoints = new Float64Array(2 * INPUT_COUNT);
+  runBatch(plan4, angles, poseB, batch4.slots, batchPoints);
+  runBatch(interpreted, angles, poseIB, batch4.slots, interpretedBatchPoints);
+  const against: [string, Float64Array][] = [
+    ['the hand-written loop', handPoints], ['the interpreter', interpretedPoints], ['the WebAssembly kernel', wasmPoints],
+    ['the batch entry', batchPoints], ["the interpreter's batch entry", interpretedBatchPoints],
+  ];
   if (nativePoints !== null) against.push(['the C loop', nativePoints]);
   for (const [name, points] of against) {
     const at = firstDifference(planPoints, points);
@@ -392,6 +436,9 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
   }
   if (four.checksum[4] !== four.checksum[0]) throw new Error(`bench: the WebAssembly kernel's checksum ${four.checksum[4]} differs from the plan's ${four.checksum[0]}`);
   if (four.checksum[0] !== four.checksum[1]) throw new Error(`bench: plan checksum ${four.checksum[0]} differs from the hand-written loop's ${four.checksum[1]}`);
+  if (four.checksum[BATCH_LOOP] !== four.checksum[0]) throw new Error(`bench: the batch entry's checksum ${four.checksum[BATCH_LOOP]} differs from the plan's ${four.checksum[0]}`);
+  // Within each round: the batch entry over the hand-written loop, and over the C loop.
+  const batchOver = (loop: number) => median(four.overFirst[BATCH_LOOP].map((r, i) => r / four.overFirst[loop][i]));
 
   const nativeRatio = typeof native === 'string' ? null : median(four.overFirst[C_LOOP]);
   return {
@@ -400,12 +447,16 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
     fourbar_plan_over_handwritten_ratio: 1 / median(four.overFirst[1]),
     fourbar_c_per_s: typeof native === 'string' ? null : four.perS[C_LOOP],
     fourbar_plan_over_c_ratio: nativeRatio === null ? null : 1 / nativeRatio,
+    fourbar_batch_per_s: four.perS[BATCH_LOOP],
+    fourbar_batch_over_handwritten_ratio: batchOver(1),
+    fourbar_batch_over_c_ratio: typeof native === 'string' ? null : batchOver(C_LOOP),
     fourbar_wasm_per_s: four.perS[3],
     fourbar_wasm_over_plan_ratio: median(four.overFirst[3]),
     fourbar_wasm_inmemory_per_s: four.perS[4],
     fourbar_wasm_inmemory_over_plan_ratio: median(four.overFirst[4]),
     fourbar_interpreter_per_s: fallback.perS[1],
     fourbar_interpreter_over_plan_ratio: median(fallback.overFirst[1]),
+    fourbar_interpreter_batch_over_plan_ratio: median(fallback.overFirst[2]),
     fourbar_handwritten_mathtrig_per_s: four.perS[2],
     stephenson3_per_s: steph.perS[0],
     fourbar_checksum: four.checksum[0],

@@ -21,6 +21,10 @@ import {
   type Linkage,
 } from '../../src/core/linkage';
 import { OP_STRIDE, type PlanInternal } from '../../src/core/linkage/plan';
+import { runBatch } from '../../src/core/linkage/run';
+import { KERNEL_CHUNK_OPS } from '../../src/core/linkage/specialise';
+import { readLinkageFile } from '../../src/core/io/linkageFile';
+import { dyadChain } from './hostileLinkages';
 import { WASM_DEFER, runWasm, wasmKernel } from '../../bench/wasmKernel';
 import { Prng } from '../../src/core/optimize/prng';
 
@@ -179,7 +183,120 @@ describe('the generated kernel (specialise.ts) against the interpreter, bit for 
         expect(run(generated, v, a)).toBe(run(interpreted, v, b));
         expect(bits(a)).toBe(bits(b));
       }
+      // The batch entry, whose generated code reads the driver value for the length it sets.
+      const values = Float64Array.from({ length: 40 }, (_, k) => (k % 13 === 5 ? -v0 : v0 * (0.3 + (1.4 * k) / 40)));
+      const slots = Int32Array.from({ length: generated.slotCount }, (_, k) => 2 * k);
+      const out = new Float64Array(2 * slots.length * values.length);
+      const expected = new Float64Array(out.length);
+      let failed = 0;
+      values.forEach((v, k) => {
+        const ok = run(interpreted, v, b);
+        if (!ok) failed++;
+        slots.forEach((s, j) => {
+          expected[2 * (k * slots.length + j)] = ok ? b[s] : NaN;
+          expected[2 * (k * slots.length + j) + 1] = ok ? b[s + 1] : NaN;
+        });
+      });
+      expect(runBatch(generated, values, a, slots, out)).toBe(failed);
+      expect(failed).toBeGreaterThan(0);
+      expect(bits(out)).toBe(bits(expected));
+      expect(bits(a)).toBe(bits(b));
+      expect(generated.params).toEqual(interpreted.params);
     }
+  });
+});
+
+describe('the batch entry (runBatch) against run called value by value, bit for bit', () => {
+  // Second, independent method: run called once per driver value on the interpreter, the
+  // outputs read from its pose after each call. Source: common practice (differential testing).
+  it.each(FAMILIES.map((f, i) => [f.name, f, 20260101 + i] as const))('%s: the generated batch and the interpreter\'s give the poses, outputs, failures and failing operation of run', (_name, family, seed) => {
+    let failures = 0;
+    let values = 0;
+    for (const [generated, interpreted] of seededPlans(family, seed)) {
+      expect(generated.kernel?.batch).toBeTypeOf('function');
+      interpreted.kernel = null;
+      const reference = compile(generated.linkage);
+      if (!reference.ok) throw new Error('the design compiled once and should again');
+      const byValue = reference.plan as PlanInternal;
+      byValue.kernel = null;
+      // All driver values in one call, then a few calls of a few values: the pose carries over.
+      const all = Float64Array.from(driverValues(generated.driverReferenceValue));
+      const chunks = [all, all.subarray(0, 5), all.subarray(5, 6), all.subarray(190, 203), new Float64Array(0)];
+      // Every joint and point, the coupler point alone, and a slot twice.
+      const slotSets = [Int32Array.from({ length: generated.slotCount }, (_, k) => 2 * k), Int32Array.of(2 * (generated.slotCount - 1)), Int32Array.of(0, 2, 0)];
+      for (const slots of slotSets) {
+        const a = Float64Array.from(generated.reference);
+        const b = Float64Array.from(generated.reference);
+        const c = Float64Array.from(generated.reference);
+        for (const chunk of chunks) {
+          const outA = new Float64Array(2 * slots.length * chunk.length);
+          const outB = new Float64Array(outA.length);
+          const outC = new Float64Array(outA.length);
+          const failedA = runBatch(generated, chunk, a, slots, outA);
+          const failedB = runBatch(interpreted, chunk, b, slots, outB);
+          let failedC = 0;
+          chunk.forEach((v, i) => {
+            const ok = run(byValue, v, c);
+            if (!ok) failedC++;
+            slots.forEach((s, j) => {
+              outC[2 * (i * slots.length + j)] = ok ? c[s] : NaN;
+              outC[2 * (i * slots.length + j) + 1] = ok ? c[s + 1] : NaN;
+            });
+          });
+          expect([failedA, failedB]).toEqual([failedC, failedC]);
+          if (chunk.length > 0) expect([generated.failedOp, interpreted.failedOp]).toEqual([byValue.failedOp, byValue.failedOp]);
+          expect(bits(outA)).toBe(bits(outC));
+          expect(bits(outB)).toBe(bits(outC));
+          expect(bits(a)).toBe(bits(c));
+          expect(bits(b)).toBe(bits(c));
+          failures += failedC;
+          values += chunk.length;
+        }
+      }
+    }
+    // Both outcomes are exercised (non-finite driver values fail at least).
+    expect(failures).toBeGreaterThan(0);
+    expect(values - failures).toBeGreaterThan(0);
+  });
+
+  // Source: run value by value again; a plan too long for one function has no generated batch, and runBatch calls its chunked kernel per value.
+  it('a plan longer than one generated function gives run\'s bits too', () => {
+    const parsed = readLinkageFile(dyadChain(600));
+    if (!parsed.ok) throw new Error(JSON.stringify(parsed.issues));
+    const plan = parsed.plan as PlanInternal;
+    expect(plan.opCount).toBeGreaterThan(KERNEL_CHUNK_OPS);
+    expect(plan.kernel).not.toBeNull();
+    expect(plan.kernel?.batch).toBeNull();
+    const v0 = plan.driverReferenceValue;
+    const values = Float64Array.of(v0, v0 + 0.01, v0 + 2.5, NaN, v0 - 0.01);
+    const slots = Int32Array.of(0, 2 * (plan.slotCount - 1));
+    const a = Float64Array.from(plan.reference);
+    const b = Float64Array.from(plan.reference);
+    const out = new Float64Array(2 * slots.length * values.length);
+    const expected = new Float64Array(out.length);
+    let failed = 0;
+    values.forEach((v, k) => {
+      const ok = run(plan, v, b);
+      if (!ok) failed++;
+      slots.forEach((s, j) => {
+        expected[2 * (k * slots.length + j)] = ok ? b[s] : NaN;
+        expected[2 * (k * slots.length + j) + 1] = ok ? b[s + 1] : NaN;
+      });
+    });
+    expect(runBatch(plan, values, a, slots, out)).toBe(failed);
+    expect(failed).toBeGreaterThan(0);
+    expect(bits(out)).toBe(bits(expected));
+    expect(bits(a)).toBe(bits(b));
+  });
+
+  it('refuses an output array of the wrong length and a slot that is not a pose offset, saying what was expected', () => {
+    const compiled = compile(fourBar());
+    if (!compiled.ok) throw new Error('the four-bar compiles');
+    const plan = compiled.plan;
+    const pose = Float64Array.from(plan.reference);
+    expect(() => runBatch(plan, new Float64Array(3), pose, Int32Array.of(8), new Float64Array(5))).toThrow(/out has 5 numbers; expected 6/);
+    expect(() => runBatch(plan, new Float64Array(3), pose, Int32Array.of(3), new Float64Array(6))).toThrow(/slots\[0\] is 3; expected a pose offset/);
+    expect(() => runBatch(plan, new Float64Array(3), pose, Int32Array.of(10), new Float64Array(6))).toThrow(/slots\[0\] is 10/);
   });
 });
 

@@ -219,13 +219,19 @@ export function solveBlock(p: PlanInternal, block: number, pose: Float64Array): 
 
 /** Each plan's blocks that are triads (triad.ts), found on first use: the topology of a plan does not change. */
 const TRIADS = new WeakMap<PlanInternal, readonly (Int32Array | null)[]>();
+/** The plan last asked about and its triads: a search solves one plan many times in a row, and this spares the map's lookup. */
+let lastPlan: PlanInternal | null = null;
+let lastTriads: readonly (Int32Array | null)[] = [];
 
 function triadsOf(p: PlanInternal): readonly (Int32Array | null)[] {
+  if (p === lastPlan) return lastTriads;
   let found = TRIADS.get(p);
   if (found === undefined) {
     found = Array.from({ length: p.blockCount }, (_, b) => triadLayout(p, b));
     TRIADS.set(p, found);
   }
+  lastPlan = p;
+  lastTriads = found;
   return found;
 }
 

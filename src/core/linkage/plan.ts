@@ -128,6 +128,18 @@ export interface PlanInternal extends Plan {
 
 /**
  * Runs a plan on `pose` at the driver value in its driverValue[0]: -1 on success, else
- * the index of the operation that failed (run.ts then fills NaN from there on).
+ * the index of the operation that failed (run.ts then fills NaN from there on). `batch`
+ * runs it at many driver values in one call (see BatchKernel), or is null where the
+ * plan is too long for one function (run.ts then calls the kernel per value).
  */
-export type Kernel = (pose: Float64Array) => number;
+export interface Kernel {
+  (pose: Float64Array): number;
+  batch: BatchKernel | null;
+}
+
+/**
+ * run.ts's runBatch in one call: for each driver value in `values`, in order, what run
+ * would do to `pose`, then the (x, y) of each pose offset in `slots` into `out` (NaN
+ * where that value fails), value after value. Returns the number of values that failed.
+ */
+export type BatchKernel = (pose: Float64Array, values: Float64Array, slots: Int32Array, out: Float64Array) => number;

@@ -41,7 +41,7 @@ function poseLengthError(p: PlanInternal, pose: Float64Array, name: string): Ran
 }
 
 /** Marks run failed at operation index `op`: that operation's outputs and all later ones become NaN. */
-function failFrom(p: PlanInternal, op: number, pose: Float64Array): false {
+export function failFrom(p: PlanInternal, op: number, pose: Float64Array): false {
   p.failedOp = op;
   const ops = p.ops;
   for (let o = op * STRIDE, end = p.opCount * STRIDE; o < end; o += STRIDE) {
@@ -78,6 +78,56 @@ export function run(plan: Plan, driverValue: number, pose: Float64Array): boolea
   if (failed >= 0) return failFrom(p, failed, pose);
   p.failedOp = -1;
   return true;
+}
+
+/**
+ * run at each driver value of `values` in turn, on one pose: each Newton block starts
+ * from the pose the value before left (the first from `pose` as given), as a run of
+ * calls to run would. After each value the (x, y) of every pose offset in `slots` is
+ * written to `out` (value i's at out[2 × slots.length × i ..]), NaN where the linkage
+ * does not assemble at that value. Returns the number of values where it does not; pose
+ * and plan.failedOp end as run leaves them at the last value. Bit for bit what run gives,
+ * through the generated batch kernel where there is one, else value by value.
+ */
+export function runBatch(plan: Plan, values: Float64Array, pose: Float64Array, slots: Int32Array, out: Float64Array): number {
+  const p = plan as PlanInternal;
+  if (pose.length !== 2 * p.slotCount) throw poseLengthError(p, pose, 'runBatch: pose');
+  if (out.length !== 2 * slots.length * values.length) {
+    throw new RangeError(`runBatch: out has ${out.length} numbers; expected ${2 * slots.length * values.length} (2 × ${slots.length} slots × ${values.length} values)`);
+  }
+  for (let j = 0; j < slots.length; j++) {
+    const s = slots[j];
+    if (!(s >= 0 && s < 2 * p.slotCount && s % 2 === 0)) {
+      throw new RangeError(`runBatch: slots[${j}] is ${s}; expected a pose offset (an even number in [0, ${2 * p.slotCount}))`);
+    }
+  }
+  const kernel = p.kernel;
+  if (kernel !== null && kernel.batch !== null) return kernel.batch(pose, values, slots, out);
+  const count = values.length;
+  const ns = slots.length;
+  const opCount = p.opCount;
+  let failures = 0;
+  let w = 0;
+  for (let i = 0; i < count; i++) {
+    p.driverValue[0] = values[i];
+    const failed = kernel === null ? interpret(p, pose, opCount) : kernel(pose);
+    if (failed >= 0) {
+      failFrom(p, failed, pose);
+      failures++;
+      for (let j = 0; j < ns; j++, w += 2) {
+        out[w] = NaN;
+        out[w + 1] = NaN;
+      }
+      continue;
+    }
+    p.failedOp = -1;
+    for (let j = 0; j < ns; j++, w += 2) {
+      const s = slots[j];
+      out[w] = pose[s];
+      out[w + 1] = pose[s + 1];
+    }
+  }
+  return failures;
 }
 
 /**
@@ -203,6 +253,15 @@ export function runWithRates(plan: Plan, driverValue: number, pose: Float64Array
     rates.fill(NaN);
     return false;
   }
+  poseRatesInto(p, pose, rates);
+  return true;
+}
+
+/**
+ * runWithRates's rates alone, for a pose run (or runBatch) has solved: the plan's params
+ * must be those of that solve (for a length driver, its lengths at that driver value).
+ */
+export function poseRatesInto(p: PlanInternal, pose: Float64Array, rates: Float64Array): void {
   const ops = p.ops;
   const prm = p.params;
   const prmRates = p.paramRates;
@@ -290,5 +349,4 @@ export function runWithRates(plan: Plan, driverValue: number, pose: Float64Array
         break;
     }
   }
-  return true;
 }

@@ -10,6 +10,10 @@
  * left in it would be inlined only while V8's inlining budget lasts, and a call that is
  * not inlined boxes every double it is passed: an allocation per argument per run.
  *
+ * A second function, the batch kernel, runs the plan at many driver values per call: the
+ * frame and the params are read into locals once per call, and a loop inside it runs the
+ * operations per value (run.ts's runBatch).
+ *
  * Dimensions stay in the plan's params, so setReferencePose works unchanged. The code
  * performs exactly the arithmetic of the interpreter's geometry functions
  * (circleCircleIntersectInto, circleLineIntersectInto, polarInto), in the same order, so
@@ -26,12 +30,14 @@ import {
   OP_ROTATE,
   OP_SET,
   OP_STRIDE,
+  type BatchKernel,
   type Kernel,
   type PlanInternal,
 } from './plan';
+import { failFrom } from './run';
 
 /** The generated code's free names, bound once when the function is created. */
-const BINDINGS = ['p', 'prm', 'dv', 'solveBlock'] as const;
+const BINDINGS = ['p', 'prm', 'dv', 'solveBlock', 'failFrom'] as const;
 
 /** A double as a source literal that reads back as the same double. */
 function lit(x: number): string {
@@ -52,6 +58,15 @@ interface Body {
   readonly held: Set<number>;
   /** Offsets whose locals are declared (a Newton block's slots are declared but not held after it). */
   readonly declared: Set<number>;
+  /** The statement that ends the run at operation `op`, which failed. */
+  readonly fail: (op: number) => string;
+  /** The expression for params[q]. */
+  readonly param: (q: number) => string;
+}
+
+/** The per-value kernel's body: a failure returns its operation, params are read where used. */
+function kernelBody(): Body {
+  return { lines: [], held: new Set(), declared: new Set(), fail: (op) => `return ${op};`, param: (q) => `prm[${q}]` };
 }
 
 function hold(body: Body, off: number, x: string, y: string): void {
@@ -74,23 +89,23 @@ function place(body: Body, off: number, code: string): void {
   body.declared.add(off);
 }
 
-/** circleCircleIntersectInto's arithmetic: returns `op` where the circles do not meet. */
-function circleCircle(ax: string, ay: string, rA: string, bx: string, by: string, rB: string, branch: string, op: number): string {
+/** circleCircleIntersectInto's arithmetic: runs `fail` where the circles do not meet. */
+function circleCircle(ax: string, ay: string, rA: string, bx: string, by: string, rB: string, branch: string, fail: string): string {
   return `const dx = ${bx} - ${ax}; const dy = ${by} - ${ay}; const inv = 1 / (dx * dx + dy * dy);
   const rA = ${rA}; const rB = ${rB};
   const k = 0.5 * (rA * rA - rB * rB) * inv + 0.5; const h2 = rA * rA * inv - k * k;
-  if (!(h2 >= 0) || !(inv < Infinity)) return ${op};
+  if (!(h2 >= 0) || !(inv < Infinity)) ${fail}
   const m = ${branch} * Math.sqrt(h2);
   const cx = ${ax} + k * dx - m * dy; const cy = ${ay} + k * dy + m * dx;`;
 }
 
 /** circleLineIntersectInto's arithmetic, after `setup` has defined ox, oy, r, px, py, lx, ly, branch. */
-function circleLine(setup: string, op: number): string {
+function circleLine(setup: string, fail: string): string {
   return `${setup}
   const inv = 1 / Math.sqrt(lx * lx + ly * ly); const ux = lx * inv; const uy = ly * inv;
   const wx = ox - px; const wy = oy - py; const t0 = wx * ux + wy * uy; const h = ux * wy - uy * wx;
   const disc = r * r - h * h;
-  if (!(disc >= 0) || !(inv < Infinity)) return ${op};
+  if (!(disc >= 0) || !(inv < Infinity)) ${fail}
   const t = t0 + branch * Math.sqrt(disc);
   const cx = px + t * ux; const cy = py + t * uy;`;
 }
@@ -118,48 +133,50 @@ function emitOperation(body: Body, p: PlanInternal, op: number): void {
   const c = ops[o + 3];
   const e = ops[o + 4];
   const q = ops[o + 5];
+  const prm = body.param;
+  const fail = body.fail(op);
   switch (ops[o]) {
     case OP_SET:
-      place(body, c, `const cx = prm[${q}]; const cy = prm[${q + 1}];`);
+      place(body, c, `const cx = ${prm(q)}; const cy = ${prm(q + 1)};`);
       return;
     case OP_ROTATE: {
       const [ax, ay] = read(body, a);
-      place(body, c, polar(ax, ay, `prm[${q}]`));
+      place(body, c, polar(ax, ay, prm(q)));
       return;
     }
     case OP_RIGID: {
       const [ax, ay] = read(body, a);
       const [bx, by] = read(body, b);
-      place(body, c, `const wx = ${bx} - ${ax}; const wy = ${by} - ${ay}; const u = prm[${q}]; const v = prm[${q + 1}];
+      place(body, c, `const wx = ${bx} - ${ax}; const wy = ${by} - ${ay}; const u = ${prm(q)}; const v = ${prm(q + 1)};
   const cx = ${ax} + u * wx - v * wy; const cy = ${ay} + u * wy + v * wx;`);
       return;
     }
     case OP_DYAD: {
       const [ax, ay] = read(body, a);
       const [bx, by] = read(body, b);
-      place(body, c, circleCircle(ax, ay, `prm[${q}]`, bx, by, `prm[${q + 1}]`, `prm[${q + 2}]`, op));
+      place(body, c, circleCircle(ax, ay, prm(q), bx, by, prm(q + 1), prm(q + 2), fail));
       return;
     }
     case OP_CIRCLE_GROUND_LINE: {
       const [ax, ay] = read(body, a);
-      place(body, c, circleLine(`const ox = ${ax}; const oy = ${ay}; const r = prm[${q}]; const branch = prm[${q + 1}];
-  const px = prm[${q + 2}]; const py = prm[${q + 3}]; const lx = prm[${q + 4}]; const ly = prm[${q + 5}];`, op));
+      place(body, c, circleLine(`const ox = ${ax}; const oy = ${ay}; const r = ${prm(q)}; const branch = ${prm(q + 1)};
+  const px = ${prm(q + 2)}; const py = ${prm(q + 3)}; const lx = ${prm(q + 4)}; const ly = ${prm(q + 5)};`, fail));
       return;
     }
     case OP_CIRCLE_BODY_LINE: {
       const [ax, ay] = read(body, a);
       const [ex, ey] = read(body, b);
       const [fx, fy] = read(body, e);
-      place(body, c, circleLine(`const ox = ${ax}; const oy = ${ay}; const r = prm[${q}]; const branch = prm[${q + 1}];
+      place(body, c, circleLine(`const ox = ${ax}; const oy = ${ay}; const r = ${prm(q)}; const branch = ${prm(q + 1)};
   const wx0 = ${fx} - ${ex}; const wy0 = ${fy} - ${ey};
-  const u = prm[${q + 2}]; const v = prm[${q + 3}]; const alpha = prm[${q + 4}]; const beta = prm[${q + 5}];
+  const u = ${prm(q + 2)}; const v = ${prm(q + 3)}; const alpha = ${prm(q + 4)}; const beta = ${prm(q + 5)};
   const px = ${ex} + u * wx0 - v * wy0; const py = ${ey} + u * wy0 + v * wx0;
-  const lx = alpha * wx0 - beta * wy0; const ly = alpha * wy0 + beta * wx0;`, op));
+  const lx = alpha * wx0 - beta * wy0; const ly = alpha * wy0 + beta * wx0;`, fail));
       return;
     }
     case OP_NEWTON:
       // solveBlock reads and writes the pose; the slots it places are loaded from it when used.
-      body.lines.push(`if (!solveBlock(p, ${a}, pose)) return ${op};`);
+      body.lines.push(`if (!solveBlock(p, ${a}, pose)) ${fail}`);
       for (let k = 0; k < p.blockUnknownCount[a]; k++) body.held.delete(p.blockUnknowns[p.blockUnknownStart[a] + k]);
       return;
     default:
@@ -176,9 +193,73 @@ function emitOperation(body: Body, p: PlanInternal, op: number): void {
 export const KERNEL_CHUNK_OPS = 1024;
 
 function operations(p: PlanInternal, first: number, end: number): string[] {
-  const body: Body = { lines: [], held: new Set(), declared: new Set() };
+  const body = kernelBody();
   for (let op = first; op < end; op++) emitOperation(body, p, op);
   return body.lines;
+}
+
+/**
+ * The batch kernel's body (see BatchKernel), for a plan short enough to be one function:
+ * the frame placed once, the params read into locals once (a length driver's own are the
+ * driver value), and the operations from the driver on in a loop over the values. A
+ * failure ends its value's labelled block; the pose is then what run leaves (run.ts's
+ * failFrom), and the frame is placed again before the next value, as run would.
+ */
+function batchSource(p: PlanInternal): string {
+  const hoisted = new Set<number>();
+  const driverParams = new Set(p.driverParams);
+  const body: Body = {
+    lines: [], held: new Set(), declared: new Set(),
+    fail: (op) => `{ failed = ${op}; break sample; }`,
+    param: (q) => {
+      if (driverParams.has(q)) return 'd';
+      hoisted.add(q);
+      return `q${q}`;
+    },
+  };
+  const ops = p.ops;
+  for (let op = 0; op < p.setCount; op++) emitOperation(body, p, op);
+  const frame = body.lines.splice(0);
+  const restoreFrame: string[] = [];
+  for (let op = 0; op < p.setCount; op++) {
+    const c = ops[op * OP_STRIDE + 3];
+    restoreFrame.push(`pose[${c}] = x${c}; pose[${c + 1}] = y${c};`);
+  }
+  for (let op = p.setCount; op < p.opCount; op++) emitOperation(body, p, op);
+  const lines = ['"use strict";', 'return function batch(pose, values, slots, out) {',
+    'const count = values.length; const ns = slots.length; const valid = p.referenceValid;',
+    'if (count === 0) return 0;',
+    // Nothing reads the driver value from the plan during the batch; run leaves the last there.
+    'dv[0] = values[count - 1];',
+    // One output slot (a coupler point) is written without the loop over slots.
+    'const only = ns === 1 ? slots[0] : -1;',
+    'let failures = 0; let failed = -1; let w = 0;'];
+  for (const q of [...hoisted].sort((x, y) => x - y)) lines.push(`const q${q} = prm[${q}];`);
+  lines.push(...frame, 'for (let i = 0; i < count; i++) {', 'const d = values[i];');
+  lines.push('if (failed >= 0) {', ...restoreFrame, 'failed = -1;', '}');
+  lines.push('sample: {');
+  if (p.driverIsLength) {
+    lines.push('if (!(d > 0 && d < Infinity && valid)) { failed = 0; break sample; }');
+    for (const k of p.driverParams) lines.push(`prm[${k}] = d;`);
+  } else {
+    lines.push('if (!(Math.abs(d) < Infinity && valid)) { failed = 0; break sample; }');
+  }
+  lines.push(...body.lines, '}');
+  lines.push(
+    'if (failed >= 0) {',
+    'failures++; failFrom(p, failed, pose);',
+    'for (let j = 0; j < ns; j++) { out[w] = NaN; out[w + 1] = NaN; w += 2; }',
+    '} else if (only >= 0) {',
+    'out[w] = pose[only]; out[w + 1] = pose[only + 1]; w += 2;',
+    '} else {',
+    'for (let j = 0; j < ns; j++) { const s = slots[j]; out[w] = pose[s]; out[w + 1] = pose[s + 1]; w += 2; }',
+    '}',
+    '}',
+    'p.failedOp = failed;',
+    'return failures;',
+    '};',
+  );
+  return lines.join('\n');
 }
 
 /** The kernel's body; the driver checks and writes are those of run.ts's interpreter. */
@@ -226,9 +307,12 @@ export function forgoKernelGeneration(): void {
  */
 export function specialise(p: PlanInternal): Kernel | null {
   if (codeGenerationRefused) return null;
-  let factory: (...bound: unknown[]) => Kernel;
+  let factory: (...bound: unknown[]) => (pose: Float64Array) => number;
+  type BatchFactory = (...bound: unknown[]) => BatchKernel;
+  let batchFactory: BatchFactory | null = null;
   try {
     factory = new Function(...BINDINGS, kernelSource(p)) as typeof factory;
+    if (p.opCount <= KERNEL_CHUNK_OPS) batchFactory = new Function(...BINDINGS, batchSource(p)) as BatchFactory;
   } catch (error) {
     if (error instanceof EvalError) {
       codeGenerationRefused = true;
@@ -236,5 +320,8 @@ export function specialise(p: PlanInternal): Kernel | null {
     }
     throw error;
   }
-  return factory(p, p.params, p.driverValue, solveBlock);
+  const bound = [p, p.params, p.driverValue, solveBlock, failFrom];
+  const kernel = factory(...bound) as Kernel;
+  kernel.batch = batchFactory === null ? null : batchFactory(...bound);
+  return kernel;
 }

@@ -22,7 +22,7 @@ import {
   type PlanInternal,
 } from './plan';
 import { blockJacobianSign } from './newton';
-import { run, runPrefix, runWithRates } from './run';
+import { poseRatesInto, run, runBatch, runPrefix, runWithRates } from './run';
 import {
   DEAD_CENTRE_SIN_TOL,
   FULL_TURN_TOL_RAD,
@@ -414,7 +414,8 @@ export function sweep(plan: Plan, range: SweepRange, work?: SweepWork): SweepRes
   // Two passes out from the anchor: up the index from the first sample at or past it, down from the one before.
   let firstUp = 0;
   while (firstUp < steps && (values[firstUp] - anchor) * direction < 0) firstUp++;
-  for (const step of [1, -1]) {
+  const whole = p.blockCount === 0 && wholeByBatch(p, t, values, poses, rates, assembled);
+  for (const step of whole ? [] : [1, -1]) {
     copyTrack(track, start);
     let alive = true;
     for (let k = step > 0 ? firstUp : firstUp - 1; k >= 0 && k < steps; k += step) {
@@ -500,6 +501,40 @@ export function sweep(plan: Plan, range: SweepRange, work?: SweepWork): SweepRes
   const fullTurn = !p.driverIsLength && Math.abs(to - from) >= 2 * Math.PI - FULL_TURN_TOL_RAD &&
     locks.length === 0 && assembled.every((f) => f === 1);
   return { values, poses, rates, assembled, locks, deadCentres, fullTurn };
+}
+
+/**
+ * Without Newton blocks, tracking a sample is a run at its value: a dyad keeps its
+ * reference side whatever the start, so nothing is predicted or refused and the pose
+ * does not depend on the order of the values. All the samples are then run in one batch
+ * (runBatch) into `poses`, each sample's rates taken at its pose: true, with every
+ * sample stored as the tracking would store it, where all of them assemble. False where
+ * one does not (the samples are then left unassembled for the tracking, which also
+ * locates the lock's edges).
+ */
+function wholeByBatch(
+  p: PlanInternal, t: Tracker, values: Float64Array, poses: Float64Array, rates: Float64Array, assembled: Uint8Array,
+): boolean {
+  const { stride, pose } = t;
+  const steps = values.length;
+  if (t.work !== undefined) t.work.trackOps += steps * p.opCount;
+  pose.set(p.reference);
+  const slots = new Int32Array(p.slotCount);
+  for (let k = 0; k < p.slotCount; k++) slots[k] = 2 * k;
+  if (runBatch(p, values, pose, slots, poses) > 0) {
+    poses.fill(NaN);
+    return false;
+  }
+  const driverParams = p.driverIsLength ? p.driverParams : new Int32Array(0);
+  for (let k = 0; k < steps; k++) {
+    // A length driver's lengths as the run at this sample set them.
+    for (let j = 0; j < driverParams.length; j++) p.params[driverParams[j]] = values[k];
+    for (let i = 0, at = k * stride; i < stride; i++) pose[i] = poses[at + i];
+    poseRatesInto(p, pose, t.rates);
+    rates.set(t.rates, k * stride);
+    assembled[k] = 1;
+  }
+  return true;
 }
 
 /**

@@ -8,6 +8,10 @@
  * − r_k, mm). Newton's method on g, with the exact g′, converges in two or three steps
  * from a warm start, and where there is no root near the start (the design does not
  * assemble there) it stops within a few cheap steps instead of many expensive ones.
+ * X_i's angle is held as its unit direction (cos φ, sin φ) about K_i, and a step turns it
+ * in the tangent chart (τ = tan Δφ, the direction (u + τ perp u) / √(1 + τ²)): Newton's
+ * step in τ is its step in φ to first order, so it converges as fast, and no step calls
+ * a trigonometric function.
  *
  * Of the six choices of (i, j), the one whose dyad is furthest from its toggle at the
  * start is taken: there the reduction is well conditioned, and g′(φ) vanishes only where
@@ -35,6 +39,8 @@ const NEWTON_ROUNDING_FLOOR_FACTOR = tolerances.NEWTON_ROUNDING_FLOOR_FACTOR;
  * A warm start moves φ by hundredths of this.
  */
 const TRIAD_MAX_STEP_RAD = 0.5;
+/** TRIAD_MAX_STEP_RAD in the tangent chart the steps are taken in: |τ| = tan |Δφ|. */
+const TRIAD_MAX_STEP_TAN = Math.tan(TRIAD_MAX_STEP_RAD);
 
 /**
  * An unbounded Newton step that leaves |g| above this share of what it was is slow:
@@ -132,14 +138,15 @@ const SIDE = 19;
 const Z = 20;
 const KK = 22;
 const RK = 24;
-const PHI = 25;
+/** X_i's unit direction (cos φ, sin φ) about K_i at the start. */
+const DIR = 25;
 /** Six scores, one per pair. */
-const SCORE = 26;
+const SCORE = 27;
 
-/** Places X_i at φ, X_j by its dyad, X_k by the link into s[at .. at + 6); returns g(φ) (mm), NaN where the dyad does not assemble. */
-function place(s: Float64Array, phi: number, at: number): number {
-  const xi = s[KI] + s[RI] * Math.cos(phi);
-  const yi = s[KI + 1] + s[RI] * Math.sin(phi);
+/** Places X_i at direction (c, sn) = (cos φ, sin φ), X_j by its dyad, X_k by the link into s[at .. at + 6); returns g(φ) (mm), NaN where the dyad does not assemble. */
+function place(s: Float64Array, c: number, sn: number, at: number): number {
+  const xi = s[KI] + s[RI] * c;
+  const yi = s[KI + 1] + s[RI] * sn;
   if (!circleCircleIntersectInto(xi, yi, s[DIJ], s[KJ], s[KJ + 1], s[RJ], s[SIDE], s, at + 2)) return NaN;
   s[at] = xi;
   s[at + 1] = yi;
@@ -178,8 +185,8 @@ function slope(s: Float64Array): number {
 
 /**
  * Sets up the reduction on pair `pair` from the pose (s[NOW ..] the joints at the
- * start's angle, s[PHI] that angle); returns g there, NaN where the dyad does not
- * assemble.
+ * start's angle, s[DIR ..] its direction); returns g there, NaN where the dyad does not
+ * assemble or X_i sits on K_i.
  */
 function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number): number {
   const s = p.jacobian;
@@ -218,8 +225,13 @@ function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number)
   // The side of the line X_i → K_j that X_j starts on.
   const side = (s[KJ] - pose[xi]) * (pose[xj + 1] - pose[xi + 1]) - (s[KJ + 1] - pose[xi + 1]) * (pose[xj] - pose[xi]);
   s[SIDE] = side < 0 ? -1 : 1;
-  s[PHI] = Math.atan2(pose[xi + 1] - s[KI + 1], pose[xi] - s[KI]);
-  return place(s, s[PHI], NOW);
+  const ux = pose[xi] - s[KI];
+  const uy = pose[xi + 1] - s[KI + 1];
+  const inv = 1 / Math.sqrt(ux * ux + uy * uy);
+  if (!(inv < Infinity)) return NaN;
+  s[DIR] = ux * inv;
+  s[DIR + 1] = uy * inv;
+  return place(s, s[DIR], s[DIR + 1], NOW);
 }
 
 /** Pair c's dyad's squared sine at X_j: |(X_j − X_i) × (X_j − K_j)|² over both lengths squared (0 at its dead centre). */
@@ -236,6 +248,90 @@ function pairScore(t: Int32Array, pose: Float64Array, c: number): number {
 }
 
 /**
+ * The pair with the largest pairScore, -1 when none is a number: the same choice, with
+ * the three joints' vectors to each other and to their centres found once for the six
+ * pairs, and the scores (fractions) compared by cross-multiplication, not divided out.
+ */
+function choosePair(t: Int32Array, pose: Float64Array): number {
+  const x0 = pose[t[0]];
+  const y0 = pose[t[0] + 1];
+  const x1 = pose[t[1]];
+  const y1 = pose[t[1] + 1];
+  const x2 = pose[t[2]];
+  const y2 = pose[t[2] + 1];
+  // X_j − K_j, and |X_j − K_j|².
+  const e0x = x0 - pose[t[F_CENTRE]];
+  const e0y = y0 - pose[t[F_CENTRE] + 1];
+  const e1x = x1 - pose[t[F_CENTRE + 1]];
+  const e1y = y1 - pose[t[F_CENTRE + 1] + 1];
+  const e2x = x2 - pose[t[F_CENTRE + 2]];
+  const e2y = y2 - pose[t[F_CENTRE + 2] + 1];
+  const e0 = e0x * e0x + e0y * e0y;
+  const e1 = e1x * e1x + e1y * e1y;
+  const e2 = e2x * e2x + e2y * e2y;
+  // The links between the joints, X_b − X_a, and their lengths squared.
+  const d01x = x1 - x0;
+  const d01y = y1 - y0;
+  const d02x = x2 - x0;
+  const d02y = y2 - y0;
+  const d12x = x2 - x1;
+  const d12y = y2 - y1;
+  const l01 = d01x * d01x + d01y * d01y;
+  const l02 = d02x * d02x + d02y * d02y;
+  const l12 = d12x * d12x + d12y * d12y;
+  // Pair (i, j)'s cross product (X_j − X_i) × (X_j − K_j), in PAIR_I / PAIR_J order.
+  const c01 = d01x * e1y - d01y * e1x;
+  const c02 = d02x * e2y - d02y * e2x;
+  const c10 = d01x * e0y - d01y * e0x;
+  const c12 = d12x * e2y - d12y * e2x;
+  const c20 = d02x * e0y - d02y * e0x;
+  const c21 = d12x * e1y - d12y * e1x;
+  // The best score so far as a fraction num / den; any number beats the -1 it starts at.
+  let pair = -1;
+  let num = -1;
+  let den = 1;
+  let n = c01 * c01;
+  let l = l01 * e1;
+  if (n * den > num * l) {
+    pair = 0;
+    num = n;
+    den = l;
+  }
+  n = c02 * c02;
+  l = l02 * e2;
+  if (n * den > num * l) {
+    pair = 1;
+    num = n;
+    den = l;
+  }
+  n = c10 * c10;
+  l = l01 * e0;
+  if (n * den > num * l) {
+    pair = 2;
+    num = n;
+    den = l;
+  }
+  n = c12 * c12;
+  l = l12 * e2;
+  if (n * den > num * l) {
+    pair = 3;
+    num = n;
+    den = l;
+  }
+  n = c20 * c20;
+  l = l02 * e0;
+  if (n * den > num * l) {
+    pair = 4;
+    num = n;
+    den = l;
+  }
+  n = c21 * c21;
+  l = l12 * e1;
+  if (n * den > num * l) pair = 5;
+  return pair;
+}
+
+/**
  * Solves the triad in place in pose from its joints' current values (finite; the caller
  * sees to that). Returns TRIAD_SOLVED with every equation within tolMm (or at the
  * rounding floor just above), TRIAD_NO_ROOT when Newton's method on g finds no root near
@@ -245,24 +341,27 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
   const s = p.jacobian;
   // Start from the pair whose dyad's sine at X_j, |(X_j − X_i) × (X_j − K_j)|, is
   // largest, else the next that assembles at the start's angle.
-  for (let c = 0; c < 6; c++) {
-    const score = pairScore(t, pose, c);
-    s[SCORE + c] = score >= 0 ? score : -1;
-  }
-  let pair = -1;
-  let g = NaN;
-  for (let attempt = 0; attempt < 6 && Number.isNaN(g); attempt++) {
-    pair = -1;
-    let best = -Infinity;
+  let pair = choosePair(t, pose);
+  let g = pair >= 0 ? setUp(p, t, pose, pair) : NaN;
+  if (Number.isNaN(g)) {
+    const tried = pair >= 0 ? 1 : 0;
     for (let c = 0; c < 6; c++) {
-      if (s[SCORE + c] > best) {
-        best = s[SCORE + c];
-        pair = c;
-      }
+      const score = pairScore(t, pose, c);
+      s[SCORE + c] = c === pair ? -Infinity : score >= 0 ? score : -1;
     }
-    if (pair < 0) return TRIAD_NO_START;
-    s[SCORE + pair] = -Infinity;
-    g = setUp(p, t, pose, pair);
+    for (let attempt = tried; attempt < 6 && Number.isNaN(g); attempt++) {
+      pair = -1;
+      let best = -Infinity;
+      for (let c = 0; c < 6; c++) {
+        if (s[SCORE + c] > best) {
+          best = s[SCORE + c];
+          pair = c;
+        }
+      }
+      if (pair < 0) return TRIAD_NO_START;
+      s[SCORE + pair] = -Infinity;
+      g = setUp(p, t, pose, pair);
+    }
   }
   if (Number.isNaN(g)) return TRIAD_NO_START;
   const i = PAIR_I[pair];
@@ -270,7 +369,8 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
   const xi = t[i];
   const xj = t[j];
   const xk = t[3 - i - j];
-  let phi = s[PHI];
+  let cosPhi = s[DIR];
+  let sinPhi = s[DIR + 1];
   let norm = Math.abs(g);
   let slow = 0;
   let solved = false;
@@ -279,16 +379,22 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
       solved = true;
       break;
     }
+    // The step in the tangent chart at the current direction: τ = tan Δφ.
     let step = -g / slope(s);
     if (!(Math.abs(step) < Infinity)) break;
-    const bounded = !(Math.abs(step) <= TRIAD_MAX_STEP_RAD);
-    if (bounded) step = step > 0 ? TRIAD_MAX_STEP_RAD : -TRIAD_MAX_STEP_RAD;
-    let lambda = 1;
+    const bounded = !(Math.abs(step) <= TRIAD_MAX_STEP_TAN);
+    if (bounded) step = step > 0 ? TRIAD_MAX_STEP_TAN : -TRIAD_MAX_STEP_TAN;
+    let tau = step;
     let next = NaN;
+    let nextCos = cosPhi;
+    let nextSin = sinPhi;
     for (let halving = 0; halving <= TRIAD_MAX_HALVINGS; halving++) {
-      next = place(s, phi + lambda * step, TRIAL);
+      const scale = 1 / Math.sqrt(1 + tau * tau);
+      nextCos = (cosPhi - tau * sinPhi) * scale;
+      nextSin = (sinPhi + tau * cosPhi) * scale;
+      next = place(s, nextCos, nextSin, TRIAL);
       if (Math.abs(next) < norm) break;
-      lambda *= 0.5;
+      tau *= 0.5;
     }
     // No step along Newton's direction lowers |g|: rounding (converged) or an
     // extremum of g short of zero, a fold of the assembly with no root nearby.
@@ -296,7 +402,8 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
       solved = norm <= NEWTON_ROUNDING_FLOOR_FACTOR * tolMm;
       break;
     }
-    phi += lambda * step;
+    cosPhi = nextCos;
+    sinPhi = nextSin;
     for (let q = 0; q < 6; q++) s[NOW + q] = s[TRIAL + q];
     slow = !bounded && Math.abs(next) > TRIAD_CONTRACTION * norm ? slow + 1 : 0;
     g = next;
@@ -324,15 +431,7 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
 export function triadRates(p: PlanInternal, t: Int32Array, pose: Float64Array, rates: Float64Array): boolean {
   const pr = p.paramRates;
   if (pr[t[F_RADIUS]] !== 0 || pr[t[F_RADIUS + 1]] !== 0 || pr[t[F_RADIUS + 2]] !== 0 || pr[t[F_SPAN]] !== 0) return false;
-  let pair = -1;
-  let best = -1;
-  for (let c = 0; c < 6; c++) {
-    const score = pairScore(t, pose, c);
-    if (score > best) {
-      best = score;
-      pair = c;
-    }
-  }
+  const pair = choosePair(t, pose);
   if (pair < 0) return false;
   const i = PAIR_I[pair];
   const j = PAIR_J[pair];
