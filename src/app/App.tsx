@@ -5,6 +5,7 @@
 import { useCallback, useDeferredValue, useEffect, useMemo, useState } from 'react';
 import { BatchPanel } from './batch/BatchPanel';
 import { bootQueue } from './batch/bootQueue';
+import { useOpenWorkspaceRuns } from './batch/useOpenWorkspaceRuns';
 import { bootWorkspace, type Workspace } from './boot';
 import { ResultsView } from './results';
 import { RunControls } from './run/RunControls';
@@ -115,6 +116,12 @@ export function App() {
   // The walking-leg workspace, when open: its own store too, its set-up and results kept in the project.
   const [leg, setLeg] = useState<LegState | null>(null);
   const saveLeg = useCallback((state: LegState) => workspace?.store.dispatch({ type: 'project/leg', leg: storedLegOf(state) }), [workspace]);
+  // A queued rear-suspension or walking-leg job's run, opened from the queue's summary: kept in the project as that workspace's latest run.
+  useOpenWorkspaceRuns({
+    kept: useCallback(() => workspace?.store.getState().project, [workspace]),
+    openSuspension: useCallback((state: SuspensionState) => { saveSuspension(state); setSuspension(state); }, [saveSuspension]),
+    openLeg: useCallback((state: LegState) => { saveLeg(state); setLeg(state); }, [saveLeg]),
+  });
   useEffect(() => {
     let cancelled = false;
     bootWorkspace().then(

@@ -22,12 +22,17 @@ export type QueuedJobSpec<P> = Omit<BatchJob, 'problem'> & { readonly problem: P
  */
 export type QueueJobStatus = 'waiting' | 'running' | 'done' | 'failed' | 'cut';
 
-/** The best design of one family a job found. */
-export interface FamilyBest {
-  readonly family: string;
-  /** RMS error, mm. */
-  readonly rmsMm: number;
-  readonly feasible: boolean;
+/**
+ * The best design of one family (layout) a job found: a path job's by its RMS error, mm;
+ * a rear-suspension or walking-leg job's by its search score (lower is better, no unit).
+ */
+export type FamilyBest =
+  | { readonly family: string; readonly rmsMm: number; readonly feasible: boolean }
+  | { readonly family: string; readonly score: number; readonly feasible: boolean };
+
+/** The figure a family's best is ranked by (RMS error or score). */
+export function bestFigure(b: FamilyBest): number {
+  return 'rmsMm' in b ? b.rmsMm : b.score;
 }
 
 /** What a job that ended leaves for the summary. */
@@ -45,6 +50,11 @@ export interface JobOutcome {
   readonly best: readonly FamilyBest[];
   /** Whether the job's designs were kept in the run history under its run id. */
   readonly kept: boolean;
+  /**
+   * A workspace job's finished run as that workspace keeps its runs (absent for path jobs,
+   * whose designs go to the run history): the app reads it with the workspace's schema.
+   */
+  readonly designs?: unknown;
 }
 
 export interface QueueEntry<P> {

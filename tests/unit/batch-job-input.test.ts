@@ -23,7 +23,7 @@ describe('readJobDraft', () => {
     if (!read.ok) return;
     expect(read.spec).toMatchObject({ name: 'night-1', families: ['fourbar'], seconds: 90.5, seed: 42, skip: false });
     expect(read.spec.evaluations).toBeUndefined();
-    expect(read.spec.problem.target).toBe(project.target);
+    expect(read.spec.problem).toMatchObject({ kind: 'path', target: project.target });
   });
 
   it('names a bad job name, and a name taken already ignoring case', () => {

@@ -8,20 +8,13 @@ import { useEffect, useSyncExternalStore } from 'react';
 import { jobFraction, runningJob, tally } from '../../engine/queue';
 import { APP_TITLE } from '../run/runTitle';
 import type { LociDb } from '../storage';
-import { queueRunner } from './bootQueue';
+import { newJobId, queueRunner } from './bootQueue';
 import { JobForm } from './JobForm';
 import { JobList } from './JobList';
 import { MorningSummary } from './MorningSummary';
 import { NotifyChoice } from './NotifyChoice';
 import type { QueueRunner, QueueView } from './queueRunner';
 import './batch.css';
-
-let nextJobId = 0;
-
-function newJobId(): string {
-  nextJobId++;
-  return `${Date.now().toString(36)}-${nextJobId}-${crypto.randomUUID().slice(0, 4)}`;
-}
 
 /** The queue's share done: ended jobs whole, the running one by its budget. */
 function queueFraction(view: QueueView): { fraction: number; ended: number; runnable: number } {
@@ -68,8 +61,9 @@ function QueuePanel({ db, runner, defaultWorkers }: { db: LociDb; runner: QueueR
     <section className="panel batch-panel" aria-label="Batch queue" data-testid="batch-queue" data-mode={state.mode} data-owner={owner}>
       <h2>Batch queue</h2>
       <p className="panel-note">
-        Jobs run one after another in this tab while it stays open (in the background too), each with its own target, families, budget and seed; each job's
-        designs are kept in the run history. A reload, or closing and opening the browser, goes on where the queue was, the running job from its last checkpoint.
+        Jobs run one after another in this tab while it stays open (in the background too), each with its own problem, families, budget and seed: path jobs
+        added below, rear-suspension and walking-leg jobs added with Add to queue beside those workspaces' Start. A path job's designs are kept in the run
+        history; a rear-suspension or walking-leg job's are kept in the queue's summary, which opens them in their workspace. A reload, or closing and opening the browser, goes on where the queue was, the running job from its last checkpoint.
       </p>
       {owner === 'other' && (
         <p className="notice notice-info" role="status" data-testid="queue-owned-elsewhere">

@@ -4,7 +4,7 @@
  * field as it is typed, and the job is added only when nothing is.
  */
 import { useId, useMemo, useState } from 'react';
-import { FAMILY_CHOICES, type FamilyId } from '../state/families';
+import { FAMILY_CHOICES } from '../state/families';
 import { IDLE_RUN, PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../state/project';
 import { useWorkspace } from '../state/store';
 import type { AppQueueEntry } from './jobs';
@@ -33,7 +33,7 @@ export function JobForm({ jobs, defaultWorkers, disabled, onAdd }: JobFormProps)
   const settings = useWorkspace((s) => s.project.settings);
   const projectName = useWorkspace((s) => s.project.name);
   const [name, setName] = useState<string | null>(null);
-  const [families, setFamilies] = useState<readonly FamilyId[] | null>(null);
+  const [families, setFamilies] = useState<readonly string[] | null>(null);
   const [unit, setUnit] = useState<BudgetUnit>(settings.budget.mode === 'time' ? 'seconds' : 'evaluations');
   const [budget, setBudget] = useState<string | null>(null);
   const [seed, setSeed] = useState(String(settings.seed));

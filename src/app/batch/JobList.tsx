@@ -4,11 +4,11 @@
  * what it found), or delete it.
  */
 import { jobFraction } from '../../engine/queue';
-import { familyName } from '../results/format';
 import { formatDuration } from '../run/progress';
-import type { AppQueueEntry } from './jobs';
+import { jobKind, type AppQueueEntry } from './jobs';
 import type { LiveJob, QueueRunner } from './queueRunner';
 import { budgetWords, jobStateWords } from './summary';
+import { jobCaution, jobFamilyName, KIND_WORDS, specFamilies } from './workspaceJobs';
 
 const PHASE_WORDS: Record<LiveJob['phase'], string> = {
   'waiting-lock': 'waiting for the workspace\'s search (or another tab\'s) to end',
@@ -56,7 +56,7 @@ export function JobList({ jobs, live, notes, runner, editable }: JobListProps) {
     <table className="results-table batch-jobs" data-testid="queue-jobs">
       <thead>
         <tr>
-          <th scope="col">#</th><th scope="col">Job</th><th scope="col">Families</th><th scope="col">Budget</th><th scope="col">Seed</th>
+          <th scope="col">#</th><th scope="col">Job</th><th scope="col">Kind</th><th scope="col">Families or layouts</th><th scope="col">Budget</th><th scope="col">Seed</th>
           <th scope="col">State</th><th scope="col">Actions</th>
         </tr>
       </thead>
@@ -66,11 +66,17 @@ export function JobList({ jobs, live, notes, runner, editable }: JobListProps) {
           const running = entry.status === 'running';
           const shownLive = running && live !== null && live.id === entry.id ? live : null;
           const note = notes[entry.id];
+          const kind = jobKind(entry.spec.problem);
+          const caution = jobCaution(kind);
           return (
             <tr key={entry.id} data-testid="queue-job" data-name={name} data-status={statusKey(entry)}>
               <td className="results-num">{i + 1}</td>
-              <td>{name}</td>
-              <td>{(entry.spec.families ?? entry.spec.problem.settings.families).map(familyName).join(', ')}</td>
+              <td>
+                {name}
+                {caution !== null && <span className="option-note batch-caution" role="note" data-testid="job-caution"><strong> Caution.</strong> {caution}</span>}
+              </td>
+              <td data-testid="job-kind">{KIND_WORDS[kind]}</td>
+              <td>{specFamilies(entry.spec).map((f) => jobFamilyName(kind, f)).join(', ')}</td>
               <td>{budgetWords(entry.spec)}</td>
               <td className="results-num">{entry.spec.seed}</td>
               <td>

@@ -27,3 +27,11 @@ export function bootQueue(db: LociDb | null): QueueRunner | null {
 export function queueRunner(): QueueRunner | null {
   return runner;
 }
+
+let nextJobId = 0;
+
+/** A queue entry's key: unique in this tab, and across tabs by its random part. */
+export function newJobId(): string {
+  nextJobId++;
+  return `${Date.now().toString(36)}-${nextJobId}-${crypto.randomUUID().slice(0, 4)}`;
+}

@@ -7,15 +7,16 @@
  */
 import { BATCH_FORMAT, BATCH_VERSION, parseBatchQueue } from '../../core/io/batchQueue';
 import { startIssuesOf } from '../run/runInput';
-import type { FamilyId } from '../state/families';
 import type { Project } from '../state/project';
-import { jobProject, type AppJobSpec } from './jobs';
+import { jobProject, type AppJobSpec, type PathJobSpec, type WorkspaceJobProblem, type WorkspaceJobSpec } from './jobs';
+import { problemFamilies, workspaceStartIssues } from './workspaceJobs';
 
 export type BudgetUnit = 'evaluations' | 'seconds';
 
 export interface JobDraft {
   readonly name: string;
-  readonly families: readonly FamilyId[];
+  /** Families (a suspension job's layouts) by id. */
+  readonly families: readonly string[];
   readonly budgetUnit: BudgetUnit;
   /** As typed. */
   readonly budget: string;
@@ -44,18 +45,23 @@ const FIELD_OF: readonly (readonly [RegExp, JobField])[] = [
   [/\.seed$/, 'seed'],
 ];
 
-/**
- * Checks a draft against the jobs in the queue already (`others`) and the workspace's
- * project whose target and settings the job keeps. `workers` is what the run would use.
- */
-export function readJobDraft(draft: JobDraft, others: readonly { readonly name: string }[], project: Project, workers: number): JobInputResult {
+interface DraftFields {
+  readonly issues: Partial<Record<JobField, string>>;
+  readonly name: string;
+  readonly families: string[];
+  readonly seed: number;
+  readonly budgetField: { evaluations: number } | { seconds: number };
+}
+
+/** The name, budget and seed of a draft, by the queue file's schema (the one source of a job's rules), against the jobs queued already. */
+function readDraftFields(draft: JobDraft, others: readonly { readonly name: string }[]): DraftFields {
   const issues: Partial<Record<JobField, string>> = {};
   const budgetWhat = draft.budgetUnit === 'evaluations' ? 'a whole number of evaluations' : 'a number of seconds';
   const budget = readNumber(draft.budget, budgetWhat);
   if (!budget.ok) issues.budget = budget.reason;
   const seed = readNumber(draft.seed, 'a whole number ≥ 0');
   if (!seed.ok) issues.seed = seed.reason;
-  // The queue file's schema is the one source of a job's rules: the draft is read as the last job of a queue.
+  // The draft is read as the last job of a queue.
   const budgetValue = budget.ok ? budget.value : 1;
   const budgetField = draft.budgetUnit === 'evaluations' ? { evaluations: budgetValue } : { seconds: budgetValue };
   const job = { name: draft.name, problem: 'workspace', families: [...draft.families], seed: seed.ok ? seed.value : 0, ...budgetField };
@@ -75,17 +81,44 @@ export function readJobDraft(draft: JobDraft, others: readonly { readonly name: 
     }
   }
   if (draft.families.length === 0) issues.families = 'choose at least one family';
-  const spec: AppJobSpec = {
-    name: job.name,
-    families: job.families,
-    seed: job.seed,
+  return { issues, name: job.name, families: job.families, seed: job.seed, budgetField };
+}
+
+/**
+ * Checks a draft against the jobs in the queue already (`others`) and the workspace's
+ * project whose target and settings the job keeps. `workers` is what the run would use.
+ */
+export function readJobDraft(draft: JobDraft, others: readonly { readonly name: string }[], project: Project, workers: number): JobInputResult {
+  const { issues, name, families, seed, budgetField } = readDraftFields(draft, others);
+  const spec: PathJobSpec = {
+    name,
+    families,
+    seed,
     skip: false,
     ...budgetField,
-    problem: { projectName: project.name, target: project.target, settings: project.settings },
+    problem: { kind: 'path', projectName: project.name, target: project.target, settings: project.settings },
   };
   if (Object.keys(issues).length === 0) {
     // What a search on this target and these settings would refuse, found now rather than at night.
     const refused = startIssuesOf(jobProject(spec), workers);
+    if (refused.length > 0) issues.problem = refused.join('; ');
+  }
+  return Object.keys(issues).length > 0 ? { ok: false, issues } : { ok: true, spec };
+}
+
+/**
+ * The same checks for a rear-suspension or walking-leg job: its families are the layouts
+ * (families) the workspace has ticked, and what the workspace's own search would refuse
+ * of the job (with its seed and budget) is the problem's issue.
+ */
+export function readWorkspaceJobDraft(draft: JobDraft, others: readonly { readonly name: string }[], problem: WorkspaceJobProblem, workers: number): JobInputResult {
+  const { issues, name, families, seed, budgetField } = readDraftFields(draft, others);
+  const offered = problemFamilies(problem);
+  const foreign = families.filter((f) => !offered.includes(f));
+  if (foreign.length > 0) issues.families ??= `${foreign.join(', ')} ${foreign.length === 1 ? 'is' : 'are'} not in the workspace's problem; expected some of ${offered.join(', ')}`;
+  const spec: WorkspaceJobSpec = { name, families, seed, skip: false, ...budgetField, problem };
+  if (Object.keys(issues).length === 0) {
+    const refused = workspaceStartIssues(spec, workers);
     if (refused.length > 0) issues.problem = refused.join('; ');
   }
   return Object.keys(issues).length > 0 ? { ok: false, issues } : { ok: true, spec };

@@ -12,6 +12,7 @@ import {
   type RankedCandidate,
   type Run,
   type RunProgress,
+  type RunInput,
   type RunResult,
 } from '../../engine';
 import {
@@ -25,8 +26,9 @@ import { buildRunInput, CANDIDATES_SHOWN } from '../run/runInput';
 import { snapshotTarget } from '../state/project';
 import { indexedDbCheckpointStore, keepRun, dropCheckpointsExcept, type LociDb } from '../storage';
 import { loadQueue, QUEUE_RUN_SCOPE, saveQueue } from '../storage/queueStore';
-import { isJobProblem, jobProject, jobSettings, type AppJobSpec, type AppQueueEntry, type AppQueueState, type JobProblem } from './jobs';
-import { bestPerFamily } from './summary';
+import { isJobProblem, isPathJob, jobProject, jobSettings, type AppJobSpec, type AppQueueEntry, type AppQueueState, type JobProblem, type WorkspaceJobSpec } from './jobs';
+import { bestPerFamily, bestPerLayout } from './summary';
+import { workspaceJobRun, workspaceRunInput, workspaceRunKeep, workspaceStartIssues } from './workspaceJobs';
 import { holdSearchLock } from './ownership';
 
 /** Progress reaches the view at most this often, ms. */
@@ -64,6 +66,14 @@ export interface QueueRunnerDeps {
 
 function reportsOf(candidates: readonly RankedCandidate[]): CandidateReport[] {
   return candidates.flatMap((c) => (c.detail.kind === 'synthesis' ? [c.detail.candidate] : []));
+}
+
+/** The engine's run input of a job, through the builder its workspace's own search uses. */
+function runInputOf(spec: AppJobSpec, workers: number): { ok: true; input: RunInput } | { ok: false; reason: string } {
+  if (isPathJob(spec)) return buildRunInput(jobProject(spec), workers);
+  const w = spec as WorkspaceJobSpec;
+  const refused = workspaceStartIssues(w, workers);
+  return refused.length > 0 ? { ok: false, reason: refused.join('; ') } : { ok: true, input: workspaceRunInput(w, workers) };
 }
 
 function message(error: unknown): string {
@@ -332,10 +342,13 @@ export class QueueRunner {
 
   private async makeRun(entry: AppQueueEntry, runId: string, resume: boolean): Promise<{ run: Run; resumeNote: ((round: number) => string) | null } | null> {
     const { env, db } = this.deps;
-    const settings = jobSettings(entry.spec);
-    const workers = settings.workers ?? env.defaultWorkerCount();
+    const spec = entry.spec;
+    const path = isPathJob(spec) ? jobSettings(spec) : null;
+    const workers = path?.workers ?? env.defaultWorkerCount();
     const store = indexedDbCheckpointStore(db, runId);
-    const options = { workers, topK: CANDIDATES_SHOWN, perJob: settings.resultsPerFamily };
+    const options = path !== null
+      ? { workers, topK: CANDIDATES_SHOWN, perJob: path.resultsPerFamily }
+      : { workers, ...workspaceRunKeep(spec.problem.kind === 'suspension' ? 'suspension' : 'leg') };
     if (resume) {
       const restored = await restoreRunFromStore(env, store, options);
       if (restored.ok) {
@@ -351,7 +364,7 @@ export class QueueRunner {
       // Only one queued job runs at a time: older jobs' checkpoints are of no more use.
       await dropCheckpointsExcept(db, [runId], QUEUE_RUN_SCOPE).catch(() => {});
     }
-    const built = buildRunInput(jobProject(entry.spec), workers);
+    const built = runInputOf(spec, workers);
     const made = built.ok ? createRun(env, built.input, { ...options, store }) : built;
     if (!made.ok) {
       this.end(entry, 'failed', { ended: 'failed', reason: made.reason, evaluations: 0, elapsedMs: 0, restarts: 0, best: [], kept: false });
@@ -376,21 +389,48 @@ export class QueueRunner {
     this.setLive({ phase: next, evaluations: p.evaluations, elapsedMs: p.elapsedMs, checkpointRound: p.checkpointRound });
   }
 
-  /** Keeps the job's designs in the run history, then ends it in the queue and goes on. */
+  /**
+   * Keeps the job's designs (a path job's in the run history, a workspace job's run in its
+   * outcome, as its workspace keeps a run), then ends it in the queue and goes on.
+   */
   private async record(entry: AppQueueEntry, active: ActiveRun, run: Run, result: RunResult): Promise<void> {
-    const candidates = reportsOf(result.candidates ?? []);
+    const spec = entry.spec;
     const p = run.progress();
+    const ended = result.ok ? result.stopReason : 'failed';
+    const base = {
+      ended,
+      reason: result.ok ? null : result.reason,
+      evaluations: result.evaluations,
+      elapsedMs: result.ok ? result.elapsedMs : p.elapsedMs,
+      restarts: result.ok ? result.restarts : p.restarts,
+    };
+    if (!isPathJob(spec)) {
+      const ranked = result.candidates ?? [];
+      const runId = entry.runId ?? entry.id;
+      const now = new Date(Date.now()).toISOString();
+      const designs = ranked.length === 0 ? null
+        : workspaceJobRun(spec as WorkspaceJobSpec, runId, now, now, ranked, result.evaluations, result.ok ? result.stopReason : 'cancelled');
+      this.active = null;
+      this.end(entry, active.cut ? 'cut' : result.ok ? 'done' : 'failed', {
+        ...base,
+        best: designs === null ? [] : bestPerLayout(designs.candidates),
+        kept: false,
+        ...(designs === null ? {} : { designs }),
+      });
+      return;
+    }
+    const candidates = reportsOf(result.candidates ?? []);
     let kept = false;
     if (candidates.length > 0 && entry.runId !== null) {
       try {
         await keepRun(this.deps.db, {
           runId: entry.runId,
-          name: entry.spec.name,
+          name: spec.name,
           keptAt: Date.now(),
-          ended: result.ok ? result.stopReason : 'failed',
+          ended,
           evaluations: result.evaluations,
-          settings: jobSettings(entry.spec),
-          target: snapshotTarget(entry.spec.problem.target),
+          settings: jobSettings(spec),
+          target: snapshotTarget(spec.problem.target),
           candidates,
         });
         kept = true;
@@ -399,15 +439,7 @@ export class QueueRunner {
         this.note(entry.id, `Its designs could not be kept in the run history: ${message(error)}`);
       }
     }
-    const outcome: JobOutcome = {
-      ended: result.ok ? result.stopReason : 'failed',
-      reason: result.ok ? null : result.reason,
-      evaluations: result.evaluations,
-      elapsedMs: result.ok ? result.elapsedMs : p.elapsedMs,
-      restarts: result.ok ? result.restarts : p.restarts,
-      best: bestPerFamily(candidates),
-      kept,
-    };
+    const outcome: JobOutcome = { ...base, best: bestPerFamily(candidates), kept };
     this.active = null;
     this.end(entry, active.cut ? 'cut' : result.ok ? 'done' : 'failed', outcome);
   }

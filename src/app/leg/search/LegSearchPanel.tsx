@@ -18,9 +18,13 @@ import { SearchProgress } from '../../search/SearchProgress';
 import type { LegSearchController } from './controller';
 import type { LegCandidate, LegSearchRun } from './results';
 import { LegResultsTable } from './ResultsTable';
+import { AddToQueue } from '../../batch/AddToQueue';
 import type { LegProblemInput } from '../../../core/synthesis/legProblem';
 import type { PoseFamilyId } from '../../../core/synthesis/poseFamilies';
 import type { LegSearchSettings } from '../readSetup';
+
+/** The fields' first values while the set-up does not read (Add to queue is not offered then). */
+const NO_BUDGET = { evaluations: null, seconds: null };
 
 function runSummary(run: LegSearchRun): string {
   return `${run.problem.families.length} famil${run.problem.families.length === 1 ? 'y' : 'ies'}, ${runEndWords(run)}`;
@@ -95,6 +99,13 @@ export function LegSearchPanel({ controller, ready, issues, phasing }: {
       <div className="legws-controls">
         <button type="button" onClick={onStart} disabled={ready === null || running} aria-describedby={issues.length === 0 ? undefined : 'legws-start-issues'}>Start search</button>
         <button type="button" onClick={() => controller.stop()} disabled={!running}>Stop</button>
+        <AddToQueue
+          problem={ready === null ? null : { kind: 'leg', projectName: ready.input.name, input: ready.input }}
+          why={issues.length === 0 ? null : `${issues.length} issue${issues.length === 1 ? '' : 's'} to correct in the set-up`}
+          seed={ready?.settings.seed ?? 0}
+          budget={ready?.settings.budget ?? NO_BUDGET}
+          workers={controller.workers}
+        />
       </div>
       {confirming && record !== undefined && record.previous !== null && (
         <DropOlderRunConfirm olderSummary={runSummary(record.previous)} onStart={start} onCancel={() => setConfirming(false)} />

@@ -16,6 +16,10 @@ import { useSearchController } from './controllerContext';
 import type { SearchRun } from './results';
 import { ResultsTable } from './ResultsTable';
 import type { TableRow } from './rows';
+import { AddToQueue } from '../../batch/AddToQueue';
+
+/** The fields' first values while the set-up does not read (Add to queue is not offered then). */
+const NO_BUDGET = { evaluations: null, seconds: null };
 
 function runSummary(run: SearchRun): string {
   return `${run.problem.layouts.length} layouts, ${runEndWords(run)}`;
@@ -90,6 +94,13 @@ export function SearchPanel() {
       <div className="susp-search-controls">
         <button type="button" onClick={onStart} disabled={!reading.ok || running} aria-describedby={why === null ? undefined : 'susp-search-why'}>Start search</button>
         <button type="button" onClick={() => controller.stop()} disabled={!running}>Stop</button>
+        <AddToQueue
+          problem={reading.ok ? { kind: 'suspension', projectName: state.name, input: reading.input } : null}
+          why={why}
+          seed={reading.ok ? reading.run.seed : 0}
+          budget={reading.ok ? reading.run.budget : NO_BUDGET}
+          workers={controller.workers}
+        />
         {why !== null && <span id="susp-search-why" className="susp-problem" data-testid="search-not-ready">{`Not ready: ${why}`}</span>}
       </div>
       {confirming && record !== undefined && record.previous !== null && (
