@@ -2,7 +2,8 @@
  * Reach: does the default search find the optimum, not a neighbourhood of it? On the reach
  * set (bench/reachCases.ts: targets sampled from known linkages, so the optimum is zero),
  * each case runs SEEDS seeds of the search a job gets by default (the island's: the app's
- * and the command line's `{ kind: 'hybrid' }` inside the restart scheme, restart runs of
+ * and the command line's `{ kind: 'hybrid' }` inside the restart scheme, with its default
+ * runs: the budget split into runs of at least 10 000 evaluations per variable, capped at
  * RUN_EVALUATIONS), each up to BUDGET evaluations, stopped as soon as its best feasible
  * RMS is at most the case's reach error (REACH_SHARE × the target's size): a target-error
  * stop, so a seed that reaches ends early. Per case: the seeds that reach, the median
@@ -14,6 +15,11 @@
  * not depend on the machine: the same code and seeds give the same evaluations and RMS.
  * `reach-quick` runs REACH_QUICK_IDS with QUICK_SEEDS seeds at the same budget; `npm run bench`
  * alone runs it and leaves `reach` out (tens of minutes on two cores).
+ *
+ * To measure a change on part of the set: LOCI_REACH_CASES (case ids, comma-separated),
+ * LOCI_REACH_SEEDS (seeds 1 … n) and LOCI_REACH_OPTIMIZER (a job's optimizer as JSON; a
+ * restart scheme is taken as it is, anything else is run inside the island's) narrow or
+ * change what `reach` runs; the rows then say so.
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
@@ -197,8 +203,21 @@ export async function reachRows(cases: readonly ReachCase[], seeds: number, budg
   return rows.map((row) => ({ ...row, threads, loadAverage: load }));
 }
 
-export function benchReach(): Promise<ReachRow[]> {
-  return reachRows(reachCases(), SEEDS, BUDGET);
+/** The `reach` run the environment asks for (see the header); the whole set, SEEDS seeds and the default optimizer when it asks for nothing. */
+export async function benchReach(): Promise<ReachRow[]> {
+  const ids = process.env.LOCI_REACH_CASES?.split(',').map((id) => id.trim()).filter((id) => id.length > 0);
+  const seedsText = process.env.LOCI_REACH_SEEDS;
+  const seeds = seedsText === undefined ? SEEDS : Number(seedsText);
+  if (!(Number.isInteger(seeds) && seeds >= 1)) throw new Error(`LOCI_REACH_SEEDS is ${JSON.stringify(seedsText)}; expected an integer ≥ 1`);
+  const optimizerText = process.env.LOCI_REACH_OPTIMIZER;
+  let optimizer = DEFAULT_JOB_OPTIMIZER;
+  if (optimizerText !== undefined) {
+    const parsed: unknown = JSON.parse(optimizerText);
+    if (typeof parsed !== 'object' || parsed === null || Array.isArray(parsed)) throw new Error(`LOCI_REACH_OPTIMIZER is ${optimizerText}; expected a JSON object such as {"kind":"hybrid"}`);
+    optimizer = parsed as Record<string, unknown>;
+  }
+  const rows = await reachRows(reachCases(ids === undefined || ids.length === 0 ? undefined : ids), seeds, BUDGET, optimizer);
+  return optimizerText === undefined ? rows : rows.map((row) => ({ ...row, optimizer: optimizerText }));
 }
 
 export function benchReachQuick(): Promise<ReachRow[]> {

@@ -136,46 +136,47 @@ function inTurn(values: readonly number[]): number[] {
 
 // ---------------------------------------------------------------------------------------
 // The generating linkages (mm). Each four-bar is a Grashof crank-rocker and each six-bar's
-// crank turns fully, so closed loops are whole turns of the crank.
+// crank turns fully, so closed loops are whole turns of the crank. No pose-family design
+// has a joint where its family's default pose (src/core/linkage/families.ts) has it.
 
 const LENGTHS_A: FourBarLengths = { r1: 100, r2: 35, r3: 110, r4: 90, rcx: 55, rcy: 40, theta0: 0.3, x0: 20, y0: -10 };
 const LENGTHS_B: FourBarLengths = { r1: 80, r2: 25, r3: 70, r4: 60, rcx: -20, rcy: 50, theta0: 5.9, x0: 0, y0: 30 };
 /** Ground-link units (r1 = 1, θ0 = x0 = y0 = 0): the free-placement encoding's own frame. */
 const LENGTHS_UNIT: FourBarLengths = { r1: 1, r2: 0.4, r3: 1.2, r4: 0.9, rcx: 0.5, rcy: 0.6, theta0: 0, x0: 0, y0: 0 };
 
-const FOUR_BAR_A: FourBarPositions = { A0: { x: 0, y: 0 }, B0: { x: 100, y: 0 }, A: { x: 24, y: 32 }, B: { x: 120, y: 77 }, P: { x: 90, y: 110 } };
+const FOUR_BAR_A: FourBarPositions = { A0: { x: -10, y: 15 }, B0: { x: 85, y: -5 }, A: { x: -5, y: 45 }, B: { x: 95, y: 75 }, P: { x: 60, y: 115 } };
 const FOUR_BAR_B: FourBarPositions = { A0: { x: 10, y: 5 }, B0: { x: 95, y: -15 }, A: { x: -15, y: 25 }, B: { x: 70, y: 80 }, P: { x: 20, y: 95 } };
-const SLIDER_A: SliderCrankPositions = { A0: { x: 0, y: 0 }, A: { x: 30, y: 40 }, B: { x: 170, y: 10 }, P: { x: 100, y: 60 }, slideAngleRad: 0 };
+const SLIDER_A: SliderCrankPositions = { A0: { x: 10, y: -5 }, A: { x: -20, y: 20 }, B: { x: 120, y: 25 }, P: { x: 70, y: 75 }, slideAngleRad: 0 };
 const SLIDER_B: SliderCrankPositions = { A0: { x: 0, y: 0 }, A: { x: 35, y: -10 }, B: { x: 140, y: 15 }, P: { x: 60, y: 70 }, slideAngleRad: 0 };
 const WATT_I: WattIPositions = {
-  A0: { x: 0, y: 0 },
-  B0: { x: 100, y: 0 },
-  A: { x: 24, y: 32 },
-  B: { x: 120, y: 77 },
-  C: { x: -20, y: 25 },
-  D: { x: 80, y: 120 },
-  E: { x: 20, y: 140 },
-  P: { x: 50, y: 150 },
+  A0: { x: -10, y: 15 },
+  B0: { x: 85, y: -5 },
+  A: { x: -5, y: 45 },
+  B: { x: 95, y: 75 },
+  C: { x: -35, y: 30 },
+  D: { x: 70, y: 125 },
+  E: { x: 10, y: 150 },
+  P: { x: 45, y: 160 },
 };
 const WATT_II: WattIIPositions = {
-  A0: { x: 0, y: 0 },
-  B0: { x: 100, y: 0 },
-  C0: { x: 180, y: 60 },
-  A: { x: 24, y: 32 },
-  B: { x: 120, y: 77 },
-  C: { x: 160, y: 40 },
-  D: { x: 170, y: 120 },
-  P: { x: 120, y: 140 },
+  A0: { x: 5, y: -5 },
+  B0: { x: 95, y: 5 },
+  C0: { x: 175, y: 70 },
+  A: { x: 25, y: 30 },
+  B: { x: 115, y: 80 },
+  C: { x: 155, y: 45 },
+  D: { x: 165, y: 125 },
+  P: { x: 115, y: 145 },
 };
 const STEPHENSON_I: StephensonIPositions = {
-  A0: { x: 0, y: 0 },
-  B0: { x: 100, y: 0 },
-  A: { x: 24, y: 32 },
-  B: { x: 120, y: 77 },
-  C: { x: -20, y: 25 },
-  D: { x: 140, y: 30 },
-  E: { x: 60, y: -60 },
-  P: { x: 10, y: -80 },
+  A0: { x: 5, y: -10 },
+  B0: { x: 95, y: 10 },
+  A: { x: 30, y: 20 },
+  B: { x: 125, y: 85 },
+  C: { x: -15, y: 15 },
+  D: { x: 150, y: 40 },
+  E: { x: 70, y: -50 },
+  P: { x: 20, y: -75 },
 };
 
 const TURNED: Similarity = { scale: 0.8, rotationRad: 0.7, tx: 30, ty: -20 };

@@ -102,6 +102,67 @@ describe('restart scheme (IPOP-style, Auger and Hansen 2005)', () => {
     expect(state.inner.config.maxEvaluations).toBeLessThanOrEqual(3000);
   });
 
+  it('with penaliseBasins, each run keeps out of the basins found before it, and resumes exactly', () => {
+    const keepOut = { ...config, penaliseBasins: true, avoidDistance: 0.05 } as const;
+    const opt = make(keepOut);
+    const result = drive(opt, rastrigin);
+    expect(result.evaluations).toBe(budget);
+    const state = opt.exportState() as RestartState;
+    expect(state.config.penaliseBasins).toBe(true);
+    const d = 5;
+    const count = state.basins.length / d;
+    expect(count).toBeGreaterThanOrEqual(3);
+    // Each run's best is feasible only outside the earlier basins' radius, and any point
+    // outside ranks before every point inside (Deb, 2000, feasibility first): so every
+    // basin is at least avoidDistance (RMS, box units) from each earlier one. Theorem.
+    for (let b = 1; b < count; b++) {
+      for (let a = 0; a < b; a++) {
+        let sum = 0;
+        for (let j = 0; j < d; j++) sum += (state.basins[b * d + j] - state.basins[a * d + j]) ** 2;
+        expect(Math.sqrt(sum / d), `basins ${a} and ${b}`).toBeGreaterThanOrEqual(0.05);
+      }
+    }
+    // The reported best is a true evaluation, never a penalised one.
+    expect(result.violation).toBe(0);
+    expect(rastrigin.value(Float64Array.from(result.x))).toBe(result.value);
+    expect(() => expectExactResume(keepOut, rastrigin, [single.evaluations + 20, Math.floor(budget * 0.7)])).not.toThrow();
+  });
+
+  it('by default penalises basins and splits a budget into runs of at least 10 000 × dim; null and false switch both off', () => {
+    const state = make(config).exportState() as RestartState;
+    expect(state.config.penaliseBasins).toBe(true);
+    expect(state.config.runEvaluationsPerVariable).toBe(10_000);
+    const off = make({ ...config, penaliseBasins: false, runEvaluationsPerVariable: null }).exportState() as RestartState;
+    expect(off.config.penaliseBasins).toBe(false);
+    expect(off.config.runEvaluationsPerVariable).toBeNull();
+    expect(off.inner.config.maxEvaluations).toBe(budget);
+    expect(() => make({ ...config, penaliseBasins: 'yes' } as unknown as typeof config)).toThrow(/config\.penaliseBasins/);
+  });
+
+  it('splits the budget evenly into whole runs of at least runEvaluationsPerVariable × dim, and at most runEvaluations', () => {
+    // 10 000 evaluations, runs of at least 1500 × 2 = 3000: three runs of 3334 fit.
+    const split = make({ kind: 'restart', inner: { kind: 'lshade' }, dim: 2, maxEvaluations: 10_000, seed: 3, runEvaluationsPerVariable: 1500 });
+    expect((split.exportState() as RestartState).inner.config.maxEvaluations).toBe(3334);
+    expect(drive(split, rosenbrock(2)).evaluations).toBe(10_000);
+    expect(restarts(split)).toBeGreaterThanOrEqual(2);
+    // Fewer than two runs fit: one run of the whole budget, as without the option.
+    const whole = make({ kind: 'restart', inner: { kind: 'lshade' }, dim: 2, maxEvaluations: 10_000, seed: 3, runEvaluationsPerVariable: 2600 });
+    expect((whole.exportState() as RestartState).inner.config.maxEvaluations).toBe(10_000);
+    // More than runEvaluations left (a time-only island): runs of runEvaluations, then the rest split.
+    const both = make({ kind: 'restart', inner: { kind: 'lshade' }, dim: 2, maxEvaluations: 10_000, seed: 3, runEvaluations: 4000, runEvaluationsPerVariable: 1000 });
+    const sizes: number[] = [];
+    for (let guard = 0; guard < 100 && !both.done(); guard++) {
+      const state = both.exportState() as RestartState;
+      if (sizes.length === state.restarts) sizes.push(state.inner.config.maxEvaluations);
+      const points = both.ask();
+      both.tell(points, Float64Array.from(points, () => 1));
+    }
+    // A constant objective stagnates each run at stallShare of its budget, so the runs are
+    // short; the first is still sized by runEvaluations, and the last split ones by the rest.
+    expect(sizes[0]).toBe(4000);
+    expect(sizes.every((n) => n <= 4000)).toBe(true);
+  });
+
   it('a restored state keeps its restart count', () => {
     const opt = make(config);
     drive(opt, rastrigin, { until: Math.floor(budget / 3) });

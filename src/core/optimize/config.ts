@@ -4,6 +4,7 @@
  */
 import {
   fail,
+  readBoolean,
   readInteger,
   readLiteral,
   readNumber,
@@ -37,6 +38,13 @@ const MAX_POPULATION_GROWTH = 10;
 const MAX_AVOID_ATTEMPTS = 1000;
 const MAX_BASINS = 1000;
 const INNER_KINDS = ['lshade', 'de-rand-1-bin', 'nelder-mead', 'hybrid'] as const;
+/**
+ * Shortest restart run per variable, evaluations: 10 000 × D is the budget of one run in the
+ * CEC 2005 real-parameter benchmark (Suganthan et al., 2005), the scale L-SHADE was tuned
+ * at. A budget of several such runs is spent in several searches, each away from the
+ * basins before it; a smaller one in one search, as before.
+ */
+export const RUN_EVALUATIONS_PER_VARIABLE = 10_000;
 /** Largest simplex edge: a vertex flipped to the other side of the start stays in the box. */
 export const MAX_SIMPLEX_STEP = 0.5;
 
@@ -163,6 +171,12 @@ function readRestart(o: Fields, where: string, common: ResolvedCommon): Resolved
       o.runEvaluations === undefined || o.runEvaluations === null
         ? null
         : readInteger(o.runEvaluations, `${where}.runEvaluations`, 1, Number.MAX_SAFE_INTEGER),
+    // null switches the split off (the option is absent from states written before it existed: they get the default).
+    runEvaluationsPerVariable:
+      o.runEvaluationsPerVariable === null
+        ? null
+        : readInteger(o.runEvaluationsPerVariable ?? RUN_EVALUATIONS_PER_VARIABLE, `${where}.runEvaluationsPerVariable`, 1, Math.floor(Number.MAX_SAFE_INTEGER / MAX_DIM)),
+    penaliseBasins: readBoolean(o.penaliseBasins ?? true, `${where}.penaliseBasins`),
   };
 }
 

@@ -1,14 +1,18 @@
 /**
  * A restart scheme around any other search, so a budget is spent to the end: when a run
  * converges (its stop reason), stagnates (its best unchanged for `stallShare` of its
- * budget) or spends its own budget (`runEvaluations`), a fresh run starts with the evaluations left, on a fresh generator, with a
- * larger population, its start points redrawn away from the basins found so far (the
- * best point of each finished run, rejection sampling within `avoidDistance`).
- * Increasing population restarts as in IPOP (Auger and Hansen, 2005, "A restart CMA
- * evolution strategy with increasing population size").
+ * budget) or spends its own budget, a fresh run starts with the evaluations left, on a
+ * fresh generator, with a larger population, its start points redrawn away from the
+ * basins found so far (the best point of each finished run, rejection sampling within
+ * `avoidDistance`) and, with `penaliseBasins`, every point it tries within that distance
+ * of one ranked infeasible. Increasing population restarts as in IPOP (Auger and Hansen,
+ * 2005, "A restart CMA evolution strategy with increasing population size").
  *
- * The first run is exactly the inner search as it would run alone (same generator, same
- * budget), so a run that never converges gives the same bits with or without the scheme.
+ * A run's own budget: `runEvaluations` while more than that is left; then what is left,
+ * split evenly into as many runs of at least `runEvaluationsPerVariable` × dim as fit.
+ * The first run is exactly the inner search as it would run alone with that budget (same
+ * generator), so a budget too small for two runs gives the same bits with or without the
+ * scheme while the run lasts.
  * Each later run's generator is seeded through SplitMix64 from 53 bits of the scheme's
  * own generator (a copy of the island's stream): a new jump stream clear of the other
  * islands' streams would cost 2^16 jumps per restart, and a nested `split` would land
@@ -63,10 +67,18 @@ function grown(inner: ResolvedInnerOptions, growth: number, r: number, dim: numb
   }
 }
 
-/** The budget of the run that starts after `past` evaluations. */
+/**
+ * The budget of the run that starts after `past` evaluations: runEvaluations when more
+ * than that is left (a time-only island's runs); otherwise what is left, split evenly
+ * into as many runs of at least runEvaluationsPerVariable × dim as fit (one run when
+ * fewer than two fit), so no run is cut short.
+ */
 function runBudget(config: ResolvedRestart, past: number): number {
   const left = config.maxEvaluations - past;
-  return config.runEvaluations !== null && config.runEvaluations < left ? config.runEvaluations : left;
+  if (config.runEvaluations !== null && config.runEvaluations < left) return config.runEvaluations;
+  const perVariable = config.runEvaluationsPerVariable;
+  const runs = perVariable === null ? 1 : Math.floor(left / (perVariable * config.dim));
+  return runs > 1 ? Math.ceil(left / runs) : left;
 }
 
 export class Restart implements Optimizer {
@@ -84,6 +96,8 @@ export class Restart implements Optimizer {
   private runBestViolation = Infinity;
   private improvedAt = 0;
   private stop: StopReason | null = null;
+  /** The violations a run is told with `penaliseBasins`: grown to the largest batch, then reused. */
+  private penalised = new Float64Array(0);
 
   private constructor(config: ResolvedRestart, rng: Prng, inner: InnerOptimizer) {
     this.dim = config.dim;
@@ -142,7 +156,7 @@ export class Restart implements Optimizer {
   tell(points: readonly Float64Array[], values: Float64Array, violations?: Float64Array): void {
     if (this.stop !== null) throw new Error('tell after the restart scheme stopped');
     const inner = this.inner;
-    inner.tell(points, values, violations);
+    inner.tell(points, values, this.config.penaliseBasins && this.basinCount > 0 ? this.penalise(points, violations) : violations);
     const total = this.pastEvaluations + inner.evaluations();
     const best = inner.best();
     if (precedes(best.value, best.violation, this.runBestValue, this.runBestViolation)) {
@@ -192,6 +206,37 @@ export class Restart implements Optimizer {
       improvedAt: this.improvedAt,
       inner: this.inner.exportState(),
     };
+  }
+
+  /**
+   * The batch's violations plus, for each point within avoidDistance of a basin, 1 − its
+   * distance to the nearest basin over avoidDistance: derating near the optima found, as
+   * in sequential niching (Beasley, Bull and Martin, 1993), ranked by feasibility first.
+   */
+  private penalise(points: readonly Float64Array[], violations: Float64Array | undefined): Float64Array {
+    const n = points.length;
+    if (this.penalised.length < n) this.penalised = new Float64Array(n);
+    const out = this.penalised;
+    const d = this.dim;
+    const basins = this.basins;
+    const radius = this.config.avoidDistance;
+    for (let k = 0; k < n; k++) {
+      const p = points[k];
+      let nearest = Infinity;
+      for (let b = 0; b < this.basinCount; b++) {
+        let sum = 0;
+        for (let j = 0; j < d; j++) {
+          const t = p[j] - basins[b * d + j];
+          sum += t * t;
+        }
+        if (sum < nearest) nearest = sum;
+      }
+      const distance = Math.sqrt(nearest / d);
+      const base = violations === undefined ? 0 : violations[k];
+      // NaN distance (a NaN coordinate) takes no penalty: the point ranks as its value says.
+      out[k] = distance < radius ? (base > 0 ? base : 0) + 1 - distance / radius : base;
+    }
+    return out.length === n ? out : out.subarray(0, n);
   }
 
   /** Evaluations without improvement after which the current run has stagnated. */

@@ -159,6 +159,18 @@ export interface RestartOptions {
   readonly maxBasins: number;
   /** Budget of one run (the last gets what is left); null, the default: each run gets all that is left. */
   readonly runEvaluations: number | null;
+  /**
+   * Shortest run per variable: once at most runEvaluations are left, they are split evenly
+   * into as many runs of at least this × dim as fit, so a budget of several such runs is
+   * spent in several searches rather than one; default 10 000; null: no split.
+   */
+  readonly runEvaluationsPerVariable: number | null;
+  /**
+   * Whether a run ranks a point within `avoidDistance` of a basin found by an earlier run
+   * as infeasible (sequential niching), so the whole run, not only its start, keeps out
+   * of the basins found; default true.
+   */
+  readonly penaliseBasins: boolean;
 }
 
 export type RestartConfig = CommonConfig & {
