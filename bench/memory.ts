@@ -22,6 +22,7 @@ import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
+import { pathToFileURL } from 'node:url';
 import { MessageChannel, Worker, type MessagePort } from 'node:worker_threads';
 import nodeEndpoint from 'comlink/dist/esm/node-adapter.mjs';
 import type { FamilyId } from '../src/core/synthesis';
@@ -34,7 +35,7 @@ import { fileCheckpointStore, nodeEnvironment } from '../src/engine/node';
  * minutes, so the run lasts its whole time budget.
  */
 const DEFAULT_PROBLEM = new URL('../tests/reference/problems/closed18-untimed.json', import.meta.url);
-const MB = 1024 * 1024;
+export const MB = 1024 * 1024;
 /** A worker busy in a step answers between steps; one that does not within this is left out of a sample. */
 const HEAP_ANSWER_MS = 5000;
 
@@ -42,7 +43,7 @@ const searchWorkerUrl = new URL('../workers/searchWorker.ts', import.meta.url);
 const heapPorts: MessagePort[] = [];
 
 /** A search worker as src/engine/node/environment.ts starts one, with a port that reports its heap. */
-function spawnMeasuredWorker(): WorkerHandle {
+export function spawnMeasuredWorker(): WorkerHandle {
   const { port1, port2 } = new MessageChannel();
   const worker = new Worker(new URL('./memoryWorker.mjs', import.meta.url), {
     workerData: { entry: searchWorkerUrl.href, heapPort: port2 },
@@ -71,7 +72,7 @@ function spawnMeasuredWorker(): WorkerHandle {
 }
 
 /** The summed heap of the live workers, MB (null if one did not answer in time). */
-async function workersHeapMb(): Promise<number | null> {
+export async function workersHeapMb(): Promise<number | null> {
   const answers = await Promise.all(
     heapPorts.map(
       (port) =>
@@ -120,7 +121,7 @@ async function sample(startMs: number, rounds: number): Promise<Sample> {
 }
 
 /** Least-squares slope of y over x. */
-function slope(xs: readonly number[], ys: readonly number[]): number {
+export function slope(xs: readonly number[], ys: readonly number[]): number {
   const n = xs.length;
   const mx = xs.reduce((a, b) => a + b, 0) / n;
   const my = ys.reduce((a, b) => a + b, 0) / n;
@@ -169,8 +170,8 @@ async function main(): Promise<void> {
   const dir = mkdtempSync(join(tmpdir(), 'loci-memory-'));
   const input: RunInput = {
     jobs: problem.families.map((family) => ({ id: family, objective: { kind: 'synthesis', problem, family }, seed: 1, islands: workers, optimizer: { kind: 'hybrid' } })),
-    // An evaluation budget far beyond what the seconds allow: a time budget alone sizes each island for 1e6 evaluations, which a fast problem spends in under a minute.
-    budget: { seconds, evaluations: 1e10 },
+    // A time budget alone: each island then has no cap on evaluations (DEFAULT_ISLAND_EVALUATIONS) and searches until the time is up.
+    budget: { seconds },
     stepMs,
   };
   const made = createRun(nodeEnvironment(spawnMeasuredWorker), input, { workers, topK: 5, store: fileCheckpointStore(join(dir, 'ck.json')), checkpointEveryMs: checkpointEveryS * 1000 });
@@ -223,4 +224,5 @@ async function main(): Promise<void> {
   console.log(JSON.stringify({ ...figures, bench: 'memory' }));
 }
 
-await main();
+// Run as a script; bench/soak.ts imports the helpers above.
+if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.argv[1]).href) await main();

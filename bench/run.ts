@@ -13,6 +13,7 @@ import { benchKernel } from './kernel';
 import { benchMatching } from './matching';
 import { benchReach, benchReachQuick } from './reach';
 import { benchScaling } from './scaling';
+import { benchSoak } from './soak';
 import { benchSuspension } from './suspension';
 import { benchSynthesis } from './synthesis';
 
@@ -38,6 +39,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'families', run: benchFamilies },
   { name: 'reach', run: benchReach, onlyByName: true },
   { name: 'reach-quick', run: benchReachQuick },
+  { name: 'soak', run: benchSoak, onlyByName: true },
 ];
 
 type Outcome =

@@ -113,8 +113,10 @@ async function measure(input: RunInput, workers: number): Promise<Measured> {
   const made = createRun(env, input, { workers, topK: 1 });
   if (!made.ok) throw new Error(made.reason);
   const marks: Mark[] = [];
+  const budget = input.budget.evaluations ?? Infinity;
   made.run.onProgress((p) => {
-    if (p.status !== 'running' || p.rounds < 1) return;
+    // Marks at the first slice and at the one that ends the budget only: the bench adds no work to the slices between.
+    if (p.status !== 'running' || p.rounds < 1 || (marks.length === 1 && p.evaluations < budget) || marks.length === 2) return;
     const mark = {
       evaluations: p.evaluations,
       ms: performance.now(),
@@ -124,9 +126,7 @@ async function measure(input: RunInput, workers: number): Promise<Measured> {
       mainCpuMs: mainThreadCpuMs(),
       processCpuMs: processCpuMs(),
     };
-    // Only the first and the latest are read.
-    if (marks.length < 2) marks.push(mark);
-    else marks[1] = mark;
+    marks.push(mark);
   });
   const result = await made.run.start();
   if (!result.ok) throw new Error(result.reason);

@@ -73,8 +73,6 @@ export interface IslandProgress {
   readonly bestValue: number | null;
   readonly bestViolation: number | null;
   readonly bestX: number[] | null;
-  /** Candidates that entered the island's archive during this step, best first. */
-  readonly elites: Individual[];
   /** Set once the island has stopped; it then evaluates nothing more. */
   readonly stopReason: IslandStopReason | null;
   /** Fresh runs its optimizer started after the first because a run converged or stagnated. */
@@ -83,19 +81,25 @@ export interface IslandProgress {
 
 /**
  * One island's part of an `advance` call: immigrants to place first (the ring
- * neighbour's emigrants of an earlier slice), then one step of `slice`, then its
- * `emigrants` best distinct candidates to send on.
+ * neighbour's emigrants of an earlier slice), then one step of `slice`, then, if the
+ * slice publishes or the island stops in it, its `emigrants` best distinct candidates
+ * to send on.
  */
 export interface AdvanceRequest {
   readonly islandId: string;
   readonly slice: StepSlice;
   readonly immigrants: readonly Individual[];
   readonly emigrants: number;
+  /** Whether this slice publishes emigrants; the other slices answer with none (unless the island stops: its last). */
+  readonly publish: boolean;
 }
 
 export interface AdvanceResult {
   readonly progress: IslandProgress;
-  /** The island's best distinct candidates after the step (as many as asked, or fewer). */
+  /**
+   * The island's best distinct candidates after the step (as many as asked, or fewer)
+   * when the slice publishes or the island stopped in it; empty otherwise.
+   */
   readonly emigrants: Individual[];
 }
 
@@ -127,7 +131,12 @@ export interface DescribedCandidate extends Individual {
 }
 
 export const ISLAND_STATE_FORMAT = 'loci-island-state';
-export const ISLAND_STATE_VERSION = 1;
+/**
+ * Version 2: the island no longer reports each new archive entry (the run merges the
+ * islands' archives at its cuts), so the state drops version 1's entry counters;
+ * a version 1 state is still read, its counters ignored.
+ */
+export const ISLAND_STATE_VERSION = 2;
 
 /** Everything an island is, as JSON: `importState(exportState())` continues it exactly. */
 export interface IslandState {
@@ -135,11 +144,8 @@ export interface IslandState {
   readonly version: typeof ISLAND_STATE_VERSION;
   readonly config: IslandConfig;
   readonly optimizer: OptimizerState;
-  /** The archive, best first, each entry with the counter value it entered under. */
-  readonly archive: (Individual & { readonly entered: number })[];
-  /** Entries counter of the archive, and its value at the end of the last step. */
-  readonly entered: number;
-  readonly reported: number;
+  /** The island's archive of distinct designs, best first. */
+  readonly archive: Individual[];
   /** Immigrants waiting for the optimizer to reach a state that takes them. */
   readonly immigrants: Individual[];
 }

@@ -14,6 +14,7 @@ import {
   type Optimizer,
   type OptimizerConfig,
 } from '../src/core/optimize';
+import { CandidateArchive, MAX_ARCHIVE_CAPACITY } from '../src/core/synthesis';
 import {
   ISLAND_STATE_FORMAT,
   ISLAND_STATE_VERSION,
@@ -26,7 +27,6 @@ import {
   type IslandStopReason,
   type StepSlice,
 } from './api';
-import { CandidateArchive, MAX_ARCHIVE_CAPACITY } from './archive';
 import { describeWith, type DescribeOutcome } from './describeDesigns';
 import { injectImmigrants, type UnitImmigrant } from './migration';
 import { objectiveError } from './objectiveError';
@@ -90,7 +90,6 @@ export class Island {
   private readonly objective: SearchObjective;
   private optimizer: Optimizer;
   private readonly archive: CandidateArchive;
-  private reported: number;
   private immigrants: Individual[];
   // Scratch, reused by every step.
   private readonly real: Float64Array;
@@ -108,7 +107,6 @@ export class Island {
     this.objective = objective;
     this.optimizer = optimizer;
     this.archive = archive;
-    this.reported = 0;
     this.immigrants = [];
     this.real = new Float64Array(objective.dim);
   }
@@ -130,7 +128,10 @@ export class Island {
   static restore(input: IslandState): Made {
     if (!isObject(input)) return { ok: false, reason: 'island state is not an object' };
     if (input.format !== ISLAND_STATE_FORMAT) return { ok: false, reason: `island state format is ${JSON.stringify(input.format)}; expected "${ISLAND_STATE_FORMAT}"` };
-    if (input.version !== ISLAND_STATE_VERSION) return { ok: false, reason: `island state version is ${JSON.stringify(input.version)}; expected ${ISLAND_STATE_VERSION}` };
+    // Version 1 differs only in entry counters this version ignores.
+    if (!(input.version === ISLAND_STATE_VERSION || (input.version as number) === 1)) {
+      return { ok: false, reason: `island state version is ${JSON.stringify(input.version)}; expected 1 or ${ISLAND_STATE_VERSION}` };
+    }
     const made = Island.create(input.config);
     if (!made.ok) return made;
     const island = made.island;
@@ -143,17 +144,11 @@ export class Island {
     if (!(Array.isArray(input.archive) && input.archive.length <= island.archive.capacity)) {
       return { ok: false, reason: `archive is not an array of at most ${island.archive.capacity} entries` };
     }
-    if (!(isIntegerIn(input.entered, 0, Number.MAX_SAFE_INTEGER) && isIntegerIn(input.reported, 0, input.entered))) {
-      return { ok: false, reason: 'entered and reported must be integers with 0 ≤ reported ≤ entered' };
-    }
     for (const [k, entry] of input.archive.entries()) {
       const problem = island.checkIndividual(entry);
       if (problem !== null) return { ok: false, reason: `archive[${k}]: ${problem}` };
-      if (!isIntegerIn(entry.entered, 1, input.entered)) return { ok: false, reason: `archive[${k}].entered must be an integer in [1, entered]` };
-      island.archive.offer(entry.x, entry.value, entry.violation, entry.entered);
+      island.archive.offer(entry.x, entry.value, entry.violation);
     }
-    island.archive.restoreCounter(input.entered);
-    island.reported = input.reported;
     if (!(Array.isArray(input.immigrants) && input.immigrants.length <= island.archive.capacity)) {
       return { ok: false, reason: `immigrants is not an array of at most ${island.archive.capacity} entries` };
     }
@@ -208,8 +203,6 @@ export class Island {
       stepEvaluations += n;
       if (this.immigrants.length > 0) this.placeImmigrants();
     }
-    const elites = this.archive.enteredAfter(this.reported).map(toIndividual);
-    this.reported = this.archive.entered;
     const opt = this.optimizer;
     const best = opt.best();
     const seen = opt.evaluations() > 0 && best.value < Infinity;
@@ -223,7 +216,6 @@ export class Island {
       bestValue: seen ? best.value : null,
       bestViolation: seen && best.violation < Infinity ? best.violation : null,
       bestX,
-      elites,
       stopReason: this.stopReason(),
       restarts: opt instanceof Restart ? opt.restarts() : 0,
     };
@@ -231,7 +223,7 @@ export class Island {
 
   /** The `count` best distinct candidates of the archive. */
   emigrants(count: number): Individual[] {
-    return this.archive.entries().slice(0, Math.max(0, count)).map(toIndividual);
+    return this.archive.entries(count).map(toIndividual);
   }
 
   /** Places immigrants in the population now, or keeps them for when it can; returns how many were taken. */
@@ -251,10 +243,7 @@ export class Island {
   }
 
   topCandidates(count: number): DescribedCandidate[] {
-    return this.archive
-      .entries()
-      .slice(0, Math.max(0, count))
-      .map((entry) => ({ ...toIndividual(entry), detail: this.objective.describe(Float64Array.from(entry.x)) }));
+    return this.archive.entries(count).map((entry) => ({ ...toIndividual(entry), detail: this.objective.describe(entry.x) }));
   }
 
   exportState(): IslandState {
@@ -263,9 +252,7 @@ export class Island {
       version: ISLAND_STATE_VERSION,
       config: copyConfig(this.config),
       optimizer: this.optimizer.exportState(),
-      archive: this.archive.entries().map((entry) => ({ ...toIndividual(entry), entered: entry.entered })),
-      entered: this.archive.entered,
-      reported: this.reported,
+      archive: this.archive.entries().map(toIndividual),
       immigrants: this.immigrants.map(copyIndividual),
     };
   }

@@ -57,6 +57,7 @@ export function createSearchWorkerApi(nowMs: () => number): SearchWorkerApi {
         const problem = sliceProblem(request.slice) ?? countProblem(request.emigrants);
         if (problem !== null) return { ok: false, reason: `requests[${k}]: ${problem}` };
         if (!Array.isArray(request.immigrants)) return { ok: false, reason: `requests[${k}]: immigrants is not an array` };
+        if (typeof request.publish !== 'boolean') return { ok: false, reason: `requests[${k}]: publish is ${JSON.stringify(request.publish)}; expected true or false` };
       }
       const results: AdvanceResult[] = [];
       for (const [k, request] of requests.entries()) {
@@ -66,7 +67,9 @@ export function createSearchWorkerApi(nowMs: () => number): SearchWorkerApi {
           if ('reason' in placed) return { ok: false, reason: `requests[${k}]: ${placed.reason}` };
         }
         const progress = island.step(request.slice, nowMs);
-        results.push({ progress, emigrants: island.emigrants(request.emigrants) });
+        // Emigrants cross only when they are placed: at a publishing slice, or the island's last.
+        const sends = request.publish || progress.stopReason !== null;
+        results.push({ progress, emigrants: sends ? island.emigrants(request.emigrants) : [] });
       }
       return { ok: true, results };
     },

@@ -36,7 +36,10 @@ export interface CheckpointPayload {
    * engine, which placed them at once.
    */
   readonly emigrants?: readonly { readonly island: number; readonly slice: number; readonly individuals: readonly Individual[] }[];
-  /** The run's archive of each job, best first. */
+  /**
+   * The run's archive of each job, best first: the merge of its islands' archives (which
+   * the island states hold), for readers of the checkpoint; a restored run merges anew.
+   */
   readonly archive: readonly { readonly jobId: string; readonly entries: readonly Individual[] }[];
 }
 

@@ -20,6 +20,7 @@
  * yet placed (`EmigrantLedger`) and the run's archive make a checkpoint.
  */
 import type { AdvanceRequest, AdvanceResult, Individual, StepSlice } from '../../workers/api';
+import { queueTask } from './nextTask';
 import { WorkerLost, type WorkerClient } from './workerClient';
 
 /** Calls a worker may have in flight: the one it computes and the next one, queued. */
@@ -157,7 +158,7 @@ export function runPipeline(run: PipelineRun): Promise<void> {
       if (sent === null) throw new Error(`pipeline: island ${islands[sender].islandId} has not published slice ${p} yet`);
       immigrants = sent;
     }
-    return { islandId: islands[k].islandId, slice, immigrants, emigrants: migration.count };
+    return { islandId: islands[k].islandId, slice, immigrants, emigrants: migration.count, publish: publishes(t, migration.every, migration.count) };
   }
 
   return new Promise<void>((resolve, reject) => {
@@ -190,7 +191,7 @@ export function runPipeline(run: PipelineRun): Promise<void> {
     const scheduleMerge = () => {
       if (mergeScheduled) return;
       mergeScheduled = true;
-      setTimeout(() => {
+      queueTask(() => {
         mergeScheduled = false;
         try {
           if (mergeNext()) scheduleMerge();
@@ -198,7 +199,7 @@ export function runPipeline(run: PipelineRun): Promise<void> {
           fail(error);
         }
         pump();
-      }, 0);
+      });
     };
 
     const pump = () => {

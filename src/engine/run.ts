@@ -6,22 +6,26 @@
  * its islands, has its next slice queued while it computes, and waits only for an
  * island it takes immigrants from that is more than one slice behind. Every few slices
  * each island publishes its best few, and the next island of its job's ring (island k
- * sends to island k + 1) places them two slices later. The engine merges the islands'
- * new elites into the run's archive slice by slice in island order and reports
- * progress. Checkpoints, pause, cancel and exports happen at cuts: slices every island
- * stops at. A worker that dies or stops answering is replaced, and the whole run goes
- * back to the last checkpoint, so a deterministic run still ends as it would have.
+ * sends to island k + 1) places them two slices later. Each slice the engine only
+ * counts and reports progress: the run's archive of a job is the merge of its islands'
+ * archives in island order, taken at cuts (checkpoints, pause, export, the end), so the
+ * thread that orchestrates does next to nothing per slice however many workers there
+ * are, and the result does not depend on how the islands were spread over them.
+ * Checkpoints, pause, cancel and exports happen at cuts: slices every island stops at.
+ * A worker that dies or stops answering is replaced, and the whole run goes back to
+ * the last checkpoint, so a deterministic run still ends as it would have.
  *
  * Every evaluation happens in the workers; this side only orchestrates.
  */
 import { precedes } from '../core/optimize';
+import { CandidateArchive, mergeArchive } from '../core/synthesis';
 import type { AdvanceResult, DescribedCandidate, IslandInfo, IslandProgress, IslandState, IslandStopReason, StepSlice } from '../../workers/api';
-import { CandidateArchive } from '../../workers/archive';
 import { isObjectiveError } from '../../workers/objectiveError';
 import { decodeCheckpoint, encodeCheckpointInSteps, type CheckpointPayload } from './checkpoint';
 import type { CheckpointListing, CheckpointStore } from './checkpointStore';
 import type { EngineEnvironment } from './environment';
 import { EmigrantLedger, PIPELINE_DEPTH, runPipeline, TIMED_PIPELINE_DEPTH, type CutRule, type PipelineIsland } from './pipeline';
+import { nextTask, queueTask } from './nextTask';
 import { defineRun, planIslands, type IslandPlan, type RunInput, type RunSpec } from './runSpec';
 import { WorkerClient, WorkerLost, WorkerRefused } from './workerClient';
 
@@ -163,6 +167,8 @@ interface IslandView {
   worker: number;
   evaluations: number;
   stopReason: IslandStopReason | null;
+  /** The island's best so far, from its last slice (null before one, and after going back to a checkpoint). */
+  best: { readonly value: number; readonly violation: number } | null;
 }
 
 function checkOptions(options: RunOptions, spec: RunSpec, env: EngineEnvironment): string | null {
@@ -264,6 +270,7 @@ class Engine implements Run {
   private state: RunStatus = 'idle';
   private started = false;
   private workers: WorkerClient[] = [];
+  /** The run's archive of each job, merged from its islands' archives at the last cut (null before its islands are placed). */
   private archives: (CandidateArchive | null)[];
   /** Real bounds of each job's variables, from its first island. */
   private readonly bounds = new Map<number, [number[], number[]]>();
@@ -301,7 +308,7 @@ class Engine implements Run {
     this.onSaveError = options.onSaveError ?? null;
     const plans = planIslands(spec);
     this.workerCount = Math.min(plans.length, options.workers ?? env.defaultWorkerCount());
-    this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null }));
+    this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null, best: null }));
     this.pipelineIslands = this.islands.map((island, k) => ({ islandId: island.plan.islandId, worker: island.worker, sender: this.senderOf(k) }));
     this.ledger = new EmigrantLedger(this.islands.length);
     this.archives = spec.jobs.map(() => null);
@@ -435,7 +442,10 @@ class Engine implements Run {
       const reason = error.message;
       const failed = { ok: false, reason, evaluations: this.progress().evaluations, rounds: this.rounds } as const;
       if (!(error instanceof ObjectiveFailure)) return failed;
-      // The last checkpoint stays as it is (the failing step left an island mid-batch); the run's archive holds the rounds before.
+      // The last checkpoint stays as it is (the failing step left an island mid-batch). The
+      // islands' archives hold every design evaluated before the throw; if they cannot be
+      // read, the archives of the last cut do.
+      await this.readArchives().catch(() => {});
       const candidates = await this.describeTop().catch(() => null);
       return candidates === null ? failed : { ...failed, candidates };
     } finally {
@@ -541,8 +551,7 @@ class Engine implements Run {
     island.evaluations = progress.evaluations;
     island.stopReason = progress.stopReason;
     this.sessionEvaluations += progress.stepEvaluations;
-    const archive = this.archives[island.plan.jobIndex];
-    if (archive !== null) for (const elite of progress.elites) archive.offer(elite.x, elite.value, elite.violation);
+    if (progress.bestValue !== null && progress.bestViolation !== null) island.best = { value: progress.bestValue, violation: progress.bestViolation };
   }
 
   private async pauseHere(): Promise<void> {
@@ -577,7 +586,6 @@ class Engine implements Run {
       await this.replaceLostWorkers();
       await this.placeIslands(null);
     }
-    if (from !== null) this.loadArchives(from);
     await this.loadLedger(from);
     const payload = await this.collect();
     this.snapshot = payload;
@@ -615,25 +623,22 @@ class Engine implements Run {
   private adopt(island: IslandView, info: IslandInfo): void {
     island.evaluations = info.evaluations;
     island.stopReason = info.stopReason;
+    island.best = null;
     const j = island.plan.jobIndex;
-    if (this.archives[j] === null) {
-      this.bounds.set(j, [info.lower, info.upper]);
-      this.archives[j] = new CandidateArchive(this.spec.archive.capacity, this.spec.archive.distance, info.lower, info.upper);
-    }
+    if (!this.bounds.has(j)) this.bounds.set(j, [info.lower, info.upper]);
   }
 
-  private loadArchives(payload: CheckpointPayload): void {
-    this.archives = this.archives.map((archive, j) => {
-      if (archive === null) return null;
-      const [lower, upper] = this.bounds.get(j) as [number[], number[]];
-      const fresh = new CandidateArchive(archive.capacity, archive.distance, lower, upper);
-      for (const [k, entry] of payload.archive[j].entries.entries()) {
-        if (!(Array.isArray(entry.x) && fresh.fits(entry.x))) {
-          throw new RunFailure(`checkpoint archive of job ${this.spec.jobs[j].id}, entry ${k}: x does not fit the job's bounds`);
-        }
-        fresh.offer(entry.x, entry.value, entry.violation);
-      }
-      return fresh;
+  /**
+   * The run's archive of each job: its islands' archives merged in island order. The
+   * islands checked their archives when they took their states, so nothing here can fail.
+   */
+  private mergeArchives(states: readonly Pick<IslandState, 'archive'>[]): void {
+    const { capacity, distance } = this.spec.archive;
+    this.archives = this.spec.jobs.map((_, j) => {
+      const bounds = this.bounds.get(j);
+      if (bounds === undefined) return null;
+      const ofJob = states.filter((_, k) => this.islands[k].plan.jobIndex === j).map((state) => state.archive);
+      return mergeArchive(new CandidateArchive(capacity, distance, bounds[0], bounds[1]), ofJob);
     });
   }
 
@@ -653,6 +658,15 @@ class Engine implements Run {
     this.ledger = ledger;
   }
 
+  /** Merges the islands' archives as they are now, read without their states (after a failure). */
+  private async readArchives(): Promise<void> {
+    const { capacity } = this.spec.archive;
+    const settled = await Promise.allSettled(
+      this.islands.map((island) => this.workers[island.worker].call('emigrants', this.callTimeoutMs, (api) => api.emigrants(island.plan.islandId, capacity))),
+    );
+    this.mergeArchives(throwFirst(settled).map((answer) => ({ archive: answer.individuals })));
+  }
+
   /** Every island's state, the archives, the emigrants not yet placed and the counters, taken at a cut. */
   private async collect(): Promise<CheckpointPayload> {
     const settled = await Promise.allSettled(
@@ -661,6 +675,7 @@ class Engine implements Run {
       ),
     );
     const states = throwFirst(settled).map((answer) => answer.state);
+    this.mergeArchives(states);
     return {
       spec: this.spec,
       rounds: this.rounds,
@@ -695,7 +710,7 @@ class Engine implements Run {
       }
     }
     const listener = this.onCheckpoint;
-    if (listener !== null) setTimeout(() => listener(payload), 0);
+    if (listener !== null) queueTask(() => listener(payload));
     return text;
   }
 
@@ -734,7 +749,7 @@ class Engine implements Run {
       }
     }
     this.rounds = snapshot.rounds;
-    this.loadArchives(snapshot);
+    this.mergeArchives(snapshot.islands);
     await this.loadLedger(snapshot);
     this.emit();
   }
@@ -755,15 +770,19 @@ class Engine implements Run {
 
   // --- results ----------------------------------------------------------------------------
 
+  /** The best of the archives at the last cut and of the islands' slices since, first of equals in job order. */
   private best(): RunProgress['best'] {
     let best: RunProgress['best'] = null;
+    const consider = (j: number, value: number, violation: number) => {
+      if (best === null || precedes(value, violation, best.value, best.violation)) best = { jobId: this.spec.jobs[j].id, value, violation };
+    };
     for (const [j, archive] of this.archives.entries()) {
-      const top = archive?.entries()[0];
-      if (top === undefined) continue;
-      if (best === null || precedes(top.value, top.violation, best.value, best.violation)) {
-        best = { jobId: this.spec.jobs[j].id, value: top.value, violation: top.violation };
+      if (archive !== null && archive.size > 0) {
+        const top = archive.entry(0);
+        consider(j, top.value, top.violation);
       }
     }
+    for (const island of this.islands) if (island.best !== null) consider(island.plan.jobIndex, island.best.value, island.best.violation);
     return best;
   }
 
@@ -830,11 +849,6 @@ class Engine implements Run {
     const progress = this.progress();
     for (const listener of this.listeners) listener(progress);
   }
-}
-
-/** Resolves in a task of its own, after whatever else is queued (renders, input, timers). */
-function nextTask(): Promise<void> {
-  return new Promise((resolve) => setTimeout(resolve, 0));
 }
 
 /** A checkpoint's text, encoded in short tasks: on the page's thread, no step is a long task. */

@@ -5,7 +5,7 @@
  */
 import { MAX_STREAM } from '../core/optimize';
 import type { IslandOptimizerConfig, ObjectiveSpec } from '../../workers/api';
-import { MAX_ARCHIVE_CAPACITY } from '../../workers/archive';
+import { MAX_ARCHIVE_CAPACITY } from '../core/synthesis';
 
 /** One job: an objective (target × family), a seed, and the islands that search it as one migration ring. */
 export interface JobSpec {

@@ -41,7 +41,7 @@ function checkpointText(rounds: number): string {
       archiveDistance: SPEC.archive.distance,
     });
     if (!init.ok) throw new Error(init.reason);
-    if (rounds > 0) api.advance([{ islandId: plan.islandId, slice: { evaluations: 200 * rounds }, immigrants: [], emigrants: 0 }]);
+    if (rounds > 0) api.advance([{ islandId: plan.islandId, slice: { evaluations: 200 * rounds }, immigrants: [], emigrants: 0, publish: false }]);
     const exported = api.exportState(plan.islandId);
     if (!exported.ok) throw new Error(exported.reason);
     return exported.state;

@@ -288,7 +288,7 @@ describe('run input and the island API', () => {
     expect(api.init({ ...config, maxEvaluations: 0 })).toEqual({ ok: false, reason: 'maxEvaluations is 0; expected an integer ≥ 1' });
     const badDim = api.init({ ...config, objective: { kind: 'test-function', name: 'rosenbrock', dim: 1 } });
     expect(!badDim.ok && badDim.reason).toMatch(/dim of rosenbrock is 1/);
-    expect(api.advance([{ islandId: 'nobody', slice: { evaluations: 10 }, immigrants: [], emigrants: 0 }])).toEqual({ ok: false, reason: 'requests[0]: no island "nobody" in this worker' });
+    expect(api.advance([{ islandId: 'nobody', slice: { evaluations: 10 }, immigrants: [], emigrants: 0, publish: false }])).toEqual({ ok: false, reason: 'requests[0]: no island "nobody" in this worker' });
   });
 
   it('an island takes an immigrant better than its worst member into its population, and it becomes its best', () => {
@@ -297,7 +297,7 @@ describe('run input and the island API', () => {
     expect(api.init(base).ok).toBe(true);
     expect(api.init({ ...base, islandId: 'b', stream: 1 }).ok).toBe(true);
     const step = (islandId: string, evaluations: number, immigrants: readonly Individual[] = []) => {
-      const r = api.advance([{ islandId, slice: { evaluations }, immigrants, emigrants: 1 }]);
+      const r = api.advance([{ islandId, slice: { evaluations }, immigrants, emigrants: 1, publish: true }]);
       if (!r.ok) throw new Error(r.reason);
       return r.results[0];
     };

@@ -22,7 +22,7 @@ export { createSuspensionProblem, defaultLayoutBounds, layoutVariableNames, DEFA
 export type { Ranked } from './ranking';
 export { compareCandidates, compareRanks } from './ranking';
 export type { ArchiveEntry } from './archive';
-export { CandidateArchive } from './archive';
+export { CandidateArchive, MAX_ARCHIVE_CAPACITY, mergeArchive } from './archive';
 export type { CurveEvaluator } from './curve';
 export { createMatchScratch, matchInOrder, orderViolation, refineDriverValue, DRIVER_STEP_TOLERANCE } from './timing';
 export type { MatchScratch } from './timing';

@@ -128,7 +128,7 @@ describe('ranking and archive', () => {
   });
 
   it('keeps the best K distinct candidates', () => {
-    const archive = new CandidateArchive([0, 0], [10, 10], 2, 0.05);
+    const archive = new CandidateArchive(2, 0.05, [0, 0], [10, 10]);
     expect(archive.offer([1, 1], 3, 0)).toBe(true);
     // Within 5 % of the box of the first, and better: replaces it.
     expect(archive.offer([1.2, 1.1], 2, 0)).toBe(true);
