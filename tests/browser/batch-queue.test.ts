@@ -13,7 +13,7 @@ import { expect, it } from 'vitest';
 import { describeBrowser, saveScreenshot, useBrowser } from './harness';
 
 const LONG_MS = 240_000;
-/** A time-budget job long enough to take a checkpoint after its first (every 5 s of a running search) and go on after the reload. */
+/** A time-budget job long enough to take a checkpoint after its first (every 10 s of a running search) and go on after the reload. */
 const TIMED_JOB_S = '25';
 
 describeBrowser('batch queue', () => {
@@ -98,7 +98,7 @@ describeBrowser('batch queue', () => {
     await other.close();
 
     // Reload mid-job, once the time-budget job has a checkpoint: it goes on from it.
-    // A run checkpoints as it starts (round 0) and then every 5 s: wait for one after some rounds.
+    // A run checkpoints as it starts (round 0) and then every 10 s: wait for one after some rounds.
     const checkpoint = job(page, 'night-b').getByTestId('job-checkpoint');
     await expect.poll(async () => Number((await checkpoint.count()) > 0 ? await checkpoint.textContent() : 0), { timeout: LONG_MS, interval: 250 }).toBeGreaterThan(0);
     const savedRound = Number(await checkpoint.textContent());

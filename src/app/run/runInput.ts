@@ -14,7 +14,7 @@ import { hasWeights } from '../state/target';
 /** Candidates the run describes at its end and the results table gets. */
 export const CANDIDATES_SHOWN = 20;
 /** A running search checkpoints this often (wall time): a reload or a lost worker costs at most this much of the search. */
-export const CHECKPOINT_EVERY_MS = 5_000;
+export const CHECKPOINT_EVERY_MS = 10_000;
 
 const DEG = Math.PI / 180;
 
