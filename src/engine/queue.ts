@@ -46,6 +46,8 @@ export interface JobOutcome {
   readonly elapsedMs: number;
   /** Worker restarts after a lost worker. */
   readonly restarts: number;
+  /** Fresh optimizer runs the job's restart schemes started (after a run converged or stalled); absent in outcomes kept before it was counted. */
+  readonly searchRestarts?: number;
   /** Best of each family, best first; empty when the job found nothing. */
   readonly best: readonly FamilyBest[];
   /** Whether the job's designs were kept in the run history under its run id. */

@@ -52,7 +52,10 @@ export interface RunProgress {
   readonly islands: number;
   readonly islandsRunning: number;
   readonly workers: number;
+  /** Workers replaced after one was lost. */
   readonly restarts: number;
+  /** Fresh optimizer runs the islands' restart schemes have started (after a run converged or stalled), all islands, as of their last slice. */
+  readonly searchRestarts: number;
   /** The round of the last checkpoint taken, or null. */
   readonly checkpointRound: number | null;
   /** Why the last save to the store failed; absent once a save succeeds (the run goes on either way). */
@@ -72,7 +75,10 @@ export type RunResult =
       readonly evaluations: number;
       readonly elapsedMs: number;
       readonly rounds: number;
+      /** Workers replaced after one was lost. */
       readonly restarts: number;
+      /** Fresh optimizer runs the islands' restart schemes started, all islands. */
+      readonly searchRestarts: number;
       /** Evaluations of each job (all its islands). */
       readonly jobs: { readonly jobId: string; readonly evaluations: number }[];
       /** The best distinct candidates of all jobs, ranked feasibility first (Deb, 2000). */
@@ -169,6 +175,8 @@ interface IslandView {
   stopReason: IslandStopReason | null;
   /** The island's best so far, from its last slice (null before one, and after going back to a checkpoint). */
   best: { readonly value: number; readonly violation: number } | null;
+  /** Fresh runs the island's restart scheme has started, as of its last slice. */
+  searchRestarts: number;
 }
 
 function checkOptions(options: RunOptions, spec: RunSpec, env: EngineEnvironment): string | null {
@@ -308,7 +316,7 @@ class Engine implements Run {
     this.onSaveError = options.onSaveError ?? null;
     const plans = planIslands(spec);
     this.workerCount = Math.min(plans.length, options.workers ?? env.defaultWorkerCount());
-    this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null, best: null }));
+    this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null, best: null, searchRestarts: 0 }));
     this.pipelineIslands = this.islands.map((island, k) => ({ islandId: island.plan.islandId, worker: island.worker, sender: this.senderOf(k) }));
     this.ledger = new EmigrantLedger(this.islands.length);
     this.archives = spec.jobs.map(() => null);
@@ -363,6 +371,7 @@ class Engine implements Run {
       islandsRunning: this.islands.filter((island) => island.stopReason === null).length,
       workers: this.workers.length,
       restarts: this.restarts,
+      searchRestarts: this.searchRestarts(),
       checkpointRound: this.checkpointRound,
       ...(this.saveError === null ? {} : { checkpointError: this.saveError }),
     };
@@ -426,6 +435,7 @@ class Engine implements Run {
         elapsedMs: this.elapsedMs(),
         rounds: this.rounds,
         restarts: this.restarts,
+        searchRestarts: this.searchRestarts(),
         jobs: this.spec.jobs.map((job, j) => ({
           jobId: job.id,
           evaluations: this.islands.filter((island) => island.plan.jobIndex === j).reduce((sum, island) => sum + island.evaluations, 0),
@@ -547,9 +557,14 @@ class Engine implements Run {
     return this.spec.deterministic ? 'cut-after-lead' : 'cut';
   }
 
+  private searchRestarts(): number {
+    return this.islands.reduce((sum, island) => sum + island.searchRestarts, 0);
+  }
+
   private record(island: IslandView, progress: IslandProgress): void {
     island.evaluations = progress.evaluations;
     island.stopReason = progress.stopReason;
+    island.searchRestarts = progress.restarts;
     this.sessionEvaluations += progress.stepEvaluations;
     if (progress.bestValue !== null && progress.bestViolation !== null) island.best = { value: progress.bestValue, violation: progress.bestViolation };
   }

@@ -65,7 +65,7 @@ describe('summaryCsv', () => {
     {
       id: '1', runId: 'queue-a', resumes: 1, status: 'done',
       spec: { name: 'night-a', problem, seed: 3, evaluations: 2000, skip: false, families: ['fourbar', 'watt-i'] },
-      outcome: { ended: 'budget', reason: null, evaluations: 2000, elapsedMs: 12_345, restarts: 0, kept: true, best: [{ family: 'fourbar', rmsMm: 0.123456789, feasible: true }, { family: 'watt-i', rmsMm: 0.5, feasible: false }] },
+      outcome: { ended: 'budget', reason: null, evaluations: 2000, elapsedMs: 12_345, restarts: 0, searchRestarts: 3, kept: true, best: [{ family: 'fourbar', rmsMm: 0.123456789, feasible: true }, { family: 'watt-i', rmsMm: 0.5, feasible: false }] },
     },
     {
       id: '2', runId: 'queue-b', resumes: 0, status: 'failed',
@@ -85,6 +85,9 @@ describe('summaryCsv', () => {
     expect(Number(rows[1][col('time_s')])).toBe(12.345);
     expect(rows[3][col('state')]).toBe('failed: worker 0 failed: out of memory, "badly"');
     expect(rows[3][col('worker_restarts')]).toBe('2');
+    expect(rows[1][col('search_restarts')]).toBe('3');
+    // An outcome kept before search restarts were counted leaves the field empty, not 0.
+    expect(rows[3][col('search_restarts')]).toBe('');
     expect(rows[3][col('budget_s')]).toBe('30');
     expect(rows[4][col('state')]).toBe('skipped');
     expect(rows.every((r) => r.length === SUMMARY_CSV_HEADER.length)).toBe(true);

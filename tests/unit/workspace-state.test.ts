@@ -203,6 +203,7 @@ describe('progress in the workspace terms', () => {
       islandsRunning: 1,
       workers: 1,
       restarts: 0,
+      searchRestarts: 0,
       checkpointRound: 12,
     } satisfies RunProgress;
     const patch = progressPatch(progress, { ...IDLE_RUN, measure: 'rms', targetPointCount: 24 }, 1_000);

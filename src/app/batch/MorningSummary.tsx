@@ -1,7 +1,7 @@
 /**
  * When the queue is done: every job with the best design of each family (layout) it
  * searched (a path job's RMS error, mm; a rear-suspension or walking-leg job's search
- * score), the evaluations and search time it used, its worker restarts and how it
+ * score), the evaluations and search time it used, its search and worker restarts and how it
  * ended, a button to open its designs (a path job's in the results table, a workspace
  * job's in its workspace), and the table as CSV. Rear-suspension and walking-leg rows
  * carry their workspace's caution, as the CSV does.
@@ -47,7 +47,7 @@ export function MorningSummary({ jobs }: { jobs: readonly AppQueueEntry[] }) {
           <tr>
             <th scope="col">Job</th><th scope="col">Kind</th><th scope="col">Ended</th>
             <th scope="col">Best of each family or layout (path: RMS error, mm; rear suspension, walking leg: search score, lower is better)</th>
-            <th scope="col">Evaluations</th><th scope="col">Search time</th><th scope="col">Worker restarts</th><th scope="col">Designs</th>
+            <th scope="col">Evaluations</th><th scope="col">Search time</th><th scope="col" title="Fresh optimizer runs started after a run converged or stalled, all islands">Search restarts</th><th scope="col">Worker restarts</th><th scope="col">Designs</th>
           </tr>
         </thead>
         <tbody>
@@ -78,6 +78,7 @@ export function MorningSummary({ jobs }: { jobs: readonly AppQueueEntry[] }) {
                 </td>
                 <td className="results-num">{o === null ? '—' : o.evaluations.toLocaleString('en-GB')}</td>
                 <td className="results-num">{o === null ? '—' : formatDuration(o.elapsedMs)}</td>
+                <td className="results-num">{o?.searchRestarts ?? '—'}</td>
                 <td className="results-num">{o === null ? '—' : o.restarts}</td>
                 <td>
                   {canOpen

@@ -403,6 +403,7 @@ export class QueueRunner {
       evaluations: result.evaluations,
       elapsedMs: result.ok ? result.elapsedMs : p.elapsedMs,
       restarts: result.ok ? result.restarts : p.restarts,
+      searchRestarts: result.ok ? result.searchRestarts : p.searchRestarts,
     };
     if (!isPathJob(spec)) {
       const ranked = result.candidates ?? [];

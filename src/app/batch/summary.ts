@@ -1,7 +1,7 @@
 /**
  * The morning summary: every job of the queue, what it found (the best design of each
  * family: a path job's RMS error, mm; a rear-suspension or walking-leg job's search
- * score), the time it used, its worker restarts and how it ended, on screen and as a CSV
+ * score), the time it used, its search and worker restarts and how it ended, on screen and as a CSV
  * file of one shape for every kind. Pure, so the table and the file say the same.
  */
 import type { CandidateReport } from '../../core/synthesis';
@@ -68,7 +68,7 @@ function csvField(value: string): string {
  * search's score, lower is better, no unit) for rear-suspension and walking-leg jobs, and
  * `caution` carries the kinematics-only caution of those two kinds.
  */
-export const SUMMARY_CSV_HEADER = ['job', 'kind', 'state', 'family', 'best_rms_mm', 'best_score', 'feasible', 'evaluations', 'time_s', 'worker_restarts', 'budget_evaluations', 'budget_s', 'seed', 'run_id', 'caution'] as const;
+export const SUMMARY_CSV_HEADER = ['job', 'kind', 'state', 'family', 'best_rms_mm', 'best_score', 'feasible', 'evaluations', 'time_s', 'search_restarts', 'worker_restarts', 'budget_evaluations', 'budget_s', 'seed', 'run_id', 'caution'] as const;
 
 /**
  * One line per job and family (the best design of each family the job searched), one line
@@ -90,6 +90,7 @@ export function summaryCsv(jobs: readonly AppQueueEntry[]): string {
       feasible,
       o === null ? '' : String(o.evaluations),
       o === null ? '' : String(o.elapsedMs / 1000),
+      o?.searchRestarts === undefined ? '' : String(o.searchRestarts),
       o === null ? '' : String(o.restarts),
       entry.spec.evaluations === undefined ? '' : String(entry.spec.evaluations),
       entry.spec.seconds === undefined ? '' : String(entry.spec.seconds),
