@@ -8,30 +8,11 @@ import type { CandidateReport } from '../../src/core/synthesis';
 import { bestPerFamily, SUMMARY_CSV_HEADER, summaryCsv } from '../../src/app/batch/summary';
 import type { AppQueueEntry } from '../../src/app/batch/jobs';
 import { DEFAULT_SETTINGS } from '../../src/app/state/settings';
+import { readCsv } from '../support/readCsv';
 
 /** Only the fields the summary reads; the rest of a report plays no part in it. */
 function report(family: string, rmsMm: number, feasible: boolean): CandidateReport {
   return { family, error: { rmsMm }, feasible } as unknown as CandidateReport;
-}
-
-/** RFC 4180 fields: quoted fields may hold commas, doubled quotes and line breaks. */
-function readCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let field = '';
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { field += '"'; i++; }
-      else if (c === '"') quoted = false;
-      else field += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') { row.push(field); field = ''; }
-    else if (c === '\r' && text[i + 1] === '\n') { row.push(field); rows.push(row); row = []; field = ''; i++; }
-    else field += c;
-  }
-  return rows;
 }
 
 describe('bestPerFamily', () => {

@@ -18,6 +18,7 @@ import { readLegSetup } from '../../src/app/leg/readSetup';
 import { DEFAULT_SETTINGS } from '../../src/app/state/settings';
 import { demoSuspensionState } from '../../src/app/suspension/state';
 import { readSearchProblem } from '../../src/app/suspension/targets/searchProblem';
+import { readCsv } from '../support/readCsv';
 
 function suspensionProblem(): SuspensionJobProblem {
   const read = readSearchProblem(demoSuspensionState());
@@ -160,22 +161,3 @@ describe('the summary of mixed jobs', () => {
   });
 });
 
-/** RFC 4180 fields, read separately from the writer: quoted fields may hold commas, doubled quotes and line breaks. */
-function readCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let field = '';
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { field += '"'; i++; }
-      else if (c === '"') quoted = false;
-      else field += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') { row.push(field); field = ''; }
-    else if (c === '\r' && text[i + 1] === '\n') { row.push(field); rows.push(row); row = []; field = ''; i++; }
-    else field += c;
-  }
-  return rows;
-}
