@@ -118,7 +118,7 @@ describeBrowser('honest inputs', () => {
     const app = await openWorkspace(browser);
     const { page } = app;
     const budget = page.getByLabel('Budget in evaluations');
-    const seed = page.getByLabel('Seed');
+    const seed = page.getByLabel('Seed', { exact: true });
     const angle = page.getByLabel('Minimum transmission angle (degrees)');
     await expect.poll(() => startButton(page).isDisabled()).toBe(false);
 
@@ -234,8 +234,9 @@ describeBrowser('honest inputs', () => {
     const app = await openWorkspace(browser);
     const { page } = app;
     await page.getByLabel(/Fixed: the pivots are searched/).check();
-    await page.locator('label.family', { hasText: 'Watt I six-bar' }).locator('input').check();
-    await page.locator('label.family', { hasText: 'Stephenson III six-bar' }).locator('input').check();
+    const families = page.getByRole('group', { name: /^Mechanism families/ });
+    await families.locator('label.family', { hasText: 'Watt I six-bar' }).locator('input').check();
+    await families.locator('label.family', { hasText: 'Stephenson III six-bar' }).locator('input').check();
     // The default pivot boxes are the same for every family: one rectangle, one label naming them all.
     await expect.poll(() => page.getByTestId('bound-region').count()).toBe(1);
     expect(await page.getByTestId('bound-region').locator('text').textContent()).toBe('A0, B0 (four-bar, Watt I six-bar); A0, B0, C0 (Stephenson III six-bar)');

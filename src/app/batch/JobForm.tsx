@@ -86,7 +86,8 @@ export function JobForm({ jobs, defaultWorkers, disabled, onAdd }: JobFormProps)
           <legend>Families to search</legend>
           {FAMILY_CHOICES.map((f) => (
             <label key={f.id} className="family">
-              <input type="checkbox" checked={draft.families.includes(f.id)}
+              {/* Named for the job, so it is told apart from the workspace's own family ticks. */}
+              <input type="checkbox" aria-label={`${f.label}, for this job`} checked={draft.families.includes(f.id)}
                 onChange={(e) => {
                   setFamilies(e.target.checked ? FAMILY_CHOICES.map((c) => c.id).filter((id) => id === f.id || draft.families.includes(id)) : draft.families.filter((id) => id !== f.id));
                   touch('families');
