@@ -39,7 +39,7 @@ describeBrowser('per-family results and run history', () => {
   it('shows the best of each of two families searched together, and keeps the run', async () => {
     const app = await openWorkspace({ width: 1920, height: 1080 });
     const page = app.page;
-    await page.getByRole('checkbox', { name: /Watt I six-bar/ }).check();
+    await page.getByRole('group', { name: /^Mechanism families/ }).getByRole('checkbox', { name: /Watt I six-bar/ }).check();
     await setEvaluationBudget(page, 3000);
     await searchToEnd(page);
     const overview = page.getByTestId('family-overview');
