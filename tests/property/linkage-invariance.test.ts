@@ -85,7 +85,10 @@ const offsets = [-0.6, -0.2, 0.3, 0.8] as const;
 /**
  * Cranks shorter than this (mm) are left out: with a 0.001 mm crank sitting on its pivot
  * the pose is ill-conditioned and renumbering moves it by rounding alone (seed 1194808147
- * gave 1.1e-8 mm). No design has such a crank.
+ * gave 1.1e-8 mm); and `compile` refuses a link shorter than 1/100,000 of the linkage's
+ * reach from the origin, so moving such a linkage can take it across that bound (seed
+ * 712017866: a 0.0015 mm crank at 150 mm compiled, moved 0.008 mm down it did not). No
+ * design has such a crank.
  */
 const MIN_CRANK_MM = 5;
 const fourBars = fc
@@ -94,6 +97,7 @@ const fourBars = fc
   .map((r) => fourBar({ A0: { x: 0, y: 0 }, B0: { x: 100 + r.bx / 3, y: r.by / 3 }, A: { x: r.ax / 3, y: r.ay / 3 }, B: { x: r.cx, y: r.cy }, P: { x: r.px, y: r.py } }));
 const sliderCranks = fc
   .record({ ax: coordinate, ay: coordinate, bx: coordinate, angle: fc.double({ min: -1, max: 1, noNaN: true }) })
+  .filter((r) => Math.hypot(r.ax / 4, r.ay / 4) >= MIN_CRANK_MM)
   .map((r) => sliderCrank({ A0: { x: 0, y: 0 }, A: { x: r.ax / 4, y: r.ay / 4 }, B: { x: 150 + r.bx / 3, y: 20 }, P: { x: r.ax, y: r.bx }, slideAngleRad: r.angle }));
 const stephensons = fc.array(jitter, { minLength: 14, maxLength: 14 }).map((j) => {
   const d = STEPHENSON_III_DEFAULT;
