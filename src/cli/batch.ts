@@ -11,12 +11,12 @@ import { basename, dirname, extname, isAbsolute, join, resolve } from 'node:path
 import { parseBatchQueue, type BatchJob } from '../core/io/batchQueue';
 import { parseJsonText } from '../core/io/jsonText';
 import { parseSynthesisProblemFile } from '../core/io/problem';
-import { fnv1a64Hex } from '../engine';
+import { fnv1a64Hex, MAX_CHECKPOINT_EVERY_S, MIN_CHECKPOINT_EVERY_S } from '../engine';
 import { checkpointPathsFor, fsReason, writeFileAtomic } from '../engine/node';
 import { numberOption, singleFile, type OptionSpec } from './args';
 import { BATCH_STATUS_FILE, emptyStatus, readBatchStatus, withJob, type BatchStatus, type JobStatus } from './batchStatus';
 import { EXIT_FAILURE, EXIT_OK, EXIT_USAGE, startCommand, type CliIo } from './command';
-import { MAX_CHECKPOINT_EVERY_S, MIN_CHECKPOINT_EVERY_S, run as fit } from './fit';
+import { run as fit } from './fit';
 import { formatJson } from './formatJson';
 import { readProblemFile } from './problemInput';
 

@@ -15,6 +15,8 @@ import {
   createRun,
   defineRun,
   restoreRunFromStore,
+  MAX_CHECKPOINT_EVERY_S,
+  MIN_CHECKPOINT_EVERY_S,
   type CheckpointStore,
   type RankedCandidate,
   type Run,
@@ -34,11 +36,8 @@ import { legCandidateJson } from './legResults';
 export const DEFAULT_EVALUATIONS_PER_FAMILY = 50_000;
 export const DEFAULT_TOP = 5;
 export const DEFAULT_SEED = 1;
-/** Seconds between checkpoint saves with --checkpoint, by default, and the range --checkpoint-every takes. */
+/** Seconds between checkpoint saves with --checkpoint, by default (the range --checkpoint-every takes is the engine's). */
 export const DEFAULT_CHECKPOINT_EVERY_S = 10;
-/** Below a second, saving (a few ms to a few hundred for many islands) would take a noticeable share of the run. */
-export const MIN_CHECKPOINT_EVERY_S = 1;
-export const MAX_CHECKPOINT_EVERY_S = 86_400;
 /** Progress lines on stderr at most this often, ms. */
 const PROGRESS_EVERY_MS = 1000;
 export const FIT_RESULT_FORMAT = 'loci-fit-result';

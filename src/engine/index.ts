@@ -5,7 +5,7 @@
  */
 export { createRun, restoreRun, restoreRunFromStore, DEFAULT_TOP_K } from './run';
 export type { MakeRunResult, RankedCandidate, RestoreFromStoreResult, Run, RunOptions, RunProgress, RunResult, RunStatus, RunStopReason } from './run';
-export { defineRun, planIslands, DEFAULT_ISLAND_EVALUATIONS } from './runSpec';
+export { defineRun, planIslands, DEFAULT_ISLAND_EVALUATIONS, MAX_CHECKPOINT_EVERY_S, MIN_CHECKPOINT_EVERY_S } from './runSpec';
 export type { IslandPlan, JobSpec, RunInput, RunSpec } from './runSpec';
 export { CHECKPOINT_FORMAT, CHECKPOINT_VERSION, decodeCheckpoint, encodeCheckpoint } from './checkpoint';
 export type { CheckpointPayload } from './checkpoint';

@@ -61,6 +61,13 @@ export const DEFAULT_ARCHIVE = { capacity: 64, distance: 0.01 } as const;
 export const DEFAULT_RESULTS_PER_FAMILY = 50;
 export const DEFAULT_CHECKPOINT_EVERY_MS = 30_000;
 /**
+ * The range of checkpoint intervals the command line and the app take, seconds. Below a
+ * second, saving (a few ms to about a second for a long run's many islands) would take a
+ * noticeable share of the run; above a day, a run would not checkpoint at all.
+ */
+export const MIN_CHECKPOINT_EVERY_S = 1;
+export const MAX_CHECKPOINT_EVERY_S = 86_400;
+/**
  * An island's evaluation budget when the run has a time budget only: no cap, so the island
  * searches until the time is up (its restart scheme sizes each run, workers/island.ts).
  */

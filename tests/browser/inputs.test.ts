@@ -149,6 +149,14 @@ describeBrowser('honest inputs', () => {
     await type(seed, String(2 ** 53 - 1));
     await expectAccepted(page, seed);
 
+    // The checkpoint interval takes the engine's range, as `loci fit --checkpoint-every` does (src/engine/runSpec.ts).
+    const every = page.getByLabel('Checkpoint every', { exact: true });
+    await type(every, '0.5');
+    await expectRefused(page, every, '0.5', /^Checkpoint every: 0\.5 s is under 1 s .*; expected a time from 1 s to 86,400 s \(a day\)/);
+    await type(every, '2.5');
+    await expectAccepted(page, every);
+    expect(await every.inputValue()).toBe('2.5');
+
     // A transmission angle lies between 0° and 90° (common practice: the acute angle between coupler and output link).
     await type(angle, '100');
     await expectRefused(page, angle, '100', /^Minimum transmission angle: 100° is above 90°/);

@@ -61,6 +61,14 @@ async function setEvaluationBudget(page: Page, evaluations: number): Promise<voi
   await expect.poll(() => field.inputValue()).toBe(String(evaluations));
 }
 
+/** Checkpoints this often, seconds: shorter than the default so the test waits less. */
+async function setCheckpointEvery(page: Page, seconds: number): Promise<void> {
+  const field = page.getByLabel('Checkpoint every', { exact: true });
+  await field.fill(String(seconds));
+  await field.press('Enter');
+  await expect.poll(() => field.inputValue()).toBe(String(seconds));
+}
+
 async function runStatus(page: Page): Promise<string | null> {
   return page.getByTestId('run-progress').getAttribute('data-status');
 }
@@ -314,6 +322,7 @@ describeBrowser('workspace', () => {
     const app = await openWorkspace(browser);
     const { page } = app;
     await setEvaluationBudget(page, 5_000_000);
+    await setCheckpointEvery(page, 2);
     await page.getByRole('button', { name: 'Start search' }).click();
     await waitForStatus(page, ['running']);
 

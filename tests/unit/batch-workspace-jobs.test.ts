@@ -10,7 +10,8 @@ import { GAIT_CAUTION } from '../../src/core/gait';
 import { SUSPENSION_CAUTION } from '../../src/core/suspension';
 import { QUEUE_RECORD_FORMAT, QUEUE_RECORD_VERSION, readQueueState } from '../../src/engine/queue';
 import { readWorkspaceJobDraft, type JobDraft } from '../../src/app/batch/jobInput';
-import { isJobProblem, jobKind, type AppQueueEntry, type JobProblem, type SuspensionJobProblem, type LegJobProblem } from '../../src/app/batch/jobs';
+import { buildRunInput } from '../../src/app/run/runInput';
+import { isJobProblem, isPathJob, jobKind, jobProject, type AppQueueEntry, type JobProblem, type SuspensionJobProblem, type LegJobProblem } from '../../src/app/batch/jobs';
 import { bestPerLayout, SUMMARY_CSV_HEADER, summaryCsv } from '../../src/app/batch/summary';
 import { specFamilies, workspaceRunInput } from '../../src/app/batch/workspaceJobs';
 import { demoLegSetup } from '../../src/app/leg/demo';
@@ -49,8 +50,16 @@ describe('the job union', () => {
   });
 });
 
+/** A path problem as stored before the checkpoint interval was a setting. */
+function withoutCheckpointInterval(): JobProblem {
+  const stored = JSON.parse(JSON.stringify(pathProblem));
+  delete stored.settings.checkpointEverySeconds;
+  return stored;
+}
+
 describe('a queue stored before jobs had kinds', () => {
   // The record as the page saved it before this change: path problems with no kind, outcomes by RMS error. // common practice (a stored format stays readable)
+  const oldPathProblem = withoutCheckpointInterval();
   const old = {
     format: QUEUE_RECORD_FORMAT,
     version: QUEUE_RECORD_VERSION,
@@ -58,10 +67,10 @@ describe('a queue stored before jobs had kinds', () => {
     jobs: [
       {
         id: 'a', runId: 'queue-a', resumes: 0, status: 'done',
-        spec: { name: 'night-a', problem: pathProblem, seed: 3, evaluations: 2000, skip: false, families: ['fourbar'] },
+        spec: { name: 'night-a', problem: oldPathProblem, seed: 3, evaluations: 2000, skip: false, families: ['fourbar'] },
         outcome: { ended: 'budget', reason: null, evaluations: 2000, elapsedMs: 1000, restarts: 0, kept: true, best: [{ family: 'fourbar', rmsMm: 0.25, feasible: true }] },
       },
-      { id: 'b', runId: null, resumes: 0, status: 'waiting', spec: { name: 'night-b', problem: pathProblem, seed: 1, seconds: 30, skip: false }, outcome: null },
+      { id: 'b', runId: null, resumes: 0, status: 'waiting', spec: { name: 'night-b', problem: oldPathProblem, seed: 1, seconds: 30, skip: false }, outcome: null },
     ],
   };
 
@@ -71,6 +80,10 @@ describe('a queue stored before jobs had kinds', () => {
     if (!read.ok) return;
     expect(read.state.jobs.map((j) => jobKind(j.spec.problem))).toEqual(['path', 'path']);
     expect(specFamilies(read.state.jobs[1].spec)).toEqual(DEFAULT_SETTINGS.families);
+    // Its path jobs checkpoint as the page did then, every 10 s.
+    const spec = read.state.jobs[1].spec;
+    const built = isPathJob(spec) ? buildRunInput(jobProject(spec), 1) : null;
+    expect(built).toMatchObject({ ok: true, input: { checkpointEveryMs: 10_000 } });
     const csv = summaryCsv(read.state.jobs).split('\r\n');
     const cols = csv[1].split(',');
     expect(cols[SUMMARY_CSV_HEADER.indexOf('kind')]).toBe('path');

@@ -1,12 +1,15 @@
 /**
- * `loci analyze` end to end: the CLI runs as a child process (`node bin/loci.js …`, from
- * another working directory) on the example files and on bad files in a temp dir.
+ * `loci analyze` end to end: the command line through its command table in this process
+ * (tests/support/cli.ts), on the example files and on bad files in a temp dir; and once
+ * as a child process (`node bin/loci.js …`, from another working directory), which
+ * checks the launcher and the exit codes the shell sees.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { loci as lociInProcess } from '../support/cli';
 import { parseLinkageFile, parseLinkageFileText, toLinkageFile } from '../../src/core/io/linkageFile';
 import { fourBar, stephensonIII, wattII } from '../../src/core/linkage/families';
 
@@ -21,7 +24,12 @@ afterAll(() => { rmSync(dir, { recursive: true, force: true }); });
 
 interface CliRun { status: number | null; stdout: string; stderr: string }
 
-function loci(...args: string[]): CliRun {
+async function loci(...args: string[]): Promise<CliRun> {
+  const r = await lociInProcess(...args);
+  return { status: r.code, stdout: r.stdout, stderr: r.stderr };
+}
+
+function lociChild(...args: string[]): CliRun {
   const r = spawnSync(process.execPath, [BIN, ...args], { cwd: dir, encoding: 'utf8', timeout: 60_000 });
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
@@ -59,8 +67,8 @@ interface Report {
   closureResidualMm: { max: number; reference: number };
 }
 
-function analyze(...args: string[]): Report {
-  const r = loci('analyze', ...args);
+async function analyze(...args: string[]): Promise<Report> {
+  const r = await loci('analyze', ...args);
   expect(r.stderr).toBe('');
   expect(r.status).toBe(0);
   return JSON.parse(r.stdout) as Report;
@@ -111,7 +119,7 @@ function barkerCrankRocker(): Json {
 
 describe('loci analyze on a crank-rocker of Barker proportions (100, 40, 120, 80)', () => {
   let report: Report;
-  beforeAll(() => { report = analyze(writeDesign(barkerCrankRocker())); });
+  beforeAll(async () => { report = await analyze(writeDesign(barkerCrankRocker())); });
 
   it('classes the loop as Grashof crank-rocker, Barker type 2 (GCRR)', () => {
     // Barker, "A complete classification of planar four-bar linkages", Mech. Mach. Theory
@@ -193,8 +201,8 @@ function checkTransmissionAgainstClosedForm(report: Report): void {
 }
 
 describe('loci analyze on the example files', () => {
-  it('crank-rocker.json: a Grashof crank-rocker, full turn, coupler point rigid on the coupler', () => {
-    const report = analyze(CRANK_ROCKER);
+  it('crank-rocker.json: a Grashof crank-rocker, full turn, coupler point rigid on the coupler', async () => {
+    const report = await analyze(CRANK_ROCKER);
     // Kutzbach–Grübler (theorem): 4 links, 4 pins: M = 3·3 − 2·4 = 1.
     expect(report.mobility).toMatchObject({ mobility: 1, links: 4, fullJoints: 4 });
     expect(report.fourBarLoops).toHaveLength(1);
@@ -212,8 +220,8 @@ describe('loci analyze on the example files', () => {
     }
   });
 
-  it('stephenson-iii.json: mobility 1, one non-Grashof loop through ground, closes at every step', () => {
-    const report = analyze(STEPHENSON_III, '--steps', '121');
+  it('stephenson-iii.json: mobility 1, one non-Grashof loop through ground, closes at every step', async () => {
+    const report = await analyze(STEPHENSON_III, '--steps', '121');
     // Kutzbach–Grübler (theorem): 6 links, 7 pins: M = 3·5 − 2·7 = 1.
     expect(report.mobility).toMatchObject({ mobility: 1, links: 6, fullJoints: 7 });
     // The only four-link loop is ground–rockerA–coupler–rockerB, lengths (120, 70.71, 100.50,
@@ -230,8 +238,8 @@ describe('loci analyze on the example files', () => {
     expect(report.instantCentres.map((c) => c.body).sort()).toEqual(['connector', 'coupler', 'input', 'rockerA', 'rockerB']);
   });
 
-  it('takes --from/--to in degrees for a rotation driver, negative values included', () => {
-    const report = analyze(CRANK_ROCKER, '--from', '-90', '--to', '90', '--steps', '7');
+  it('takes --from/--to in degrees for a rotation driver, negative values included', async () => {
+    const report = await analyze(CRANK_ROCKER, '--from', '-90', '--to', '90', '--steps', '7');
     expect(report.driver).toMatchObject({ unit: 'deg', from: -90, to: 90, steps: 7, rangeRule: 'given', fullTurn: false });
     [-90, -60, -30, 0, 30, 60, 90].forEach((v, k) => expect(report.values[k]).toBeCloseTo(v, 9));
     // At 0° the crank pin lies on +x at the crank length (30 mm, from the file).
@@ -240,7 +248,7 @@ describe('loci analyze on the example files', () => {
     expect(A0[1]).toBeCloseTo(0, 6);
   });
 
-  it('finds the assembly range of a triple rocker and stops inside its limits', () => {
+  it('finds the assembly range of a triple rocker and stops inside its limits', async () => {
     // Barker's (100, 60, 50, 80) is a non-Grashof triple rocker (README, from memory): the
     // input cannot turn fully. Its input limits are where coupler and output are in line,
     // |A − O4| = b + c (theorem, triangle inequality): cos θ = (a² + d² − (b + c)²)/(2ad).
@@ -256,7 +264,7 @@ describe('loci analyze on the example files', () => {
       { id: 'O2', x: 0, y: 0, ground: true }, { id: 'A', x: A[0], y: A[1] },
       { id: 'B', x: B[0], y: B[1] }, { id: 'O4', x: d, y: 0, ground: true },
     ];
-    const report = analyze(writeDesign(file), '--steps', '51');
+    const report = await analyze(writeDesign(file), '--steps', '51');
     const limit = deg(Math.acos((a * a + d * d - (b + c) ** 2) / (2 * a * d)));
     expect(report.driver.rangeRule).toBe('assembly range');
     expect(report.fourBarLoops[0].grashof).toBe('non-grashof');
@@ -274,10 +282,10 @@ describe('loci analyze on the example files', () => {
 });
 
 describe('loci analyze: a length driver and a translating coupler', () => {
-  it('moves a length driver over its reference length ± 10 % by default', () => {
+  it('moves a length driver over its reference length ± 10 % by default', async () => {
     const file = barkerCrankRocker();
     file.driver = { kind: 'length', from: 'A', to: 'O4' };
-    const report = analyze(writeDesign(file), '--steps', '21');
+    const report = await analyze(writeDesign(file), '--steps', '21');
     const reference = Math.hypot(100, 40); // |A − O4| with A = (0, 40), O4 = (100, 0)
     expect(report.driver).toMatchObject({ unit: 'mm', rangeRule: 'share of reference length', steps: 21 });
     expect(report.driver.reference).toBeCloseTo(reference, 6);
@@ -288,7 +296,7 @@ describe('loci analyze: a length driver and a translating coupler', () => {
     report.values.forEach((v, k) => expect(Math.hypot(A[k]![0] - O4[k]![0], A[k]![1] - O4[k]![1])).toBeCloseTo(v, 6));
   });
 
-  it('reports the centre of a parallelogram coupler at infinity, along the cranks', () => {
+  it('reports the centre of a parallelogram coupler at infinity, along the cranks', async () => {
     // A parallelogram four-bar's coupler translates, so its centre relative to ground is
     // at infinity in the direction of the parallel cranks (theorem). Barker's
     // (100, 40, 100, 40) is a parallelogram (README, from memory); the range keeps clear
@@ -298,7 +306,7 @@ describe('loci analyze: a length driver and a translating coupler', () => {
       { id: 'O2', x: 0, y: 0, ground: true }, { id: 'A', x: 0, y: 40 },
       { id: 'B', x: 100, y: 40 }, { id: 'O4', x: 100, y: 0, ground: true },
     ];
-    const report = analyze(writeDesign(file), '--from', '30', '--to', '150', '--steps', '13');
+    const report = await analyze(writeDesign(file), '--from', '30', '--to', '150', '--steps', '13');
     expect(report.fourBarLoops[0].grashof).toBe('change-point');
     const coupler = report.instantCentres.find((c) => c.body === 'coupler')!;
     const A = path(report, 'A');
@@ -343,8 +351,8 @@ describe('linkage file: writing and reading back', () => {
 describe('loci analyze rejects bad input with exit code 2 and a message naming the problem', () => {
   const good = () => example(CRANK_ROCKER);
 
-  function rejects(content: unknown, ...expected: RegExp[]): void {
-    const r = loci('analyze', writeDesign(content));
+  async function rejects(content: unknown, ...expected: RegExp[]): Promise<void> {
+    const r = await loci('analyze', writeDesign(content));
     expect(r.status).toBe(2);
     expect(r.stdout).toBe('');
     for (const pattern of expected) expect(r.stderr).toMatch(pattern);
@@ -354,50 +362,50 @@ describe('loci analyze rejects bad input with exit code 2 and a message naming t
 
   it('not a linkage file', () => rejects({ format: 'something-else' }, /format: expected "loci-linkage", got "something-else"/));
 
-  it('a missing field', () => {
+  it('a missing field', async () => {
     const f: Partial<Json> = good();
     delete f.joints;
-    rejects(f, /joints: missing; expected an array of joints/);
+    await rejects(f, /joints: missing; expected an array of joints/);
   });
 
-  it('a wrong type, naming the field and the value', () => {
+  it('a wrong type, naming the field and the value', async () => {
     const f = good();
     f.joints[2].x = 'abc';
-    rejects(f, /joints\[2\]\.x: expected a finite number in mm, got "abc"/);
+    await rejects(f, /joints\[2\]\.x: expected a finite number in mm, got "abc"/);
   });
 
-  it('a misspelt field', () => {
+  it('a misspelt field', async () => {
     const f = good();
     (f.joints[1] as Record<string, unknown>).grund = true;
-    rejects(f, /joints\[1\]: unknown field "grund"/);
+    await rejects(f, /joints\[1\]: unknown field "grund"/);
   });
 
-  it('an unknown driver kind', () => {
+  it('an unknown driver kind', async () => {
     const f = good();
     f.driver = { kind: 'spin', body: 'crank' };
-    rejects(f, /driver\.kind: expected a driver kind, "rotation" or "length", got "spin"/);
+    await rejects(f, /driver\.kind: expected a driver kind, "rotation" or "length", got "spin"/);
   });
 
-  it('an unknown joint id in a body', () => {
+  it('an unknown joint id in a body', async () => {
     const f = good();
     f.bodies[1].joints = ['A', 'Z'];
-    rejects(f, /bodies\[1\]/, /"?Z"?/);
+    await rejects(f, /bodies\[1\]/, /"?Z"?/);
   });
 
-  it('a body with fewer than two joints', () => {
+  it('a body with fewer than two joints', async () => {
     const f = good();
     f.bodies.push({ id: 'stub', joints: ['B'] });
-    rejects(f, /bodies\[3\]/);
+    await rejects(f, /bodies\[3\]/);
   });
 
-  it('a joint on no body', () => {
+  it('a joint on no body', async () => {
     const f = good();
     f.joints.push({ id: 'X', x: 50, y: 50 });
-    rejects(f, /joints\[4\]|"X"|\bX\b/);
+    await rejects(f, /joints\[4\]|"X"|\bX\b/);
   });
 
-  it('mobility other than 1 (a five-bar has 2)', () => {
-    rejects({
+  it('mobility other than 1 (a five-bar has 2)', async () => {
+    await rejects({
       format: 'loci-linkage', version: 1, units: 'mm',
       joints: [
         { id: 'O1', x: 0, y: 0, ground: true }, { id: 'A', x: 0, y: 30 }, { id: 'B', x: 50, y: 60 },
@@ -411,8 +419,8 @@ describe('loci analyze rejects bad input with exit code 2 and a message naming t
     }, /mobility/i, /2/);
   });
 
-  it('a reference pose that violates its own constraints (a slider off its line)', () => {
-    rejects({
+  it('a reference pose that violates its own constraints (a slider off its line)', async () => {
+    await rejects({
       format: 'loci-linkage', version: 1, units: 'mm',
       joints: [
         { id: 'O2', x: 0, y: 0, ground: true }, { id: 'A', x: 0, y: 30 }, { id: 'B', x: 90, y: 10 },
@@ -424,12 +432,12 @@ describe('loci analyze rejects bad input with exit code 2 and a message naming t
     }, /sliders\[0\]/);
   });
 
-  it('an unknown (future) version', () => {
-    rejects({ ...good(), version: 2 }, /version: this file is version 2, newer than this Loci reads \(up to version 1\)/);
+  it('an unknown (future) version', async () => {
+    await rejects({ ...good(), version: 2 }, /version: this file is version 2, newer than this Loci reads \(up to version 1\)/);
   });
 
-  it('a file that cannot be read', () => {
-    const r = loci('analyze', join(dir, 'no-such-file.json'));
+  it('a file that cannot be read', async () => {
+    const r = await loci('analyze', join(dir, 'no-such-file.json'));
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(/cannot read .*no-such-file\.json: no such file/);
   });
@@ -443,45 +451,58 @@ describe('loci analyze rejects bad input with exit code 2 and a message naming t
     [['--from', '10', '--to', '10'], /--to: expected a driver value different from --from/],
     [['--speed', '3'], /unknown option --speed/],
     [['--steps'], /--steps needs a value/],
-  ])('bad flags %j', (flags, pattern) => {
-    const r = loci('analyze', CRANK_ROCKER, ...flags);
+  ])('bad flags %j', async (flags, pattern) => {
+    const r = await loci('analyze', CRANK_ROCKER, ...flags);
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(pattern);
     expect(r.stdout).toBe('');
   });
 
-  it('no file, and two files', () => {
-    expect(loci('analyze').stderr).toMatch(/no linkage file given/);
-    const two = loci('analyze', CRANK_ROCKER, STEPHENSON_III);
+  it('no file, and two files', async () => {
+    expect((await loci('analyze')).stderr).toMatch(/no linkage file given/);
+    const two = await loci('analyze', CRANK_ROCKER, STEPHENSON_III);
     expect(two.status).toBe(2);
     expect(two.stderr).toMatch(/one linkage file expected, got 2/);
   });
 });
 
 describe('loci dispatcher', () => {
-  it('--help prints the commands and exits 0', () => {
-    const r = loci('--help');
+  it('--help prints the commands and exits 0', async () => {
+    const r = await loci('--help');
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/usage: loci COMMAND/);
     expect(r.stdout).toMatch(/analyze/);
   });
 
-  it('analyze --help prints the analyze usage and exits 0', () => {
-    const r = loci('analyze', '--help');
+  it('analyze --help prints the analyze usage and exits 0', async () => {
+    const r = await loci('analyze', '--help');
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/usage: loci analyze DESIGN\.json/);
   });
 
-  it('an unknown command prints the usage and exits 2', () => {
-    const r = loci('frobnicate');
+  it('an unknown command prints the usage and exits 2', async () => {
+    const r = await loci('frobnicate');
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(/unknown command "frobnicate"/);
     expect(r.stderr).toMatch(/usage: loci COMMAND/);
   });
 
-  it('no command prints the usage and exits 2', () => {
-    const r = loci();
+  it('no command prints the usage and exits 2', async () => {
+    const r = await loci();
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(/usage: loci COMMAND/);
+  });
+});
+
+describe('loci as a shell runs it', () => {
+  it('analyzes an example from another working directory with exit code 0, and refuses a bad flag with 2 and the message on stderr', () => {
+    const ok = lociChild('analyze', CRANK_ROCKER, '--steps', '7');
+    expect(ok.stderr).toBe('');
+    expect(ok.status).toBe(0);
+    expect((JSON.parse(ok.stdout) as Report).joints.length).toBeGreaterThan(0);
+    const bad = lociChild('analyze', CRANK_ROCKER, '--steps', '1');
+    expect(bad.status).toBe(2);
+    expect(bad.stdout).toBe('');
+    expect(bad.stderr).toMatch(/--steps: expected a whole number of steps from 2 to 20000, got 1/);
   });
 });

@@ -4,6 +4,7 @@ import { createDemoProject } from '../../src/app/demo/demoProject';
 import { bestArchived } from '../../src/app/run/interimCandidates';
 import { errorMmOf, progressPatch } from '../../src/app/run/progress';
 import { buildRunInput, islandsPerFamily, problemFileOf } from '../../src/app/run/runInput';
+import { checkCheckpointEvery } from '../../src/app/state/fields';
 import { IDLE_RUN, type Project, type TargetPoint } from '../../src/app/state/project';
 import { INITIAL_UI, reduce, type WorkspaceState } from '../../src/app/state/reducer';
 import { calibrateBackground, EMPTY_TARGET } from '../../src/app/state/target';
@@ -176,8 +177,22 @@ describe('from the project to the engine', () => {
       ['watt-i', 2],
     ]);
     expect(defined.spec.budget).toEqual({ evaluations: null, seconds: 90 });
-    expect(defined.spec.checkpointEveryMs).toBeLessThanOrEqual(30_000);
+    expect(defined.spec.checkpointEveryMs).toBe(project.settings.checkpointEverySeconds * 1000);
     expect(islandsPerFamily(3, 1)).toBe(1);
+  });
+
+  it('checkpoints as often as the setting says, within the engine\'s range, and refuses the rest beside the field', () => {
+    const state: WorkspaceState = { project: createDemoProject(), ui: INITIAL_UI };
+    const every = reduce(state, { type: 'settings/checkpoint-every', seconds: 2.5 });
+    expect(every.project.settings.checkpointEverySeconds).toBe(2.5);
+    const built = buildRunInput(every.project, 1);
+    expect(built.ok && defineRun(built.input)).toMatchObject({ ok: true, spec: { checkpointEveryMs: 2500 } });
+    // Refused, not clamped: the setting stays as it was.
+    expect(reduce(every, { type: 'settings/checkpoint-every', seconds: 0.5 }).project.settings.checkpointEverySeconds).toBe(2.5);
+    expect(reduce(every, { type: 'settings/checkpoint-every', seconds: 90_000 }).project.settings.checkpointEverySeconds).toBe(2.5);
+    expect(checkCheckpointEvery('0,5')).toEqual({ ok: false, message: expect.stringMatching(/^Checkpoint every: 0,5 s is under 1 s .*; expected a time from 1 s to 86,400 s \(a day\)\.$/) });
+    expect(checkCheckpointEvery('ten')).toEqual({ ok: false, message: expect.stringMatching(/^Checkpoint every: "ten" is not a number; /) });
+    expect(checkCheckpointEvery('86400')).toEqual({ ok: true, value: 86_400 });
   });
 });
 
@@ -234,6 +249,12 @@ describe('reading a saved project back', () => {
     const project = createDemoProject();
     const read = readProject(JSON.parse(JSON.stringify(project)));
     expect(read.ok).toBe(true);
+  });
+
+  it('reads a project saved before the checkpoint interval was a setting with the interval it ran with, 10 s', () => {
+    const stored = JSON.parse(JSON.stringify(createDemoProject()));
+    delete stored.settings.checkpointEverySeconds;
+    expect(readProject(stored)).toMatchObject({ ok: true, project: { settings: { checkpointEverySeconds: 10 } } });
   });
 
   it('says where a damaged record is wrong', () => {

@@ -10,6 +10,7 @@ import type { QueuedJobSpec, QueueEntry, QueueState } from '../../engine/queue';
 import type { SuspensionProblemInput } from '../../core/synthesis';
 import type { LegProblemInput } from '../../core/synthesis/legProblem';
 import type { FamilyId } from '../state/families';
+import { DEFAULT_CHECKPOINT_EVERY_S } from '../state/settings';
 import { IDLE_RUN, PROJECT_FORMAT, PROJECT_VERSION, type Project, type SearchSettings, type TargetState } from '../state/project';
 
 export type JobKind = 'path' | 'suspension' | 'leg';
@@ -21,8 +22,11 @@ export interface PathJobProblem {
   /** The project's name when the job was added. */
   readonly projectName: string;
   readonly target: TargetState;
-  readonly settings: SearchSettings;
+  /** The checkpoint interval is absent in jobs stored before it was a setting. */
+  readonly settings: StoredSettings;
 }
+
+type StoredSettings = Omit<SearchSettings, 'checkpointEverySeconds'> & { readonly checkpointEverySeconds?: number };
 
 export interface SuspensionJobProblem {
   readonly kind: 'suspension';
@@ -77,7 +81,8 @@ export function jobSettings(spec: PathJobSpec): SearchSettings {
   const s = spec.problem.settings;
   const budget: SearchSettings['budget'] =
     spec.evaluations !== undefined ? { ...s.budget, mode: 'evaluations', evaluations: spec.evaluations } : { ...s.budget, mode: 'time', seconds: spec.seconds ?? s.budget.seconds };
-  return { ...s, families: (spec.families ?? s.families) as readonly FamilyId[], seed: spec.seed, budget };
+  const checkpointEverySeconds = s.checkpointEverySeconds ?? DEFAULT_CHECKPOINT_EVERY_S;
+  return { ...s, families: (spec.families ?? s.families) as readonly FamilyId[], seed: spec.seed, budget, checkpointEverySeconds };
 }
 
 /** The path job as a project, the form the run input and the start checks read. */

@@ -13,8 +13,6 @@ import { hasWeights } from '../state/target';
 
 /** Candidates the run describes at its end and the results table gets. */
 export const CANDIDATES_SHOWN = 20;
-/** A running search checkpoints this often (wall time): a reload or a lost worker costs at most this much of the search. */
-export const CHECKPOINT_EVERY_MS = 10_000;
 
 const DEG = Math.PI / 180;
 
@@ -82,7 +80,7 @@ export function buildRunInput(project: Project, workers: number): { ok: true; in
       optimizer: { kind: 'hybrid' },
     })),
     budget: settings.budget.mode === 'evaluations' ? { evaluations: settings.budget.evaluations } : { seconds: settings.budget.seconds },
-    checkpointEveryMs: CHECKPOINT_EVERY_MS,
+    checkpointEveryMs: settings.checkpointEverySeconds * 1000,
   };
   return { ok: true, input };
 }

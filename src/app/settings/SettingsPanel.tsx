@@ -1,8 +1,8 @@
-/** What to search: families, placement, the measure, constraints, budget, seed and workers. */
+/** What to search: families, placement, the measure, constraints, budget, seed, workers and the checkpoint interval. */
 import { memo, useId } from 'react';
 import { islandsPerFamily } from '../run/runInput';
 import { FAMILY_CHOICES } from '../state/families';
-import { MAX_RESULTS_PER_FAMILY, checkEvaluations, checkResultsPerFamily, checkSeconds, checkSeed } from '../state/fields';
+import { MAX_RESULTS_PER_FAMILY, checkCheckpointEvery, checkEvaluations, checkResultsPerFamily, checkSeconds, checkSeed } from '../state/fields';
 import { isLocked, type Measure } from '../state/project';
 import { MAX_WORKERS } from '../state/settings';
 import { useDispatch, useWorkspace } from '../state/store';
@@ -139,6 +139,17 @@ const SettingsFields = memo(function SettingsFields({ defaultWorkers, familyBoun
             ))}
           </select>
         </label>
+      </div>
+      <div className="field-row">
+        Checkpoint every{' '}
+        <NumberInput
+          value={settings.checkpointEverySeconds}
+          label="Checkpoint every"
+          issueKey="checkpoint-every"
+          check={checkCheckpointEvery}
+          onCommit={(seconds) => dispatch({ type: 'settings/checkpoint-every', seconds })}
+        />{' '}
+        s <span className="option-note">(a reload or a lost worker costs at most this much search; a long run's checkpoint takes about a second to save)</span>
       </div>
       <div className="field-row">
         Keep{' '}

@@ -5,7 +5,7 @@
  * src/core/synthesis/problem.ts), so a value a field accepts is one a search accepts.
  */
 import { MAX_BOUND_MAGNITUDE, MAX_CONSTRAINT_MM, MAX_TERM_WEIGHT } from '../../core/synthesis/problem';
-import { DEFAULT_ARCHIVE, MAX_BUDGET_EVALUATIONS, MAX_BUDGET_SECONDS } from '../../engine/runSpec';
+import { DEFAULT_ARCHIVE, MAX_BUDGET_EVALUATIONS, MAX_BUDGET_SECONDS, MAX_CHECKPOINT_EVERY_S, MIN_CHECKPOINT_EVERY_S } from '../../engine/runSpec';
 
 export type Checked<T> = { readonly ok: true; readonly value: T } | { readonly ok: false; readonly message: string };
 
@@ -83,6 +83,18 @@ export function checkSeconds(text: string): Checked<number> {
   const { value, text: shown } = n.value;
   if (!(value > 0)) return fail(`${field}: ${shown} s is no time at all; expected ${expected}.`);
   if (!(value <= MAX_SECONDS)) return fail(`${field}: ${shown} s is longer than ${formatCount(MAX_DAYS)} days; expected ${expected}.`);
+  return { ok: true, value };
+}
+
+/** Seconds between checkpoints: the engine's range (a second to a day). */
+export function checkCheckpointEvery(text: string): Checked<number> {
+  const field = 'Checkpoint every';
+  const expected = `a time from ${MIN_CHECKPOINT_EVERY_S} s to ${formatCount(MAX_CHECKPOINT_EVERY_S)} s (a day)`;
+  const n = numberOf(field, text, expected);
+  if (!n.ok) return n;
+  const { value, text: shown } = n.value;
+  if (!(value >= MIN_CHECKPOINT_EVERY_S)) return fail(`${field}: ${shown} s is under ${MIN_CHECKPOINT_EVERY_S} s (saving would take a noticeable share of the search); expected ${expected}.`);
+  if (!(value <= MAX_CHECKPOINT_EVERY_S)) return fail(`${field}: ${shown} s is longer than a day; expected ${expected}.`);
   return { ok: true, value };
 }
 

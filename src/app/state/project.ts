@@ -96,6 +96,8 @@ export interface SearchSettings {
   readonly seed: number;
   /** Search workers; null for the machine's default (cores − 1, at least 1). */
   readonly workers: number | null;
+  /** A running search saves a checkpoint this often (wall time), seconds: a reload or a lost worker costs at most this much search. */
+  readonly checkpointEverySeconds: number;
 }
 
 export type RunStatus = 'idle' | 'starting' | 'running' | 'pausing' | 'paused' | 'stopping' | 'finished' | 'failed';

@@ -92,6 +92,7 @@ export type Action =
   | { readonly type: 'settings/budget'; readonly patch: Partial<Project['settings']['budget']> }
   | { readonly type: 'settings/seed'; readonly seed: number }
   | { readonly type: 'settings/workers'; readonly workers: number | null }
+  | { readonly type: 'settings/checkpoint-every'; readonly seconds: number }
   | { readonly type: 'settings/max-size'; readonly spans: number | null }
   | { readonly type: 'settings/terms'; readonly patch: Partial<Project['settings']['terms']> }
   | { readonly type: 'settings/results-per-family'; readonly count: number }
@@ -233,6 +234,8 @@ function reduceSettings(state: WorkspaceState, action: Action): WorkspaceState {
       return withSettings(state, S.setSeed(s, action.seed));
     case 'settings/workers':
       return withSettings(state, S.setWorkers(s, action.workers));
+    case 'settings/checkpoint-every':
+      return withSettings(state, S.setCheckpointEvery(s, action.seconds));
     case 'settings/max-size':
       return withSettings(state, S.setMaxSizeSpans(s, action.spans));
     case 'settings/terms':

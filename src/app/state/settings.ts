@@ -8,6 +8,7 @@ import { DEFAULT_RESULTS_PER_FAMILY } from '../../engine/runSpec';
 import type { FamilyId } from './families';
 import {
   checkBounds,
+  checkCheckpointEvery,
   checkEvaluations,
   checkGuideline,
   checkKeepOut,
@@ -28,6 +29,11 @@ export const MAX_WORKERS = 64;
  * what a machine has room for, and five spans leaves the search room to fit.
  */
 export const DEFAULT_MAX_SIZE_SPANS = 5;
+/**
+ * Seconds between a path search's checkpoints by default: a long run's checkpoint takes
+ * about a second to save, so ten keeps saving to a tenth of the time at most.
+ */
+export const DEFAULT_CHECKPOINT_EVERY_S = 10;
 /** The transmission guideline's low end, degrees: 40°, so 40° to 140° (common practice). */
 export const DEFAULT_GUIDELINE_DEG = TRANSMISSION_GUIDELINE_DEG.min;
 
@@ -42,6 +48,7 @@ export const DEFAULT_SETTINGS: SearchSettings = {
   budget: { mode: 'evaluations', evaluations: 20_000, seconds: 60 },
   seed: 1,
   workers: null,
+  checkpointEverySeconds: DEFAULT_CHECKPOINT_EVERY_S,
 };
 
 /** The workers a run uses: the setting, or the machine's cores less one for the page, at least 1. */
@@ -146,6 +153,11 @@ export function setSeed(settings: SearchSettings, seed: number): SearchSettings 
 export function setWorkers(settings: SearchSettings, workers: number | null): SearchSettings {
   if (workers !== null && !(Number.isInteger(workers) && workers >= 1 && workers <= MAX_WORKERS)) return settings;
   return { ...settings, workers };
+}
+
+export function setCheckpointEvery(settings: SearchSettings, seconds: number): SearchSettings {
+  if (!checkCheckpointEvery(String(seconds)).ok) return settings;
+  return { ...settings, checkpointEverySeconds: seconds };
 }
 
 /** What is wrong with the settings for a search, or null. */

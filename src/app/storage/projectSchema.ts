@@ -6,9 +6,9 @@
 import { z } from 'zod';
 import type { CandidateReport } from '../../core/synthesis';
 import { MAX_TERM_WEIGHT, MAX_WEIGHT } from '../../core/synthesis/problem';
-import { DEFAULT_RESULTS_PER_FAMILY } from '../../engine/runSpec';
+import { DEFAULT_RESULTS_PER_FAMILY, MAX_CHECKPOINT_EVERY_S, MIN_CHECKPOINT_EVERY_S } from '../../engine/runSpec';
 import { MAX_RESULTS_PER_FAMILY, MAX_SIZE_SPANS } from '../state/fields';
-import { DEFAULT_GUIDELINE_DEG } from '../state/settings';
+import { DEFAULT_CHECKPOINT_EVERY_S, DEFAULT_GUIDELINE_DEG } from '../state/settings';
 import { FAMILY_CHOICES, type FamilyId } from '../state/families';
 import { PROJECT_FORMAT, PROJECT_VERSION, type Project } from '../state/project';
 import { storedSuspensionSchema } from '../suspension/stored';
@@ -60,6 +60,8 @@ const settings = z.object({
   budget: z.object({ mode: z.enum(['evaluations', 'time']), evaluations: z.number().int().positive(), seconds: z.number().positive() }),
   seed: z.number().int().min(0),
   workers: z.number().int().min(1).nullable(),
+  // Absent in projects saved before the interval was a setting: the interval they ran with.
+  checkpointEverySeconds: z.number().min(MIN_CHECKPOINT_EVERY_S).max(MAX_CHECKPOINT_EVERY_S).default(DEFAULT_CHECKPOINT_EVERY_S),
 });
 const run = z.object({
   status: z.enum(['idle', 'starting', 'running', 'pausing', 'paused', 'stopping', 'finished', 'failed']),
