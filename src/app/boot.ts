@@ -2,7 +2,7 @@
  * Starting the workspace: open storage, read the project back (or open the demo on a
  * first start), keep saving it as it changes, and resume a search a reload interrupted.
  */
-import { browserEnvironment } from '../engine/browser';
+import { pageEnvironment } from '../engine/browser';
 import { createDemoProject } from './demo/demoProject';
 import { SearchController } from './run/searchController';
 import { INITIAL_UI, type Notice } from './state/reducer';
@@ -92,7 +92,7 @@ async function boot(): Promise<Workspace> {
     });
   }
 
-  const env = browserEnvironment();
+  const env = pageEnvironment();
   const controller = new SearchController(store, { env, db, wallNow: () => Date.now(), newRunId, holdRunLock });
   void controller.restoreAfterReload();
   return { store, controller, db, defaultWorkers: env.defaultWorkerCount() };

@@ -2,7 +2,7 @@
  * The page's one queue runner, started with the workspace: it asks for the queue, and in
  * the tab that gets it goes on where the queue was (a reload between jobs or mid-job).
  */
-import { browserEnvironment } from '../../engine/browser';
+import { pageEnvironment } from '../../engine/browser';
 import type { LociDb } from '../storage';
 import { notifyQueueDone } from './notify';
 import { claimQueue } from './ownership';
@@ -17,7 +17,7 @@ function newRunId(): string {
 /** The runner (made on the first call); `db` null when the browser keeps no storage, and then the queue is unavailable. */
 export function bootQueue(db: LociDb | null): QueueRunner | null {
   if (runner !== null || db === null) return runner;
-  const made = new QueueRunner({ db, env: browserEnvironment(), newRunId, onQueueDone: (state) => void notifyQueueDone(db, state) });
+  const made = new QueueRunner({ db, env: pageEnvironment(), newRunId, onQueueDone: (state) => void notifyQueueDone(db, state) });
   runner = made;
   claimQueue(db, crypto.randomUUID(), (owned) => void made.setOwned(owned));
   return made;

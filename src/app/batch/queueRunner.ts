@@ -6,15 +6,13 @@
  * queue where it was, and a reload mid-job goes on from that job's checkpoint.
  */
 import {
-  createRun,
-  restoreRunFromStore,
-  type EngineEnvironment,
   type RankedCandidate,
   type Run,
   type RunProgress,
   type RunInput,
   type RunResult,
 } from '../../engine';
+import { createHostedRun, restoreHostedRunFromStore, type HostingEnvironment } from '../../engine/runHost';
 import {
   addJob, beginJob, deleteJob, emptyQueue, endJob, finishQueue, moveJob, nextStep, noteResume, pauseQueue, runningJob, setSkip, startQueue,
   type JobOutcome, type QueueChange,
@@ -58,7 +56,7 @@ export interface QueueView {
 
 export interface QueueRunnerDeps {
   readonly db: LociDb;
-  readonly env: EngineEnvironment;
+  readonly env: HostingEnvironment;
   readonly newRunId: () => string;
   /** Told once when the queue has run to its end in this tab. */
   readonly onQueueDone: (state: AppQueueState) => void;
@@ -350,7 +348,7 @@ export class QueueRunner {
       ? { workers, topK: CANDIDATES_SHOWN, perJob: path.resultsPerFamily }
       : { workers, ...workspaceRunKeep(spec.problem.kind === 'suspension' ? 'suspension' : 'leg') };
     if (resume) {
-      const restored = await restoreRunFromStore(env, store, options);
+      const restored = await restoreHostedRunFromStore(env, store, options);
       if (restored.ok) {
         this.apply(noteResume(this.view.state, entry.id));
         const n = restored.skipped.length;
@@ -365,7 +363,7 @@ export class QueueRunner {
       await dropCheckpointsExcept(db, [runId], QUEUE_RUN_SCOPE).catch(() => {});
     }
     const built = runInputOf(spec, workers);
-    const made = built.ok ? createRun(env, built.input, { ...options, store }) : built;
+    const made = built.ok ? createHostedRun(env, built.input, { ...options, store }) : built;
     if (!made.ok) {
       this.end(entry, 'failed', { ended: 'failed', reason: made.reason, evaluations: 0, elapsedMs: 0, restarts: 0, best: [], kept: false });
       return null;

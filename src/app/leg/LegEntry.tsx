@@ -6,7 +6,7 @@
  * stops it.
  */
 import { useState } from 'react';
-import { browserEnvironment } from '../../engine/browser';
+import { pageEnvironment } from '../../engine/browser';
 import { CloseWhileRunning } from '../search/CloseWhileRunning';
 import { ResumeNotice } from '../search/ResumeNotice';
 import { useWorkspaceSearch } from '../search/useWorkspaceSearch';
@@ -26,7 +26,7 @@ const sameState = (a: LegState, b: LegState) => a === b;
 export function LegEntry({ initial, onClose, onChange }: { initial: LegState; onClose?: () => void; onChange?: (state: LegState) => void }) {
   const [store] = useState(() => createLegStore(initial));
   const [controller] = useState(() => new LegSearchController({
-    env: browserEnvironment(),
+    env: pageEnvironment(),
     wallNow: () => Date.now(),
     newRunId: newLegRunId,
     checkpoints: legSearchCheckpoints(),

@@ -1,20 +1,18 @@
 /**
  * Runs the project's search through the engine: start, pause, resume, stop, and after a
- * reload, resume from the last checkpoint. The page only orchestrates: every evaluation
- * happens in the engine's workers. Progress reaches the store at most a few times a
- * second, so React renders stay small while a search runs.
+ * reload, resume from the last checkpoint. The page only follows: the run is
+ * orchestrated in the engine worker and evaluated in its search workers. Progress reaches
+ * the store at most a few times a second, so React renders stay small while a search runs.
  */
 import {
-  createRun,
   memoryCheckpointStore,
-  restoreRunFromStore,
   type CheckpointStore,
-  type EngineEnvironment,
   type RankedCandidate,
   type Run,
   type RunProgress,
   type RunResult,
 } from '../../engine';
+import { createHostedRun, restoreHostedRunFromStore, type HostingEnvironment } from '../../engine/runHost';
 import type { CandidateReport } from '../../core/synthesis';
 import { isActive, snapshotTarget, type Project, type RunState, type TargetSnapshot } from '../state/project';
 import type { Store } from '../state/store';
@@ -31,7 +29,7 @@ import { askPersistenceOnStart, workerRestartMessage } from '../search/longRun';
 export const PROGRESS_EVERY_MS = 250;
 
 export interface SearchDeps {
-  readonly env: EngineEnvironment;
+  readonly env: HostingEnvironment;
   /** Null when the browser gives no IndexedDB: the run then keeps its checkpoints in memory only. */
   readonly db: LociDb | null;
   /** Wall clock, ms since 1970 (for "saved 5 s ago"). */
@@ -116,7 +114,7 @@ export class SearchController {
       return;
     }
     const describer = this.newDescriber();
-    const made = createRun(this.deps.env, built.input, {
+    const made = createHostedRun(this.deps.env, built.input, {
       workers,
       store: this.checkpointStore(runId),
       topK: CANDIDATES_SHOWN,
@@ -304,7 +302,7 @@ export class SearchController {
     }
     const store = this.checkpointStore(runId);
     const describer = this.newDescriber();
-    const restored = await restoreRunFromStore(this.deps.env, store, {
+    const restored = await restoreHostedRunFromStore(this.deps.env, store, {
       workers: project.settings.workers ?? this.deps.env.defaultWorkerCount(),
       topK: CANDIDATES_SHOWN,
       perJob: project.settings.resultsPerFamily,

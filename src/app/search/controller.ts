@@ -11,12 +11,9 @@
  * the `SearchKind`.
  */
 import {
-  createRun,
   memoryCheckpointStore,
-  restoreRunFromStore,
   type CheckpointPayload,
   type CheckpointStore,
-  type EngineEnvironment,
   type RankedCandidate,
   type Run,
   type RunInput,
@@ -24,6 +21,7 @@ import {
   type RunResult,
   type RunStopReason,
 } from '../../engine';
+import { createHostedRun, restoreHostedRunFromStore, type HostingEnvironment } from '../../engine/runHost';
 import { createReducerStore, type ReducerStore } from '../reducerStore';
 import { newestReadable } from '../run/interimCandidates';
 import { failureWords } from '../run/failureWords';
@@ -82,7 +80,7 @@ export interface SearchKind<P, C extends RankedDesign> {
 }
 
 export interface SearchControllerDeps<P, C> {
-  readonly env: EngineEnvironment;
+  readonly env: HostingEnvironment;
   /** Wall clock, ms since 1970 (the finished run's time stamp). */
   readonly wallNow: () => number;
   readonly newRunId: () => string;
@@ -177,7 +175,7 @@ export class SearchController<P, C extends RankedDesign> {
     };
     const runInput = this.kind.runInput(running.problem, settings, workers);
     let best: JobBest[] = [];
-    const made = createRun(this.deps.env, runInput, {
+    const made = createHostedRun(this.deps.env, runInput, {
       workers,
       store: this.storeOf(running.runId),
       topK: this.kind.topK,
@@ -218,7 +216,7 @@ export class SearchController<P, C extends RankedDesign> {
     this.update({ ...IDLE_SESSION, status: 'running', budgetEvaluations: running.settings.budget.evaluations, message: 'Resuming the search a reload interrupted…', resumed: true });
     const store = this.storeOf(running.runId);
     let best: JobBest[] = [];
-    const restored = await restoreRunFromStore(this.deps.env, store, {
+    const restored = await restoreHostedRunFromStore(this.deps.env, store, {
       workers: this.deps.env.defaultWorkerCount(),
       topK: this.kind.topK,
       perJob: this.kind.perJob,

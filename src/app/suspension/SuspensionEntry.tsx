@@ -4,7 +4,7 @@
  * search the project holds as running (a reload interrupted it) resumes on opening.
  */
 import { useState } from 'react';
-import { browserEnvironment } from '../../engine/browser';
+import { pageEnvironment } from '../../engine/browser';
 import { newSuspensionRunId, suspensionSearchCheckpoints } from './search/checkpoints';
 import { CloseWhileRunning } from '../search/CloseWhileRunning';
 import { ResumeNotice } from '../search/ResumeNotice';
@@ -27,7 +27,7 @@ export function SuspensionEntry({ initial, onClose, onChange }: {
 }) {
   const [store] = useState(() => createSuspensionStore(initial ?? demoSuspensionState()));
   const [controller] = useState(() => new SuspensionSearchController({
-    env: browserEnvironment(),
+    env: pageEnvironment(),
     wallNow: () => Date.now(),
     newRunId: newSuspensionRunId,
     checkpoints: suspensionSearchCheckpoints(),

@@ -1,9 +1,13 @@
-/** The engine's environment in a browser: search workers are module Workers, the clock is performance.now. */
+/**
+ * The engine's environment in a browser: search workers are module Workers, the clock is
+ * performance.now. The engine worker runs its runs on it (its search workers are nested
+ * workers); the page uses it for the search worker that describes checkpoints.
+ */
 import type { EngineEnvironment, WorkerHandle } from '../environment';
 import { lifeLockName, watchLifeLock } from './lifeLock';
 
 export function spawnBrowserSearchWorker(): WorkerHandle {
-  const name = lifeLockName();
+  const name = lifeLockName('search-worker');
   // Written out in full so the bundler sees the worker entry and builds it.
   const worker = new Worker(new URL('./searchWorkerEntry.ts', import.meta.url), { type: 'module', name });
   const listeners: ((reason: string) => void)[] = [];
@@ -33,7 +37,7 @@ export function browserEnvironment(): EngineEnvironment {
   return {
     spawnWorker: spawnBrowserSearchWorker,
     now: () => performance.now(),
-    // One core stays with the page.
+    // One core stays with the page (the engine worker itself only orchestrates).
     defaultWorkerCount: () => Math.max(1, (navigator.hardwareConcurrency || 2) - 1),
   };
 }

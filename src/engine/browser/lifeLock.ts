@@ -1,15 +1,16 @@
 /**
- * How the page learns at once that a search worker has ended. A worker that closes
- * itself, or that the browser stops, sends the page no event: the calls in flight would
- * wait for their time limit (minutes) while the other workers idle. So each worker holds
- * a Web Lock named after it for its whole life; the browser releases a lock when its
- * holder ends, and the page, queued for the same lock, is granted it then. The worker's
- * name carries the lock's name; it says when it holds it, so the page queues only after
- * (never before, which would take the lock first).
+ * How the thread that started a worker (the engine worker for a search worker, the page
+ * for the engine worker) learns at once that it has ended. A worker that closes itself,
+ * or that the browser stops, sends no event: the calls in flight would wait for their
+ * time limit (minutes) while the other workers idle. So each worker holds a Web Lock
+ * named after it for its whole life; the browser releases a lock when its holder ends,
+ * and the starter, queued for the same lock, is granted it then. The worker's name
+ * carries the lock's name; it says when it holds it, so the starter queues only after
+ * (never before, which would take the lock first). Web Locks are there in workers too.
  */
 
 /** A worker's name starts with this when it is to hold a life lock. */
-const LIFE_LOCK_PREFIX = 'loci-search-worker-';
+const LIFE_LOCK_PREFIX = 'loci-life-';
 /** The key of the worker's "I hold it" message (comlink ignores messages without an id). */
 const HELD_KEY = 'lociLifeLockHeld';
 
@@ -21,13 +22,13 @@ function lockManager(): LockManagerLike | undefined {
   return (navigator as { locks?: LockManagerLike }).locks;
 }
 
-/** A fresh worker name that asks the worker to hold a life lock, or undefined where the browser has no Web Locks. */
-export function lifeLockName(): string | undefined {
-  return lockManager() === undefined ? undefined : `${LIFE_LOCK_PREFIX}${crypto.randomUUID()}`;
+/** A fresh name for a worker of `kind` that asks it to hold a life lock, or undefined where the browser has no Web Locks. */
+export function lifeLockName(kind: 'search-worker' | 'engine-worker'): string | undefined {
+  return lockManager() === undefined ? undefined : `${LIFE_LOCK_PREFIX}${kind}-${crypto.randomUUID()}`;
 }
 
 /**
- * The page's side: once the worker says it holds its lock, queues for it; `onEnded` is
+ * The starter's side: once the worker says it holds its lock, queues for it; `onEnded` is
  * called when the lock is granted, that is when the worker has ended (closed itself,
  * was terminated, or crashed).
  */
