@@ -15,144 +15,24 @@
  * A worker that dies or stops answering is replaced, and the whole run goes back to
  * the last checkpoint, so a deterministic run still ends as it would have.
  *
- * Every evaluation happens in the workers; this side only orchestrates.
+ * Every evaluation happens in the workers; this side only orchestrates: the rounds, the
+ * pause/resume states, checkpoints taken at cuts and recovery from a lost worker. Its
+ * other parts are rooms of their own: what callers see (runTypes.ts), the clock
+ * (runClock.ts), the archives and ranking (runResults.ts), saving checkpoints
+ * (checkpointSaver.ts) and taking a run up from a store (restoreFromStore.ts).
  */
-import { precedes } from '../core/optimize';
-import { CandidateArchive, mergeArchive } from '../core/synthesis';
 import type { AdvanceResult, DescribedCandidate, IslandInfo, IslandProgress, IslandState, IslandStopReason, StepSlice } from '../../workers/api';
 import { isObjectiveError } from '../../workers/objectiveError';
-import { decodeCheckpoint, encodeCheckpointInSteps, type CheckpointPayload } from './checkpoint';
-import type { CheckpointListing, CheckpointStore } from './checkpointStore';
+import { decodeCheckpoint, type CheckpointPayload } from './checkpoint';
+import { CheckpointSaver, encodeInTasks } from './checkpointSaver';
 import type { EngineEnvironment } from './environment';
 import { EmigrantLedger, PIPELINE_DEPTH, runPipeline, TIMED_PIPELINE_DEPTH, type CutRule, type PipelineIsland } from './pipeline';
-import { nextTask, queueTask } from './nextTask';
+import { nextTask } from './nextTask';
+import { RunClock } from './runClock';
+import { JobArchives } from './runResults';
 import { defineRun, planIslands, type IslandPlan, type RunInput, type RunSpec } from './runSpec';
+import type { MakeRunResult, RankedCandidate, Run, RunOptions, RunProgress, RunResult, RunStatus, RunStopReason } from './runTypes';
 import { WorkerClient, WorkerLost, WorkerRefused } from './workerClient';
-
-export type RunStatus = 'idle' | 'running' | 'paused' | 'finished' | 'failed';
-
-/** Why a run ended: its evaluation budget, its time budget, every island converged or hit its target, or a cancel. */
-export type RunStopReason = 'budget' | 'time' | 'converged' | 'target' | 'cancelled';
-
-export interface RunProgress {
-  readonly status: RunStatus;
-  /** Rounds (slices) every island has done. */
-  readonly rounds: number;
-  /** Evaluations of all islands so far (after a worker restart: since the checkpoint it went back to). */
-  readonly evaluations: number;
-  readonly budgetEvaluations: number | null;
-  /** Active search milliseconds (worker start-up and paused time excluded), this session and those it resumes. */
-  readonly elapsedMs: number;
-  /** Evaluations per second of this session. */
-  readonly evaluationsPerSecond: number;
-  /** Estimated milliseconds left, from the budget and the rate; null when it cannot be told yet. */
-  readonly remainingMs: number | null;
-  /** The best candidate of the run so far (its job, value of the measure and violation). */
-  readonly best: { readonly jobId: string; readonly value: number; readonly violation: number } | null;
-  readonly islands: number;
-  readonly islandsRunning: number;
-  readonly workers: number;
-  /** Workers replaced after one was lost. */
-  readonly restarts: number;
-  /** Fresh optimizer runs the islands' restart schemes have started (after a run converged or stalled), all islands, as of their last slice. */
-  readonly searchRestarts: number;
-  /** The round of the last checkpoint taken, or null. */
-  readonly checkpointRound: number | null;
-  /** Why the last save to the store failed; absent once a save succeeds (the run goes on either way). */
-  readonly checkpointError?: string;
-}
-
-export interface RankedCandidate extends DescribedCandidate {
-  /** 1 for the best. */
-  readonly rank: number;
-  readonly jobId: string;
-}
-
-export type RunResult =
-  | {
-      readonly ok: true;
-      readonly stopReason: RunStopReason;
-      readonly evaluations: number;
-      readonly elapsedMs: number;
-      readonly rounds: number;
-      /** Workers replaced after one was lost. */
-      readonly restarts: number;
-      /** Fresh optimizer runs the islands' restart schemes started, all islands. */
-      readonly searchRestarts: number;
-      /** Evaluations of each job (all its islands). */
-      readonly jobs: { readonly jobId: string; readonly evaluations: number }[];
-      /** The best distinct candidates of all jobs, ranked feasibility first (Deb, 2000). */
-      readonly candidates: RankedCandidate[];
-    }
-  | {
-      readonly ok: false;
-      readonly reason: string;
-      readonly evaluations: number;
-      readonly rounds: number;
-      /**
-       * When an objective threw (the workers still answer): the best candidates of the
-       * rounds before, described and ranked as in a finished run. Absent otherwise.
-       */
-      readonly candidates?: RankedCandidate[];
-    };
-
-export interface RunOptions {
-  /** Workers to start (never more than islands); default the environment's count. */
-  readonly workers?: number;
-  /** Where checkpoints go; without one the run keeps its last checkpoint in memory only. */
-  readonly store?: CheckpointStore;
-  /** Candidates described in the result; default 10. */
-  readonly topK?: number;
-  /** Also describe each job's best where it is not among the topK (a layout table shows every layout's best); default false. */
-  readonly bestOfEachJob?: boolean;
-  /**
-   * Also describe each job's `perJob` best distinct candidates (a job is one family), so
-   * the best of every family searched reaches the caller even when another family holds
-   * the whole topK; default 0. At most the spec's archive capacity, which holds them.
-   */
-  readonly perJob?: number;
-  /** A worker call that takes longer counts as a lost worker; default 120 000 ms. */
-  readonly callTimeoutMs?: number;
-  /** Restarts without a checkpoint in between before the run gives up; default 3. */
-  readonly maxRestarts?: number;
-  /**
-   * Told of each checkpoint once it is saved, in a task of its own, with the payload the
-   * text was made from (the app describes the best designs so far without parsing it back).
-   */
-  readonly onCheckpoint?: (payload: CheckpointPayload) => void;
-  /**
-   * Milliseconds of wall time between checkpoints; default the spec's `checkpointEveryMs`.
-   * An option, not part of the spec, so a resumed run may save more or less often.
-   */
-  readonly checkpointEveryMs?: number;
-  /**
-   * Told when a save to the store fails, with why. The run goes on (it keeps its last
-   * checkpoint in memory for its own recovery) and tries again at the next checkpoint.
-   */
-  readonly onSaveError?: (reason: string) => void;
-}
-
-export interface Run {
-  readonly spec: RunSpec;
-  status(): RunStatus;
-  progress(): RunProgress;
-  /** Called after every round, every checkpoint and every change of status; returns the unsubscribe function. */
-  onProgress(listener: (progress: RunProgress) => void): () => void;
-  /** Runs to the end (budget, convergence or cancel). Call once. */
-  start(): Promise<RunResult>;
-  /**
-   * Stops at the next round every island can stop at (the rounds already sent to the
-   * workers, at most a few), checkpoints, and waits; resolves once paused.
-   */
-  pause(): Promise<void>;
-  resume(): void;
-  /** Stops as `pause` does (at once if paused); `start()` then resolves with stopReason 'cancelled'. */
-  cancel(): void;
-  /** The whole run's checkpoint, taken at a round every island stops at. */
-  exportCheckpoint(): Promise<string>;
-}
-
-export type MakeRunResult = { readonly ok: true; readonly run: Run } | { readonly ok: false; readonly reason: string };
 
 export const DEFAULT_TOP_K = 10;
 const DEFAULT_CALL_TIMEOUT_MS = 120_000;
@@ -215,57 +95,16 @@ export function restoreRun(env: EngineEnvironment, checkpointText: string, optio
   return { ok: true, run: new Engine(env, decoded.payload.spec, decoded.payload, options) };
 }
 
-export type RestoreFromStoreResult =
-  | {
-      readonly ok: true;
-      readonly run: Run;
-      /** Why each newer checkpoint was passed over, newest first. */
-      readonly skipped: string[];
-      /** Where the checkpoint used came from (a file name for a file store). */
-      readonly source: string;
-      /** Each newer checkpoint passed over, with where it came from and why. */
-      readonly passedOver: readonly { readonly source: string; readonly reason: string }[];
-      /** The store's notes: a newest checkpoint missing, leftovers of an interrupted save removed. */
-      readonly notes: readonly string[];
-    }
-  | { readonly ok: false; readonly reason: string; readonly empty: boolean; readonly notes: readonly string[] };
-
-async function listStore(store: CheckpointStore): Promise<CheckpointListing> {
-  if (store.list !== undefined) return store.list();
-  const texts = await store.load();
-  return { found: texts.map((text, k) => ({ source: `checkpoint ${k + 1} (newest first)`, text })), notes: [] };
-}
-
-/**
- * The run of the newest checkpoint in `store` that decodes, where it came from, and what
- * was wrong with newer ones it passed over. `{ ok: false }` when the store holds none,
- * or none that decodes.
- */
-export async function restoreRunFromStore(env: EngineEnvironment, store: CheckpointStore, options: Omit<RunOptions, 'store'> = {}): Promise<RestoreFromStoreResult> {
-  const { found, notes } = await listStore(store);
-  if (found.length === 0) return { ok: false, reason: 'the store holds no checkpoint', empty: true, notes };
-  const passedOver: { source: string; reason: string }[] = [];
-  for (const { source, text } of found) {
-    const made = restoreRun(env, text, { ...options, store });
-    if (made.ok) return { ok: true, run: made.run, skipped: passedOver.map((p) => p.reason), source, passedOver, notes };
-    passedOver.push({ source, reason: made.reason });
-  }
-  return { ok: false, reason: passedOver.map((p) => `${p.source}: ${p.reason}`).join('; '), empty: false, notes };
-}
-
 class Engine implements Run {
   readonly spec: RunSpec;
   private readonly env: EngineEnvironment;
-  private readonly store: CheckpointStore | null;
   private readonly topK: number;
   private readonly bestOfEachJob: boolean;
   private readonly perJob: number;
   private readonly callTimeoutMs: number;
   private readonly maxRestarts: number;
   private readonly checkpointEveryMs: number;
-  private readonly onCheckpoint: ((payload: CheckpointPayload) => void) | null;
-  private readonly onSaveError: ((reason: string) => void) | null;
-  private saveError: string | null = null;
+  private readonly saver: CheckpointSaver;
   private readonly workerCount: number;
   private readonly islands: IslandView[];
   private readonly pipelineIslands: PipelineIsland[];
@@ -278,18 +117,11 @@ class Engine implements Run {
   private state: RunStatus = 'idle';
   private started = false;
   private workers: WorkerClient[] = [];
-  /** The run's archive of each job, merged from its islands' archives at the last cut (null before its islands are placed). */
-  private archives: (CandidateArchive | null)[];
-  /** Real bounds of each job's variables, from its first island. */
-  private readonly bounds = new Map<number, [number[], number[]]>();
+  private readonly archives: JobArchives;
+  private readonly clock: RunClock;
   private rounds = 0;
   private restarts = 0;
   private restartsSinceCheckpoint = 0;
-  private elapsedBeforeMs = 0;
-  private activeSinceMs: number | null = null;
-  private sessionEvaluations = 0;
-  private sessionActiveMs = 0;
-  private sessionSinceMs: number | null = null;
   private snapshot: CheckpointPayload | null = null;
   private checkpointRound: number | null = null;
   private lastCheckpointAtMs = 0;
@@ -305,25 +137,23 @@ class Engine implements Run {
     this.env = env;
     this.spec = spec;
     this.from = from;
-    this.store = options.store ?? null;
     this.topK = options.topK ?? DEFAULT_TOP_K;
     this.bestOfEachJob = options.bestOfEachJob === true;
     this.perJob = options.perJob ?? 0;
     this.callTimeoutMs = options.callTimeoutMs ?? DEFAULT_CALL_TIMEOUT_MS;
     this.maxRestarts = options.maxRestarts ?? DEFAULT_MAX_RESTARTS;
     this.checkpointEveryMs = options.checkpointEveryMs ?? spec.checkpointEveryMs;
-    this.onCheckpoint = options.onCheckpoint ?? null;
-    this.onSaveError = options.onSaveError ?? null;
+    this.saver = new CheckpointSaver(options.store ?? null, options.onCheckpoint ?? null, options.onSaveError ?? null);
     const plans = planIslands(spec);
     this.workerCount = Math.min(plans.length, options.workers ?? env.defaultWorkerCount());
     this.islands = plans.map((plan, k) => ({ plan, worker: k % this.workerCount, evaluations: 0, stopReason: null, best: null, searchRestarts: 0 }));
     this.pipelineIslands = this.islands.map((island, k) => ({ islandId: island.plan.islandId, worker: island.worker, sender: this.senderOf(k) }));
     this.ledger = new EmigrantLedger(this.islands.length);
-    this.archives = spec.jobs.map(() => null);
+    this.archives = new JobArchives(spec);
+    this.clock = new RunClock(() => env.now(), from?.elapsedMs ?? 0);
     if (from !== null) {
       this.rounds = from.rounds;
       this.restarts = from.restarts;
-      this.elapsedBeforeMs = from.elapsedMs;
     }
   }
 
@@ -347,9 +177,8 @@ class Engine implements Run {
 
   progress(): RunProgress {
     const evaluations = this.islands.reduce((sum, island) => sum + island.evaluations, 0);
-    const elapsedMs = this.elapsedMs();
-    const sessionMs = this.sessionActiveMs + (this.sessionSinceMs === null ? 0 : this.env.now() - this.sessionSinceMs);
-    const rate = sessionMs > 0 ? (this.sessionEvaluations * 1000) / sessionMs : 0;
+    const elapsedMs = this.clock.elapsedMs();
+    const rate = this.clock.evaluationsPerSecond();
     const budget = this.spec.budget;
     let remainingMs: number | null = null;
     if (budget.evaluations !== null && rate > 0) remainingMs = (Math.max(0, budget.evaluations - evaluations) / rate) * 1000;
@@ -373,7 +202,7 @@ class Engine implements Run {
       restarts: this.restarts,
       searchRestarts: this.searchRestarts(),
       checkpointRound: this.checkpointRound,
-      ...(this.saveError === null ? {} : { checkpointError: this.saveError }),
+      ...(this.saver.error === null ? {} : { checkpointError: this.saver.error }),
     };
   }
 
@@ -410,7 +239,7 @@ class Engine implements Run {
     this.state = 'running';
     try {
       await this.launch();
-      this.beginActive();
+      this.clock.begin();
       const stopReason = await this.loop();
       // The end is several steps of main-thread work (encode, save, describe, report);
       // each gets a task of its own, so a page running the engine never stalls on one.
@@ -425,14 +254,14 @@ class Engine implements Run {
       await nextTask();
       const candidates = await this.describeTop();
       await nextTask();
-      this.endActive();
+      this.clock.end();
       this.state = 'finished';
       this.emit();
       return {
         ok: true,
         stopReason,
         evaluations: payload.evaluations,
-        elapsedMs: this.elapsedMs(),
+        elapsedMs: this.clock.elapsedMs(),
         rounds: this.rounds,
         restarts: this.restarts,
         searchRestarts: this.searchRestarts(),
@@ -443,7 +272,7 @@ class Engine implements Run {
         candidates,
       };
     } catch (error) {
-      this.endActive();
+      this.clock.end();
       this.state = 'failed';
       for (const request of this.exportRequests.splice(0)) request.reject(new Error('the run failed'));
       this.emit();
@@ -502,7 +331,7 @@ class Engine implements Run {
       if (this.islands.every((island) => island.stopReason === 'budget')) return 'budget';
       return this.islands.some((island) => island.stopReason === 'target') ? 'target' : 'converged';
     }
-    if (seconds !== null && this.elapsedMs() >= seconds * 1000) return 'time';
+    if (seconds !== null && this.clock.elapsedMs() >= seconds * 1000) return 'time';
     return null;
   }
 
@@ -512,7 +341,7 @@ class Engine implements Run {
     let ms = this.spec.stepMs;
     if (seconds !== null) {
       const perWorker = Math.ceil(this.islands.length / this.workerCount);
-      ms = Math.min(ms, Math.max(MIN_STEP_MS, (seconds * 1000 - this.elapsedMs()) / perWorker));
+      ms = Math.min(ms, Math.max(MIN_STEP_MS, (seconds * 1000 - this.clock.elapsedMs()) / perWorker));
     }
     return { ms };
   }
@@ -565,13 +394,13 @@ class Engine implements Run {
     island.evaluations = progress.evaluations;
     island.stopReason = progress.stopReason;
     island.searchRestarts = progress.restarts;
-    this.sessionEvaluations += progress.stepEvaluations;
+    this.clock.count(progress.stepEvaluations);
     if (progress.bestValue !== null && progress.bestViolation !== null) island.best = { value: progress.bestValue, violation: progress.bestViolation };
   }
 
   private async pauseHere(): Promise<void> {
     await this.checkpoint();
-    this.endActive();
+    this.clock.end();
     this.state = 'paused';
     this.emit();
     for (const resolve of this.pauseWaiters.splice(0)) resolve();
@@ -583,7 +412,7 @@ class Engine implements Run {
       this.wake = null;
     }
     this.state = 'running';
-    this.beginActive();
+    this.clock.begin();
     this.emit();
   }
 
@@ -639,22 +468,12 @@ class Engine implements Run {
     island.evaluations = info.evaluations;
     island.stopReason = info.stopReason;
     island.best = null;
-    const j = island.plan.jobIndex;
-    if (!this.bounds.has(j)) this.bounds.set(j, [info.lower, info.upper]);
+    this.archives.noteBounds(island.plan.jobIndex, info.lower, info.upper);
   }
 
-  /**
-   * The run's archive of each job: its islands' archives merged in island order. The
-   * islands checked their archives when they took their states, so nothing here can fail.
-   */
+  /** Each job's archive: its islands' archives merged in island order. */
   private mergeArchives(states: readonly Pick<IslandState, 'archive'>[]): void {
-    const { capacity, distance } = this.spec.archive;
-    this.archives = this.spec.jobs.map((_, j) => {
-      const bounds = this.bounds.get(j);
-      if (bounds === undefined) return null;
-      const ofJob = states.filter((_, k) => this.islands[k].plan.jobIndex === j).map((state) => state.archive);
-      return mergeArchive(new CandidateArchive(capacity, distance, bounds[0], bounds[1]), ofJob);
-    });
+    this.archives.merge(states, (k) => this.islands[k].plan.jobIndex);
   }
 
   /**
@@ -694,39 +513,20 @@ class Engine implements Run {
     return {
       spec: this.spec,
       rounds: this.rounds,
-      elapsedMs: this.elapsedMs(),
+      elapsedMs: this.clock.elapsedMs(),
       evaluations: this.islands.reduce((sum, island) => sum + island.evaluations, 0),
       restarts: this.restarts,
       islands: states,
       emigrants: this.ledger.entries(),
       archive: this.spec.jobs.map((job, j) => ({
         jobId: job.id,
-        entries: (this.archives[j]?.entries() ?? []).map((entry) => ({ x: Array.from(entry.x), value: entry.value, violation: entry.violation })),
+        entries: this.archives.entries(j).map((entry) => ({ x: Array.from(entry.x), value: entry.value, violation: entry.violation })),
       })),
     };
   }
 
-  /**
-   * Saves the checkpoint to the store, if any, and returns its text (null with no store).
-   * A failed save is told to `onSaveError` and the run goes on: its results matter more
-   * than one checkpoint, and the next save may succeed.
-   */
-  private async save(payload: CheckpointPayload): Promise<string | null> {
-    let text: string | null = null;
-    if (this.store !== null) {
-      text = await encodeInTasks(payload);
-      try {
-        await this.store.save(text);
-        this.saveError = null;
-      } catch (error) {
-        this.saveError = error instanceof Error ? error.message : String(error);
-        this.onSaveError?.(this.saveError);
-        return text;
-      }
-    }
-    const listener = this.onCheckpoint;
-    if (listener !== null) queueTask(() => listener(payload));
-    return text;
+  private save(payload: CheckpointPayload): Promise<string | null> {
+    return this.saver.save(payload);
   }
 
   private async checkpoint(): Promise<void> {
@@ -787,18 +587,7 @@ class Engine implements Run {
 
   /** The best of the archives at the last cut and of the islands' slices since, first of equals in job order. */
   private best(): RunProgress['best'] {
-    let best: RunProgress['best'] = null;
-    const consider = (j: number, value: number, violation: number) => {
-      if (best === null || precedes(value, violation, best.value, best.violation)) best = { jobId: this.spec.jobs[j].id, value, violation };
-    };
-    for (const [j, archive] of this.archives.entries()) {
-      if (archive !== null && archive.size > 0) {
-        const top = archive.entry(0);
-        consider(j, top.value, top.violation);
-      }
-    }
-    for (const island of this.islands) if (island.best !== null) consider(island.plan.jobIndex, island.best.value, island.best.violation);
-    return best;
+    return this.archives.best(this.islands.flatMap((island) => (island.best === null ? [] : [{ j: island.plan.jobIndex, ...island.best }])));
   }
 
   /**
@@ -807,19 +596,7 @@ class Engine implements Run {
    * job. All in the order of the whole pool, each with its rank there.
    */
   private async describeTop(): Promise<RankedCandidate[]> {
-    const pool = this.archives.flatMap((archive, j) => (archive?.entries() ?? []).map((entry) => ({ entry, j })));
-    pool.sort((a, b) =>
-      precedes(a.entry.value, a.entry.violation, b.entry.value, b.entry.violation) ? -1
-      : precedes(b.entry.value, b.entry.violation, a.entry.value, a.entry.violation) ? 1
-      : a.j - b.j,
-    );
-    const ownBest = Math.max(this.perJob, this.bestOfEachJob ? 1 : 0);
-    const takenOfJob = this.spec.jobs.map(() => 0);
-    const chosen: { entry: (typeof pool)[number]['entry']; j: number; rank: number }[] = [];
-    for (const [k, c] of pool.entries()) {
-      if (k < this.topK || takenOfJob[c.j] < ownBest) chosen.push({ ...c, rank: k + 1 });
-      takenOfJob[c.j]++;
-    }
+    const chosen = this.archives.choose(this.topK, Math.max(this.perJob, this.bestOfEachJob ? 1 : 0));
     const described = new Map<number, DescribedCandidate[]>();
     const jobs = [...new Set(chosen.map((c) => c.j))];
     const settled = await Promise.allSettled(
@@ -839,36 +616,13 @@ class Engine implements Run {
     });
   }
 
-  // --- time and events ------------------------------------------------------------------
-
-  private elapsedMs(): number {
-    return this.elapsedBeforeMs + (this.activeSinceMs === null ? 0 : this.env.now() - this.activeSinceMs);
-  }
-
-  private beginActive(): void {
-    const now = this.env.now();
-    this.activeSinceMs = now;
-    this.sessionSinceMs = now;
-  }
-
-  private endActive(): void {
-    const now = this.env.now();
-    if (this.activeSinceMs !== null) this.elapsedBeforeMs += now - this.activeSinceMs;
-    if (this.sessionSinceMs !== null) this.sessionActiveMs += now - this.sessionSinceMs;
-    this.activeSinceMs = null;
-    this.sessionSinceMs = null;
-  }
+  // --- events ---------------------------------------------------------------------------
 
   private emit(): void {
     if (this.listeners.size === 0) return;
     const progress = this.progress();
     for (const listener of this.listeners) listener(progress);
   }
-}
-
-/** A checkpoint's text, encoded in short tasks: on the page's thread, no step is a long task. */
-function encodeInTasks(payload: CheckpointPayload): Promise<string> {
-  return encodeCheckpointInSteps(payload, nextTask);
 }
 
 /** The values of settled calls, or the first failure (a lost worker before anything else). */

@@ -6,7 +6,9 @@
  */
 import type { CheckpointStore } from './checkpointStore';
 import type { EngineEnvironment } from './environment';
-import { createRun, restoreRunFromStore, type MakeRunResult, type RestoreFromStoreResult, type RunOptions } from './run';
+import { restoreRunFromStore } from './restoreFromStore';
+import { createRun } from './run';
+import type { MakeRunResult, RestoreFromStoreResult, RunOptions } from './runTypes';
 import type { RunInput } from './runSpec';
 
 /** Makes runs somewhere else than the caller's thread, with `createRun`'s and `restoreRunFromStore`'s contracts. */

@@ -10,7 +10,9 @@ import { releaseProxy } from 'comlink';
 import type { CheckpointPayload } from './checkpoint';
 import type { CheckpointListing, CheckpointStore } from './checkpointStore';
 import type { EngineEnvironment } from './environment';
-import { createRun, restoreRunFromStore, type Run, type RunOptions, type RunProgress, type RunResult } from './run';
+import { restoreRunFromStore } from './restoreFromStore';
+import { createRun } from './run';
+import type { Run, RunOptions, RunProgress, RunResult } from './runTypes';
 import type { RunInput, RunSpec } from './runSpec';
 
 /** The run's progress as of the `seq`th report (higher is newer). */
