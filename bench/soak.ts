@@ -13,18 +13,24 @@
  *
  *   npm run bench -- soak          (about 15–30 minutes; not in the default run)
  *
- * LOCI_SOAK_HOURS (default 8), LOCI_SOAK_STEP_MS (default 4) and LOCI_SOAK_PROBLEM (a
- * problem of tests/reference/problems, default closed18-untimed) change the run. Each
+ * LOCI_SOAK_HOURS (default 8; 0.25 for a short look), LOCI_SOAK_STEP_MS (default 4)
+ * and LOCI_SOAK_PROBLEM (a problem of tests/reference/problems, default closed18-untimed)
+ * change the run; LOCI_SOAK_KEEP names a file to keep the last checkpoint in. Each
  * checkpoint's save is timed too (wall ms: it waits for the disk and for the machine).
+ * After the run the last checkpoint is decoded, encoded again and its islands restored and
+ * exported, each timed (median of a few, wall ms): the orchestrating thread's part of a
+ * checkpoint, and the workers' part.
  */
-import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { performance } from 'node:perf_hooks';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 import { createRun, type CheckpointStore, type RunInput } from '../src/engine';
+import { decodeCheckpoint, encodeCheckpoint } from '../src/engine/checkpoint';
 import { fileCheckpointStore } from '../src/engine/node';
+import { Island } from '../workers/island';
 import { MB, spawnMeasuredWorker, workersHeapMb } from './memory';
 
 /** A real run's round: the default step (DEFAULT_STEP_MS of src/engine/runSpec.ts), one island per worker. */
@@ -35,6 +41,8 @@ const WARM_UP_SHARE = 1 / 16;
 const SAMPLE_SHARE = 1 / 8;
 const WORKERS = 2;
 const DEFAULT_PROBLEM = 'closed18-untimed';
+/** Repeats of each timing of the last checkpoint; the median is reported. */
+const CODEC_REPEATS = 5;
 
 function envNumber(name: string, fallback: number): number {
   const raw = process.env[name];
@@ -55,6 +63,35 @@ function median(xs: readonly number[]): number {
   return sorted.length === 0 ? NaN : (sorted[(sorted.length - 1) >> 1] + sorted[sorted.length >> 1]) / 2;
 }
 
+function medianMs(task: () => void): number {
+  const times: number[] = [];
+  for (let k = 0; k < CODEC_REPEATS; k++) {
+    const t0 = performance.now();
+    task();
+    times.push(performance.now() - t0);
+  }
+  return median(times);
+}
+
+/** Wall ms to decode the checkpoint text, to encode its payload again, and to restore and to export its islands (all of them, one after another). */
+function codecTimes(text: string): { decodeMs: number; encodeMs: number; islandsRestoreMs: number; islandsExportMs: number } {
+  const decoded = decodeCheckpoint(text);
+  if (!decoded.ok) throw new Error(`soak: the last checkpoint does not decode: ${decoded.reason}`);
+  const payload = decoded.payload;
+  const islands = payload.islands.map((state) => {
+    const made = Island.restore(state);
+    if (!made.ok) throw new Error(`soak: an island of the last checkpoint does not restore: ${made.reason}`);
+    return made.island;
+  });
+  let length = 0;
+  const decodeMs = medianMs(() => void decodeCheckpoint(text));
+  const encodeMs = medianMs(() => (length = encodeCheckpoint(payload).length));
+  if (length !== text.length) throw new Error(`soak: the last checkpoint encodes to ${length} characters again, not ${text.length}`);
+  const islandsRestoreMs = medianMs(() => payload.islands.forEach((state) => Island.restore(state)));
+  const islandsExportMs = medianMs(() => islands.forEach((island) => island.exportState()));
+  return { decodeMs, encodeMs, islandsRestoreMs, islandsExportMs };
+}
+
 interface Sample {
   readonly simulatedH: number;
   readonly rounds: number;
@@ -73,8 +110,10 @@ export async function benchSoak(): Promise<Record<string, number | null>> {
   const fileStore = fileCheckpointStore(file);
   const sizes: number[] = [];
   const saveMs: number[] = [];
+  let lastText = '';
   const store: CheckpointStore = {
     async save(text) {
+      lastText = text;
       const t0 = performance.now();
       await fileStore.save(text);
       saveMs.push(performance.now() - t0);
@@ -142,6 +181,9 @@ export async function benchSoak(): Promise<Record<string, number | null>> {
   const warm = samples[0];
   const end = samples[samples.length - 1];
   if (warm === undefined || end === undefined || samples.length < 2) throw new Error(`soak: ${samples.length} memory sample(s); the run ended before its warm-up was over`);
+  const keep = process.env.LOCI_SOAK_KEEP;
+  if (keep !== undefined && keep !== '') writeFileSync(keep, lastText);
+  const codec = codecTimes(lastText);
   return {
     simulatedHours: clockMs / 3_600_000,
     rounds: result.rounds,
@@ -160,6 +202,11 @@ export async function benchSoak(): Promise<Record<string, number | null>> {
     checkpointKbLast: (sizes[sizes.length - 1] ?? NaN) / 1024,
     checkpointSaveMsMedian: median(saveMs),
     checkpointSaveMsMax: Math.max(...saveMs),
+    lastCheckpointKb: lastText.length / 1024,
+    lastCheckpointDecodeMs: codec.decodeMs,
+    lastCheckpointEncodeMs: codec.encodeMs,
+    lastCheckpointIslandsRestoreMs: codec.islandsRestoreMs,
+    lastCheckpointIslandsExportMs: codec.islandsExportMs,
     loadAverage1MinEnd: loadavg()[0],
   };
 }

@@ -7,7 +7,7 @@
  * A worker hosts any number of islands, each named by its `islandId`. Expected failures
  * (bad input, an unknown island) come back as `{ ok: false, reason }`.
  */
-import type { OptimizerConfig, OptimizerState } from '../src/core/optimize';
+import type { OptimizerConfig, PackedOptimizerState } from '../src/core/optimize';
 import type { LayoutKind } from '../src/core/suspension';
 import type { CandidateReport, FamilyId, LegCandidateReport, SuspensionCandidateReport } from '../src/core/synthesis';
 import type { TestFunctionName } from './testFunctionNames';
@@ -135,15 +135,19 @@ export const ISLAND_STATE_FORMAT = 'loci-island-state';
  * Version 2: the island no longer reports each new archive entry (the run merges the
  * islands' archives at its cuts), so the state drops version 1's entry counters;
  * a version 1 state is still read, its counters ignored.
+ * Version 3: the optimizer state is packed (src/core/optimize/packedState.ts: long arrays
+ * of numbers as base64 of their doubles, a differential evolution's trials as what
+ * differs from their parents), exactly; versions 1 and 2, unpacked, are still read.
  */
-export const ISLAND_STATE_VERSION = 2;
+export const ISLAND_STATE_VERSION = 3;
 
 /** Everything an island is, as JSON: `importState(exportState())` continues it exactly. */
 export interface IslandState {
   readonly format: typeof ISLAND_STATE_FORMAT;
   readonly version: typeof ISLAND_STATE_VERSION;
   readonly config: IslandConfig;
-  readonly optimizer: OptimizerState;
+  /** Packed in version 3; plain (`exportState()`'s form) in versions 1 and 2. */
+  readonly optimizer: PackedOptimizerState;
   /** The island's archive of distinct designs, best first. */
   readonly archive: Individual[];
   /** Immigrants waiting for the optimizer to reach a state that takes them. */

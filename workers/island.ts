@@ -9,8 +9,10 @@ import {
   canonicalViolation,
   createOptimizer,
   MAX_STREAM,
+  packState,
   Restart,
   restoreOptimizer,
+  unpackState,
   type Optimizer,
   type OptimizerConfig,
 } from '../src/core/optimize';
@@ -28,7 +30,7 @@ import {
   type StepSlice,
 } from './api';
 import { describeWith, type DescribeOutcome } from './describeDesigns';
-import { injectImmigrants, type UnitImmigrant } from './migration';
+import { toUnitImmigrants } from './migration';
 import { objectiveError } from './objectiveError';
 import { buildObjective, type ObjectiveResult } from './objective';
 import type { SearchObjective } from './searchObjective';
@@ -128,14 +130,17 @@ export class Island {
   static restore(input: IslandState): Made {
     if (!isObject(input)) return { ok: false, reason: 'island state is not an object' };
     if (input.format !== ISLAND_STATE_FORMAT) return { ok: false, reason: `island state format is ${JSON.stringify(input.format)}; expected "${ISLAND_STATE_FORMAT}"` };
-    // Version 1 differs only in entry counters this version ignores.
-    if (!(input.version === ISLAND_STATE_VERSION || (input.version as number) === 1)) {
-      return { ok: false, reason: `island state version is ${JSON.stringify(input.version)}; expected 1 or ${ISLAND_STATE_VERSION}` };
+    // Version 1 differs from 2 only in entry counters this version ignores; 3 packs the optimizer state, which 1 and 2 hold plain.
+    const version = input.version as number;
+    if (!(version === 1 || version === 2 || version === ISLAND_STATE_VERSION)) {
+      return { ok: false, reason: `island state version is ${JSON.stringify(input.version)}; expected 1, 2 or ${ISLAND_STATE_VERSION}` };
     }
     const made = Island.create(input.config);
     if (!made.ok) return made;
     const island = made.island;
-    const restored = restoreOptimizer(input.optimizer);
+    const unpacked = unpackState(input.optimizer);
+    if (!unpacked.ok) return { ok: false, reason: `optimizer state: ${unpacked.reason}` };
+    const restored = restoreOptimizer(unpacked.state);
     if (!restored.ok) return { ok: false, reason: `optimizer state: ${restored.reason}` };
     if (restored.optimizer.dim !== island.objective.dim) {
       return { ok: false, reason: `optimizer state has dim ${restored.optimizer.dim}; the objective has ${island.objective.dim}` };
@@ -184,9 +189,8 @@ export class Island {
     const maxMs = 'ms' in slice ? slice.ms : Infinity;
     const startEvaluations = this.optimizer.evaluations();
     let stepEvaluations = 0;
+    const opt = this.optimizer;
     for (let batch = 0; batch < MAX_BATCHES_PER_STEP; batch++) {
-      // Read afresh each batch: placing immigrants replaces the optimizer.
-      const opt = this.optimizer;
       if (opt.done() || !(stepEvaluations < maxEvaluations)) break;
       if (batch > 0 && !(nowMs() - startMs < maxMs)) break;
       const points = opt.ask();
@@ -203,7 +207,6 @@ export class Island {
       stepEvaluations += n;
       if (this.immigrants.length > 0) this.placeImmigrants();
     }
-    const opt = this.optimizer;
     const best = opt.best();
     const seen = opt.evaluations() > 0 && best.value < Infinity;
     let bestX: number[] | null = null;
@@ -251,7 +254,7 @@ export class Island {
       format: ISLAND_STATE_FORMAT,
       version: ISLAND_STATE_VERSION,
       config: copyConfig(this.config),
-      optimizer: this.optimizer.exportState(),
+      optimizer: packState(this.optimizer.exportState()),
       archive: this.archive.entries().map(toIndividual),
       immigrants: this.immigrants.map(copyIndividual),
     };
@@ -279,23 +282,13 @@ export class Island {
     this.archive.offer(x, value, violation);
   }
 
-  /** Moves waiting immigrants into the optimizer's population if its state takes them now. */
+  /** Moves waiting immigrants into the optimizer if it takes them now; drops them if it never will. */
   private placeImmigrants(): number {
     if (this.immigrants.length === 0) return 0;
-    const o = this.objective;
-    const unitImmigrants: UnitImmigrant[] = this.immigrants.map((individual) => {
-      const u = o.toSearchBoxInto(individual.x, new Float64Array(o.dim));
-      for (let j = 0; j < u.length; j++) u[j] = Math.min(1, Math.max(0, u[j]));
-      return { u, value: individual.value, violation: individual.violation };
-    });
-    const placed = injectImmigrants(this.optimizer.exportState(), unitImmigrants);
+    const placed = this.optimizer.takeImmigrants(toUnitImmigrants(this.objective, this.immigrants));
     if (placed.kind === 'later') return 0;
     this.immigrants = [];
-    if (placed.kind === 'never' || placed.accepted === 0) return 0;
-    const restored = restoreOptimizer(placed.state);
-    if (!restored.ok) throw new Error(`island ${this.config.islandId}: migration produced a state the optimizer rejects: ${restored.reason}`);
-    this.optimizer = restored.optimizer;
-    return placed.accepted;
+    return placed.kind === 'placed' ? placed.accepted : 0;
   }
 
   private checkIndividual(v: unknown): string | null {

@@ -3,7 +3,7 @@
  * state, the run's archive and its counters, with the spec it runs; restoring it
  * continues the same search. The text is JSON:
  *
- *   { "format": "loci-run-checkpoint", "version": 1, "checksum": "fnv1a64:…", "payload": {…} }
+ *   { "format": "loci-run-checkpoint", "version": 2, "checksum": "fnv1a64:…", "payload": {…} }
  *
  * where the checksum is taken over `JSON.stringify(payload)`. JSON round-trips every
  * finite double exactly and keeps key order, so a reader recomputes the same string
@@ -15,7 +15,13 @@ import { Fnv1a64, fnv1a64Hex } from './checksum';
 import { defineRun, planIslands, type RunSpec } from './runSpec';
 
 export const CHECKPOINT_FORMAT = 'loci-run-checkpoint';
-export const CHECKPOINT_VERSION = 1;
+/**
+ * Version 2: the islands' states may be of version 3 (their optimizer states packed,
+ * workers/api.ts); the payload is otherwise that of version 1, which is still read.
+ */
+export const CHECKPOINT_VERSION = 2;
+/** Versions this Loci reads. */
+const READABLE_VERSIONS: readonly unknown[] = [1, CHECKPOINT_VERSION];
 const CHECKSUM_PREFIX = 'fnv1a64:';
 
 export interface CheckpointPayload {
@@ -137,8 +143,8 @@ export function decodeCheckpoint(text: string): DecodeResult {
   }
   if (!isObject(doc)) return { ok: false, reason: 'checkpoint is not a JSON object' };
   if (doc.format !== CHECKPOINT_FORMAT) return { ok: false, reason: `checkpoint format is ${JSON.stringify(doc.format)}; expected "${CHECKPOINT_FORMAT}"` };
-  if (doc.version !== CHECKPOINT_VERSION) {
-    return { ok: false, reason: `checkpoint version is ${JSON.stringify(doc.version)}; this Loci reads version ${CHECKPOINT_VERSION}` };
+  if (!READABLE_VERSIONS.includes(doc.version)) {
+    return { ok: false, reason: `checkpoint version is ${JSON.stringify(doc.version)}; this Loci reads versions ${READABLE_VERSIONS.join(' and ')}` };
   }
   if (!(typeof doc.checksum === 'string' && doc.checksum.startsWith(CHECKSUM_PREFIX))) {
     return { ok: false, reason: `checkpoint checksum is ${JSON.stringify(doc.checksum)}; expected "${CHECKSUM_PREFIX}" and 16 hex digits` };

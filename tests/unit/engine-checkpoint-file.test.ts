@@ -14,7 +14,7 @@ import { writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterEach, beforeAll, describe, expect, it } from 'vitest';
-import { decodeCheckpoint, defineRun, encodeCheckpoint, planIslands, restoreRunFromStore, type RunSpec } from '../../src/engine';
+import { CHECKPOINT_VERSION, decodeCheckpoint, defineRun, encodeCheckpoint, planIslands, restoreRunFromStore, type RunSpec } from '../../src/engine';
 import { fileCheckpointStore, nodeEnvironment, nodeFileOps, type FileOps } from '../../src/engine/node';
 import { createSearchWorkerApi } from '../../workers/searchWorkerApi';
 
@@ -207,7 +207,7 @@ describe('the checkpoint file store', () => {
     ['a digit changed', (t) => t.replace(/"rounds":(\d+)/, (_, n: string) => `"rounds":${Number(n) + 7}`), /corrupt.*checksum/],
     ['not JSON at all', () => '\u0000\u0001garbage\u00ff', /not valid JSON/],
     ['another format', (t) => t.replace('"loci-run-checkpoint"', '"something-else"'), /format/],
-    ['a later version', (t) => t.replace('"version":1', '"version":99'), /version/],
+    ['a later version', (t) => t.replace(`"version":${CHECKPOINT_VERSION}`, '"version":99'), /version/],
   ];
 
   for (const [kind, damage, reason] of DAMAGE) {

@@ -11,6 +11,7 @@
 import fc from 'fast-check';
 import { beforeAll, describe, expect, it } from 'vitest';
 import {
+  CHECKPOINT_VERSION,
   createRun,
   decodeCheckpoint,
   encodeCheckpoint,
@@ -352,7 +353,7 @@ describe('checkpoint checksum', () => {
     if (!decoded.ok) throw new Error(decoded.reason);
     const payload = decoded.payload;
     const body = JSON.stringify(payload);
-    const whole = `{"format":"loci-run-checkpoint","version":1,"checksum":"fnv1a64:${fnv1a64Hex(body)}","payload":${body}}`;
+    const whole = `{"format":"loci-run-checkpoint","version":${CHECKPOINT_VERSION},"checksum":"fnv1a64:${fnv1a64Hex(body)}","payload":${body}}`;
     expect(encodeCheckpoint(payload)).toBe(whole);
     let pauses = 0;
     const stepped = await encodeCheckpointInSteps(payload, () => {

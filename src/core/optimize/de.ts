@@ -17,10 +17,11 @@ import { drawAwayInto, type Avoidance } from './avoid';
 import { BatchOptimizerBase } from './base';
 import { PointBatch } from './batch';
 import { encodeNumbers, encodeReals, fail, readInteger, readLength, readLiteral, readNumbers, readReals, readViolations } from './codec';
+import { checkImmigrants, IMMIGRATION_LATER, IMMIGRATION_NEVER, rankImmigrants, replaceWorst } from './immigration';
 import type { Prng } from './prng';
 import { BestTracker, canonicalValue, canonicalViolation, precedes, rankInto } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
-import type { DeState, Optimizer, ResolvedDe, StopReason } from './types';
+import type { DeState, Immigrant, Immigration, Optimizer, ResolvedDe, StopReason } from './types';
 
 /** Cauchy scale of F and normal deviation of CR around a memory entry (Tanabe and Fukunaga, 2014). */
 const F_SCALE = 0.1;
@@ -194,6 +195,32 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
     if (this.stop === null && this.collapsed(xTolerance)) this.stop = 'converged';
     if (this.stop === null) this.prepareGeneration(ranked);
     else batch.clear();
+  }
+
+  takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
+    checkImmigrants(immigrants, this.dim);
+    if (this.stop !== null) return IMMIGRATION_NEVER;
+    if (this.phase === 'init') return IMMIGRATION_LATER;
+    return { kind: 'placed', accepted: this.placeRanked(rankImmigrants(immigrants)) };
+  }
+
+  /** Whether the pending batch is the initial population (which takes no immigrants yet). */
+  initialising(): boolean {
+    return this.phase === 'init';
+  }
+
+  /**
+   * Places checked immigrants, best first, over the worst members (immigration.ts), and
+   * makes the best placed one the best point if it ranks before it; returns how many it
+   * placed. The pending trials stay as they are: each meets its new parent when told.
+   */
+  placeRanked(ranked: readonly Immigrant[]): number {
+    const accepted = replaceWorst(ranked, this.population, this.values, this.violations, this.populationSize, this.dim);
+    if (accepted > 0) {
+      const first = ranked[0];
+      this.bestPoint.offer(Float64Array.from(first.u), 0, first.value, first.violation);
+    }
+    return accepted;
   }
 
   exportState(): DeState {

@@ -21,11 +21,12 @@ import { encodeReal, fail, readInteger, readLength, readLiteral, readNumbers, re
 import { resolveConfig } from './config';
 import { DifferentialEvolution } from './de';
 import { DistinctElite } from './elite';
+import { checkImmigrants, IMMIGRATION_LATER, IMMIGRATION_NEVER, rankImmigrants } from './immigration';
 import { NelderMead } from './nelder-mead';
 import type { Prng } from './prng';
 import { BestTracker, canonicalValue, canonicalViolation } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
-import type { HybridState, Optimizer, ResolvedDe, ResolvedHybrid, ResolvedNelderMead, StopReason } from './types';
+import type { HybridState, Immigrant, Immigration, Optimizer, ResolvedDe, ResolvedHybrid, ResolvedNelderMead, StopReason } from './types';
 
 export class Hybrid extends OptimizerBase implements Optimizer {
   readonly dim: number;
@@ -140,6 +141,21 @@ export class Hybrid extends OptimizerBase implements Optimizer {
       this.polishIndex = -1;
     }
     this.nextPolish();
+  }
+
+  /** Into the global search's population while it runs (not the candidates: they are points this search evaluated); never into a polish. */
+  takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
+    checkImmigrants(immigrants, this.dim);
+    const global = this.stop === null && this.phase === 'global' ? this.global : null;
+    if (global === null) return IMMIGRATION_NEVER;
+    if (global.initialising()) return IMMIGRATION_LATER;
+    const ranked = rankImmigrants(immigrants);
+    const accepted = global.placeRanked(ranked);
+    if (accepted > 0) {
+      const first = ranked[0];
+      this.bestPoint.offer(Float64Array.from(first.u), 0, first.value, first.violation);
+    }
+    return { kind: 'placed', accepted };
   }
 
   exportState(): HybridState {

@@ -12,6 +12,8 @@ export type {
   HybridConfig,
   HybridOptions,
   HybridState,
+  Immigrant,
+  Immigration,
   InnerConfig,
   InnerState,
   LshadeConfig,
@@ -41,3 +43,4 @@ export { gaoHanCoefficients, type NelderMeadCoefficients } from './nelder-mead';
 export { DistinctElite, rmsDistance } from './elite';
 export { fromUnitBoxInto, toUnitBoxInto } from './box';
 export { MAX_DIM, MAX_POPULATION } from './config';
+export { packState, unpackState, PACK_MIN_LENGTH, type Packed, type PackedNumbers, type PackedOptimizerState, type UnpackResult } from './packedState';

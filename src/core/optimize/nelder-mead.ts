@@ -38,10 +38,11 @@ import {
   readReals,
   readViolations,
 } from './codec';
+import { checkImmigrants, IMMIGRATION_NEVER } from './immigration';
 import type { Prng } from './prng';
 import { BestTracker, canonicalValue, canonicalViolation, precedes, rankInto } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
-import type { NelderMeadPhase, NelderMeadState, Optimizer, ResolvedNelderMead, StopReason } from './types';
+import type { Immigrant, Immigration, NelderMeadPhase, NelderMeadState, Optimizer, ResolvedNelderMead, StopReason } from './types';
 
 export interface NelderMeadCoefficients {
   readonly reflection: number;
@@ -240,6 +241,12 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
         }
         return;
     }
+  }
+
+  /** Never: an outside point would break the simplex's geometry. */
+  takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
+    checkImmigrants(immigrants, this.dim);
+    return IMMIGRATION_NEVER;
   }
 
   exportState(): NelderMeadState {

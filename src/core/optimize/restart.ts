@@ -21,12 +21,15 @@
 import { encodeNumbers, encodeReal, fail, readInteger, readLength, readNumbers, readObject, readReal } from './codec';
 import { maxPopulation, resolveConfig } from './config';
 import { drawAwayInto } from './avoid';
+import { checkImmigrants, IMMIGRATION_NEVER } from './immigration';
 import { buildInner, restoreInner, type InnerOptimizer } from './inner';
 import { Prng } from './prng';
 import { BestTracker, precedes } from './ranking';
 import { encodeBest, readBest, readHeader, writeHeader } from './state';
 import type {
   BestPoint,
+  Immigrant,
+  Immigration,
   Optimizer,
   ResolvedInnerConfig,
   ResolvedInnerOptions,
@@ -187,6 +190,12 @@ export class Restart implements Optimizer {
 
   evaluations(): number {
     return this.pastEvaluations + this.inner.evaluations();
+  }
+
+  /** Into the current run. The run's stagnation clock is left alone: it sees an immigrant as an improvement at the next tell, as it sees any. */
+  takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
+    checkImmigrants(immigrants, this.dim);
+    return this.stop === null ? this.inner.takeImmigrants(immigrants) : IMMIGRATION_NEVER;
   }
 
   exportState(): RestartState {

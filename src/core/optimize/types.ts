@@ -47,7 +47,30 @@ export interface Optimizer {
   evaluations(): number;
   /** Plain JSON (no typed arrays, no Infinity): `JSON.parse(JSON.stringify(s))` restores exactly. */
   exportState(): OptimizerState;
+  /**
+   * Offers points evaluated elsewhere (migration between islands); see immigration.ts for
+   * where each search takes them. They are copied, never kept. Call between a `tell()` and
+   * the next `ask()`; the pending batch is unchanged. Throws if an immigrant is not a
+   * point of the box with a finite value and violation (the caller checks what it receives).
+   */
+  takeImmigrants(immigrants: readonly Immigrant[]): Immigration;
 }
+
+/** A point evaluated elsewhere: box units, its ranked value and violation, both finite. */
+export interface Immigrant {
+  readonly u: ArrayLike<number>;
+  readonly value: number;
+  /** ≥ 0; 0 when feasible. */
+  readonly violation: number;
+}
+
+export type Immigration =
+  /** Placed now: `accepted` of them (0 or more) replaced members; the others are dropped. */
+  | { readonly kind: 'placed'; readonly accepted: number }
+  /** Not yet (the initial population is being evaluated): offer them again after a tell. */
+  | { readonly kind: 'later' }
+  /** Never: the search stopped, or is a local search an outside point would disturb. */
+  | { readonly kind: 'never' };
 
 // ---------------------------------------------------------------------------------------
 // Configuration: what a caller writes (options may be left out) ...
