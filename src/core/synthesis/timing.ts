@@ -4,7 +4,9 @@
  * - `matchInOrder`: dynamic programming over the samples of the output curve, each
  *   target point matched to a sample, the sample indices non-decreasing in target
  *   order (cyclically when the curve is a closed loop); O(n·M) per start, cyclic starts
- *   abandoned by a lower bound once they cannot win (branch and bound, Land and Doig, 1960);
+ *   abandoned by a lower bound once they cannot win, and blocks of samples a point
+ *   cannot take on a winning match skipped unevaluated (branch and bound, Land and
+ *   Doig, 1960) — the answer, ties included, that of the plain programme;
  * - `refineDriverValue`: safeguarded Newton steps on the continuous curve, so the
  *   reported error is the error at a genuine driver value, not at a sample;
  * - `orderViolation`: how far a list of driver values is from increasing.
@@ -39,13 +41,27 @@ export const CYCLIC_START_CANDIDATES = 3;
  * per point; this margin covers that many times over for any target the problem allows.
  */
 const BOUND_ROUNDING_MARGIN = 1e-10;
+/** Samples per block of the cyclic match's bounds: each block is bounded by a circle. */
+export const MATCH_BLOCK = 16;
+/**
+ * A block's bounding radius is enlarged by this share and this length (mm), so the
+ * distance bound it gives stays below every sample's distance despite rounding.
+ */
+const BLOCK_RADIUS_SHARE = 1e-9;
+const BLOCK_RADIUS_MM = 1e-9;
 
 export interface MatchScratch {
   readonly pointCount: number;
   readonly sampleCount: number;
-  /** Weighted squared distance of point i to sample j at [i·M + j]; Infinity where j does not assemble. */
+  /**
+   * Weighted squared distance of point i to sample j at [i·M + j]; Infinity where j does
+   * not assemble. A cyclic match fills row 0 only and computes the rest as it needs them.
+   */
   readonly cost: Float64Array;
-  /** rest[i]: Σ over points k ≥ i of point k's least cost anywhere on the curve; rest[n] = 0. */
+  /**
+   * rest[i]: Σ over points k ≥ i of point k's least cost anywhere on the curve (cyclic:
+   * of a lower bound on it, from the sample blocks; point 0's exact); rest[n] = 0.
+   */
   readonly rest: Float64Array;
   readonly previous: Float64Array;
   readonly argPrevious: Int32Array;
@@ -54,6 +70,15 @@ export interface MatchScratch {
   readonly startCost: Float64Array;
   /** The starts by ascending cost. */
   readonly order: Int32Array;
+  /** Sample blocks (MATCH_BLOCK samples each): centre x, y and radius; NaN radius when none assembles. */
+  readonly blockCircle: Float64Array;
+  /** Lower bound on point i's cost in block b at [i·blocks + b]. */
+  readonly blockBound: Float64Array;
+  /** A pass's runs of indices within one block: first index of each run, and its block. */
+  readonly runStart: Int32Array;
+  readonly runBlock: Int32Array;
+  /** Per run, 1 where the row in force skipped it (its sums are not written: Infinity). */
+  readonly skipped: Uint8Array;
 }
 
 export function createMatchScratch(pointCount: number, sampleCount: number): MatchScratch {
@@ -68,7 +93,16 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
     starts: new Int32Array(CYCLIC_START_CANDIDATES),
     startCost: new Float64Array(CYCLIC_START_CANDIDATES),
     order: new Int32Array(CYCLIC_START_CANDIDATES),
+    blockCircle: new Float64Array(3 * blockCount(sampleCount)),
+    blockBound: new Float64Array(pointCount * blockCount(sampleCount)),
+    runStart: new Int32Array(blockCount(sampleCount) + 2),
+    runBlock: new Int32Array(blockCount(sampleCount) + 2),
+    skipped: new Uint8Array(blockCount(sampleCount) + 2),
   };
+}
+
+function blockCount(sampleCount: number): number {
+  return Math.ceil(sampleCount / MATCH_BLOCK);
 }
 
 /** Fills scratch.cost once per match: every pass below reads it instead of recomputing. */
@@ -165,6 +199,249 @@ function monotonePass(first: number, firstSpan: number, bound: number, tieWins: 
 }
 
 /**
+ * For a cyclic match: cost row 0 exactly (the starts read it), each sample block's
+ * bounding circle, each later point's least cost in each block from below (the
+ * distance to the circle), and rest[i] from those bounds (point 0's exact least cost).
+ */
+function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Array, weights: Float64Array | undefined, s: MatchScratch): void {
+  const m = s.sampleCount;
+  const n = s.pointCount;
+  const blocks = blockCount(m);
+  const cost = s.cost;
+  const rest = s.rest;
+  const circle = s.blockCircle;
+  const bounds = s.blockBound;
+  const qx0 = targets[0];
+  const qy0 = targets[1];
+  const w0 = weights === undefined ? 1 : weights[0];
+  let least0 = Infinity;
+  for (let j = 0; j < m; j++) {
+    if (valid[j] === 0) {
+      cost[j] = Infinity;
+    } else {
+      const dx = samples[2 * j] - qx0;
+      const dy = samples[2 * j + 1] - qy0;
+      const c = w0 * (dx * dx + dy * dy);
+      cost[j] = c;
+      if (c < least0) least0 = c;
+    }
+  }
+  for (let b = 0; b < blocks; b++) {
+    const from = b * MATCH_BLOCK;
+    const to = Math.min(m, from + MATCH_BLOCK);
+    let xLo = Infinity;
+    let xHi = -Infinity;
+    let yLo = Infinity;
+    let yHi = -Infinity;
+    for (let j = from; j < to; j++) {
+      if (valid[j] === 0) continue;
+      const x = samples[2 * j];
+      const y = samples[2 * j + 1];
+      if (x < xLo) xLo = x;
+      if (x > xHi) xHi = x;
+      if (y < yLo) yLo = y;
+      if (y > yHi) yHi = y;
+    }
+    const cx = 0.5 * (xLo + xHi);
+    const cy = 0.5 * (yLo + yHi);
+    let r2 = -1;
+    for (let j = from; j < to; j++) {
+      if (valid[j] === 0) continue;
+      const dx = samples[2 * j] - cx;
+      const dy = samples[2 * j + 1] - cy;
+      const d2 = dx * dx + dy * dy;
+      if (d2 > r2) r2 = d2;
+    }
+    circle[3 * b] = cx;
+    circle[3 * b + 1] = cy;
+    // No sample assembles (or none is finite): NaN, no bound but Infinity.
+    circle[3 * b + 2] = r2 >= 0 ? Math.sqrt(r2) * (1 + BLOCK_RADIUS_SHARE) + BLOCK_RADIUS_MM : NaN;
+  }
+  rest[n] = 0;
+  for (let i = n - 1; i >= 1; i--) {
+    const qx = targets[2 * i];
+    const qy = targets[2 * i + 1];
+    const w = weights === undefined ? 1 : weights[i];
+    const row = i * blocks;
+    let least = Infinity;
+    for (let b = 0; b < blocks; b++) {
+      const r = circle[3 * b + 2];
+      let bound = Infinity;
+      if (r >= 0) {
+        const dx = qx - circle[3 * b];
+        const dy = qy - circle[3 * b + 1];
+        const gap = Math.sqrt(dx * dx + dy * dy) - r;
+        bound = gap > 0 ? w * gap * gap : 0;
+      }
+      bounds[row + b] = bound;
+      if (bound < least) least = bound;
+    }
+    rest[i] = least + rest[i + 1];
+  }
+  rest[0] = least0 + (n > 1 ? rest[1] : 0);
+}
+
+/**
+ * monotonePass for a cyclic match, costs computed as needed: the indices are taken in
+ * runs that each lie in one sample block, and a run whose cells cannot lie on a match
+ * of total ≤ `threshold` (the least partial sum before it plus the block's bound plus
+ * the rest is above it) is skipped unevaluated. A cell that can is computed as in the
+ * plain pass, from the same partial sums, so the answer is the same whenever it is
+ * ≤ threshold; otherwise the pass loses anyway. `bound` and `tieWins` as monotonePass.
+ */
+function boundedPass(
+  samples: Float64Array,
+  valid: Uint8Array,
+  targets: Float64Array,
+  weights: Float64Array | undefined,
+  first: number,
+  firstSpan: number,
+  bound: number,
+  tieWins: boolean,
+  threshold: number,
+  s: MatchScratch,
+): number {
+  const m = s.sampleCount;
+  const n = s.pointCount;
+  const blocks = blockCount(m);
+  const cost = s.cost;
+  const rest = s.rest;
+  const bounds = s.blockBound;
+  const sums = s.previous;
+  const arg = s.argPrevious;
+  const runStart = s.runStart;
+  const runBlock = s.runBlock;
+  const skipped = s.skipped;
+  // Runs: a new one where the sample index reaches a block's first (0 included).
+  let runs = 0;
+  for (let u = 0, j = first; u < m; u++, j++) {
+    if (j === m) j = 0;
+    if (u === 0 || j % MATCH_BLOCK === 0) {
+      runStart[runs] = u;
+      runBlock[runs] = Math.floor(j / MATCH_BLOCK);
+      runs++;
+    }
+  }
+  runStart[runs] = m;
+  const split = m - first;
+  for (let q = 0; q < runs; q++) {
+    const from = runStart[q];
+    const to = runStart[q + 1];
+    skipped[q] = from > firstSpan ? 1 : 0;
+    if (from > firstSpan) continue;
+    for (let u = from; u < to; u++) sums[u] = u <= firstSpan ? cost[u < split ? first + u : u - split] : Infinity;
+  }
+  for (let i = 1; i < n; i++) {
+    const row = i * m;
+    const boundRow = i * blocks;
+    const restNext = rest[i + 1];
+    const qx = targets[2 * i];
+    const qy = targets[2 * i + 1];
+    const w = weights === undefined ? 1 : weights[i];
+    let best = Infinity;
+    let bestU = 0;
+    for (let q = 0; q < runs; q++) {
+      const from = runStart[q];
+      const to = runStart[q + 1];
+      const before = skipped[q] === 1;
+      let runBest = best;
+      let runBestU = bestU;
+      if (!before) {
+        for (let u = from; u < to; u++) {
+          if (sums[u] < runBest) {
+            runBest = sums[u];
+            runBestU = u;
+          }
+        }
+      }
+      // Every cell of the run: at least the least partial sum up to its end, plus the block's bound.
+      const lower = (runBest + bounds[boundRow + runBlock[q]] + restNext) * (1 - BOUND_ROUNDING_MARGIN);
+      if (lower > threshold) {
+        skipped[q] = 1;
+        best = runBest;
+        bestU = runBestU;
+        continue;
+      }
+      skipped[q] = 0;
+      let j = from < split ? first + from : from - split;
+      for (let u = from; u < to; u++, j++) {
+        if (!before) {
+          const here = sums[u];
+          if (here < best) {
+            best = here;
+            bestU = u;
+          }
+        }
+        arg[row + u] = bestU;
+        let c = Infinity;
+        if (valid[j] !== 0) {
+          const dx = samples[2 * j] - qx;
+          const dy = samples[2 * j + 1] - qy;
+          c = w * (dx * dx + dy * dy);
+        }
+        sums[u] = best + c;
+      }
+    }
+    // best: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
+    const lower = (best + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
+    if (tieWins ? lower > bound : lower >= bound) return Infinity;
+    if (lower > threshold) return Infinity;
+  }
+  let best = Infinity;
+  let bestU = 0;
+  for (let q = 0; q < runs; q++) {
+    if (skipped[q] === 1) continue;
+    for (let u = runStart[q]; u < runStart[q + 1]; u++) {
+      if (sums[u] < best) {
+        best = sums[u];
+        bestU = u;
+      }
+    }
+  }
+  if (!(best < Infinity) || (tieWins ? best > bound : best >= bound)) return Infinity;
+  const unrolled = s.unrolled;
+  unrolled[n - 1] = bestU;
+  for (let i = n - 1; i > 0; i--) unrolled[i - 1] = arg[i * m + unrolled[i]];
+  return best;
+}
+
+/**
+ * The cost of `hint` (unrolled indices) when it is a match some pass may find: non-
+ * decreasing, its first index within a start's window, its last at most M − 1 past the
+ * window's start; Infinity otherwise.
+ */
+function hintCost(
+  samples: Float64Array,
+  valid: Uint8Array,
+  targets: Float64Array,
+  weights: Float64Array | undefined,
+  hint: Int32Array,
+  found: number,
+  half: number,
+  s: MatchScratch,
+): number {
+  const m = s.sampleCount;
+  const n = s.pointCount;
+  for (let i = 1; i < n; i++) if (!(hint[i] >= hint[i - 1])) return Infinity;
+  const span = hint[n - 1] - hint[0];
+  let admissible = false;
+  for (let k = 0; k < found; k++) {
+    const offset = (((hint[0] - (s.starts[k] - half)) % m) + m) % m;
+    if (offset <= 2 * half && offset + span <= m - 1) admissible = true;
+  }
+  if (!admissible) return Infinity;
+  let sum = 0;
+  for (let i = 0; i < n; i++) {
+    const j = ((hint[i] % m) + m) % m;
+    if (valid[j] === 0) return Infinity;
+    const dx = samples[2 * j] - targets[2 * i];
+    const dy = samples[2 * j + 1] - targets[2 * i + 1];
+    sum += (weights === undefined ? 1 : weights[i]) * (dx * dx + dy * dy);
+  }
+  return sum;
+}
+
+/**
  * Match target points (x0, y0, x1, y1, …) to curve samples in order. `samples` holds
  * `M` points (2M numbers) at equally spaced driver values; `valid[j]` is 1 where the
  * mechanism assembles. Non-cyclic: the indices are non-decreasing in 0..M-1. Cyclic:
@@ -176,6 +453,10 @@ function monotonePass(first: number, firstSpan: number, bound: number, tieWins: 
  * match it may be negative or ≥ M: the driver value is start + index · step either
  * way). Returns the weighted sum of squared distances at the samples (Infinity when
  * no sample assembles).
+ *
+ * `hint` (optional, cyclic): unrolled indices of a match believed near the answer, such
+ * as the last one of an alternation; its cost, when some pass could find it, bounds the
+ * answer from above and lets every pass skip more. The answer does not depend on it.
  */
 export function matchInOrder(
   samples: Float64Array,
@@ -185,16 +466,18 @@ export function matchInOrder(
   cyclic: boolean,
   scratch: MatchScratch,
   outIndex: Int32Array,
+  hint?: Int32Array,
 ): number {
   const m = scratch.sampleCount;
   const n = scratch.pointCount;
-  fillCosts(samples, valid, targets, weights, scratch);
-  const cost = scratch.cost;
   if (!cyclic) {
+    fillCosts(samples, valid, targets, weights, scratch);
     const total = monotonePass(0, m - 1, Infinity, true, scratch);
     for (let i = 0; i < n; i++) outIndex[i] = total < Infinity ? scratch.unrolled[i] : 0;
     return total;
   }
+  fillBounds(samples, valid, targets, weights, scratch);
+  const cost = scratch.cost;
   // Local minima of the first point's distance along the loop: where the match starts.
   const starts = scratch.starts;
   const startCost = scratch.startCost;
@@ -236,12 +519,13 @@ export function matchInOrder(
     }
     order[q] = k;
   }
+  const ceiling = hint === undefined ? Infinity : hintCost(samples, valid, targets, weights, hint, found, half, scratch);
   let best = Infinity;
   let chosen = found;
   for (let r = 0; r < found; r++) {
     const k = order[r];
     const first = (starts[k] - half + m) % m;
-    const total = monotonePass(first, 2 * half, best, k < chosen, scratch);
+    const total = boundedPass(samples, valid, targets, weights, first, 2 * half, best, k < chosen, Math.min(best, ceiling), scratch);
     if (total < best || (total === best && k < chosen)) {
       best = total;
       chosen = k;

@@ -272,11 +272,14 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       if (buf[SIM_SSE] < bestSse || k === 0) {
         bestSse = buf[SIM_SSE];
         for (let q = 0; q < SIM_LENGTH; q++) sim[q] = buf[q];
+        // Unrolled (once round the loop at most), the first match's hint.
+        for (let i = 0; i < n; i++) previousMatched[i] = matched[i] + (i > 0 && matched[i] < matched[0] ? sampleCount : 0);
       }
     }
     for (let it = 0; it < ALIGNMENT_ITERATIONS; it++) {
       placeSamples();
-      matchInOrder(placedSamples, valid, targets, weights, wrap, matchScratch, matched);
+      // The last match (first: the alignment's), near this one once the fit settles, bounds it and speeds it up.
+      matchInOrder(placedSamples, valid, targets, weights, wrap, matchScratch, matched, previousMatched);
       // The match repeats the last one: the fit below would repeat too, and so would every
       // later iteration (a fixed point), so stop with the same answer.
       let same = it > 0;
