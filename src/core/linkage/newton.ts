@@ -4,7 +4,7 @@
  * started from the incoming pose; a triad among them by its one-unknown reduction. Also the implicit differentiation of those equations
  * for exact rates. Everything works in the plan's preallocated scratch.
  */
-import type { EQ_DIST, EQ_RIGID, EQ_SLIDER_BODY, EQ_SLIDER_GROUND, EQ_STRIDE, PlanInternal } from './plan';
+import type { EQ_DIST, EQ_RIGID, EQ_SLIDER_BODY, EQ_SLIDER_GROUND, EQ_STRIDE, Plan, PlanInternal } from './plan';
 import * as tolerances from './tolerances';
 import {
   solveTriad as solveTriadImport,
@@ -215,6 +215,18 @@ export function solveBlock(p: PlanInternal, block: number, pose: Float64Array): 
     if (outcome !== NO_START) return outcome === SOLVED;
   }
   return dampedNewton(p, block, pose);
+}
+
+/** Pose offsets of every joint a Newton block of `plan` solves (x at each; y follows), in block order. */
+export function newtonUnknownSlots(plan: Plan): Int32Array {
+  const p = plan as PlanInternal;
+  let count = 0;
+  for (let b = 0; b < p.blockCount; b++) count += p.blockUnknownCount[b];
+  const slots = new Int32Array(count);
+  for (let b = 0, k = 0; b < p.blockCount; b++) {
+    for (let j = 0; j < p.blockUnknownCount[b]; j++) slots[k++] = p.blockUnknowns[p.blockUnknownStart[b] + j];
+  }
+  return slots;
 }
 
 /** Each plan's blocks that are triads (triad.ts), found on first use: the topology of a plan does not change. */

@@ -2,17 +2,22 @@
  * Locks along a driver range found from an assembly margin rather than from samples
  * alone: a lock narrower than the sample spacing leaves no failed sample, but the margin
  * falls towards it from both sides, so every sampled local minimum of the margin is
- * refined by golden-section search (Kiefer, 1953) until a probe fails to assemble or the
- * bracket is below LOCK_BRACKET_TOL_RAD. Allocates nothing after construction.
+ * refined by Brent's minimisation (Brent, 1973: golden-section steps, Kiefer 1953, and
+ * parabolic ones through the three best probes where they are safe) until a probe fails
+ * to assemble or the bracket is below LOCK_BRACKET_TOL_RAD: a smooth minimum well clear
+ * of a lock takes a few parabolic steps where golden sections alone take thirty.
+ * Allocates nothing after construction.
  */
 
 /**
  * A refinement stops when its bracket is narrower than this (rad, 6e-6°): a lock narrower
- * still is below any drive's resolution; 31 golden-section steps from a 10° bracket.
+ * still is below any drive's resolution; at most 31 golden-section steps from a 10° bracket.
  */
 export const LOCK_BRACKET_TOL_RAD = 1e-7;
-/** Cap on golden-section steps per minimum (0.618^80 of a 5° bracket is far below LOCK_BRACKET_TOL_RAD). */
+/** Cap on probes per minimum (0.618^80 of a 5° bracket is far below LOCK_BRACKET_TOL_RAD). */
 export const LOCK_REFINE_MAX_STEPS = 80;
+/** (3 − √5) / 2: the golden section's share of a bracket. */
+const GOLDEN_SHARE = 0.5 * (3 - Math.sqrt(5));
 /**
  * A refined minimum of the margin below this is a dead centre within tolerance (a change
  * point): the margin (see MarginCurve) is below 1e-6 when the joints move more than a
@@ -86,33 +91,80 @@ export class LockSearch {
     return locks;
   }
 
-  /** Golden-section search for the least margin on [lo, hi] from the pose of sample k; true when it finds a lock. */
+  /**
+   * Brent's search for the least margin on [lo, hi] from the pose of sample k; true when
+   * it finds a lock (a probe that fails, or a least margin below DEAD_CENTRE_MARGIN).
+   * Brent, 1973, "Algorithms for Minimization without Derivatives", ch. 5.
+   */
   private refine(curve: MarginCurve, k: number, lo: number, hi: number): boolean {
     this.copyPose(k, this.start);
-    const invPhi = (Math.sqrt(5) - 1) / 2;
+    // The bracket ends within 4 tol of the least probe: below LOCK_BRACKET_TOL_RAD.
+    const tol = 0.25 * LOCK_BRACKET_TOL_RAD;
     let a = lo;
     let b = hi;
-    let x1 = b - invPhi * (b - a);
-    let x2 = a + invPhi * (b - a);
-    let f1 = this.probe(curve, x1);
-    let f2 = this.probe(curve, x2);
-    for (let i = 0; i < LOCK_REFINE_MAX_STEPS && b - a > LOCK_BRACKET_TOL_RAD; i++) {
-      if (!(f1 >= 0) || !(f2 >= 0)) return true;
-      if (f1 <= f2) {
-        b = x2;
-        x2 = x1;
-        f2 = f1;
-        x1 = b - invPhi * (b - a);
-        f1 = this.probe(curve, x1);
+    // x: the least probe; w: the one before; v: the one before that.
+    let x = a + GOLDEN_SHARE * (b - a);
+    let fx = this.probe(curve, x);
+    if (!(fx >= 0)) return true;
+    let w = x;
+    let v = x;
+    let fw = fx;
+    let fv = fx;
+    let d = 0;
+    let e = 0;
+    for (let i = 0; i < LOCK_REFINE_MAX_STEPS; i++) {
+      const mid = 0.5 * (a + b);
+      if (Math.abs(x - mid) <= 2 * tol - 0.5 * (b - a)) break;
+      let golden = true;
+      if (Math.abs(e) > tol) {
+        // The parabola through x, w, v: its vertex at x + p / q.
+        const r = (x - w) * (fx - fv);
+        let q = (x - v) * (fx - fw);
+        let p = (x - v) * q - (x - w) * r;
+        q = 2 * (q - r);
+        if (q > 0) p = -p;
+        else q = -q;
+        const before = e;
+        e = d;
+        // Safe only inside the bracket and shorter than half the step before last.
+        if (Math.abs(p) < Math.abs(0.5 * q * before) && p > q * (a - x) && p < q * (b - x)) {
+          d = p / q;
+          const u = x + d;
+          if (u - a < 2 * tol || b - u < 2 * tol) d = mid >= x ? tol : -tol;
+          golden = false;
+        }
+      }
+      if (golden) {
+        e = x >= mid ? a - x : b - x;
+        d = GOLDEN_SHARE * e;
+      }
+      const u = Math.abs(d) >= tol ? x + d : x + (d >= 0 ? tol : -tol);
+      const fu = this.probe(curve, u);
+      if (!(fu >= 0)) return true;
+      if (fu <= fx) {
+        if (u >= x) a = x;
+        else b = x;
+        v = w;
+        fv = fw;
+        w = x;
+        fw = fx;
+        x = u;
+        fx = fu;
       } else {
-        a = x1;
-        x1 = x2;
-        f1 = f2;
-        x2 = a + invPhi * (b - a);
-        f2 = this.probe(curve, x2);
+        if (u < x) a = u;
+        else b = u;
+        if (fu <= fw || w === x) {
+          v = w;
+          fv = fw;
+          w = u;
+          fw = fu;
+        } else if (fu <= fv || v === x || v === w) {
+          v = u;
+          fv = fu;
+        }
       }
     }
-    return !(f1 >= DEAD_CENTRE_MARGIN) || !(f2 >= DEAD_CENTRE_MARGIN);
+    return !(fx >= DEAD_CENTRE_MARGIN);
   }
 
   /** Copies the pose of sample k into `out` (a loop: a subarray would allocate). */

@@ -2,16 +2,19 @@
  * Pose-based encodings of every family in linkage/families.ts: the variables are the
  * reference-pose positions of the joints and of the output point P (mm), in the plan's
  * slot order. The family is compiled once; each evaluation sets the new reference pose
- * (same topology) and runs the plan per driver value, warm-started along the sweep so a
- * Newton block starts from the previous pose moved on to the new value (by its rates,
- * or the secant through the two before: PREDICT_MAX_STEP_RAD). Driver values are the
+ * (same topology) and runs the plan per driver value. A Newton block starts between the
+ * poses it has solved for the design on each side of the new value (SOLVED_BINS: the
+ * curve's samples keep the branch they swept), else from the previous pose moved on to
+ * the new value (by its rates, or the secant through the two before:
+ * PREDICT_MAX_STEP_RAD). Driver values are the
  * crank's rotation from its reference-pose angle. The assembly branch of every dyad is
  * the one of the reference pose. A slider's direction stays that of the family's default.
  *
  * Locks: the search samples a motion every MOTION_CHECK_STEP_RAD; for a design otherwise
  * feasible `verify` finds the locks between samples (for the four-bar in closed form:
  * Grashof's criterion for its full turn, the crank's limit angles for a motion; a margin
- * search in lockSearch.ts for the rest). A report draws the design in its pose at the
+ * search in lockSearch.ts for the rest, over each run of spans that follow on from each
+ * other at once). A report draws the design in its pose at the
  * driver value asked for (the objective asks for target point 1's), so an exported
  * linkage sits on its fitted motion.
  */
@@ -23,6 +26,7 @@ import {
   type Linkage,
   type Plan,
 } from '../linkage';
+import { newtonUnknownSlots } from '../linkage/newton';
 import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
 import {
   CURVE_DX as CURVE_DX_BINDING,
@@ -100,6 +104,24 @@ const SECANT_MIN_SPAN_RAD = 1e-6;
  */
 const PREDICT_MAX_SPEED = 8;
 
+/**
+ * A Newton block's poses solved since the design was loaded, one per bin of this width
+ * (rad) of driver values in [0, 2π), the bin nearest each (the curve's 180 samples fill
+ * one each): a later solve between them starts from the line through the nearest on
+ * each side, within about the square of the bin of its solution and on the branch the
+ * samples swept, not from the last pose solved, which may be a quarter of a turn away.
+ */
+const SOLVED_BINS = 180;
+const SOLVED_BIN_RAD = TAU / SOLVED_BINS;
+/** Bins searched on each side for the poses solved around a driver value. */
+const SOLVED_REACH_BINS = 3;
+/**
+ * Past the first turn, the poses a turn back start a solve only where they are within
+ * this share of the last step's motion of the last pose moved on: the same motion, one
+ * turn on, not another assembly.
+ */
+const SOLVED_WRAP_AGREE = 0.25;
+
 class PlanCurve implements CurveEvaluator, MarginCurve {
   readonly secondDerivatives = false;
   readonly plan: Plan;
@@ -114,20 +136,32 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private lastHasRates = false;
   /** Only a Newton block starts from the pose it is given; dyads need no prediction. */
   private readonly predicts: boolean;
+  /** Pose offsets of the joints the Newton blocks solve: the only ones whose start matters. */
+  private readonly unknowns: Int32Array;
   private readonly pSlot: number;
   private readonly pivotSlot: number;
   private readonly tipSlot: number;
   /** Length of the driven link in the reference pose, mm: the scale of the margin. */
   private crankMm = 1;
+  /** Driver value of each bin's solved pose (NaN: none), and the poses (see SOLVED_BIN_RAD). */
+  private readonly solvedT: Float64Array;
+  private readonly solvedPoses: Float64Array;
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
     this.plan = plan;
     this.pose = new Float64Array(2 * plan.slotCount);
     this.rates = new Float64Array(2 * plan.slotCount);
     this.previous = new Float64Array(2 * plan.slotCount);
     this.predicts = plan.newtonUnknowns > 0;
+    this.unknowns = newtonUnknownSlots(plan);
+    this.solvedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
+    this.solvedPoses = new Float64Array(this.predicts ? SOLVED_BINS * 2 * plan.slotCount : 0);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
     this.tipSlot = tipSlot;
+  }
+  /** A new design: the poses solved for the last one are no start for its solves. */
+  forgetSolved(): void {
+    this.solvedT.fill(NaN);
   }
   /** Start the next sweep from the reference pose. */
   reset(): void {
@@ -137,23 +171,28 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.previousT = NaN;
     this.crankMm = Math.hypot(ref[this.tipSlot] - ref[this.pivotSlot], ref[this.tipSlot + 1] - ref[this.pivotSlot + 1]);
   }
-  /** Moves the pose on to driver value t (see PREDICT_MAX_STEP_RAD), keeping the last pose solved in `previous`. */
+  /** Moves the Newton blocks' joints on to driver value t (see PREDICT_MAX_STEP_RAD), keeping the last pose solved in `previous`. */
   private predict(t: number): void {
     const pose = this.pose;
     const previous = this.previous;
     const rates = this.rates;
+    const unknowns = this.unknowns;
     const dt = t - this.lastT;
     const span = this.lastT - this.previousT;
     const tangent = this.lastHasRates;
     // Per radian: the rates, or the secant's slope.
     const slope = tangent ? 1 : Math.abs(span) >= SECANT_MIN_SPAN_RAD ? 1 / span : 0;
     let fastest = 0;
-    for (let i = 0; i < pose.length; i++) {
-      const speed = Math.abs(tangent ? rates[i] : (pose[i] - previous[i]) * slope);
-      if (!(speed <= fastest)) fastest = speed;
+    for (let k = 0; k < unknowns.length; k++) {
+      const i = unknowns[k];
+      const sx = Math.abs(tangent ? rates[i] : (pose[i] - previous[i]) * slope);
+      const sy = Math.abs(tangent ? rates[i + 1] : (pose[i + 1] - previous[i + 1]) * slope);
+      if (!(sx <= fastest)) fastest = sx;
+      if (!(sy <= fastest)) fastest = sy;
     }
     const predict = slope !== 0 && Math.abs(dt) <= PREDICT_MAX_STEP_RAD && fastest <= PREDICT_MAX_SPEED * this.crankMm;
-    for (let i = 0; i < pose.length; i++) {
+    for (let k = 0; k < 2 * unknowns.length; k++) {
+      const i = unknowns[k >> 1] + (k & 1);
       const x = pose[i];
       if (predict) {
         const moved = x + (tangent ? rates[i] : (x - previous[i]) * slope) * dt;
@@ -168,12 +207,95 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     if (ok) {
       this.lastT = t;
       this.lastHasRates = withRates;
+      if (this.predicts) this.keepSolved(t);
       return;
     }
     this.pose.set(this.plan.reference);
     this.lastT = NaN;
     this.previousT = NaN;
   }
+  /** Keeps the pose just solved at t in the bin nearest t, when t is in [0, 2π). */
+  private keepSolved(t: number): void {
+    const bin = Math.round(t / SOLVED_BIN_RAD);
+    if (!(bin >= 0 && bin < SOLVED_BINS)) return;
+    this.solvedT[bin] = t;
+    const pose = this.pose;
+    const o = bin * pose.length;
+    for (let i = 0; i < pose.length; i++) this.solvedPoses[o + i] = pose[i];
+  }
+
+  /**
+   * The start of a Newton block's solve at t (see SOLVED_BINS): the line through the
+   * poses solved nearest t on each side, else the last pose moved on (predict). Past the
+   * first turn, the poses a whole number of turns back, only where they agree with the
+   * last pose moved on (SOLVED_WRAP_AGREE): a motion that closes after two turns has
+   * another pose there. True when t itself was solved: the pose is its solution.
+   */
+  private start(t: number): boolean {
+    const turns = Math.floor(t / TAU);
+    const u = t - turns * TAU;
+    const bin = Math.round(u / SOLVED_BIN_RAD);
+    const times = this.solvedT;
+    let lo = -1;
+    let hi = -1;
+    for (let b = bin < SOLVED_BINS ? bin : SOLVED_BINS - 1, end = bin - SOLVED_REACH_BINS; b >= 0 && b >= end; b--) {
+      if (times[b] <= u) {
+        lo = b;
+        break;
+      }
+    }
+    for (let b = bin, end = bin + SOLVED_REACH_BINS; lo >= 0 && b < SOLVED_BINS && b <= end; b++) {
+      if (times[b] >= u) {
+        hi = b;
+        break;
+      }
+    }
+    const pose = this.pose;
+    const unknowns = this.unknowns;
+    const previous = this.previous;
+    if (hi < 0 || turns !== 0) {
+      this.predict(t);
+      if (hi < 0) return false;
+    } else {
+      // The sequential predictor's history moves on as predict would leave it.
+      for (let k = 0; k < unknowns.length; k++) {
+        const i = unknowns[k];
+        previous[i] = pose[i];
+        previous[i + 1] = pose[i + 1];
+      }
+      this.previousT = this.lastT;
+    }
+    const poses = this.solvedPoses;
+    const stride = pose.length;
+    const oLo = lo * stride;
+    const oHi = hi * stride;
+    if (turns === 0 && times[lo] === u) {
+      for (let i = 0; i < stride; i++) pose[i] = poses[oLo + i];
+      return true;
+    }
+    const w = hi === lo ? 0 : (u - times[lo]) / (times[hi] - times[lo]);
+    if (turns !== 0) {
+      // Past the first turn: only where the start a turn back agrees with the last pose moved on.
+      let disagree = 0;
+      let moved = 0;
+      for (let k = 0; k < unknowns.length; k++) {
+        for (let i = unknowns[k], end = i + 2; i < end; i++) {
+          const d = Math.abs(poses[oLo + i] + w * (poses[oHi + i] - poses[oLo + i]) - pose[i]);
+          const m = Math.abs(pose[i] - previous[i]);
+          if (!(d <= disagree)) disagree = d;
+          if (!(m <= moved)) moved = m;
+        }
+      }
+      if (!(disagree <= SOLVED_WRAP_AGREE * moved)) return false;
+    }
+    for (let k = 0; k < unknowns.length; k++) {
+      const i = unknowns[k];
+      pose[i] = poses[oLo + i] + w * (poses[oHi + i] - poses[oLo + i]);
+      pose[i + 1] = poses[oLo + i + 1] + w * (poses[oHi + i + 1] - poses[oLo + i + 1]);
+    }
+    return false;
+  }
+
   /**
    * Assembly margin c / (c + max |d(joint)/dt|), c the crank length: every joint's rate
    * grows without bound as a dyad or a Newton block nears its toggle, so the margin falls
@@ -181,7 +303,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   marginAt(t: number): number {
     const plan = this.plan;
-    if (this.predicts) this.predict(t);
+    if (this.predicts) this.start(t);
     const ok = runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates);
     this.solved(t, ok, true);
     if (!ok) return -1;
@@ -197,9 +319,15 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
     const plan = this.plan;
     const value = plan.driverReferenceValue + t;
-    if (this.predicts) this.predict(t);
-    const ok = order === 0 ? run(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates);
-    this.solved(t, ok, order > 0);
+    // A pose solved at t already is its solution: no need to solve it again for the point.
+    const known = this.predicts && this.start(t) && order === 0;
+    const ok = known || (order === 0 ? run(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates));
+    if (known) {
+      this.lastT = t;
+      this.lastHasRates = false;
+    } else {
+      this.solved(t, ok, order > 0);
+    }
     const s = this.pSlot;
     if (!ok) {
       // A finite stand-in: the reference point.
@@ -315,6 +443,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     load(x: Float64Array, _branch: number, parts: Float64Array): void {
       for (let k = 0; k < reference.length; k++) reference[k] = x[k];
       setReferencePose(plan, reference);
+      curve.forgetSolved();
       curve.reset();
       if (fullTurn) {
         if (grashofLoop !== undefined) {
@@ -344,10 +473,18 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
         parts[V_BRANCH] += LOCK_SHARE * fourBarLockCount(lockArcs, spans, count);
         return;
       }
+      // Spans that follow on from each other (the motion from point to point) searched as
+      // one range: a span's end is no minimum of the margin the motion goes on past.
       curve.reset();
-      for (let i = 0; i < count; i++) {
+      let i = 0;
+      while (i < count) {
         const a = spans[2 * i];
-        const b = spans[2 * i + 1];
+        let b = spans[2 * i + 1];
+        i++;
+        while (i < count && spans[2 * i] === b && spans[2 * i + 1] >= b) {
+          b = spans[2 * i + 1];
+          i++;
+        }
         parts[V_BRANCH] += LOCK_SHARE * lockSearch.count(curve, a, b, MOTION_CHECK_STEP_RAD, false);
       }
       curve.reset();
