@@ -48,7 +48,8 @@ interface Violation {
 }
 
 const SEARCH_TIMEOUT_MS = 150_000;
-const SEARCH_BUDGET_EVALUATIONS = 4000;
+/** Long enough for checkpoints with designs in them to be described during the search. */
+const SEARCH_BUDGET_EVALUATIONS = 20_000;
 const CSV_FILE_POINTS = 1500;
 
 /** Opens the app with the listener in the page and in front of every script it serves. */
@@ -131,7 +132,14 @@ describeBrowser('content security policy', () => {
     expect(await page.getByTestId('background-image').getAttribute('href')).toMatch(/^blob:/);
     await expect.poll(() => page.getByTestId('background-image').evaluate((el) => (el as SVGGraphicsElement).getBBox().width)).toBeGreaterThan(0);
 
-    // A whole search of the demo, to its end.
+    // A whole search of the demo, to its end, checkpointing every second: the page's own
+    // search worker (the one that describes each checkpoint's designs) starts too. The run's
+    // search workers are the engine worker's children, whose console does not reach the
+    // page's here; the page's search worker runs the same script.
+    const every = page.getByLabel('Checkpoint every', { exact: true });
+    await every.fill('1');
+    await every.press('Enter');
+    await expect.poll(() => every.inputValue()).toBe('1');
     const budget = page.getByLabel('Budget in evaluations');
     await budget.fill(String(SEARCH_BUDGET_EVALUATIONS));
     await budget.press('Enter');
@@ -176,7 +184,8 @@ describeBrowser('content security policy', () => {
     await expect.poll(() => page.getByTestId('leg-setup-drawing').locator('line.legws-ground, circle.legws-point').count()).toBeGreaterThan(0);
     expect(await page.getByTestId('leg-workspace-caution').isVisible()).toBe(true);
 
-    // The listener watched the search workers too, and nothing was refused or fetched elsewhere.
+    // The listener watched the engine worker and a search worker too, and nothing was refused or fetched elsewhere.
+    expect(app.consoleErrors.some((text) => new RegExp(`^${READY}worker .*engineWorkerEntry.*\\.js$`).test(text))).toBe(true);
     expect(app.consoleErrors.some((text) => new RegExp(`^${READY}worker .*searchWorker.*\\.js$`).test(text))).toBe(true);
     expect(unexpected(app)).toEqual([]);
     expect(app.requests.length).toBeGreaterThan(0);
