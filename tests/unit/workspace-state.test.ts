@@ -218,13 +218,14 @@ describe('progress in the workspace terms', () => {
       islandsRunning: 1,
       workers: 1,
       restarts: 0,
-      searchRestarts: 0,
+      searchRestarts: 3,
       checkpointRound: 12,
     } satisfies RunProgress;
     const patch = progressPatch(progress, { ...IDLE_RUN, measure: 'rms', targetPointCount: 24 }, 1_000);
     expect(patch.checkpoint).toEqual({ round: 12, evaluations: 5000, savedAtMs: 1_000 });
     expect(patch.bestErrorMm).toBe(0.25);
     expect(patch.bestFeasible).toBe(true);
+    expect(patch.searchRestarts).toBe(3);
     const again = progressPatch(progress, { ...IDLE_RUN, checkpoint: { round: 12, evaluations: 5000, savedAtMs: 1_000 } }, 2_000);
     expect(again.checkpoint).toBeUndefined();
   });

@@ -123,6 +123,10 @@ export function RunControls({ startIssues }: { startIssues: readonly string[] })
             <dt>evaluations per second</dt>
             <dd>{run.evaluationsPerSecond > 0 ? formatCount(run.evaluationsPerSecond) : '—'}</dd>
           </div>
+          <div title="Fresh starts of the search, each in a new place, after a run converged or stalled: the search uses its whole budget">
+            <dt>search restarts</dt>
+            <dd data-testid="run-search-restarts">{formatCount(run.searchRestarts)}</dd>
+          </div>
           <div>
             <dt>time left</dt>
             <dd>{active ? formatDuration(run.remainingMs) : run.status === 'paused' ? 'paused' : '—'}</dd>

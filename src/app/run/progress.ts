@@ -21,6 +21,7 @@ export function progressPatch(progress: RunProgress, run: RunState, wallNowMs: n
     elapsedMs: progress.elapsedMs,
     evaluationsPerSecond: progress.evaluationsPerSecond,
     remainingMs: progress.remainingMs,
+    searchRestarts: progress.searchRestarts,
   };
   if (progress.best !== null) {
     patch.bestErrorMm = errorMmOf(progress.best.value, run.measure, run.targetPointCount);

@@ -137,6 +137,7 @@ export class SearchController {
       elapsedMs: 0,
       evaluationsPerSecond: 0,
       remainingMs: null,
+      searchRestarts: 0,
       bestErrorMm: null,
       bestFeasible: null,
       checkpoint: null,

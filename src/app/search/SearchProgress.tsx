@@ -1,6 +1,7 @@
 /**
  * A search's progress as a workspace shows it: evaluations of the budget, elapsed time,
- * and the best of each job (family or layout) so far, feasible or by how much not.
+ * the search's fresh starts, and the best of each job (family or layout) so far, feasible
+ * or by how much not.
  */
 import { figure } from '../suspension/labels';
 import type { SearchSession } from './controller';
@@ -20,6 +21,9 @@ export function SearchProgress({ session, jobName, className, testId }: {
   return (
     <div className={className} role="status" data-testid={testId} data-status={session.status}>
       <p>{`${STATE_WORDS[session.status]}: ${session.evaluations.toLocaleString('en-GB')}${budget} evaluations, ${(session.elapsedMs / 1000).toFixed(1)} s`}</p>
+      <p className="panel-note" data-testid={`${testId}-restarts`} title="Fresh starts of the search, each in a new place, after a run converged or stalled: the search uses its whole budget">
+        {`Search restarts: ${session.searchRestarts.toLocaleString('en-GB')}`}
+      </p>
       {session.best.length > 0 && (
         <ul>
           {session.best.map((b) => (

@@ -47,6 +47,8 @@ export interface SearchSession {
   readonly evaluations: number;
   readonly budgetEvaluations: number | null;
   readonly elapsedMs: number;
+  /** Fresh optimizer runs the islands started after a run converged or stalled, so the search uses its whole budget. */
+  readonly searchRestarts: number;
   /** The best of each job so far, in the run's job order (at the end: in rank order). */
   readonly best: readonly JobBest[];
   readonly message: string | null;
@@ -60,6 +62,7 @@ export const IDLE_SESSION: SearchSession = {
   evaluations: 0,
   budgetEvaluations: null,
   elapsedMs: 0,
+  searchRestarts: 0,
   best: [],
   message: null,
   messageDetail: null,
@@ -306,7 +309,7 @@ export class SearchController<P, C extends RankedDesign> {
       return;
     }
     this.lastDispatchMs = now;
-    this.update({ evaluations: progress.evaluations, budgetEvaluations: progress.budgetEvaluations, elapsedMs: progress.elapsedMs });
+    this.update({ evaluations: progress.evaluations, budgetEvaluations: progress.budgetEvaluations, elapsedMs: progress.elapsedMs, searchRestarts: progress.searchRestarts });
   }
 
   private finish(run: Run, running: RunningSearchOf<P>, result: RunResult): void {

@@ -112,6 +112,8 @@ export interface RunState {
   readonly elapsedMs: number;
   readonly evaluationsPerSecond: number;
   readonly remainingMs: number | null;
+  /** Fresh optimizer runs the islands started after a run converged or stalled, so the search uses its whole budget. */
+  readonly searchRestarts: number;
   /** Best error so far in mm (RMS, or maximum when the search minimises the maximum); null before any. */
   readonly bestErrorMm: number | null;
   readonly bestFeasible: boolean | null;
@@ -182,6 +184,7 @@ export const IDLE_RUN: RunState = {
   elapsedMs: 0,
   evaluationsPerSecond: 0,
   remainingMs: null,
+  searchRestarts: 0,
   bestErrorMm: null,
   bestFeasible: null,
   checkpoint: null,

@@ -71,6 +71,8 @@ const run = z.object({
   budgetSeconds: z.number().nullable(),
   elapsedMs: z.number().min(0),
   evaluationsPerSecond: z.number().min(0),
+  // Absent in projects saved before runs showed their restarts.
+  searchRestarts: z.number().int().min(0).default(0),
   remainingMs: z.number().nullable(),
   bestErrorMm: z.number().nullable(),
   bestFeasible: z.boolean().nullable(),
