@@ -29,6 +29,8 @@ export default defineConfig({
           // re-importing the core for every file was most of the group's time.
           pool: 'threads',
           isolate: false,
+          // Both cores (the default leaves one free): the group runs alone, before the browser groups.
+          maxWorkers: 2,
           sequence: { groupOrder: 0 },
         },
       },
@@ -39,9 +41,9 @@ export default defineConfig({
           include: ['tests/browser/**/*.test.ts'],
           exclude: [...configDefaults.exclude, ...TIMED_BROWSER_FILES],
           globalSetup: ['tests/browser/global-setup.ts'],
-          // Two files at a time: most of their time is waiting on the app (checkpoints,
-          // reloads), not computing.
-          maxWorkers: 2,
+          // Three files at a time on two cores: most of their time is waiting on the app
+          // (checkpoints, reloads, worker start-up), not computing.
+          maxWorkers: 3,
           sequence: { groupOrder: 1 },
         },
       },
