@@ -13,6 +13,7 @@ import type { CDPSession, Page } from 'playwright-core';
 
 interface TraceEvent {
   readonly name: string;
+  readonly cat?: string;
   readonly ph: string;
   readonly pid: number;
   readonly tid: number;
@@ -29,8 +30,11 @@ export interface MainThreadTask {
 }
 
 export interface MainThreadTrace {
-  /** Ends the trace; the page main threads' tasks while it ran, in order. */
-  stop(): Promise<MainThreadTask[]>;
+  /**
+   * Ends the trace; the page main threads' tasks while it ran, in order, and when the
+   * page's `performance.mark`s of that time were set (trace clock, µs, by name).
+   */
+  stop(): Promise<{ readonly tasks: MainThreadTask[]; readonly marks: ReadonlyMap<string, number> }>;
 }
 
 async function readStream(cdp: CDPSession, handle: string): Promise<string> {
@@ -48,8 +52,8 @@ async function readStream(cdp: CDPSession, handle: string): Promise<string> {
 /** Starts tracing the page's renderer; `stop` gives the tasks of its main thread (`CrRendererMain`). */
 export async function traceMainThread(page: Page): Promise<MainThreadTrace> {
   const cdp = await page.context().newCDPSession(page);
-  // Tasks (`RunTask`) are recorded under the timeline's detailed category only.
-  await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline', transferMode: 'ReturnAsStream' });
+  // Tasks (`RunTask`) are recorded under the timeline's detailed category only; marks under user timing.
+  await cdp.send('Tracing.start', { categories: 'devtools.timeline,disabled-by-default-devtools.timeline,blink.user_timing', transferMode: 'ReturnAsStream' });
   return {
     async stop() {
       const complete = new Promise<string>((resolve, reject) => {
@@ -62,13 +66,16 @@ export async function traceMainThread(page: Page): Promise<MainThreadTrace> {
       const events = Array.isArray(parsed) ? parsed : parsed.traceEvents;
       const mainThreads = new Set(events.filter((e) => e.name === 'thread_name' && e.args?.name === 'CrRendererMain').map((e) => `${e.pid}/${e.tid}`));
       if (mainThreads.size === 0) throw new Error('the trace names no renderer main thread');
-      return events
+      const tasks = events
         .filter((e) => e.name === 'RunTask' && e.ph === 'X' && mainThreads.has(`${e.pid}/${e.tid}`))
         .map((e) => {
           if (e.tdur === undefined) throw new Error('a task in the trace has no thread time (tdur)');
           return { startUs: e.ts, cpuMs: e.tdur / 1000 };
         })
         .sort((a, b) => a.startUs - b.startUs);
+      const marks = new Map<string, number>();
+      for (const e of events) if (e.cat === 'blink.user_timing' && mainThreads.has(`${e.pid}/${e.tid}`) && !marks.has(e.name)) marks.set(e.name, e.ts);
+      return { tasks, marks };
     },
   };
 }

@@ -310,7 +310,7 @@ describeBrowser('target input', () => {
     await page.keyboard.insertText('0,0\n30,0\n30,20\n');
     expect(await box.inputValue()).toBe('0,0\n30,0\n30,20\n');
     // CPU time, not wall time, so a loaded machine does not stretch it (mainThreadTasks.ts).
-    const tasks = await trace.stop();
+    const { tasks } = await trace.stop();
     expect(tasks.length).toBeGreaterThan(0);
     expect(tasks.filter((t) => t.cpuMs > FREEZE_TASK_MS)).toEqual([]);
     // The box works as before: what replaced the text is read with the button.
@@ -338,7 +338,7 @@ describeBrowser('target input', () => {
     await page.keyboard.press('Control+A');
     await page.keyboard.insertText('0,0\n30,0\n30,20\n');
     expect(await box.inputValue()).toBe('0,0\n30,0\n30,20\n');
-    const tasks = await trace.stop();
+    const { tasks } = await trace.stop();
     expect(tasks.length).toBeGreaterThan(0);
     expect(tasks.filter((t) => t.cpuMs > FREEZE_TASK_MS)).toEqual([]);
 
