@@ -41,9 +41,9 @@ export default defineConfig({
           include: ['tests/browser/**/*.test.ts'],
           exclude: [...configDefaults.exclude, ...TIMED_BROWSER_FILES],
           globalSetup: ['tests/browser/global-setup.ts'],
-          // Three files at a time on two cores: most of their time is waiting on the app
-          // (checkpoints, reloads, worker start-up), not computing.
-          maxWorkers: 3,
+          // Two files at a time: most of their time is waiting on the app (checkpoints,
+          // reloads), not computing; three at a time starved a search's start on two cores.
+          maxWorkers: 2,
           sequence: { groupOrder: 1 },
         },
       },
