@@ -587,7 +587,11 @@ class Engine implements Run {
 
   /** The best of the archives at the last cut and of the islands' slices since, first of equals in job order. */
   private best(): RunProgress['best'] {
-    return this.archives.best(this.islands.flatMap((island) => (island.best === null ? [] : [{ j: island.plan.jobIndex, ...island.best }])));
+    let best = this.archives.best();
+    for (const island of this.islands) {
+      if (island.best !== null) best = JobArchives.better(best, this.spec.jobs[island.plan.jobIndex].id, island.best.value, island.best.violation);
+    }
+    return best;
   }
 
   /**

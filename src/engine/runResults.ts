@@ -51,19 +51,23 @@ export class JobArchives {
     return this.archives[j]?.entries() ?? [];
   }
 
-  /** The best of the archives and of `recent` (the islands' bests since the cut), first of equals in job order. */
-  best(recent: readonly { readonly j: number; readonly value: number; readonly violation: number }[]): RunProgress['best'] {
+  /**
+   * Considers `value`/`violation` of job j against `best`, the best so far: the better,
+   * first of equals kept (so in job order when called in job order).
+   */
+  static better(best: RunProgress['best'], jobId: string, value: number, violation: number): RunProgress['best'] {
+    return best === null || precedes(value, violation, best.value, best.violation) ? { jobId, value, violation } : best;
+  }
+
+  /** The best of the archives at the last cut, first of equals in job order. */
+  best(): RunProgress['best'] {
     let best: RunProgress['best'] = null;
-    const consider = (j: number, value: number, violation: number) => {
-      if (best === null || precedes(value, violation, best.value, best.violation)) best = { jobId: this.spec.jobs[j].id, value, violation };
-    };
     for (const [j, archive] of this.archives.entries()) {
       if (archive !== null && archive.size > 0) {
         const top = archive.entry(0);
-        consider(j, top.value, top.violation);
+        best = JobArchives.better(best, this.spec.jobs[j].id, top.value, top.violation);
       }
     }
-    for (const r of recent) consider(r.j, r.value, r.violation);
     return best;
   }
 

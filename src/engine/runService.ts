@@ -12,7 +12,7 @@ import type { CheckpointListing, CheckpointStore } from './checkpointStore';
 import type { EngineEnvironment } from './environment';
 import { restoreRunFromStore } from './restoreFromStore';
 import { createRun } from './run';
-import type { Run, RunOptions, RunProgress, RunResult } from './runTypes';
+import type { RestoreFromStoreResult, Run, RunOptions, RunProgress, RunResult } from './runTypes';
 import type { RunInput, RunSpec } from './runSpec';
 
 /** The run's progress as of the `seq`th report (higher is newer). */
@@ -43,17 +43,10 @@ export interface HostedOptions extends Omit<RunOptions, 'store' | 'onCheckpoint'
 
 export type HostedMade = { readonly ok: true; readonly report: ProgressReport } | { readonly ok: false; readonly reason: string };
 
+/** `RestoreFromStoreResult` as it crosses: the run stays with the service, its spec and progress come back. */
 export type HostedRestored =
-  | {
-      readonly ok: true;
-      readonly spec: RunSpec;
-      readonly report: ProgressReport;
-      readonly skipped: string[];
-      readonly source: string;
-      readonly passedOver: readonly { readonly source: string; readonly reason: string }[];
-      readonly notes: readonly string[];
-    }
-  | { readonly ok: false; readonly reason: string; readonly empty: boolean; readonly notes: readonly string[] };
+  | (Omit<Extract<RestoreFromStoreResult, { ok: true }>, 'run'> & { readonly spec: RunSpec; readonly report: ProgressReport })
+  | Extract<RestoreFromStoreResult, { ok: false }>;
 
 /**
  * Runs are named by the caller's ids. Each answer that moves a run's status carries its

@@ -191,11 +191,7 @@ function monotonePass(first: number, firstSpan: number, bound: number, tieWins: 
       bestU = u;
     }
   }
-  if (!(best < Infinity) || (tieWins ? best > bound : best >= bound)) return Infinity;
-  const unrolled = s.unrolled;
-  unrolled[n - 1] = bestU;
-  for (let i = n - 1; i > 0; i--) unrolled[i - 1] = arg[i * m + unrolled[i]];
-  return best;
+  return unrollBest(s, best, bestU, bound, tieWins);
 }
 
 /**
@@ -398,7 +394,19 @@ function boundedPass(
       }
     }
   }
+  return unrollBest(s, best, bestU, bound, tieWins);
+}
+
+/**
+ * A pass's end: its least total `best` (ending at unrolled sample `bestU`) if it beats
+ * `bound` (or ties it when `tieWins`), the match unrolled into `s.unrolled` from the
+ * pass's back-pointers; Infinity otherwise.
+ */
+function unrollBest(s: MatchScratch, best: number, bestU: number, bound: number, tieWins: boolean): number {
   if (!(best < Infinity) || (tieWins ? best > bound : best >= bound)) return Infinity;
+  const n = s.pointCount;
+  const m = s.sampleCount;
+  const arg = s.argPrevious;
   const unrolled = s.unrolled;
   unrolled[n - 1] = bestU;
   for (let i = n - 1; i > 0; i--) unrolled[i - 1] = arg[i * m + unrolled[i]];
