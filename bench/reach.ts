@@ -3,8 +3,8 @@
  * set (bench/reachCases.ts: targets sampled from known linkages, so the optimum is zero),
  * each case runs SEEDS seeds of the search a job gets by default (the island's: the app's
  * and the command line's `{ kind: 'hybrid' }` inside the restart scheme, with its default
- * runs: the budget split into runs of at least 10 000 evaluations per variable, capped at
- * RUN_EVALUATIONS), each up to BUDGET evaluations, stopped as soon as its best feasible
+ * runs: the first of 10 000 evaluations per variable, later ones growing with their
+ * populations: islandOptimizerConfig), each up to BUDGET evaluations, stopped as soon as its best feasible
  * RMS is at most the case's reach error (REACH_SHARE × the target's size): a target-error
  * stop, so a seed that reaches ends early. Per case: the seeds that reach, the median
  * evaluations to reach (null when the median seed does not), the worst best RMS of the
@@ -24,9 +24,10 @@
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
-import { createOptimizer, type OptimizerConfig } from '../src/core/optimize';
+import { createOptimizer } from '../src/core/optimize';
 import { createObjective, createProblem } from '../src/core/synthesis';
-import { RUN_EVALUATIONS } from '../workers/island';
+import type { IslandOptimizerConfig } from '../workers/api';
+import { islandOptimizerConfig } from '../workers/island';
 import { REACH_QUICK_IDS, REACH_SHARE, reachCases, type ReachCase } from './reachCases';
 
 export const SEEDS = 10;
@@ -62,8 +63,7 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
   if (!made.ok) throw new Error(`reach ${c.id}: ${JSON.stringify(made.issues)}`);
   const objective = createObjective(made.problem, c.family);
   const common = { dim: objective.dim, maxEvaluations: budget, seed, stream: 0, targetValue: c.reachRmsMm };
-  const config = (optimizer.kind === 'restart' ? { ...optimizer, ...common } : { kind: 'restart', inner: optimizer, runEvaluations: RUN_EVALUATIONS, ...common }) as OptimizerConfig;
-  const built = createOptimizer(config);
+  const built = createOptimizer(islandOptimizerConfig(optimizer as IslandOptimizerConfig, common));
   if (!built.ok) throw new Error(`reach ${c.id}: ${built.reason}`);
   const opt = built.optimizer;
   const x = new Float64Array(objective.dim);

@@ -12,6 +12,7 @@ import {
   packState,
   Restart,
   restoreOptimizer,
+  RUN_EVALUATIONS_PER_VARIABLE,
   unpackState,
   type Optimizer,
   type OptimizerConfig,
@@ -24,6 +25,7 @@ import {
   type Individual,
   type IslandConfig,
   type IslandInfo,
+  type IslandOptimizerConfig,
   type IslandProgress,
   type IslandState,
   type IslandStopReason,
@@ -36,12 +38,6 @@ import { buildObjective, type ObjectiveResult } from './objective';
 import type { SearchObjective } from './searchObjective';
 
 type Made = { readonly ok: true; readonly island: Island } | { readonly ok: false; readonly reason: string };
-
-/**
- * Budget of one run of the island's restart scheme: a larger island budget (a time-only
- * run has no cap) is spent in runs of this size, each sized as a search of its own.
- */
-export const RUN_EVALUATIONS = 1_000_000;
 
 /** A step ends after at most this many ask/tell rounds, whatever its slice says. */
 const MAX_BATCHES_PER_STEP = 1_000_000;
@@ -71,15 +67,28 @@ function checkConfig(config: unknown): string | null {
   return null;
 }
 
+/** What an island's optimizer is given besides its search: the problem's size, the island's budget and stream. */
+export interface IslandOptimizerCommon {
+  readonly dim: number;
+  readonly maxEvaluations: number;
+  readonly seed: number;
+  readonly stream: number;
+  readonly targetValue?: number;
+}
+
 /**
  * The island's optimizer: its configured search inside a restart scheme (restart.ts), so
- * a run that converges or stagnates starts afresh while the budget lasts. A configuration
- * that is a restart scheme already is taken as it is.
+ * a run that converges or stagnates starts afresh while the budget lasts. The first run
+ * is 10,000 × D evaluations (the CEC scale of one search, RUN_EVALUATIONS_PER_VARIABLE)
+ * and later runs grow with their populations, so a run that ends on time restarts as
+ * often as one with an evaluation budget, and a night's later runs last as many
+ * generations as its first. A configuration that is a restart scheme already is taken as
+ * it is.
  */
-function optimizerConfig(config: IslandConfig, dim: number): OptimizerConfig {
-  const common = { dim, maxEvaluations: config.maxEvaluations, seed: config.seed, stream: config.stream };
-  if (config.optimizer.kind === 'restart') return { ...config.optimizer, ...common } as OptimizerConfig;
-  return { kind: 'restart', inner: config.optimizer, runEvaluations: RUN_EVALUATIONS, ...common } as OptimizerConfig;
+export function islandOptimizerConfig(optimizer: IslandOptimizerConfig, common: IslandOptimizerCommon): OptimizerConfig {
+  if (optimizer.kind === 'restart') return { ...optimizer, ...common } as OptimizerConfig;
+  const runEvaluations = RUN_EVALUATIONS_PER_VARIABLE * common.dim;
+  return { kind: 'restart', inner: optimizer, runEvaluations, growRuns: true, ...common } as OptimizerConfig;
 }
 
 /** A defensive, JSON-clean copy: what the island keeps of a configuration it is given. */
@@ -121,7 +130,7 @@ export class Island {
     const built = build(config.objective);
     if (!built.ok) return { ok: false, reason: `objective: ${built.reason}` };
     const objective = built.objective;
-    const made = createOptimizer(optimizerConfig(config, objective.dim));
+    const made = createOptimizer(islandOptimizerConfig(config.optimizer, { dim: objective.dim, maxEvaluations: config.maxEvaluations, seed: config.seed, stream: config.stream }));
     if (!made.ok) return { ok: false, reason: `optimizer: ${made.reason}` };
     const archive = new CandidateArchive(config.archiveCapacity, config.archiveDistance, objective.lower, objective.upper);
     return { ok: true, island: new Island(config, objective, made.optimizer, archive) };

@@ -134,31 +134,38 @@ describeBrowser('suspension search', () => {
   }, 240_000);
 });
 
-describeBrowser('a suspension search that uses its whole budget', () => {
+describeBrowser('a suspension search that uses its whole time', () => {
   const browser = useBrowser();
 
-  it('starts the search afresh when a run has spent its share of a budget larger than one run needs, and says how often', async () => {
+  it('starts the search afresh within a time budget when a run has spent what one search needs, and says how often', async () => {
     const app = await browser.openApp('/');
     const page = app.page;
     await page.getByRole('button', { name: 'Rear suspension demo' }).click();
     await page.getByTestId('suspension-workspace').waitFor();
     for (const layout of ['four-bar, axle on the seat stay', 'Watt six-bar']) await page.getByRole('checkbox', { name: layout, exact: true }).uncheck();
     expect(await page.getByRole('checkbox', { name: 'single pivot', exact: true }).isChecked()).toBe(true);
-    // Source: the restart scheme's rule (src/core/optimize/restart.ts, after CEC 2005's
-    // 10,000 × dim evaluations a run): a budget holding two or more such runs is split
-    // into even runs, so a single pivot's few variables get several in 100,000.
-    await page.locator('[data-field="budget.seconds"] input').fill('');
-    await page.locator('[data-field="budget.evaluations"] input').fill('100000');
+    // A time budget only, far longer than the test waits: each island's restart scheme
+    // sizes its first run as one search of 10,000 × dim evaluations (common practice: the
+    // CEC 2005 benchmark's budget per run) and restarts when it is spent, converged or
+    // stalled, so a single pivot's few variables restart well inside the hour. The wait is
+    // for a count of evaluations, not a time: how soon it comes depends on the machine.
+    await page.locator('[data-field="budget.evaluations"] input').fill('');
+    await page.locator('[data-field="budget.seconds"] input').fill('3600');
     await page.locator('[data-field="seed"] input').fill('7');
     const start = page.getByRole('button', { name: 'Start search' });
     await expect.poll(() => start.isEnabled()).toBe(true);
     await start.click();
-    await page.getByTestId('search-results').waitFor({ timeout: 120_000 });
     const progress = page.getByTestId('search-progress');
+    const restarts = async () => Number(((await page.getByTestId('search-progress-restarts').textContent()) ?? '').replace(/^Search restarts: /, '').replace(/,/g, ''));
+    await expect.poll(restarts, { timeout: 120_000, interval: 500 }).toBeGreaterThanOrEqual(1);
+    expect(await progress.getAttribute('data-status')).toBe('running');
+    // No evaluation budget to show against: the count alone.
+    expect(await progress.textContent()).toMatch(/Searching: [\d,]+ evaluations, [\d.]+ s/);
+    // The user's word ends it; the designs found so far are kept and ranked.
+    await page.getByRole('button', { name: 'Stop', exact: true }).click();
+    await page.getByTestId('search-results').waitFor({ timeout: 60_000 });
     expect(await progress.getAttribute('data-status')).toBe('finished');
-    expect(await progress.textContent()).toMatch(/100,000 of 100,000 evaluations/);
-    const restarts = Number(((await page.getByTestId('search-progress-restarts').textContent()) ?? '').replace(/^Search restarts: /, '').replace(/,/g, ''));
-    expect(restarts).toBeGreaterThanOrEqual(1);
+    expect(await restarts()).toBeGreaterThanOrEqual(1);
     expect(app.problems()).toEqual([]);
   });
 });

@@ -91,3 +91,30 @@ describe('an island under a budget larger than one search needs (restart scheme)
     expect(last.restarts).toBeGreaterThanOrEqual(5);
   });
 });
+
+describe('an island with no evaluation cap (a run with a time budget only)', () => {
+  // The engine gives a time-only island Number.MAX_SAFE_INTEGER evaluations (DEFAULT_ISLAND_EVALUATIONS).
+  const uncapped = config(Number.MAX_SAFE_INTEGER, { kind: 'lshade' });
+
+  it('restarts as soon as a search of 10,000 × D evaluations would, not after a million', () => {
+    // L-SHADE sizes its population reduction by its run's budget (Tanabe and Fukunaga, 2014),
+    // so its first run ends by 10,000 × 5 = 50,000 evaluations at the latest: the CEC scale of
+    // one search per variable (common practice, CEC 2005 real-parameter benchmark).
+    const island = make(uncapped);
+    const at = runToEnd(island, 50_000 + SLICE.evaluations);
+    expect(at.restarts).toBeGreaterThanOrEqual(1);
+    expect(at.stopReason).toBeNull();
+  });
+
+  it("gives a later run as many evaluations per member as the first (IPOP's doubled population, twice the budget)", () => {
+    const island = make(uncapped);
+    let progress = runToEnd(island, 1);
+    for (let k = 0; k < 1000 && progress.restarts < 1; k++) progress = island.step(SLICE, noClock);
+    const state = JSON.parse(JSON.stringify(island.exportState())) as { optimizer: { inner: { config: { maxEvaluations: number; initialPopulation: number } } } };
+    const run = state.optimizer.inner.config;
+    // Run 1 of the scheme: population 2 × 18 × 5 = 180 (L-SHADE's default 18 × D, doubled), 2 × 50,000 evaluations.
+    expect(run.initialPopulation).toBe(180);
+    expect(run.maxEvaluations).toBe(100_000);
+  });
+});
+

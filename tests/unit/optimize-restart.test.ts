@@ -163,6 +163,36 @@ describe('restart scheme (IPOP-style, Auger and Hansen 2005)', () => {
     expect(sizes.every((n) => n <= 4000)).toBe(true);
   });
 
+  it('with growRuns, gives each run runEvaluations times its population growth, the last what is left', () => {
+    /** Each run's budget and the evaluations before it, read from the scheme's state as the run starts, on a constant objective (every run stagnates). */
+    const runs = (opt: Optimizer): { size: number; past: number }[] => {
+      const seen: { size: number; past: number }[] = [];
+      for (let guard = 0; guard < 100_000 && !opt.done() && seen.length < 12; guard++) {
+        const state = opt.exportState() as RestartState;
+        if (seen.length === state.restarts) seen.push({ size: state.inner.config.maxEvaluations, past: state.pastEvaluations });
+        const points = opt.ask();
+        opt.tell(points, Float64Array.from(points, () => 1));
+      }
+      return seen;
+    };
+    const runSizes = (opt: Optimizer): number[] => runs(opt).map((run) => run.size);
+    // No end in sight (a time-only island's budget): IPOP doubles the population (Auger and
+    // Hansen, 2005), and each run gets as many evaluations per member as the first, so 1000 ×
+    // 2^r until the population reaches its limit (10,000 members in 2-D: 20 × 2^9 is past it).
+    const open = make({ kind: 'restart', inner: de, dim: 2, maxEvaluations: Number.MAX_SAFE_INTEGER, seed: 3, runEvaluations: 1000, growRuns: true });
+    expect(runSizes(open)).toEqual([1000, 2000, 4000, 8000, 16_000, 32_000, 64_000, 128_000, 256_000, 500_000, 500_000, 500_000]);
+    // A budget: a run takes all that is left when less than itself would remain after it
+    // (each constant run stagnates after about a quarter of its size, stallShare).
+    const budgeted = runs(make({ kind: 'restart', inner: de, dim: 2, maxEvaluations: 40_000, seed: 3, runEvaluations: 1000, growRuns: true }));
+    const expected = budgeted.map(({ past }, r) => (40_000 - past >= 2 * 1000 * 2 ** r ? 1000 * 2 ** r : 40_000 - past));
+    expect(budgeted.map((run) => run.size)).toEqual(expected);
+    expect(budgeted.length).toBeGreaterThanOrEqual(4);
+    expect(budgeted.at(-1)?.size).toBe(40_000 - (budgeted.at(-1)?.past ?? 0));
+    // Nelder–Mead has no population: its runs stay runEvaluations long.
+    const simplex = make({ kind: 'restart', inner: { kind: 'nelder-mead' }, dim: 2, maxEvaluations: Number.MAX_SAFE_INTEGER, seed: 3, runEvaluations: 1000, growRuns: true });
+    expect(new Set(runSizes(simplex).slice(0, 4))).toEqual(new Set([1000]));
+  });
+
   it('a restored state keeps its restart count', () => {
     const opt = make(config);
     drive(opt, rastrigin, { until: Math.floor(budget / 3) });

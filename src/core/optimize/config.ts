@@ -171,6 +171,7 @@ function readRestart(o: Fields, where: string, common: ResolvedCommon): Resolved
       o.runEvaluations === undefined || o.runEvaluations === null
         ? null
         : readInteger(o.runEvaluations, `${where}.runEvaluations`, 1, Number.MAX_SAFE_INTEGER),
+    growRuns: readBoolean(o.growRuns ?? false, `${where}.growRuns`),
     // null switches the split off (the option is absent from states written before it existed: they get the default).
     runEvaluationsPerVariable:
       o.runEvaluationsPerVariable === null

@@ -42,5 +42,5 @@ export { canonicalValue, canonicalViolation, precedes } from './ranking';
 export { gaoHanCoefficients, type NelderMeadCoefficients } from './nelder-mead';
 export { DistinctElite, rmsDistance } from './elite';
 export { fromUnitBoxInto, toUnitBoxInto } from './box';
-export { MAX_DIM, MAX_POPULATION } from './config';
+export { MAX_DIM, MAX_POPULATION, RUN_EVALUATIONS_PER_VARIABLE } from './config';
 export { packState, unpackState, PACK_MIN_LENGTH, type Packed, type PackedNumbers, type PackedOptimizerState, type UnpackResult } from './packedState';

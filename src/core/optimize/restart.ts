@@ -10,6 +10,10 @@
  *
  * A run's own budget: `runEvaluations` while more than that is left; then what is left,
  * split evenly into as many runs of at least `runEvaluationsPerVariable` × dim as fit.
+ * With `growRuns`, `runEvaluations` is the first run's, each later run's is that times
+ * its population's growth (a population g times larger gets g times the evaluations, so
+ * every run lasts about as many generations), and a run takes all that is left when less
+ * than itself would remain after it.
  * The first run is exactly the inner search as it would run alone with that budget (same
  * generator), so a budget too small for two runs gives the same bits with or without the
  * scheme while the run lasts.
@@ -42,27 +46,39 @@ import type {
 const MAX_RESTARTS = 1_000_000;
 const TWO_POW_21 = 2097152;
 
-function scaledPopulation(base: number, factor: number, dim: number): number {
-  const n = Math.round(base * factor);
-  return n < maxPopulation(dim) ? n : maxPopulation(dim);
+/** Run r's population: `base` times growth^r, within the limits, never below `base`. */
+function grownPopulation(base: number, growth: number, r: number, dim: number): number {
+  const n = Math.round(base * growth ** r);
+  return Math.max(base, n < maxPopulation(dim) ? n : maxPopulation(dim));
+}
+
+/** The first run's population (the global search's for a hybrid); null for Nelder–Mead, which has none. */
+function firstPopulation(inner: ResolvedInnerOptions): number | null {
+  switch (inner.kind) {
+    case 'lshade':
+      return inner.initialPopulation;
+    case 'de-rand-1-bin':
+      return inner.population;
+    case 'hybrid':
+      return inner.global.kind === 'lshade' ? inner.global.initialPopulation : inner.global.population;
+    case 'nelder-mead':
+      return null;
+  }
 }
 
 /** The inner options of run `r`: populations times growth^r (within the limits), a free Nelder–Mead start. */
 function grown(inner: ResolvedInnerOptions, growth: number, r: number, dim: number): Record<string, unknown> {
-  const factor = growth ** r;
   switch (inner.kind) {
-    case 'lshade': {
-      const initialPopulation = Math.max(inner.initialPopulation, scaledPopulation(inner.initialPopulation, factor, dim));
-      return { ...inner, initialPopulation };
-    }
+    case 'lshade':
+      return { ...inner, initialPopulation: grownPopulation(inner.initialPopulation, growth, r, dim) };
     case 'de-rand-1-bin':
-      return { ...inner, population: Math.max(inner.population, scaledPopulation(inner.population, factor, dim)) };
+      return { ...inner, population: grownPopulation(inner.population, growth, r, dim) };
     case 'hybrid': {
       const g = inner.global;
       const global =
         g.kind === 'lshade'
-          ? { ...g, initialPopulation: Math.max(g.initialPopulation, scaledPopulation(g.initialPopulation, factor, dim)) }
-          : { ...g, population: Math.max(g.population, scaledPopulation(g.population, factor, dim)) };
+          ? { ...g, initialPopulation: grownPopulation(g.initialPopulation, growth, r, dim) }
+          : { ...g, population: grownPopulation(g.population, growth, r, dim) };
       return { ...inner, global };
     }
     case 'nelder-mead':
@@ -71,13 +87,21 @@ function grown(inner: ResolvedInnerOptions, growth: number, r: number, dim: numb
 }
 
 /**
- * The budget of the run that starts after `past` evaluations: runEvaluations when more
- * than that is left (a time-only island's runs); otherwise what is left, split evenly
- * into as many runs of at least runEvaluationsPerVariable × dim as fit (one run when
- * fewer than two fit), so no run is cut short.
+ * The budget of run `r`, which starts after `past` evaluations: runEvaluations when more
+ * than that is left (a time-only island's runs; with growRuns, times run r's population
+ * over the first run's, or all that is left when less than that would remain after it);
+ * otherwise what is left, split evenly into as many runs of at least
+ * runEvaluationsPerVariable × dim as fit (one run when fewer than two fit), so no run is
+ * cut short.
  */
-function runBudget(config: ResolvedRestart, past: number): number {
+function runBudget(config: ResolvedRestart, r: number, past: number): number {
   const left = config.maxEvaluations - past;
+  if (config.runEvaluations !== null && config.growRuns) {
+    const first = firstPopulation(config.inner);
+    const growth = first === null ? 1 : grownPopulation(first, config.populationGrowth, r, config.dim) / first;
+    const size = Math.ceil(config.runEvaluations * growth);
+    return left - size >= size ? size : left;
+  }
   if (config.runEvaluations !== null && config.runEvaluations < left) return config.runEvaluations;
   const perVariable = config.runEvaluationsPerVariable;
   const runs = perVariable === null ? 1 : Math.floor(left / (perVariable * config.dim));
@@ -113,7 +137,7 @@ export class Restart implements Optimizer {
 
   /** A new scheme on `rng` (the island's stream); its first run uses a copy of that stream. */
   static create(config: ResolvedRestart, rng: Prng): Restart {
-    const first = buildInner(Restart.innerConfig(config, 0, runBudget(config, 0)), rng.clone());
+    const first = buildInner(Restart.innerConfig(config, 0, runBudget(config, 0, 0)), rng.clone());
     return new Restart(config, rng, first);
   }
 
@@ -250,7 +274,7 @@ export class Restart implements Optimizer {
 
   /** Evaluations without improvement after which the current run has stagnated. */
   private stallEvaluations(): number {
-    return Math.max(1, Math.ceil(this.config.stallShare * runBudget(this.config, this.pastEvaluations)));
+    return Math.max(1, Math.ceil(this.config.stallShare * runBudget(this.config, this.restartCount, this.pastEvaluations)));
   }
 
   private static innerConfig(config: ResolvedRestart, r: number, maxEvaluations: number): ResolvedInnerConfig {
@@ -282,7 +306,7 @@ export class Restart implements Optimizer {
     this.restartCount++;
     const rng = Prng.fromSeed(this.rng.nextUint32() * TWO_POW_21 + (this.rng.nextUint32() >>> 11));
     const avoid = { points: this.basins, count: this.basinCount, radius: this.config.avoidDistance, attempts: this.config.avoidAttempts };
-    let config = Restart.innerConfig(this.config, this.restartCount, runBudget(this.config, this.pastEvaluations));
+    let config = Restart.innerConfig(this.config, this.restartCount, runBudget(this.config, this.restartCount, this.pastEvaluations));
     if (config.kind === 'nelder-mead') {
       const x0 = new Float64Array(d);
       drawAwayInto(rng, x0, 0, d, avoid);

@@ -183,6 +183,13 @@ export interface RestartOptions {
   /** Budget of one run (the last gets what is left); null, the default: each run gets all that is left. */
   readonly runEvaluations: number | null;
   /**
+   * Whether runEvaluations is the first run's budget only, each later run's being that
+   * times its population's growth over the first's (IPOP's larger populations get as many
+   * generations), a run taking all that is left when less than itself would remain after
+   * it; default false (states written before it existed read as false: runs as they were).
+   */
+  readonly growRuns: boolean;
+  /**
    * Shortest run per variable: once at most runEvaluations are left, they are split evenly
    * into as many runs of at least this × dim as fit, so a budget of several such runs is
    * spent in several searches rather than one; default 10 000; null: no split.
