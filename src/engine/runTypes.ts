@@ -31,7 +31,7 @@ export interface RunProgress {
   readonly islands: number;
   readonly islandsRunning: number;
   readonly workers: number;
-  /** Workers replaced after one was lost. */
+  /** Workers replaced after one was lost (for a run hosted in an engine worker, that worker too). */
   readonly restarts: number;
   /** Fresh optimizer runs the islands' restart schemes have started (after a run converged or stalled), all islands, as of their last slice. */
   readonly searchRestarts: number;
@@ -54,7 +54,7 @@ export type RunResult =
       readonly evaluations: number;
       readonly elapsedMs: number;
       readonly rounds: number;
-      /** Workers replaced after one was lost. */
+      /** Workers replaced after one was lost (for a run hosted in an engine worker, that worker too). */
       readonly restarts: number;
       /** Fresh optimizer runs the islands' restart schemes started, all islands. */
       readonly searchRestarts: number;

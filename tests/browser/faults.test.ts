@@ -1,6 +1,7 @@
 /**
  * Faults an overnight search in a tab meets, each in the path workspace with a long
- * evaluation budget: a search worker that ends mid-round, a reload in the middle of a
+ * evaluation budget: a search worker that ends mid-round (and then the engine worker that
+ * orchestrates the run), a reload in the middle of a
  * checkpoint write, and storage that is full. Each shows the search going on, its best
  * designs kept, and what happened said on the page. (A corrupt newest checkpoint is
  * covered where it is resumed: workspace.test.ts, suspension-search-resume.test.ts and
@@ -73,7 +74,7 @@ async function endWorker(worker: Worker): Promise<void> {
 describeBrowser('faults during a long search', () => {
   const browser = useBrowser();
 
-  it('goes on when a search worker ends mid-round, from its last checkpoint, and says so', async () => {
+  it('goes on when a search worker, then the engine worker, ends mid-round, from its last checkpoint, and says so', async () => {
     const app = await browser.openApp('/');
     const { page } = app;
     await startLongSearch(app);
@@ -88,7 +89,7 @@ describeBrowser('faults during a long search', () => {
     await Promise.all(workers.map(endWorker));
 
     // Said on the page: a worker stopped, a new one took the search back to its last checkpoint.
-    const said = page.getByText(/^A search worker stopped unexpectedly \((once|\d+ times so far)\)\. Loci started a new one and took the search back to its last checkpoint \(round \d+, [\d,]+ evaluations\)/);
+    const said = page.getByText(/^A worker of the search stopped unexpectedly \((once|\d+ times so far)\)\. Loci started a new one and took the search back to its last checkpoint \(round \d+, [\d,]+ evaluations\)/);
     await expect.poll(() => said.count(), { timeout: LONG_MS }).toBe(1);
     expect(await runStatus(page)).toBe('running');
     const back = await pathCheckpointShown(page);
@@ -98,7 +99,23 @@ describeBrowser('faults during a long search', () => {
     // The best designs so far stay in the table, and the search goes on past the checkpoint, saving new ones.
     expect(await page.getByTestId('candidate-row').count()).toBeGreaterThanOrEqual(1);
     await expect.poll(() => pathEvaluationsShown(page), { timeout: LONG_MS }).toBeGreaterThan(back?.evaluations ?? first.evaluations);
-    await checkpointAfter(page, back?.round ?? first.round);
+    const later = await checkpointAfter(page, back?.round ?? first.round);
+
+    // The engine worker itself ends (where the run is orchestrated): a new one takes the run
+    // over from the last checkpoint the page saved, and the page says so once more.
+    const restartsSaid = async () => {
+      const times = /\((once|(\d+) times so far)\)/.exec((await said.textContent()) ?? '');
+      return times === null ? 0 : times[2] === undefined ? 1 : Number(times[2]);
+    };
+    const before = await restartsSaid();
+    const engine = page.workers().filter((w) => /engineWorker/.test(w.url()));
+    expect(engine).toHaveLength(1);
+    await endWorker(engine[0]);
+    await expect.poll(restartsSaid, { timeout: LONG_MS }).toBe(before + 1);
+    expect(await runStatus(page)).toBe('running');
+    await expect.poll(() => page.workers().filter((w) => /engineWorker/.test(w.url())).length, { timeout: LONG_MS }).toBe(1);
+    expect(await page.getByTestId('candidate-row').count()).toBeGreaterThanOrEqual(1);
+    await checkpointAfter(page, later.round);
     await stopAndKeep(page);
     expect(app.problems()).toEqual([]);
     await app.close();

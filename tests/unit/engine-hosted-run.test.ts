@@ -30,6 +30,8 @@ const SPEC: RunInput = {
 };
 
 const opened: MessagePort[] = [];
+/** More than the runs any one test makes through a host. */
+const MAX_TEST_RUN_ID = 16;
 
 afterEach(() => {
   for (const port of opened.splice(0)) port.close();
@@ -58,6 +60,53 @@ function hostedEnvironment(): { env: HostingEnvironment; service: RunServiceApi;
     for (const listener of listeners) listener(reason);
   };
   return { env: { ...local, runHost: remoteRunHost(local, () => connection) }, service, end };
+}
+
+/** As hostedEnvironment, but each host that ended is replaced by a new service on a new channel at the next connect, as the page starts a new engine worker. */
+function replacingEnvironment(): { env: HostingEnvironment; end: (reason: string) => void; hosts: () => number } {
+  const local = nodeEnvironment();
+  let current: { connection: ServiceConnection; end: (reason: string) => void } | null = null;
+  let hosts = 0;
+  const connect = (): ServiceConnection => {
+    if (current !== null && current.connection.lostReason() === null) return current.connection;
+    const { port1, port2 } = new MessageChannel();
+    opened.push(port1, port2);
+    const listeners = new Set<(reason: string) => void>();
+    let lost: string | null = null;
+    const connection: ServiceConnection = {
+      api: wrap<RunServiceApi>(port2 as unknown as Parameters<typeof wrap>[0]),
+      lostReason: () => lost,
+      onLost(listener) {
+        listeners.add(listener);
+        return () => listeners.delete(listener);
+      },
+    };
+    const service = createRunService(local);
+    expose(service, port1 as unknown as Parameters<typeof expose>[1]);
+    const end = (reason: string) => {
+      lost = reason;
+      port1.close();
+      for (const listener of listeners) listener(reason);
+      // A browser terminates the engine worker; here its service lives on in this process, so its runs are let go (ids from 1).
+      for (let id = 1; id <= MAX_TEST_RUN_ID; id++) service.forget(id);
+    };
+    hosts++;
+    current = { connection, end };
+    return connection;
+  };
+  return { env: { ...local, runHost: remoteRunHost(local, connect) }, end: (reason) => current?.end(reason), hosts: () => hosts };
+}
+
+/** Resolves at the first report `when` holds for. */
+function reportWhere(run: { onProgress(listener: (p: RunProgress) => void): () => void }, when: (p: RunProgress) => boolean): Promise<RunProgress> {
+  return new Promise((resolve) => {
+    const off = run.onProgress((p) => {
+      if (when(p)) {
+        off();
+        resolve(p);
+      }
+    });
+  });
 }
 
 function fingerprint(result: RunResult) {
@@ -153,5 +202,49 @@ describe('a run hosted across a thread', () => {
     expect(made.run.status()).toBe('failed');
     // The service lives on in this process (a browser terminates the engine worker): its run, the first it was given, is let go and ends.
     service.forget(1);
+  }, 120_000);
+
+  it('goes on in a new host from its last checkpoint when its host ends, to the end the run would have had', async () => {
+    // Checkpoints every round, so there is one to go back to when the host ends.
+    const spec: RunInput = { ...SPEC, checkpointEveryMs: 1 };
+    const here = createRun(nodeEnvironment(), spec, { workers: 2 });
+    if (!here.ok) throw new Error(here.reason);
+    const reference = await here.run.start();
+
+    const { env, end, hosts } = replacingEnvironment();
+    const store = memoryCheckpointStore(3);
+    const made = createHostedRun(env, spec, { workers: 2, store });
+    if (!made.ok) throw new Error(made.reason);
+    const ending = made.run.start();
+    const budget = ISLANDS * 6000;
+    await reportWhere(made.run, (p) => p.checkpointRound !== null && p.evaluations > 0 && p.evaluations < budget / 2);
+    end('closed by the test');
+    const result = await ending;
+    // A checkpoint resumed under an evaluation budget ends as the uninterrupted run (DEVELOPERS.md, Engine: deterministic runs).
+    expect(fingerprint(result)).toEqual(fingerprint(reference));
+    expect(hosts()).toBe(2);
+    expect(result.ok && result.restarts).toBe(1);
+    expect(made.run.progress().restarts).toBe(1);
+    expect(made.run.status()).toBe('finished');
+  }, 120_000);
+
+  it('fails when its host ends again before a new checkpoint', async () => {
+    // Checkpoints an hour apart on the run's clock: only the one taken as it starts falls within the test.
+    const long: RunInput = { ...SPEC, budget: { evaluations: 1_000_000_000 }, checkpointEveryMs: 3_600_000 };
+    const { env, end, hosts } = replacingEnvironment();
+    const made = createHostedRun(env, long, { workers: 1, store: memoryCheckpointStore(3) });
+    if (!made.ok) throw new Error(made.reason);
+    const ending = made.run.start();
+    const first = await reportWhere(made.run, (p) => p.checkpointRound !== null && p.evaluations > 0);
+    end('closed by the test');
+    // The run goes on in a new host, from the checkpoint it had…
+    const back = await reportWhere(made.run, (p) => p.restarts === 1 && p.status === 'running');
+    expect(back.checkpointRound).toBe(first.checkpointRound);
+    end('closed by the test again');
+    // …whose end, before a newer checkpoint, would only send it back to the same place again.
+    const result = await ending;
+    expect(!result.ok && result.reason).toBe('the engine worker ended: closed by the test again, again before a new checkpoint');
+    expect(made.run.status()).toBe('failed');
+    expect(hosts()).toBe(2);
   }, 120_000);
 });

@@ -20,5 +20,5 @@ export function askPersistenceOnStart(): void {
 export function workerRestartMessage(progress: Pick<RunProgress, 'restarts' | 'checkpointRound' | 'evaluations'>): string {
   const at = progress.checkpointRound === null ? 'its last checkpoint' : `its last checkpoint (round ${progress.checkpointRound}, ${progress.evaluations.toLocaleString('en-GB')} evaluations)`;
   const times = progress.restarts === 1 ? 'once' : `${progress.restarts} times so far`;
-  return `A search worker stopped unexpectedly (${times}). Loci started a new one and took the search back to ${at}: the best designs up to there are kept, and the work since is searched again.`;
+  return `A worker of the search stopped unexpectedly (${times}). Loci started a new one and took the search back to ${at}: the best designs up to there are kept, and the work since is searched again.`;
 }
