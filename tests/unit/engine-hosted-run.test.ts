@@ -109,6 +109,22 @@ function reportWhere(run: { onProgress(listener: (p: RunProgress) => void): () =
   });
 }
 
+let uninterrupted: Promise<RunResult> | null = null;
+
+/**
+ * SPEC run on this thread, once for the file: the reference every hosted run is held to.
+ * A deterministic run ends the same whenever its checkpoints fall (DEVELOPERS.md, Engine),
+ * so it serves runs of SPEC with any checkpoint interval.
+ */
+function reference(): Promise<RunResult> {
+  if (uninterrupted === null) {
+    const here = createRun(nodeEnvironment(), SPEC, { workers: 2 });
+    if (!here.ok) throw new Error(here.reason);
+    uninterrupted = here.run.start();
+  }
+  return uninterrupted;
+}
+
 function fingerprint(result: RunResult) {
   if (!result.ok) throw new Error(`run failed: ${result.reason}`);
   return { evaluations: result.evaluations, rounds: result.rounds, candidates: result.candidates.map((c) => ({ x: c.x, value: c.value, violation: c.violation, rank: c.rank })) };
@@ -116,10 +132,6 @@ function fingerprint(result: RunResult) {
 
 describe('a run hosted across a thread', () => {
   it('ends as the same run on this thread, with its progress, checkpoints and store on the caller\'s side', async () => {
-    const here = createRun(nodeEnvironment(), SPEC, { workers: 2 });
-    if (!here.ok) throw new Error(here.reason);
-    const reference = await here.run.start();
-
     const { env } = hostedEnvironment();
     const store = memoryCheckpointStore(3);
     const payloads: CheckpointPayload[] = [];
@@ -130,7 +142,7 @@ describe('a run hosted across a thread', () => {
     made.run.onProgress((progress) => seen.push(progress));
     const result = await made.run.start();
 
-    expect(fingerprint(result)).toEqual(fingerprint(reference));
+    expect(fingerprint(result)).toEqual(fingerprint(await reference()));
     expect(made.run.status()).toBe('finished');
     // The listener saw the run's reports in order: evaluations never go back in a run without restarts.
     expect(seen.length).toBeGreaterThan(2);
@@ -172,9 +184,7 @@ describe('a run hosted across a thread', () => {
     // The store the caller kept, read through the host, goes on to the same end as an uninterrupted run.
     const restored = await restoreHostedRunFromStore(env, store, { workers: 1 });
     if (!restored.ok) throw new Error(restored.reason);
-    const here = createRun(nodeEnvironment(), SPEC, { workers: 2 });
-    if (!here.ok) throw new Error(here.reason);
-    expect(fingerprint(await restored.run.start())).toEqual(fingerprint(await here.run.start()));
+    expect(fingerprint(await restored.run.start())).toEqual(fingerprint(await reference()));
   }, 120_000);
 
   it('refuses bad options at once, as createRun does, and fails its runs if the host ends', async () => {
@@ -207,9 +217,6 @@ describe('a run hosted across a thread', () => {
   it('goes on in a new host from its last checkpoint when its host ends, to the end the run would have had', async () => {
     // Checkpoints every round, so there is one to go back to when the host ends.
     const spec: RunInput = { ...SPEC, checkpointEveryMs: 1 };
-    const here = createRun(nodeEnvironment(), spec, { workers: 2 });
-    if (!here.ok) throw new Error(here.reason);
-    const reference = await here.run.start();
 
     const { env, end, hosts } = replacingEnvironment();
     const store = memoryCheckpointStore(3);
@@ -221,7 +228,7 @@ describe('a run hosted across a thread', () => {
     end('closed by the test');
     const result = await ending;
     // A checkpoint resumed under an evaluation budget ends as the uninterrupted run (DEVELOPERS.md, Engine: deterministic runs).
-    expect(fingerprint(result)).toEqual(fingerprint(reference));
+    expect(fingerprint(result)).toEqual(fingerprint(await reference()));
     expect(hosts()).toBe(2);
     expect(result.ok && result.restarts).toBe(1);
     expect(made.run.progress().restarts).toBe(1);
