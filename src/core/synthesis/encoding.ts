@@ -54,14 +54,32 @@ export function resetExtent(out: Float64Array): void {
   out[EXTENT_COS] = 0;
 }
 
+/**
+ * Adds the points xy[0 … 2·count) (x, y pairs), placed by [a, b, tx, ty], to an extent, in
+ * order; a non-finite point fills it to ±Infinity. The points come in an array: a double
+ * passed to a call that is not inlined is boxed (an allocation).
+ */
+export function addPointsToExtent(xy: Float64Array, count: number, placement: Float64Array, out: Float64Array): void {
+  for (let k = 0; k < count; k++) {
+    const px = xy[2 * k];
+    const py = xy[2 * k + 1];
+    const x = placement[0] * px - placement[1] * py + placement[2];
+    const y = placement[1] * px + placement[0] * py + placement[3];
+    if (!(x >= out[EXTENT_MIN_X])) out[EXTENT_MIN_X] = Number.isNaN(x) ? -Infinity : x;
+    if (!(x <= out[EXTENT_MAX_X])) out[EXTENT_MAX_X] = Number.isNaN(x) ? Infinity : x;
+    if (!(y >= out[EXTENT_MIN_Y])) out[EXTENT_MIN_Y] = Number.isNaN(y) ? -Infinity : y;
+    if (!(y <= out[EXTENT_MAX_Y])) out[EXTENT_MAX_Y] = Number.isNaN(y) ? Infinity : y;
+  }
+}
+
+/** addToExtent's point on its way to addPointsToExtent. */
+const extentPoint = new Float64Array(2);
+
 /** Adds a point, placed by [a, b, tx, ty], to an extent; a non-finite point fills it to ±Infinity. */
 export function addToExtent(px: number, py: number, placement: Float64Array, out: Float64Array): void {
-  const x = placement[0] * px - placement[1] * py + placement[2];
-  const y = placement[1] * px + placement[0] * py + placement[3];
-  if (!(x >= out[EXTENT_MIN_X])) out[EXTENT_MIN_X] = Number.isNaN(x) ? -Infinity : x;
-  if (!(x <= out[EXTENT_MAX_X])) out[EXTENT_MAX_X] = Number.isNaN(x) ? Infinity : x;
-  if (!(y >= out[EXTENT_MIN_Y])) out[EXTENT_MIN_Y] = Number.isNaN(y) ? -Infinity : y;
-  if (!(y <= out[EXTENT_MAX_Y])) out[EXTENT_MAX_Y] = Number.isNaN(y) ? Infinity : y;
+  extentPoint[0] = px;
+  extentPoint[1] = py;
+  addPointsToExtent(extentPoint, 1, placement, out);
 }
 
 export interface EncodingReport {

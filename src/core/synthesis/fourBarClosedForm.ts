@@ -63,11 +63,15 @@ export function fourBarCouplerPointInto(
   // Small enough to inline: the angle and the margin cross through `out`, since a double
   // passed to or returned from a call that is not inlined is boxed (an allocation).
   out[OUT_THETA2] = theta2;
-  couplerPointInto(p, offset, sign, order, out);
+  fourBarCouplerPointIo(p, offset, sign, order, out);
   return out[OUT_MARGIN];
 }
 
-function couplerPointInto(p: Float64Array, offset: number, sign: number, order: 0 | 1 | 2, out: Float64Array): void {
+/**
+ * fourBarCouplerPointInto with the crank angle read from out[OUT_THETA2] and the margin
+ * written to out[OUT_MARGIN], for loops that must not rely on the wrapper being inlined.
+ */
+export function fourBarCouplerPointIo(p: Float64Array, offset: number, sign: number, order: 0 | 1 | 2, out: Float64Array): void {
   const theta2 = out[OUT_THETA2];
   const r1 = p[offset + R1];
   const r2 = p[offset + R2];
@@ -151,12 +155,30 @@ function couplerPointInto(p: Float64Array, offset: number, sign: number, order: 
   out[OUT_DDY] = st * c2x + ct * c2y;
 }
 
+/** The crank angle into fourBarJointsIo and the assembly margin out of it (fourBarJointsInto's). */
+const jointsIo = new Float64Array(2);
+const JOINTS_THETA2 = 0;
+const JOINTS_MARGIN = 1;
+
 /**
  * The four joints of the literature four-bar at crank angle `theta2`, world
  * coordinates, into `out` as O2x, O2y, Ax, Ay, Bx, By, O4x, O4y. For reports and for
  * building the linkage model and the keep-out check; no allocation.
  */
 export function fourBarJointsInto(p: Float64Array, offset: number, theta2: number, sign: number, out: Float64Array): number {
+  // Small enough to inline, as fourBarCouplerPointInto: the angle and the margin cross
+  // the call below through an array, so neither is boxed.
+  jointsIo[JOINTS_THETA2] = theta2;
+  fourBarJointsIo(p, offset, sign, jointsIo, out);
+  return jointsIo[JOINTS_MARGIN];
+}
+
+/**
+ * fourBarJointsInto with the crank angle read from io[0] and the assembly margin written
+ * to io[1], for loops that must not rely on the wrapper being inlined.
+ */
+export function fourBarJointsIo(p: Float64Array, offset: number, sign: number, io: Float64Array, out: Float64Array): void {
+  const theta2 = io[JOINTS_THETA2];
   const r1 = p[offset + R1];
   const r2 = p[offset + R2];
   const r3 = p[offset + R3];
@@ -184,5 +206,5 @@ export function fourBarJointsInto(p: Float64Array, offset: number, theta2: numbe
   out[5] = y0 + st * bx + ct * by;
   out[6] = x0 + ct * r1;
   out[7] = y0 + st * r1;
-  return margin;
+  io[JOINTS_MARGIN] = margin;
 }

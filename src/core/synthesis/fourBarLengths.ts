@@ -10,7 +10,7 @@
 import { FOUR_BAR_FIXED_NAMES, FOUR_BAR_FREE_NAMES } from './familyVariables';
 import { fourBar } from '../linkage';
 import { classifyFourBar } from '../linkage/analysis';
-import { crankViolation, inputTurnsFully } from './grashofTurn';
+import { crankViolationInto, inputTurnsFully } from './grashofTurn';
 import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, type CurveEvaluator } from './curve';
 import {
   V_BRANCH as V_BRANCH_BINDING,
@@ -19,7 +19,7 @@ import {
   V_LINK_LENGTH as V_LINK_LENGTH_BINDING,
   V_TRANSMISSION as V_TRANSMISSION_BINDING,
   EXTENT_COS as EXTENT_COS_BINDING,
-  addToExtent,
+  addPointsToExtent,
   lengthViolation,
   resetExtent,
   transmissionCosLimit,
@@ -36,8 +36,12 @@ import {
   THETA0 as THETA0_BINDING,
   X0 as X0_BINDING,
   Y0 as Y0_BINDING,
+  OUT_MARGIN as OUT_MARGIN_BINDING,
+  OUT_THETA2 as OUT_THETA2_BINDING,
   fourBarCouplerPointInto,
+  fourBarCouplerPointIo,
   fourBarJointsInto,
+  fourBarJointsIo,
 } from './fourBarClosedForm';
 import type { Branch, Constraints, Placement } from './problem';
 
@@ -58,6 +62,8 @@ const R4 = R4_BINDING;
 const THETA0 = THETA0_BINDING;
 const X0 = X0_BINDING;
 const Y0 = Y0_BINDING;
+const OUT_MARGIN = OUT_MARGIN_BINDING;
+const OUT_THETA2 = OUT_THETA2_BINDING;
 
 const TAU = 2 * Math.PI;
 
@@ -111,7 +117,13 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
   const curve = new ClosedFormCurve();
   const p = curve.p;
   const range = new Float64Array(2);
+  /** The crank violation before it is added to its slot. */
+  const crank = new Float64Array(1);
   const joints = new Float64Array(8);
+  /** The joints and the output point of one sample of a sweep (x, y pairs). */
+  const extentPoints = new Float64Array(10);
+  /** The crank angle into fourBarJointsIo and its margin out. */
+  const jointsIo = new Float64Array(2);
   const sample = new Float64Array(CURVE_OUT_LENGTH);
 
   /** Adds the transmission violation for cos θ2 over [cmin, cmax]. */
@@ -151,7 +163,9 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       // A link of no length is no four-bar (the published boxes start at 0).
       for (let i = R1; i <= R4; i++) if (!(p[i] > 0)) parts[V_LINK_LENGTH] += 1;
       if (fullTurn) {
-        parts[V_CRANK] += crankViolation(p[R1], p[R2], p[R3], p[R4]);
+        // R1 … R4 are ground, crank, coupler, rocker in order, as crankViolationInto reads them.
+        crankViolationInto(p, R1, false, crank, 0);
+        parts[V_CRANK] += crank[0];
         transmissionOver(-1, 1, parts);
       }
     },
@@ -180,16 +194,20 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       transmissionOver(cmin, cmax, parts);
     },
     placed(placement: Float64Array, parts: Float64Array): void {
-      const sa = placement[0];
-      const sb = placement[1];
-      const tx = placement[2];
-      const ty = placement[3];
-      const scale = Math.hypot(sa, sb);
+      // Nothing is read unless a limit asks for it: without link-length limits and
+      // keep-outs (most problems) this allocates nothing, where Math.hypot allocates its
+      // answer in V8, and so may a double in a local of code that is not optimised yet.
       if (linkLimits !== undefined) {
-        const [lo, hi] = linkLimits;
+        const scale = Math.hypot(placement[0], placement[1]);
+        const lo = linkLimits[0];
+        const hi = linkLimits[1];
         for (let i = R1; i <= R4; i++) parts[V_LINK_LENGTH] += lengthViolation(scale * p[i], lo, hi);
       }
       if (keepOut.length > 0) {
+        const sa = placement[0];
+        const sb = placement[1];
+        const tx = placement[2];
+        const ty = placement[3];
         fourBarJointsInto(p, 0, 0, curve.sign, joints);
         for (let j = 0; j < 8; j += 6) {
           const x = sa * joints[j] - sb * joints[j + 1] + tx;
@@ -211,13 +229,20 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       let failed = 0;
       for (let k = 0; k <= steps; k++) {
         const t = from + ((to - from) * k) / steps;
-        if (!(curve.at(t, 0, sample) >= 0)) {
+        // As curve.at and fourBarJointsInto, with t passed in arrays: this loop allocates nothing
+        // whether or not the compiler inlines those wrappers here.
+        sample[OUT_THETA2] = t;
+        fourBarCouplerPointIo(p, 0, curve.sign, 0, sample);
+        if (!(sample[OUT_MARGIN] >= 0)) {
           failed++;
           continue;
         }
-        fourBarJointsInto(p, 0, t, curve.sign, joints);
-        for (let j = 0; j < 8; j += 2) addToExtent(joints[j], joints[j + 1], placement, out);
-        addToExtent(sample[0], sample[1], placement, out);
+        // The four joints, then the output point: into the extent in that order, through an array.
+        jointsIo[0] = t;
+        fourBarJointsIo(p, 0, curve.sign, jointsIo, extentPoints);
+        extentPoints[8] = sample[0];
+        extentPoints[9] = sample[1];
+        addPointsToExtent(extentPoints, 5, placement, out);
         // cos μ in closed form, as transmissionOver above.
         const c = Math.abs((r3 * r3 + r4 * r4 - r1 * r1 - r2 * r2 + 2 * r1 * r2 * Math.cos(t)) / (2 * r3 * r4));
         if (!(c <= out[EXTENT_COS])) out[EXTENT_COS] = Number.isNaN(c) ? 1 : c;

@@ -18,8 +18,19 @@ export interface ErrorSummary {
   readonly perPointMm: number[];
 }
 
-/** The value of `measure` for squared distances `d2[0..n)`; no allocation. */
-export function measureValue(measure: Measure, d2: Float64Array, n: number, weights: Float64Array | undefined): number {
+/**
+ * The value of `measure` for squared distances `d2[0..n)`, into `out[index]`: the
+ * evaluation's form, since a double returned from a call that is not inlined is boxed
+ * (an allocation).
+ */
+export function measureValueInto(
+  measure: Measure,
+  d2: Float64Array,
+  n: number,
+  weights: Float64Array | undefined,
+  out: Float64Array,
+  index: number,
+): void {
   let sum = 0;
   let sumW = 0;
   let max = 0;
@@ -30,9 +41,18 @@ export function measureValue(measure: Measure, d2: Float64Array, n: number, weig
     // NaN propagates: a NaN distance must not hide behind the max.
     if (w > 0 && !(d2[i] <= max)) max = d2[i];
   }
-  if (measure === 'sum-of-squares') return sum;
-  if (measure === 'rms') return Math.sqrt(sum / sumW);
-  return Math.sqrt(max);
+  if (measure === 'sum-of-squares') out[index] = sum;
+  else if (measure === 'rms') out[index] = Math.sqrt(sum / sumW);
+  else out[index] = Math.sqrt(max);
+}
+
+/** measureValue's answer before it is returned (no call in between can reenter). */
+const valueScratch = new Float64Array(1);
+
+/** The value of `measure` for squared distances `d2[0..n)` (for reports; see measureValueInto). */
+export function measureValue(measure: Measure, d2: Float64Array, n: number, weights: Float64Array | undefined): number {
+  measureValueInto(measure, d2, n, weights, valueScratch, 0);
+  return valueScratch[0];
 }
 
 /** All three measures and the distance of each point (allocates; for reports). */

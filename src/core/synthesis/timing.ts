@@ -616,18 +616,28 @@ export function refineDriverValue(curve: CurveEvaluator, io: Float64Array, maxIt
 
 /**
  * How far driver values `values[offset .. offset + n)` are from increasing, as a share
- * of `period`. Without wrap: the sum of the decreases. With wrap (a full-turn driver
- * whose sequence may pass once through `period`): the cyclic increments must add up to
- * less than one period; the excess is the violation.
+ * of `period`, into `out[index]` (a double returned from a call that is not inlined is
+ * boxed: an allocation). Without wrap: the sum of the decreases. With wrap (a full-turn
+ * driver whose sequence may pass once through `period`): the cyclic increments must add
+ * up to less than one period; the excess is the violation.
  */
-export function orderViolation(values: ArrayLike<number>, offset: number, n: number, wrap: boolean, period: number): number {
+export function orderViolationInto(
+  values: ArrayLike<number>,
+  offset: number,
+  n: number,
+  wrap: boolean,
+  period: number,
+  out: Float64Array,
+  index: number,
+): void {
   let sum = 0;
   if (!wrap) {
     for (let i = 0; i + 1 < n; i++) {
       const d = values[offset + i] - values[offset + i + 1];
       if (d > 0) sum += d;
     }
-    return sum / period;
+    out[index] = sum / period;
+    return;
   }
   for (let i = 0; i + 1 < n; i++) {
     let d = values[offset + i + 1] - values[offset + i];
@@ -635,5 +645,14 @@ export function orderViolation(values: ArrayLike<number>, offset: number, n: num
     sum += d;
   }
   const excess = sum - period;
-  return excess > 0 ? excess / period : 0;
+  out[index] = excess > 0 ? excess / period : 0;
+}
+
+/** orderViolationInto's answer before it is returned (no call in between can reenter). */
+const orderScratch = new Float64Array(1);
+
+/** orderViolationInto, returned. */
+export function orderViolation(values: ArrayLike<number>, offset: number, n: number, wrap: boolean, period: number): number {
+  orderViolationInto(values, offset, n, wrap, period, orderScratch, 0);
+  return orderScratch[0];
 }

@@ -106,8 +106,12 @@ export function createPathDesignSpace(problem: Problem, family: FamilyId): PathD
   return { encoding, names, mechanismDim: m, dim, lower, upper, searchMap };
 }
 
-/** Normalised distance of x outside its box (each variable's excess over its box's width; 1 for NaN). */
-export function boxViolation(x: Float64Array, lower: Float64Array, upper: Float64Array, dim: number): number {
+/**
+ * Normalised distance of x outside its box (each variable's excess over its box's width;
+ * 1 for NaN), into `out[index]`: a double returned from a call that is not inlined is
+ * boxed (an allocation).
+ */
+export function boxViolationInto(x: Float64Array, lower: Float64Array, upper: Float64Array, dim: number, out: Float64Array, index: number): void {
   let v = 0;
   for (let j = 0; j < dim; j++) {
     const w = upper[j] - lower[j];
@@ -116,5 +120,5 @@ export function boxViolation(x: Float64Array, lower: Float64Array, upper: Float6
     else if (xj > upper[j]) v += (xj - upper[j]) / w;
     else if (Number.isNaN(xj)) v += 1;
   }
-  return v;
+  out[index] = v;
 }

@@ -23,7 +23,7 @@ export { ALIGNMENT_ITERATIONS, ALIGNMENT_OFFSETS, FREE_REFINE_MAX_STEP_RAD, REFI
 export { SUSPENSION_DEFECT_NAMES } from './suspensionResponse';
 export { MISSED_TROUBLE_VIOLATION, UNSCORED_VALUE, plainSuspensionReport } from './suspensionObjective';
 export { TERM_NAMES as SUSPENSION_TERM_NAMES } from './suspensionScore';
-export { boxViolation } from './designSpace';
+export { boxViolationInto } from './designSpace';
 export type { LegCandidateReport, LegObjective, LegTermReport } from './legObjective';
 export { LEG_DEFECT_NAMES } from './legObjective';
 export { LEG_TERM_NAMES } from './legScore';

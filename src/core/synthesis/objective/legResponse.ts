@@ -13,7 +13,7 @@ import { CURVE_DX as CURVE_DX_BINDING, CURVE_DY as CURVE_DY_BINDING, CURVE_OUT_L
 import { EXTENT_COS, EXTENT_LENGTH, EXTENT_MAX_X, EXTENT_MAX_Y, EXTENT_MIN_X, EXTENT_MIN_Y, V_BOUNDS, V_SLOTS, targetFrame } from '../encoding';
 import type { LegProblem } from '../legProblem';
 import type { PoseFamilyId } from '../poseFamilies';
-import { boxViolation, createPathDesignSpace, type PathDesignSpace } from './designSpace';
+import { boxViolationInto, createPathDesignSpace, type PathDesignSpace } from './designSpace';
 import { createPathResponse, type PathResponse } from './pathResponse';
 import { sumViolations } from './score';
 
@@ -113,7 +113,7 @@ export function createLegResponse(problem: LegProblem, family: PoseFamilyId): Le
       figures[G_TRAJECTORY_RMS] = trajectory.evaluation[2 * best];
       return;
     }
-    parts[V_BOUNDS] = boxViolation(x, lower, upper, dim);
+    boxViolationInto(x, lower, upper, dim, parts, V_BOUNDS);
     encoding.load(x, 0, parts);
     encoding.placed(identity, parts);
     // Otherwise feasible: the exact lock search over the full turn.

@@ -27,11 +27,11 @@ import {
   V_SLOTS as V_SLOTS_BINDING,
 } from '../encoding';
 import { createJointFit } from '../jointFit';
-import { measureValue } from '../measures';
+import { measureValueInto } from '../measures';
 import { DEFAULT_MATCH_SAMPLES, type Problem } from '../problem';
-import { boxViolation, type PathDesignSpace } from './designSpace';
+import { boxViolationInto, type PathDesignSpace } from './designSpace';
 import { PE_PENALTY, PE_SIZE_VIOLATION, PE_TRANSMISSION_VIOLATION, createPathExtent, type PathExtent } from './pathExtent';
-import { bestRanked, sumViolations } from './score';
+import { bestRanked, sumViolationsInto } from './score';
 import {
   REFINE_HI as REFINE_HI_BINDING,
   REFINE_IO_LENGTH,
@@ -42,7 +42,7 @@ import {
   REFINE_T as REFINE_T_BINDING,
   createMatchScratch,
   matchInOrder,
-  orderViolation,
+  orderViolationInto,
   refineDriverValue,
 } from '../timing';
 
@@ -120,6 +120,8 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const parts = new Float64Array(V_SLOTS);
   const refineIo = new Float64Array(REFINE_IO_LENGTH);
   const span = new Float64Array(2);
+  /** The order violation before it is added to its slot. */
+  const order = new Float64Array(1);
   /** The motion's spans (from, to) between target points, and back to the first on a closed path. */
   const spans = new Float64Array(2 * n);
   const buf = new Float64Array(CURVE_OUT_LENGTH);
@@ -331,7 +333,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
   function evaluateBranch(x: Float64Array, k: number): void {
     parts.fill(0);
-    parts[V_BOUNDS] = boxViolation(x, lower, upper, dim);
+    boxViolationInto(x, lower, upper, dim, parts, V_BOUNDS);
     encoding.load(x, k, parts);
     const o = k * n;
     if (timing.mode === 'prescribed') {
@@ -339,7 +341,8 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     } else if (timing.mode === 'free') {
       for (let i = 0; i < n; i++) times[o + i] = x[m + i];
       if (refineFree) refineFreeTiming(x, times, o);
-      parts[V_ORDER] += orderViolation(times, o, n, wrap, TAU);
+      orderViolationInto(times, o, n, wrap, TAU, order, 0);
+      parts[V_ORDER] += order[0];
     } else if (freePlacement) {
       matchPlacedTiming(times, o);
     } else {
@@ -409,20 +412,20 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       const ey = points[2 * i + 1] - targets[2 * i + 1];
       d2[i] = ex * ex + ey * ey;
     }
-    let violation = sumViolations(parts, V_SLOTS);
-    if (violation <= 0) {
+    // Value and violation go straight into `evaluation`: no double crosses a call boundary.
+    const slot = 2 * k;
+    sumViolationsInto(parts, V_SLOTS, evaluation, slot + 1);
+    if (evaluation[slot + 1] <= 0) {
       // Otherwise feasible: look for the locks narrower than the samples above.
       encoding.verify(spans, spanCount, parts);
-      violation = sumViolations(parts, V_SLOTS);
+      sumViolationsInto(parts, V_SLOTS, evaluation, slot + 1);
     }
-    let value = measureValue(measure, d2, n, weights);
+    measureValueInto(measure, d2, n, weights, evaluation, slot);
     if (extent !== null) {
       extent.evaluate(unwrapped, n, placement);
-      violation += extent.figures[PE_SIZE_VIOLATION] + extent.figures[PE_TRANSMISSION_VIOLATION];
-      value += extent.figures[PE_PENALTY];
+      evaluation[slot + 1] += extent.figures[PE_SIZE_VIOLATION] + extent.figures[PE_TRANSMISSION_VIOLATION];
+      evaluation[slot] += extent.figures[PE_PENALTY];
     }
-    evaluation[2 * k] = value;
-    evaluation[2 * k + 1] = violation;
   }
 
   /** Evaluates every branch; returns the best one's index. */

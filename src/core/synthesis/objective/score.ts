@@ -6,11 +6,23 @@
  */
 import { compareRanks } from '../ranking';
 
-/** Sum of the violation slots, in slot order. */
-export function sumViolations(parts: Float64Array, count: number): number {
+/**
+ * Sum of the violation slots, in slot order, into `out[index]`: the evaluation's form,
+ * since a double returned from a call that is not inlined is boxed (an allocation).
+ */
+export function sumViolationsInto(parts: Float64Array, count: number, out: Float64Array, index: number): void {
   let violation = 0;
   for (let s = 0; s < count; s++) violation += parts[s];
-  return violation;
+  out[index] = violation;
+}
+
+/** sumViolations' answer before it is returned (no call in between can reenter). */
+const sumScratch = new Float64Array(1);
+
+/** Sum of the violation slots, in slot order (see sumViolationsInto). */
+export function sumViolations(parts: Float64Array, count: number): number {
+  sumViolationsInto(parts, count, sumScratch, 0);
+  return sumScratch[0];
 }
 
 /** The slots a design breaks (any above 0, or NaN), in words, in slot order. */

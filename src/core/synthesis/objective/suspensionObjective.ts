@@ -9,8 +9,8 @@ import { buildLayout, LAYOUT_NAMES, SUSPENSION_CAUTION, suspensionCurves, type L
 import type { SuspensionCurves } from '../../suspension/curves';
 import { createSearchMap } from '../searchMap';
 import { layoutVariableNames, type SuspensionProblem } from '../suspensionProblem';
-import { boxViolation, objectiveSpace, variableRecord } from './designSpace';
-import { sumViolations, violatedSlotNames } from './score';
+import { boxViolationInto, objectiveSpace, variableRecord } from './designSpace';
+import { sumViolationsInto, violatedSlotNames } from './score';
 import { S_BOUNDS, S_SLOTS, SUSPENSION_DEFECT_NAMES, createSuspensionResponse } from './suspensionResponse';
 import { TERM_NAMES, TERM_UNITS, T_LEVERAGE, createSuspensionTerms, scoreSuspension } from './suspensionScore';
 import { reportTerms } from './weightedTerms';
@@ -115,11 +115,11 @@ export function createSuspensionObjective(problem: SuspensionProblem, kind: Layo
   /** Value and violation of x into out; leaves the response and terms describing x. */
   function evaluate(x: Float64Array, out: Float64Array): void {
     response.respond(x);
-    parts[S_BOUNDS] = boxViolation(x, lower, upper, dim);
+    boxViolationInto(x, lower, upper, dim, parts, S_BOUNDS);
     let value = response.reached >= 2 ? scoreSuspension(problem, terms, response.curves, response.reached, parts) : UNSCORED_VALUE;
     if (!(value < Infinity)) value = UNSCORED_VALUE;
     out[0] = value;
-    out[1] = sumViolations(parts, S_SLOTS);
+    sumViolationsInto(parts, S_SLOTS, out, 1);
   }
 
   function describe(xIn: Float64Array): SuspensionCandidateReport {
