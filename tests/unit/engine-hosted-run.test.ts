@@ -37,11 +37,16 @@ afterEach(() => {
   for (const port of opened.splice(0)) port.close();
 });
 
-/** A service on one port of a channel, and a host that reaches it from the other; `end` says the host ended. */
-function hostedEnvironment(): { env: HostingEnvironment; service: RunServiceApi; end: (reason: string) => void } {
+/** A host: a service on one port of a new channel and the connection that reaches it from the other; `end` says the host ended. */
+interface Host {
+  readonly service: RunServiceApi;
+  readonly connection: ServiceConnection;
+  readonly end: (reason: string) => void;
+}
+
+function startHost(local: ReturnType<typeof nodeEnvironment>): Host {
   const { port1, port2 } = new MessageChannel();
   opened.push(port1, port2);
-  const local = nodeEnvironment();
   const service = createRunService(local);
   expose(service, port1 as unknown as Parameters<typeof expose>[1]);
   const listeners = new Set<(reason: string) => void>();
@@ -59,42 +64,34 @@ function hostedEnvironment(): { env: HostingEnvironment; service: RunServiceApi;
     port1.close();
     for (const listener of listeners) listener(reason);
   };
+  return { service, connection, end };
+}
+
+/** One host for every run. */
+function hostedEnvironment(): { env: HostingEnvironment; service: RunServiceApi; end: (reason: string) => void } {
+  const local = nodeEnvironment();
+  const { service, connection, end } = startHost(local);
   return { env: { ...local, runHost: remoteRunHost(local, () => connection) }, service, end };
 }
 
-/** As hostedEnvironment, but each host that ended is replaced by a new service on a new channel at the next connect, as the page starts a new engine worker. */
+/** As hostedEnvironment, but a host that ended is replaced by a new one at the next connect, as the page starts a new engine worker. */
 function replacingEnvironment(): { env: HostingEnvironment; end: (reason: string) => void; hosts: () => number } {
   const local = nodeEnvironment();
-  let current: { connection: ServiceConnection; end: (reason: string) => void } | null = null;
+  let current: Host | null = null;
   let hosts = 0;
   const connect = (): ServiceConnection => {
     if (current !== null && current.connection.lostReason() === null) return current.connection;
-    const { port1, port2 } = new MessageChannel();
-    opened.push(port1, port2);
-    const listeners = new Set<(reason: string) => void>();
-    let lost: string | null = null;
-    const connection: ServiceConnection = {
-      api: wrap<RunServiceApi>(port2 as unknown as Parameters<typeof wrap>[0]),
-      lostReason: () => lost,
-      onLost(listener) {
-        listeners.add(listener);
-        return () => listeners.delete(listener);
-      },
-    };
-    const service = createRunService(local);
-    expose(service, port1 as unknown as Parameters<typeof expose>[1]);
-    const end = (reason: string) => {
-      lost = reason;
-      port1.close();
-      for (const listener of listeners) listener(reason);
-      // A browser terminates the engine worker; here its service lives on in this process, so its runs are let go (ids from 1).
-      for (let id = 1; id <= MAX_TEST_RUN_ID; id++) service.forget(id);
-    };
+    current = startHost(local);
     hosts++;
-    current = { connection, end };
-    return connection;
+    return current.connection;
   };
-  return { env: { ...local, runHost: remoteRunHost(local, connect) }, end: (reason) => current?.end(reason), hosts: () => hosts };
+  const end = (reason: string) => {
+    if (current === null) return;
+    current.end(reason);
+    // A browser terminates the engine worker; here its service lives on in this process, so its runs are let go (ids from 1).
+    for (let id = 1; id <= MAX_TEST_RUN_ID; id++) current.service.forget(id);
+  };
+  return { env: { ...local, runHost: remoteRunHost(local, connect) }, end, hosts: () => hosts };
 }
 
 /** Resolves at the first report `when` holds for. */
