@@ -6,11 +6,14 @@
  * poses it has solved for the design on each side of the new value (SOLVED_BINS: the
  * curve's samples keep the branch they swept), else from the previous pose moved on to
  * the new value (by its rates, or the secant through the two before:
- * PREDICT_MAX_STEP_RAD). Driver values are the
- * crank's rotation from its reference-pose angle. The assembly branch of every dyad is
+ * PREDICT_MAX_STEP_RAD); a value solved already is not solved again, and past the first
+ * turn, where the motion closes in one turn, the poses a turn back serve as they are.
+ * Driver values are the crank's rotation from its reference-pose angle. The assembly branch of every dyad is
  * the one of the reference pose. A slider's direction stays that of the family's default.
  *
- * Locks: the search samples a motion every MOTION_CHECK_STEP_RAD; for a design otherwise
+ * Locks: the search samples a motion every MOTION_CHECK_STEP_RAD, a family with a Newton
+ * block on its bins' values instead (every SOLVED_BIN_RAD, where the curve's samples have
+ * mostly solved it already); for a design otherwise
  * feasible `verify` finds the locks between samples (for the four-bar in closed form:
  * Grashof's criterion for its full turn, the crank's limit angles for a motion; a margin
  * search in lockSearch.ts for the rest, over each run of spans that follow on from each
@@ -27,6 +30,8 @@ import {
   type Plan,
 } from '../linkage';
 import { newtonUnknownSlots } from '../linkage/newton';
+import type { PlanInternal } from '../linkage/plan';
+import { poseRatesInto as poseRatesIntoBinding } from '../linkage/run';
 import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
 import {
   CURVE_DX as CURVE_DX_BINDING,
@@ -70,6 +75,7 @@ const V_TRANSMISSION = V_TRANSMISSION_BINDING;
 const EXTENT_COS = EXTENT_COS_BINDING;
 const run = runBinding;
 const runWithRates = runWithRatesBinding;
+const poseRatesInto = poseRatesIntoBinding;
 
 const TAU = 2 * Math.PI;
 /** Driver step of the lock and transmission checks along a motion: 72 per turn. */
@@ -115,12 +121,28 @@ const SOLVED_BINS = 180;
 const SOLVED_BIN_RAD = TAU / SOLVED_BINS;
 /** Bins searched on each side for the poses solved around a driver value. */
 const SOLVED_REACH_BINS = 3;
+/** Most samples of one motion on the bins' driver values (four turns); a longer one is sampled every MOTION_CHECK_STEP_RAD. */
+const MOTION_MAX_SAMPLES = 4 * SOLVED_BINS;
 /**
  * Past the first turn, the poses a turn back start a solve only where they are within
  * this share of the last step's motion of the last pose moved on: the same motion, one
  * turn on, not another assembly.
  */
 const SOLVED_WRAP_AGREE = 0.25;
+/**
+ * A driver value within this of one solved (rad) is that value: a few rounding units of
+ * a value two turns on (4π), where t − 2π and the bin's k·SOLVED_BIN_RAD differ in the
+ * last bits. The pose moves by less than the Newton tolerance in it (at the fastest a
+ * prediction allows, PREDICT_MAX_SPEED crank lengths per radian, 1e-13 crank lengths).
+ */
+const SAME_DRIVER_VALUE_RAD = 1e-14;
+/**
+ * A motion closes in one turn where its pose a turn on is its first pose within this
+ * share of the crank: two solutions of the same closure equations that near each other
+ * are one (the solver's tolerance is 1e-13 of the linkage's size); another assembly, a
+ * motion that closes only after two turns, is a macroscopic distance away.
+ */
+const CLOSURE_REL_TOL = 1e-7;
 
 class PlanCurve implements CurveEvaluator, MarginCurve {
   readonly secondDerivatives = false;
@@ -136,6 +158,15 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private lastHasRates = false;
   /** Only a Newton block starts from the pose it is given; dyads need no prediction. */
   private readonly predicts: boolean;
+  /** The curve keeps the poses it solves (a plan with a Newton block: see SOLVED_BINS). */
+  get keepsSolved(): boolean {
+    return this.predicts;
+  }
+  /**
+   * A pose's rates follow from the pose alone (poseRatesInto): a rotation driver's. A
+   * length driver's lengths move with its value, which only a solve sets.
+   */
+  private readonly ratesFromPose: boolean;
   /** Pose offsets of the joints the Newton blocks solve: the only ones whose start matters. */
   private readonly unknowns: Int32Array;
   private readonly pSlot: number;
@@ -146,15 +177,35 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   /** Driver value of each bin's solved pose (NaN: none), and the poses (see SOLVED_BIN_RAD). */
   private readonly solvedT: Float64Array;
   private readonly solvedPoses: Float64Array;
+  /** Each bin's pose's rates, where solvedHasRates is 1 (the pose was solved with them). */
+  private readonly solvedRates: Float64Array;
+  private readonly solvedHasRates: Uint8Array;
+  /** Driver value of each bin's last solve that failed (NaN: none). */
+  private readonly failedT: Float64Array;
+  /** The bin whose pose `start` last found solved at its value. */
+  private knownBin = -1;
+  /** The motion closes in one turn (closesInOneTurn): 1 yes, 0 no, -1 not yet asked. */
+  private closes = -1;
+  /** The lower bin `bracket` found. */
+  private bracketLo = -1;
+  /** The last solve started from the reference pose (see failed). */
+  private fromReference = false;
+  /** The Newton blocks' joints interpolated between bins (interpolate). */
+  private readonly begin: Float64Array;
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
     this.plan = plan;
     this.pose = new Float64Array(2 * plan.slotCount);
     this.rates = new Float64Array(2 * plan.slotCount);
     this.previous = new Float64Array(2 * plan.slotCount);
     this.predicts = plan.newtonUnknowns > 0;
+    this.ratesFromPose = !(plan as PlanInternal).driverIsLength;
     this.unknowns = newtonUnknownSlots(plan);
     this.solvedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
     this.solvedPoses = new Float64Array(this.predicts ? SOLVED_BINS * 2 * plan.slotCount : 0);
+    this.solvedRates = new Float64Array(this.predicts ? SOLVED_BINS * 2 * plan.slotCount : 0);
+    this.solvedHasRates = new Uint8Array(this.predicts ? SOLVED_BINS : 0);
+    this.failedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
+    this.begin = new Float64Array(2 * plan.slotCount);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
     this.tipSlot = tipSlot;
@@ -162,6 +213,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   /** A new design: the poses solved for the last one are no start for its solves. */
   forgetSolved(): void {
     this.solvedT.fill(NaN);
+    this.failedT.fill(NaN);
+    this.closes = -1;
   }
   /** Start the next sweep from the reference pose. */
   reset(): void {
@@ -207,34 +260,126 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     if (ok) {
       this.lastT = t;
       this.lastHasRates = withRates;
-      if (this.predicts) this.keepSolved(t);
+      if (this.predicts) this.keepSolved(t, withRates);
       return;
     }
+    this.failed(t);
+  }
+  /**
+   * A solve at t failed: the reference pose and no history. A failure from the reference
+   * pose is kept for failedAt: every later solve at t from there fails the same way.
+   */
+  private failed(t: number): void {
     this.pose.set(this.plan.reference);
     this.lastT = NaN;
     this.previousT = NaN;
+    if (!this.predicts || !this.fromReference) return;
+    const u = t - Math.floor(t / TAU) * TAU;
+    const bin = Math.round(u / SOLVED_BIN_RAD);
+    if (bin >= 0 && bin < SOLVED_BINS) this.failedT[bin] = u;
   }
-  /** Keeps the pose just solved at t in the bin nearest t, when t is in [0, 2π). */
-  private keepSolved(t: number): void {
+  /** Keeps the pose just solved at t (and its rates, when solved with them) in the bin nearest t, when t is in [0, 2π). */
+  private keepSolved(t: number, withRates: boolean): void {
     const bin = Math.round(t / SOLVED_BIN_RAD);
     if (!(bin >= 0 && bin < SOLVED_BINS)) return;
     this.solvedT[bin] = t;
     const pose = this.pose;
     const o = bin * pose.length;
     for (let i = 0; i < pose.length; i++) this.solvedPoses[o + i] = pose[i];
+    this.solvedHasRates[bin] = withRates ? 1 : 0;
+    if (withRates) {
+      const rates = this.rates;
+      for (let i = 0; i < rates.length; i++) this.solvedRates[o + i] = rates[i];
+    }
   }
 
   /**
-   * The start of a Newton block's solve at t (see SOLVED_BINS): the line through the
-   * poses solved nearest t on each side, else the last pose moved on (predict). Past the
-   * first turn, the poses a whole number of turns back, only where they agree with the
-   * last pose moved on (SOLVED_WRAP_AGREE): a motion that closes after two turns has
-   * another pose there. True when t itself was solved: the pose is its solution.
+   * True when a solve at t now would fail without trying it: the curve is where a failure
+   * leaves it (the reference pose, no history), no pose solved near t (a turn back or
+   * not) would start it, and a solve at t from the reference pose failed before. The same
+   * solve, from the same start, of the same equations (the driver's every turn, to
+   * rounding), fails the same way. The curve is then left as a failed solve leaves it.
    */
-  private start(t: number): boolean {
+  failedAt(t: number): boolean {
+    if (!this.predicts || !Number.isNaN(this.lastT) || !this.atReference()) return false;
+    const u = t - Math.floor(t / TAU) * TAU;
+    const bin = Math.round(u / SOLVED_BIN_RAD);
+    if (!(bin < SOLVED_BINS && Math.abs(this.failedT[bin] - u) <= SAME_DRIVER_VALUE_RAD)) return false;
+    if (this.bracket(u, bin) >= 0) return false;
+    this.failed(t);
+    return true;
+  }
+
+  /**
+   * True when t is solved already (its bin holds it; past the first turn, where the
+   * motion closes in one turn, a turn back), its pose then copied into `into` when
+   * given; the curve itself does not move.
+   */
+  solvedPoseAt(t: number, into: Float64Array | null): boolean {
+    if (!this.predicts || !(t >= 0)) return false;
     const turns = Math.floor(t / TAU);
     const u = t - turns * TAU;
     const bin = Math.round(u / SOLVED_BIN_RAD);
+    if (!(bin < SOLVED_BINS)) return false;
+    if (turns === 0 ? this.solvedT[bin] !== t : !(Math.abs(this.solvedT[bin] - u) <= SAME_DRIVER_VALUE_RAD && this.closesInOneTurn())) return false;
+    if (into !== null) {
+      const o = bin * into.length;
+      for (let i = 0; i < into.length; i++) into[i] = this.solvedPoses[o + i];
+    }
+    return true;
+  }
+
+  /**
+   * The motion solved in the first turn goes on, a turn later, as it went from the start:
+   * solved from the last pose kept in the turn to the first one's value a turn on, it
+   * lands on that first pose (within CLOSURE_REL_TOL of the crank), so by continuation
+   * every value a turn on has the pose a turn back. Found once per design, when first
+   * asked (a motion past the first turn comes after the curve's samples).
+   */
+  private closesInOneTurn(): boolean {
+    if (this.closes >= 0) return this.closes === 1;
+    const times = this.solvedT;
+    let first = 0;
+    while (first <= SOLVED_REACH_BINS && !(times[first] >= 0)) first++;
+    let last = SOLVED_BINS - 1;
+    while (last >= SOLVED_BINS - 1 - SOLVED_REACH_BINS && !(times[last] >= 0)) last--;
+    // No poses solved near both ends of the turn yet: not known, asked again later.
+    if (first > SOLVED_REACH_BINS || last < SOLVED_BINS - 1 - SOLVED_REACH_BINS) return false;
+    this.closes = 0;
+    // Solved in the scratch `begin`, so the curve's own pose and history stay as they are.
+    const pose = this.begin;
+    const stride = pose.length;
+    const poses = this.solvedPoses;
+    for (let i = 0; i < stride; i++) pose[i] = poses[last * stride + i];
+    if (!run(this.plan, this.plan.driverReferenceValue + TAU + times[first], pose)) return false;
+    const tol = CLOSURE_REL_TOL * this.crankMm;
+    const unknowns = this.unknowns;
+    for (let k = 0; k < unknowns.length; k++) {
+      const i = unknowns[k];
+      const o = first * stride + i;
+      if (!(Math.abs(pose[i] - poses[o]) <= tol && Math.abs(pose[i + 1] - poses[o + 1]) <= tol)) return false;
+    }
+    this.closes = 1;
+    return true;
+  }
+
+  /** The Newton blocks' joints are where the reference pose has them. */
+  private atReference(): boolean {
+    const pose = this.pose;
+    const ref = this.plan.reference;
+    const unknowns = this.unknowns;
+    for (let k = 0; k < unknowns.length; k++) {
+      const i = unknowns[k];
+      if (pose[i] !== ref[i] || pose[i + 1] !== ref[i + 1]) return false;
+    }
+    return true;
+  }
+
+  /**
+   * The bins solved nearest u on each side (see SOLVED_BINS), into bracketLo and the
+   * return value (hi); -1 when there is none on the upper side or the lower one.
+   */
+  private bracket(u: number, bin: number): number {
     const times = this.solvedT;
     let lo = -1;
     let hi = -1;
@@ -250,12 +395,54 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
         break;
       }
     }
+    this.bracketLo = lo;
+    return hi;
+  }
+
+  /** `start` found t solved already (knownBin): the pose is its solution; with its rates, the bin's, else worked out from the pose and kept. */
+  private knownSolved(t: number, withRates: boolean): void {
+    this.lastT = t;
+    this.lastHasRates = withRates;
+    if (!withRates) return;
+    const bin = this.knownBin;
+    const rates = this.rates;
+    const o = bin * rates.length;
+    if (this.solvedHasRates[bin] === 1) {
+      for (let i = 0; i < rates.length; i++) rates[i] = this.solvedRates[o + i];
+      return;
+    }
+    poseRatesInto(this.plan as PlanInternal, this.pose, rates);
+    for (let i = 0; i < rates.length; i++) this.solvedRates[o + i] = rates[i];
+    this.solvedHasRates[bin] = 1;
+  }
+
+  /**
+   * The start of a Newton block's solve at t (see SOLVED_BINS): the line through the
+   * poses solved nearest t on each side (interpolate), else the last pose moved on
+   * (predict). Past the first turn, the poses a whole number of turns back: as they are
+   * where the motion closes in one turn (closesInOneTurn), else only where they agree
+   * with the last pose moved on (SOLVED_WRAP_AGREE): a motion that closes after two
+   * turns has another pose there. True when t itself was solved: the pose is its solution.
+   */
+  private start(t: number): boolean {
+    let turns = Math.floor(t / TAU);
+    const u = t - turns * TAU;
+    // A motion that closes in one turn has a turn on the poses a turn back: t is u.
+    if (turns !== 0 && this.closesInOneTurn()) turns = 0;
+    const bin = Math.round(u / SOLVED_BIN_RAD);
+    const times = this.solvedT;
+    let hi = this.bracket(u, bin);
+    let lo = this.bracketLo;
     const pose = this.pose;
     const unknowns = this.unknowns;
     const previous = this.previous;
+    this.fromReference = false;
     if (hi < 0 || turns !== 0) {
       this.predict(t);
-      if (hi < 0) return false;
+      if (hi < 0) {
+        this.fromReference = this.atReference();
+        return false;
+      }
     } else {
       // The sequential predictor's history moves on as predict would leave it.
       for (let k = 0; k < unknowns.length; k++) {
@@ -265,35 +452,111 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       }
       this.previousT = this.lastT;
     }
+    // t itself solved already: the pose there is its solution (SAME_DRIVER_VALUE_RAD).
+    const same = u - times[lo] <= SAME_DRIVER_VALUE_RAD ? lo : times[hi] - u <= SAME_DRIVER_VALUE_RAD ? hi : -1;
+    if (same >= 0) {
+      lo = same;
+      hi = same;
+    }
     const poses = this.solvedPoses;
     const stride = pose.length;
     const oLo = lo * stride;
-    const oHi = hi * stride;
-    if (turns === 0 && times[lo] === u) {
+    if (turns === 0 && same >= 0) {
       for (let i = 0; i < stride; i++) pose[i] = poses[oLo + i];
+      this.knownBin = same;
       return true;
     }
-    const w = hi === lo ? 0 : (u - times[lo]) / (times[hi] - times[lo]);
+    this.interpolate(u, lo, hi);
+    const begin = this.begin;
     if (turns !== 0) {
       // Past the first turn: only where the start a turn back agrees with the last pose moved on.
       let disagree = 0;
       let moved = 0;
       for (let k = 0; k < unknowns.length; k++) {
         for (let i = unknowns[k], end = i + 2; i < end; i++) {
-          const d = Math.abs(poses[oLo + i] + w * (poses[oHi + i] - poses[oLo + i]) - pose[i]);
+          const d = Math.abs(begin[i] - pose[i]);
           const m = Math.abs(pose[i] - previous[i]);
           if (!(d <= disagree)) disagree = d;
           if (!(m <= moved)) moved = m;
         }
       }
       if (!(disagree <= SOLVED_WRAP_AGREE * moved)) return false;
+      if (same >= 0) {
+        // The same solve a turn back: Newton's method from its solution stays there.
+        for (let i = 0; i < stride; i++) pose[i] = poses[oLo + i];
+        this.knownBin = same;
+        return true;
+      }
     }
     for (let k = 0; k < unknowns.length; k++) {
       const i = unknowns[k];
-      pose[i] = poses[oLo + i] + w * (poses[oHi + i] - poses[oLo + i]);
-      pose[i + 1] = poses[oLo + i + 1] + w * (poses[oHi + i + 1] - poses[oLo + i + 1]);
+      pose[i] = begin[i];
+      pose[i + 1] = begin[i + 1];
     }
     return false;
+  }
+
+  /**
+   * The Newton blocks' joints at u between the poses of bins lo and hi into `begin`, by
+   * the cubic through both with their rates where both were solved with rates (Hermite
+   * interpolation), else the straight line. The cubic is within about the fourth power
+   * of the bin of the solution, so a block converges in one Newton step; the line only
+   * within the square. Only where no joint moves faster than PREDICT_MAX_SPEED: near a
+   * lock's edge the motion turns like a square root, and a cubic overshoots it.
+   */
+  private interpolate(u: number, lo: number, hi: number): void {
+    const times = this.solvedT;
+    const poses = this.solvedPoses;
+    const slopes = this.solvedRates;
+    const unknowns = this.unknowns;
+    const begin = this.begin;
+    const stride = begin.length;
+    const oLo = lo * stride;
+    const oHi = hi * stride;
+    if (hi === lo) {
+      for (let k = 0; k < unknowns.length; k++) {
+        const i = unknowns[k];
+        begin[i] = poses[oLo + i];
+        begin[i + 1] = poses[oLo + i + 1];
+      }
+      return;
+    }
+    const fastest = PREDICT_MAX_SPEED * this.crankMm;
+    const span = times[hi] - times[lo];
+    const w = (u - times[lo]) / span;
+    if (this.solvedHasRates[lo] === 1 && this.solvedHasRates[hi] === 1 && this.slowerThan(lo, fastest) && this.slowerThan(hi, fastest)) {
+      // Hermite's basis: h00 = 2w³ − 3w² + 1 = 1 − h01, h10 = w³ − 2w² + w, h11 = w³ − w².
+      const w2 = w * w;
+      const w3 = w2 * w;
+      const h01 = 3 * w2 - 2 * w3;
+      const h10 = (w3 - 2 * w2 + w) * span;
+      const h11 = (w3 - w2) * span;
+      for (let k = 0; k < unknowns.length; k++) {
+        for (let i = unknowns[k], end = i + 2; i < end; i++) {
+          const p0 = poses[oLo + i];
+          begin[i] = p0 + h01 * (poses[oHi + i] - p0) + h10 * slopes[oLo + i] + h11 * slopes[oHi + i];
+        }
+      }
+      return;
+    }
+    for (let k = 0; k < unknowns.length; k++) {
+      for (let i = unknowns[k], end = i + 2; i < end; i++) {
+        const p0 = poses[oLo + i];
+        begin[i] = p0 + w * (poses[oHi + i] - p0);
+      }
+    }
+  }
+
+  /** No Newton block's joint moves faster than `fastest` (mm per radian) by the rates kept in bin a. */
+  private slowerThan(a: number, fastest: number): boolean {
+    const rates = this.solvedRates;
+    const unknowns = this.unknowns;
+    const o = a * this.begin.length;
+    for (let k = 0; k < unknowns.length; k++) {
+      const i = o + unknowns[k];
+      if (!(Math.abs(rates[i]) <= fastest && Math.abs(rates[i + 1]) <= fastest)) return false;
+    }
+    return true;
   }
 
   /**
@@ -303,9 +566,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   marginAt(t: number): number {
     const plan = this.plan;
-    if (this.predicts) this.start(t);
-    const ok = runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates);
-    this.solved(t, ok, true);
+    const known = this.predicts && this.start(t) && this.ratesFromPose;
+    const ok = known || runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates);
+    if (known) this.knownSolved(t, true);
+    else this.solved(t, ok, true);
     if (!ok) return -1;
     const rates = this.rates;
     let fastest = 0;
@@ -320,14 +584,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const plan = this.plan;
     const value = plan.driverReferenceValue + t;
     // A pose solved at t already is its solution: no need to solve it again for the point.
-    const known = this.predicts && this.start(t) && order === 0;
+    const known = this.predicts && this.start(t) && (order === 0 || this.ratesFromPose);
     const ok = known || (order === 0 ? run(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates));
-    if (known) {
-      this.lastT = t;
-      this.lastHasRates = false;
-    } else {
-      this.solved(t, ok, order > 0);
-    }
+    if (known) this.knownSolved(t, order > 0);
+    else this.solved(t, ok, order > 0);
     const s = this.pSlot;
     if (!ok) {
       // A finite stand-in: the reference point.
@@ -395,6 +655,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   const reference = new Float64Array(2 * plan.slotCount);
   const point = new Float64Array(6);
   const lockSearch = new LockSearch(2 * plan.slotCount, LOCK_SEARCH_MAX_STEPS);
+  const solvedPose = new Float64Array(2 * plan.slotCount);
 
   /** Length of side i of a loop in the reference pose (ground, input, coupler, output for a loop through ground). */
   function loopLength(loop: FourBarLoop, i: number): number {
@@ -404,11 +665,11 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     return Math.hypot(ref[2 * b] - ref[2 * a], ref[2 * b + 1] - ref[2 * a + 1]);
   }
 
-  function transmissionAtPose(parts: Float64Array, share: number): void {
+  function transmissionAtPose(parts: Float64Array, share: number, pose: Float64Array = curve.pose): void {
     if (cosLimit >= 1) return;
     for (let q = 0; q < loops.length; q++) {
       const loop = loops[q];
-      const c = Math.abs(Math.cos(transmissionAngleRad(loop, curve.pose)));
+      const c = Math.abs(Math.cos(transmissionAngleRad(loop, pose)));
       if (!(c <= cosLimit)) parts[V_TRANSMISSION] += share * (Number.isNaN(c) ? 1 : c - cosLimit);
     }
   }
@@ -423,6 +684,39 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       else transmissionAtPose(parts, h / TAU);
     }
     return (failed * h) / TAU;
+  }
+
+  /**
+   * sweepFailures for a motion from a to b, on the curve's bins' driver values (every
+   * SOLVED_BIN_RAD, finer than MOTION_CHECK_STEP_RAD) between them and at b: where the
+   * curve has solved a value already (its samples, of the same bins), its pose or its
+   * failure is that value's without a solve. The share of a turn that failed.
+   */
+  function motionFailures(a: number, b: number, parts: Float64Array): number {
+    const first = Math.floor(a / SOLVED_BIN_RAD) + 1;
+    const last = Math.ceil(b / SOLVED_BIN_RAD) - 1;
+    const count = last - first + 2;
+    // Without a Newton block every solve is a run of dyads, as cheap as a lookup: sampled as before.
+    if (!curve.keepsSolved || !(count >= 1 && count <= MOTION_MAX_SAMPLES)) return sweepFailures(a, b, parts);
+    const share = (b - a) / (count * TAU);
+    const into = cosLimit < 1 ? solvedPose : null;
+    let failed = 0;
+    // The last value passed over as solved already: the curve takes it up before a solve, as its start.
+    let passed = NaN;
+    for (let k = first; k <= last + 1; k++) {
+      const t = k <= last ? k * SOLVED_BIN_RAD : b;
+      if (curve.solvedPoseAt(t, into)) {
+        if (into !== null) transmissionAtPose(parts, share, into);
+        passed = t;
+        continue;
+      }
+      if (passed === passed) curve.at(passed, 0, point);
+      passed = NaN;
+      if (curve.failedAt(t) || curve.at(t, 0, point) < 0) failed++;
+      else transmissionAtPose(parts, share);
+    }
+    if (passed === passed) curve.at(passed, 0, point);
+    return failed * share;
   }
 
   /** Locks met in a full turn from the reference pose, found exactly. */
@@ -460,7 +754,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       // A full turn was swept in load: it found every lock and every poor transmission angle.
       if (fullTurn || !(b > a)) return;
       curve.at(a, 0, point);
-      parts[V_BRANCH] += sweepFailures(a, b, parts);
+      parts[V_BRANCH] += motionFailures(a, b, parts);
     },
     verify(spans: Float64Array, count: number, parts: Float64Array): void {
       if (fullTurn) {
