@@ -5,11 +5,11 @@
  * state and the same slices give the same evaluations, bit for bit.
  */
 import {
-  canonicalValue,
-  canonicalViolation,
+  canonicalInto,
   createOptimizer,
   MAX_STREAM,
   packState,
+  PrefixViews,
   Restart,
   restoreOptimizer,
   RUN_EVALUATIONS_PER_VARIABLE,
@@ -105,13 +105,11 @@ export class Island {
   // Scratch, reused by every step.
   private readonly real: Float64Array;
   private readonly out = new Float64Array(2);
-  private values = new Float64Array(0);
-  private violations = new Float64Array(0);
-  private batchViews: { n: number; values: Float64Array; violations: Float64Array } = {
-    n: -1,
-    values: new Float64Array(0),
-    violations: new Float64Array(0),
-  };
+  /** `out[1]`, the violation the objective wrote, as `canonicalInto` reads it. */
+  private readonly outViolation = this.out.subarray(1);
+  /** A batch's values and violations, one view per batch size (a shrinking population changes it every generation). */
+  private readonly values = new PrefixViews();
+  private readonly violations = new PrefixViews();
 
   private constructor(config: IslandConfig, objective: SearchObjective, optimizer: Optimizer, archive: CandidateArchive) {
     this.config = config;
@@ -205,7 +203,8 @@ export class Island {
       const points = opt.ask();
       const n = points.length;
       if (n === 0) break;
-      const { values, violations } = this.batchBuffers(n);
+      const values = this.values.get(n);
+      const violations = this.violations.get(n);
       try {
         for (let k = 0; k < n; k++) this.evaluateInto(points[k], k, values, violations);
       } catch (error) {
@@ -269,26 +268,13 @@ export class Island {
     };
   }
 
-  private batchBuffers(n: number): { values: Float64Array; violations: Float64Array } {
-    if (this.batchViews.n === n) return this.batchViews;
-    if (this.values.length < n) {
-      this.values = new Float64Array(n);
-      this.violations = new Float64Array(n);
-    }
-    this.batchViews = { n, values: this.values.subarray(0, n), violations: this.violations.subarray(0, n) };
-    return this.batchViews;
-  }
-
   private evaluateInto(u: Float64Array, k: number, values: Float64Array, violations: Float64Array): void {
     const o = this.objective;
     const x = o.fromSearchBoxInto(u, this.real);
     o.evaluate(x, this.out);
-    const value = canonicalValue(this.out[0]);
-    const violation = canonicalViolation(this.out[1], value);
-    values[k] = value;
-    violations[k] = violation;
+    canonicalInto(this.out, this.outViolation, 0, values, violations, k);
     // The archive keeps x as evaluated: a repair the objective wrote back is part of the design.
-    this.archive.offer(x, value, violation);
+    this.archive.offerAt(x, values, violations, k);
   }
 
   /** Moves waiting immigrants into the optimizer if it takes them now; drops them if it never will. */

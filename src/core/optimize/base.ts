@@ -22,6 +22,11 @@ export abstract class OptimizerBase {
     return { x: Float64Array.from(b.x), value: b.value, violation: b.violation };
   }
 
+  /** The best point so far itself, not a copy (as `best()` gives): to read, for a scheme that checks it after every batch. */
+  bestSoFar(): Readonly<BestTracker> {
+    return this.bestPoint;
+  }
+
   done(): boolean {
     return this.stop !== null;
   }

@@ -1,3 +1,6 @@
+/** Handed-out arrays kept per buffer: Nelder–Mead alternates between three batch sizes. */
+const HANDOUT_SLOTS = 4;
+
 /**
  * The points of one `ask()`: rows of a preallocated buffer, handed out as subarray
  * views that are made once. Two buffers alternate, so a stale batch passed to
@@ -9,7 +12,9 @@ export class PointBatch {
   private readonly dim: number;
   private readonly buffers: [Float64Array, Float64Array];
   private readonly views: [Float64Array[], Float64Array[]];
-  private readonly handouts: [Float64Array[], Float64Array[]] = [[], []];
+  /** Per buffer, arrays of its first views, each of a batch size seen; a new size resizes the next in turn. */
+  private readonly handouts: [Float64Array[][], Float64Array[][]] = [[], []];
+  private readonly nextSlot = new Int32Array(2);
   private side: 0 | 1 = 0;
 
   constructor(dim: number, capacity: number) {
@@ -44,11 +49,21 @@ export class PointBatch {
   /** Views of the pending rows; the array and the views are reused, valid until the next tell. */
   points(): readonly Float64Array[] {
     const side = this.side;
-    let handout = this.handouts[side];
-    if (handout.length !== this.count) {
-      handout = this.views[side].slice(0, this.count);
-      this.handouts[side] = handout;
+    const n = this.count;
+    const slots = this.handouts[side];
+    for (let s = 0; s < slots.length; s++) if (slots[s].length === n) return slots[s];
+    const views = this.views[side];
+    if (slots.length < HANDOUT_SLOTS) {
+      const made = views.slice(0, n);
+      slots.push(made);
+      return made;
     }
+    // Resized in place, so a population that shrinks every generation makes no new array.
+    const s = this.nextSlot[side];
+    this.nextSlot[side] = (s + 1) % HANDOUT_SLOTS;
+    const handout = slots[s];
+    if (handout.length > n) handout.length = n;
+    for (let k = handout.length; k < n; k++) handout.push(views[k]);
     return handout;
   }
 

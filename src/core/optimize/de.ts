@@ -19,7 +19,7 @@ import { PointBatch } from './batch';
 import { encodeNumbers, encodeReals, fail, readInteger, readLength, readLiteral, readNumbers, readReals, readViolations } from './codec';
 import { checkImmigrants, IMMIGRATION_LATER, IMMIGRATION_NEVER, rankImmigrants, replaceWorst } from './immigration';
 import type { Prng } from './prng';
-import { BestTracker, canonicalValue, canonicalViolation, precedes, rankInto } from './ranking';
+import { BestTracker, canonicalInto, precedesAt, rankInto } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
 import type { DeState, Immigrant, Immigration, Optimizer, ResolvedDe, StopReason } from './types';
 
@@ -47,6 +47,9 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
   private violations: Float64Array;
   private spareViolations: Float64Array;
   private readonly trialF: Float64Array;
+  /** The told batch's canonical values and violations, for `BestTracker.offerAt`. */
+  private readonly toldValues: Float64Array;
+  private readonly toldViolations: Float64Array;
   private readonly trialCR: Float64Array;
   /** One uniform per coordinate for the crossover of one trial, drawn as a block. */
   private readonly uniforms: Float64Array;
@@ -64,6 +67,9 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
   private readonly successCR: Float64Array;
   private readonly successGain: Float64Array;
   private phase: 'init' | 'evolve' = 'init';
+  /** DE/rand/1/bin's F and CR, read by each trial (not passed: a double passed to a call not inlined is boxed). */
+  private readonly differentialWeight: number;
+  private readonly crossoverRate: number;
 
   private constructor(config: ResolvedDe, rng: Prng, evaluations: number, stop: StopReason | null, best: BestTracker) {
     // One generation is one batch: room for the whole (initial) population.
@@ -73,6 +79,8 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
     this.config = config;
     this.rng = rng;
     this.lshade = config.kind === 'lshade';
+    this.differentialWeight = config.kind === 'de-rand-1-bin' ? config.differentialWeight : 0;
+    this.crossoverRate = config.kind === 'de-rand-1-bin' ? config.crossoverRate : 0;
     const capacity = config.kind === 'lshade' ? config.initialPopulation : config.population;
     this.populationSize = capacity;
     this.population = new Float64Array(capacity * d);
@@ -82,6 +90,8 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
     this.violations = new Float64Array(capacity).fill(Infinity);
     this.spareViolations = new Float64Array(capacity);
     this.trialF = new Float64Array(capacity);
+    this.toldValues = new Float64Array(capacity);
+    this.toldViolations = new Float64Array(capacity);
     this.trialCR = new Float64Array(capacity);
     this.uniforms = new Float64Array(d);
     this.normals = new Float64Array(config.kind === 'lshade' ? capacity : 0);
@@ -161,16 +171,19 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
     const fit = this.values;
     const viol = this.violations;
     const best = this.bestPoint;
+    const toldValues = this.toldValues;
+    const toldViolations = this.toldViolations;
     let successes = 0;
     for (let i = 0; i < count; i++) {
-      const v = canonicalValue(values[i]);
-      const c = canonicalViolation(violations === undefined ? 0 : violations[i], v);
-      best.offer(trials, i * d, v, c);
+      canonicalInto(values, violations, i, toldValues, toldViolations, i);
+      const v = toldValues[i];
+      const c = toldViolations[i];
+      best.offerAt(trials, i * d, toldValues, toldViolations, i);
       const parentValue = fit[i];
       const parentViolation = viol[i];
       if (this.phase === 'evolve') {
-        if (precedes(parentValue, parentViolation, v, c)) continue;
-        if (this.lshade && precedes(v, c, parentValue, parentViolation)) {
+        if (precedesAt(fit, viol, i, toldValues, toldViolations, i)) continue;
+        if (this.lshade && precedesAt(toldValues, toldViolations, i, fit, viol, i)) {
           this.archiveParent(i);
           this.successF[successes] = this.trialF[i];
           this.successCR[successes] = this.trialCR[i];
@@ -262,7 +275,7 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
       this.rng.fillCauchy(this.cauchys, count);
       for (let i = 0; i < count; i++) this.currentToPBestTrial(trials, i, pCount);
     } else {
-      for (let i = 0; i < count; i++) this.randOneBinTrial(trials, i, config.differentialWeight, config.crossoverRate);
+      for (let i = 0; i < count; i++) this.randOneBinTrial(trials, i);
     }
     this.batch.commit(count);
   }
@@ -280,10 +293,11 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
       cr = memoryCR + CR_DEVIATION * this.normals[i];
       cr = cr < 0 ? 0 : cr > 1 ? 1 : cr;
     }
-    const memoryF = this.memoryF[r];
-    let f = memoryF + F_SCALE * this.cauchys[i];
-    for (let tries = 1; !(f > 0) && tries < F_DRAW_CAP; tries++) f = memoryF + F_SCALE * rng.cauchy();
-    if (!(f > 0)) f = FALLBACK_F;
+    let f = this.memoryF[r] + F_SCALE * this.cauchys[i];
+    if (!(f > 0)) {
+      this.redrawF(i, r);
+      f = this.trialF[i];
+    }
     if (f > 1) f = 1;
     this.trialF[i] = f;
     this.trialCR[i] = cr;
@@ -312,8 +326,22 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
     }
   }
 
+  /**
+   * L-SHADE's redraws of a non-positive F for trial i from memory entry r, into
+   * `trialF[i]` (not returned: a double returned from a call not inlined is boxed, and
+   * this cold loop is kept out of the trial's code).
+   */
+  private redrawF(i: number, r: number): void {
+    const memoryF = this.memoryF[r];
+    let f = -1;
+    for (let tries = 1; !(f > 0) && tries < F_DRAW_CAP; tries++) f = memoryF + F_SCALE * this.rng.cauchy();
+    this.trialF[i] = f > 0 ? f : FALLBACK_F;
+  }
+
   /** DE/rand/1/bin trial i: v = x_r1 + F (x_r2 − x_r3), binomial crossover with the parent. */
-  private randOneBinTrial(trials: Float64Array, i: number, f: number, cr: number): void {
+  private randOneBinTrial(trials: Float64Array, i: number): void {
+    const f = this.differentialWeight;
+    const cr = this.crossoverRate;
     const rng = this.rng;
     const d = this.dim;
     const n = this.populationSize;

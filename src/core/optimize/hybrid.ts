@@ -23,8 +23,9 @@ import { DifferentialEvolution } from './de';
 import { DistinctElite } from './elite';
 import { checkImmigrants, IMMIGRATION_LATER, IMMIGRATION_NEVER, rankImmigrants } from './immigration';
 import { NelderMead } from './nelder-mead';
+import { PrefixViews } from './prefixViews';
 import type { Prng } from './prng';
-import { BestTracker, canonicalValue, canonicalViolation } from './ranking';
+import { BestTracker, canonicalInto } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
 import type { HybridState, Immigrant, Immigration, Optimizer, ResolvedDe, ResolvedHybrid, ResolvedNelderMead, StopReason } from './types';
 
@@ -39,6 +40,9 @@ export class Hybrid extends OptimizerBase implements Optimizer {
   private readonly candidates: DistinctElite;
   private polishIndex = 0;
   private polish: NelderMead | null = null;
+  /** The told batch's canonical values and violations, for the `offerAt` forms. */
+  private readonly toldValues = new PrefixViews();
+  private readonly toldViolations = new PrefixViews();
 
   private constructor(config: ResolvedHybrid, rng: Prng, evaluations: number, stop: StopReason | null, best: BestTracker) {
     super(evaluations, stop, best);
@@ -119,11 +123,13 @@ export class Hybrid extends OptimizerBase implements Optimizer {
     part.tell(points, values, violations);
     // The told points still hold their coordinates: the part writes its next batch into its other buffer.
     const global = this.phase === 'global';
-    for (let k = 0; k < points.length; k++) {
-      const v = canonicalValue(values[k]);
-      const c = canonicalViolation(violations === undefined ? 0 : violations[k], v);
-      this.bestPoint.offer(points[k], 0, v, c);
-      if (global) this.candidates.offer(points[k], v, c);
+    const n = points.length;
+    const toldValues = this.toldValues.get(n);
+    const toldViolations = this.toldViolations.get(n);
+    for (let k = 0; k < n; k++) {
+      canonicalInto(values, violations, k, toldValues, toldViolations, k);
+      this.bestPoint.offerAt(points[k], 0, toldValues, toldViolations, k);
+      if (global) this.candidates.offerAt(points[k], toldValues, toldViolations, k);
     }
     this.evaluationsTold += points.length;
     const { targetValue, maxEvaluations } = this.config;

@@ -40,7 +40,7 @@ import {
 } from './codec';
 import { checkImmigrants, IMMIGRATION_NEVER } from './immigration';
 import type { Prng } from './prng';
-import { BestTracker, canonicalValue, canonicalViolation, precedes, rankInto } from './ranking';
+import { BestTracker, canonicalInto, canonicalValue, canonicalViolation, precedes, precedesAt, rankInto } from './ranking';
 import { readHeader, targetOrBudget, writeHeader } from './state';
 import type { Immigrant, Immigration, NelderMeadPhase, NelderMeadState, Optimizer, ResolvedNelderMead, StopReason } from './types';
 
@@ -86,8 +86,13 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
   private readonly orderScratch: Int32Array;
   private readonly centroid: Float64Array;
   private readonly reflected: Float64Array;
+  /** The uniforms that pick each axis's sign when a simplex is built. */
+  private readonly signDraws: Float64Array;
   private reflectedValue = Infinity;
   private reflectedViolation = Infinity;
+  /** Value and violation of the told point (entry 0) and of the reflected one (entry 1), for `offerAt` and `accept`. */
+  private readonly scores = new Float64Array(2);
+  private readonly scoreViolations = new Float64Array(2);
   /** For 'simplex' and 'shrink': the vertex slot each pending row refills. */
   private readonly pendingSlots: Int32Array;
   private phase: NelderMeadPhase = 'simplex';
@@ -112,6 +117,7 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
     this.orderScratch = new Int32Array(n + 1);
     this.centroid = new Float64Array(n);
     this.reflected = new Float64Array(n);
+    this.signDraws = new Float64Array(n);
     this.pendingSlots = new Int32Array(n + 1);
     const firstRestartStep = config.initialStep * config.restartStepFactor;
     this.restartStep = firstRestartStep < config.minRestartStep ? config.initialStep : firstRestartStep;
@@ -183,21 +189,21 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
     this.evaluationsTold += count;
     if (this.phase === 'simplex' || this.phase === 'shrink') {
       for (let k = 0; k < count; k++) {
-        const v = canonicalValue(values[k]);
-        const c = canonicalViolation(violations === undefined ? 0 : violations[k], v);
         const slot = this.pendingSlots[k];
         for (let j = 0; j < n; j++) this.vertices[slot * n + j] = rows[k * n + j];
-        this.values[slot] = v;
-        this.violations[slot] = c;
-        this.bestPoint.offer(rows, k * n, v, c);
+        canonicalInto(values, violations, k, this.values, this.violations, slot);
+        this.bestPoint.offerAt(rows, k * n, this.values, this.violations, slot);
       }
       rankInto(this.order, this.orderScratch, n + 1, this.values, this.violations);
       this.endIteration();
       return;
     }
-    const v = canonicalValue(values[0]);
-    const c = canonicalViolation(violations === undefined ? 0 : violations[0], v);
-    this.bestPoint.offer(rows, 0, v, c);
+    const scores = this.scores;
+    const scoreViolations = this.scoreViolations;
+    canonicalInto(values, violations, 0, scores, scoreViolations, 0);
+    const v = scores[0];
+    const c = scoreViolations[0];
+    this.bestPoint.offerAt(rows, 0, scores, scoreViolations, 0);
     if (this.stopped()) return;
     const order = this.order;
     const worst = order[n];
@@ -207,34 +213,38 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
         this.reflectedViolation = c;
         const first = order[0];
         const secondWorst = order[n - 1];
-        if (precedes(v, c, this.values[first], this.violations[first])) {
-          this.askAlong(this.reflected, 0, this.coefficients.expansion, 'expand');
-        } else if (precedes(v, c, this.values[secondWorst], this.violations[secondWorst])) {
-          this.accept(this.reflected, v, c);
+        if (precedesAt(scores, scoreViolations, 0, this.values, this.violations, first)) {
+          this.askAlong(this.reflected, 0, 'expand');
+        } else if (precedesAt(scores, scoreViolations, 0, this.values, this.violations, secondWorst)) {
+          this.accept(this.reflected, scores, scoreViolations, 0);
           this.endIteration();
-        } else if (precedes(v, c, this.values[worst], this.violations[worst])) {
-          this.askAlong(this.reflected, 0, this.coefficients.contraction, 'contract-outside');
+        } else if (precedesAt(scores, scoreViolations, 0, this.values, this.violations, worst)) {
+          this.askAlong(this.reflected, 0, 'contract-outside');
         } else {
-          this.askAlong(this.vertices, worst * n, this.coefficients.contraction, 'contract-inside');
+          this.askAlong(this.vertices, worst * n, 'contract-inside');
         }
         return;
       }
       case 'expand':
-        if (precedes(v, c, this.reflectedValue, this.reflectedViolation)) this.accept(rows, v, c);
-        else this.accept(this.reflected, this.reflectedValue, this.reflectedViolation);
+        scores[1] = this.reflectedValue;
+        scoreViolations[1] = this.reflectedViolation;
+        if (precedesAt(scores, scoreViolations, 0, scores, scoreViolations, 1)) this.accept(rows, scores, scoreViolations, 0);
+        else this.accept(this.reflected, scores, scoreViolations, 1);
         this.endIteration();
         return;
       case 'contract-outside':
-        if (precedes(this.reflectedValue, this.reflectedViolation, v, c)) {
+        scores[1] = this.reflectedValue;
+        scoreViolations[1] = this.reflectedViolation;
+        if (precedesAt(scores, scoreViolations, 1, scores, scoreViolations, 0)) {
           this.askShrink();
         } else {
-          this.accept(rows, v, c);
+          this.accept(rows, scores, scoreViolations, 0);
           this.endIteration();
         }
         return;
       case 'contract-inside':
-        if (precedes(v, c, this.values[worst], this.violations[worst])) {
-          this.accept(rows, v, c);
+        if (precedesAt(scores, scoreViolations, 0, this.values, this.violations, worst)) {
+          this.accept(rows, scores, scoreViolations, 0);
           this.endIteration();
         } else {
           this.askShrink();
@@ -348,9 +358,12 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
       this.values[0] = Infinity;
       this.violations[0] = Infinity;
     }
+    // One uniform per axis, drawn as a block: the numbers n calls of float() give, none boxed.
+    const draws = this.signDraws;
+    this.rng.fillFloats(draws, n);
     for (let i = 1; i <= n; i++) {
       const axis = i - 1;
-      const sign = this.rng.float() < 0.5 ? -1 : 1;
+      const sign = draws[axis] < 0.5 ? -1 : 1;
       let moved = center[axis] + sign * step;
       if (moved < 0 || moved > 1) moved = clampUnit(center[axis] - sign * step);
       const row = k * n;
@@ -388,8 +401,10 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
     this.batch.commit(1);
   }
 
-  /** Asks for c + t · (p − c), clamped, c the centroid, p at `source[offset..]`: expansion or a contraction. */
-  private askAlong(source: Float64Array, offset: number, t: number, phase: NelderMeadPhase): void {
+  /** Asks for c + t · (p − c), clamped, c the centroid, p at `source[offset..]`, t the phase's coefficient: expansion or a contraction. */
+  private askAlong(source: Float64Array, offset: number, phase: 'expand' | 'contract-outside' | 'contract-inside'): void {
+    // The coefficient is looked up here, not passed: a double passed to a call not inlined is boxed.
+    const t = phase === 'expand' ? this.coefficients.expansion : this.coefficients.contraction;
     const n = this.dim;
     const c = this.centroid;
     const rows = this.batch.begin();
@@ -415,8 +430,10 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
     this.batch.commit(Math.min(n, this.config.maxEvaluations - this.evaluationsTold));
   }
 
-  /** Replaces the worst vertex by the point at `source[0..n)` and re-ranks it (after equals). */
-  private accept(source: Float64Array, value: number, violation: number): void {
+  /** Replaces the worst vertex by the point at `source[0..n)`, ranked `values[k]`, `violations[k]`, and re-ranks it (after equals). */
+  private accept(source: Float64Array, values: Float64Array, violations: Float64Array, k: number): void {
+    const value = values[k];
+    const violation = violations[k];
     const n = this.dim;
     const order = this.order;
     const slot = order[n];
@@ -424,7 +441,7 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
     this.values[slot] = value;
     this.violations[slot] = violation;
     let p = n;
-    while (p > 0 && precedes(value, violation, this.values[order[p - 1]], this.violations[order[p - 1]])) {
+    while (p > 0 && precedesAt(values, violations, k, this.values, this.violations, order[p - 1])) {
       order[p] = order[p - 1];
       p--;
     }

@@ -36,6 +36,8 @@ export interface PrngState {
 
 export class Prng {
   private readonly s: Int32Array;
+  /** The last output of `advance`, read as an unsigned 32-bit integer. */
+  private readonly word = new Uint32Array(1);
 
   private constructor(words: Int32Array) {
     this.s = words;
@@ -107,23 +109,14 @@ export class Prng {
 
   /** The next 32-bit output, an integer in [0, 2^32). */
   nextUint32(): number {
-    const s = this.s;
-    const s0 = s[0];
-    const s1 = s[1];
-    const s2 = s[2] ^ s0;
-    const s3 = s[3] ^ s1;
-    const m = Math.imul(s1, 5);
-    const result = Math.imul((m << 7) | (m >>> 25), 9) >>> 0;
-    s[0] = s0 ^ s3;
-    s[1] = s1 ^ s2;
-    s[2] = s2 ^ (s1 << 9);
-    s[3] = (s3 << 11) | (s3 >>> 21);
-    return result;
+    this.advance();
+    return this.word[0];
   }
 
   /** Uniform in [0, 1) on a grid of 2^-32 (one draw). */
   float(): number {
-    return this.nextUint32() * INV_TWO_POW_32;
+    this.advance();
+    return this.word[0] * INV_TWO_POW_32;
   }
 
   /**
@@ -133,13 +126,16 @@ export class Prng {
    */
   int(n: number): number {
     if (!((n | 0) === n && n >= 1 && n <= MAX_INT_RANGE)) throw new RangeError(`int range is ${n}; expected an integer in [1, 2^21]`);
-    let m = this.nextUint32() * n;
+    const word = this.word;
+    this.advance();
+    let m = word[0] * n;
     let high = Math.floor(m * INV_TWO_POW_32);
     let low = m - high * TWO_POW_32;
     if (low < n) {
       const threshold = (TWO_POW_32 - n) % n;
       for (let tries = 0; low < threshold && tries < INT_REJECTION_CAP; tries++) {
-        m = this.nextUint32() * n;
+        this.advance();
+        m = word[0] * n;
         high = Math.floor(m * INV_TWO_POW_32);
         low = m - high * TWO_POW_32;
       }
@@ -242,6 +238,24 @@ export class Prng {
     return Math.tan(Math.PI * (this.float() - 0.5));
   }
 
+  /**
+   * One xoshiro128** step; its output goes to `word[0]`, not a return value: an integer of
+   * 2^31 or more returned from a call the compiler does not inline is boxed (16 bytes).
+   */
+  private advance(): void {
+    const s = this.s;
+    const s0 = s[0];
+    const s1 = s[1];
+    const s2 = s[2] ^ s0;
+    const s3 = s[3] ^ s1;
+    const m = Math.imul(s1, 5);
+    this.word[0] = Math.imul((m << 7) | (m >>> 25), 9);
+    s[0] = s0 ^ s3;
+    s[1] = s1 ^ s2;
+    s[2] = s2 ^ (s1 << 9);
+    s[3] = (s3 << 11) | (s3 >>> 21);
+  }
+
   private jump(): void {
     const s = this.s;
     let a = 0;
@@ -256,7 +270,7 @@ export class Prng {
           c ^= s[2];
           d ^= s[3];
         }
-        this.nextUint32();
+        this.advance();
       }
     }
     s[0] = a;

@@ -19,6 +19,25 @@ export function canonicalViolation(violation: number, rankedValue: number): numb
 }
 
 /**
+ * Writes the ranked value and violation of point k (no `violations`: feasible) to
+ * `outValues[at]` and `outViolations[at]`. The per-point paths use this form: a double
+ * returned from a call the compiler does not inline is boxed, and `canonicalValue` is
+ * just over the size it always inlines.
+ */
+export function canonicalInto(
+  values: Float64Array,
+  violations: Float64Array | undefined,
+  k: number,
+  outValues: Float64Array,
+  outViolations: Float64Array,
+  at: number,
+): void {
+  const v = canonicalValue(values[k]);
+  outValues[at] = v;
+  outViolations[at] = canonicalViolation(violations === undefined ? 0 : violations[k], v);
+}
+
+/**
  * Whether point a ranks strictly before point b, by Deb's rules (Deb, 2000, "An
  * efficient constraint handling method for genetic algorithms"): a feasible point beats
  * an infeasible one, two infeasible points compare by violation, two feasible points by
@@ -27,6 +46,22 @@ export function canonicalViolation(violation: number, rankedValue: number): numb
  */
 export function precedes(valueA: number, violationA: number, valueB: number, violationB: number): boolean {
   return violationA < violationB || (violationA <= violationB && valueA < valueB);
+}
+
+/**
+ * `precedes` of entry a of (valuesA, violationsA) and entry b of (valuesB, violationsB):
+ * the per-point paths' form, as a double passed to a call the compiler does not inline
+ * is boxed.
+ */
+export function precedesAt(
+  valuesA: Float64Array,
+  violationsA: Float64Array,
+  a: number,
+  valuesB: Float64Array,
+  violationsB: Float64Array,
+  b: number,
+): boolean {
+  return precedes(valuesA[a], violationsA[a], valuesB[b], violationsB[b]);
 }
 
 /**
@@ -88,11 +123,28 @@ export class BestTracker {
   /** Offers the point stored at `buffer[offset .. offset + dim)`; returns whether it became the best. */
   offer(buffer: Float64Array, offset: number, value: number, violation: number): boolean {
     if (this.seen && !precedes(value, violation, this.value, this.violation)) return false;
+    this.take(buffer, offset, value, violation);
+    return true;
+  }
+
+  /**
+   * `offer` with the canonical value and violation read from `values[k]` and
+   * `violations[k]`: a double passed to a call the compiler does not inline is boxed,
+   * so the optimizers' per-point paths pass arrays and an index.
+   */
+  offerAt(buffer: Float64Array, offset: number, values: Float64Array, violations: Float64Array, k: number): boolean {
+    const value = values[k];
+    const violation = violations[k];
+    if (this.seen && !precedes(value, violation, this.value, this.violation)) return false;
+    this.take(buffer, offset, value, violation);
+    return true;
+  }
+
+  private take(buffer: Float64Array, offset: number, value: number, violation: number): void {
     const x = this.x;
     for (let j = 0; j < x.length; j++) x[j] = buffer[offset + j];
     this.value = value;
     this.violation = violation;
     this.seen = true;
-    return true;
   }
 }

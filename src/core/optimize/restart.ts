@@ -27,6 +27,7 @@ import { maxPopulation, resolveConfig } from './config';
 import { drawAwayInto } from './avoid';
 import { checkImmigrants, IMMIGRATION_NEVER } from './immigration';
 import { buildInner, restoreInner, type InnerOptimizer } from './inner';
+import { PrefixViews } from './prefixViews';
 import { Prng } from './prng';
 import { BestTracker, precedes } from './ranking';
 import { encodeBest, readBest, readHeader, writeHeader } from './state';
@@ -87,12 +88,12 @@ function grown(inner: ResolvedInnerOptions, growth: number, r: number, dim: numb
 }
 
 /**
- * The budget of run `r`, which starts after `past` evaluations: runEvaluations when more
- * than that is left (a time-only island's runs; with growRuns, times run r's population
- * over the first run's, or all that is left when less than that would remain after it);
- * otherwise what is left, split evenly into as many runs of at least
- * runEvaluationsPerVariable × dim as fit (one run when fewer than two fit), so no run is
- * cut short.
+ * The budget of run `r`, which starts after `past` evaluations. With growRuns (an
+ * island's scheme): runEvaluations times run r's population over the first run's, or all
+ * that is left when less than that would remain after it. Without: runEvaluations when
+ * more than that is left; otherwise what is left, split evenly into as many runs of at
+ * least runEvaluationsPerVariable × dim as fit (one run when fewer than two fit). Either
+ * way no run is cut short.
  */
 function runBudget(config: ResolvedRestart, r: number, past: number): number {
   const left = config.maxEvaluations - past;
@@ -123,8 +124,11 @@ export class Restart implements Optimizer {
   private runBestViolation = Infinity;
   private improvedAt = 0;
   private stop: StopReason | null = null;
-  /** The violations a run is told with `penaliseBasins`: grown to the largest batch, then reused. */
-  private penalised = new Float64Array(0);
+  /** The violations a run is told with `penaliseBasins`, one view per batch size. */
+  private readonly penalised = new PrefixViews();
+  /** `stallEvaluations()` of run `stallRun`: it changes only when a run starts, and is asked after every batch. */
+  private stallRun = -1;
+  private stallCount = 1;
 
   private constructor(config: ResolvedRestart, rng: Prng, inner: InnerOptimizer) {
     this.dim = config.dim;
@@ -185,7 +189,7 @@ export class Restart implements Optimizer {
     const inner = this.inner;
     inner.tell(points, values, this.config.penaliseBasins && this.basinCount > 0 ? this.penalise(points, violations) : violations);
     const total = this.pastEvaluations + inner.evaluations();
-    const best = inner.best();
+    const best = inner.bestSoFar();
     if (precedes(best.value, best.violation, this.runBestValue, this.runBestViolation)) {
       this.runBestValue = best.value;
       this.runBestViolation = best.violation;
@@ -248,8 +252,7 @@ export class Restart implements Optimizer {
    */
   private penalise(points: readonly Float64Array[], violations: Float64Array | undefined): Float64Array {
     const n = points.length;
-    if (this.penalised.length < n) this.penalised = new Float64Array(n);
-    const out = this.penalised;
+    const out = this.penalised.get(n);
     const d = this.dim;
     const basins = this.basins;
     const radius = this.config.avoidDistance;
@@ -269,12 +272,16 @@ export class Restart implements Optimizer {
       // NaN distance (a NaN coordinate) takes no penalty: the point ranks as its value says.
       out[k] = distance < radius ? (base > 0 ? base : 0) + 1 - distance / radius : base;
     }
-    return out.length === n ? out : out.subarray(0, n);
+    return out;
   }
 
   /** Evaluations without improvement after which the current run has stagnated. */
   private stallEvaluations(): number {
-    return Math.max(1, Math.ceil(this.config.stallShare * runBudget(this.config, this.restartCount, this.pastEvaluations)));
+    if (this.stallRun !== this.restartCount) {
+      this.stallCount = Math.max(1, Math.ceil(this.config.stallShare * runBudget(this.config, this.restartCount, this.pastEvaluations)));
+      this.stallRun = this.restartCount;
+    }
+    return this.stallCount;
   }
 
   private static innerConfig(config: ResolvedRestart, r: number, maxEvaluations: number): ResolvedInnerConfig {
@@ -285,7 +292,7 @@ export class Restart implements Optimizer {
   }
 
   /** Ends the current run (its best becomes a basin) and starts the next with the evaluations left. */
-  private restart(runBest: BestPoint): void {
+  private restart(runBest: Readonly<BestPoint>): void {
     if (this.restartCount >= MAX_RESTARTS) {
       this.stop = 'converged';
       return;

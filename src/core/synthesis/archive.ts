@@ -12,7 +12,7 @@
  * summing as soon as it exceeds `distance`. The run's archive of a job is the merge of
  * its islands' archives (`mergeArchive`).
  */
-import { precedes } from '../optimize';
+import { precedesAt } from '../optimize';
 
 export interface ArchiveEntry {
   /** Real coordinates, as evaluated (a copy). */
@@ -42,6 +42,9 @@ export class CandidateArchive {
   private readonly values: Float64Array;
   private readonly violations: Float64Array;
   private count = 0;
+  /** `offer`'s value and violation, as `offerAt` reads them. */
+  private readonly oneValue = new Float64Array(1);
+  private readonly oneViolation = new Float64Array(1);
 
   /** `lower` and `upper` are the real bounds of each variable (copied); a span of 0 counts no distance. */
   constructor(capacity: number, distance: number, lower: ArrayLike<number>, upper: ArrayLike<number>) {
@@ -99,15 +102,28 @@ export class CandidateArchive {
    * or violation) never enters. Allocates nothing.
    */
   offer(x: ArrayLike<number>, value: number, violation: number): boolean {
+    this.oneValue[0] = value;
+    this.oneViolation[0] = violation;
+    return this.offerAt(x, this.oneValue, this.oneViolation, 0);
+  }
+
+  /**
+   * `offer` with the value and violation read from `values[k]` and `violations[k]`: an
+   * island offers every evaluation, and a double passed to a call the compiler does not
+   * inline is boxed (16 bytes).
+   */
+  offerAt(x: ArrayLike<number>, values: Float64Array, violations: Float64Array, k: number): boolean {
+    const value = values[k];
+    const violation = violations[k];
     if (!(Number.isFinite(value) && violation >= 0 && Number.isFinite(violation))) return false;
     const n = this.count;
     const vals = this.values;
     const viols = this.violations;
-    if (n === this.capacity && !precedes(value, violation, vals[n - 1], viols[n - 1])) return false;
+    if (n === this.capacity && !precedesAt(values, violations, k, vals, viols, n - 1)) return false;
     let near = 0;
     for (let i = 0; i < n; i++) {
       if (!this.isNear(i, x)) continue;
-      if (!precedes(value, violation, vals[i], viols[i])) return false;
+      if (!precedesAt(values, violations, k, vals, viols, i)) return false;
       near++;
     }
     const d = this.dim;
@@ -129,7 +145,7 @@ export class CandidateArchive {
     // Insert by rank, after equals. x ranks before the last entry of a full archive
     // (tested above), so `at` < capacity and that last entry falls off.
     let at = kept;
-    while (at > 0 && precedes(value, violation, vals[at - 1], viols[at - 1])) at--;
+    while (at > 0 && precedesAt(values, violations, k, vals, viols, at - 1)) at--;
     const end = Math.min(kept, this.capacity - 1);
     rows.copyWithin((at + 1) * d, at * d, end * d);
     vals.copyWithin(at + 1, at, end);
