@@ -107,7 +107,7 @@ export function RunControls({ startIssues }: { startIssues: readonly string[] })
         <dl className="run-figures">
           <div>
             <dt>evaluations</dt>
-            <dd data-testid="run-evaluations">
+            <dd data-testid="run-evaluations" data-evaluations={run.evaluations} data-elapsed-ms={Math.round(run.elapsedMs)}>
               {formatCount(run.evaluations)}
               {run.budgetEvaluations !== null ? ` of ${formatCount(run.budgetEvaluations)}` : ''}
             </dd>
