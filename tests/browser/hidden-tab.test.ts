@@ -30,7 +30,8 @@ import { afterAll, beforeAll, expect, it } from 'vitest';
 import { browserSetup, CHROMIUM_FLAGS, chromiumExecutablePath, describeBrowser } from './harness';
 
 const LONG_BUDGET = '5000000';
-/** One block of the measure, ms: the sixteen hold about six of the path search's checkpoints (every 10 s) between them; the page takes a report every 250 ms. */
+const CHECKPOINT_EVERY_S = '2';
+/** One block of the measure, ms: each holds one or two of the search's checkpoints; the page takes a report every 250 ms. */
 const BLOCK_MS = 3_500;
 /** Which blocks are hidden: each half of the measure, the other's mirror image. */
 const HIDDEN_BLOCKS = [false, true, true, false, true, false, false, true, false, true, true, false, true, false, false, true];
@@ -178,11 +179,16 @@ describeBrowser('a search in a hidden tab', () => {
     await app.until(byTestId('project-name'));
     expect(await app.evaluate<string>('document.visibilityState')).toBe('visible');
 
-    // A long evaluation budget, typed as a user types it, then Start.
-    await app.evaluate(`(() => { const f = document.querySelector('input[aria-label="Budget in evaluations"]') ?? [...document.querySelectorAll('label')].find((l) => l.textContent.includes('Budget in evaluations'))?.querySelector('input'); f.focus(); f.select(); return true; })()`);
-    await app.send('Input.insertText', { text: LONG_BUDGET });
-    for (const type of ['keyDown', 'keyUp']) await app.send('Input.dispatchKeyEvent', { type, key: 'Enter', code: 'Enter', windowsVirtualKeyCode: 13 });
-    await app.until(`[...document.querySelectorAll('input')].some((i) => i.value === '${LONG_BUDGET}')`);
+    // A long evaluation budget and checkpoints every 2 s (each block of the measure then
+    // holds about as many as the next), typed as a user types them, then Start.
+    const type = async (label: string, text: string) => {
+      await app.evaluate(`(() => { const f = document.querySelector('input[aria-label="${label}"]') ?? [...document.querySelectorAll('label')].find((l) => l.textContent.includes('${label}'))?.querySelector('input'); f.focus(); f.select(); return true; })()`);
+      await app.send('Input.insertText', { text });
+      for (const key of ['keyDown', 'keyUp']) await app.send('Input.dispatchKeyEvent', { type: key, key: 'Enter', code: 'Enter', windowsVirtualKeyCode: 13 });
+      await app.until(`document.querySelector('input[aria-label="${label}"]')?.value === '${text}'`);
+    };
+    await type('Budget in evaluations', LONG_BUDGET);
+    await type('Checkpoint every', CHECKPOINT_EVERY_S);
     await app.evaluate(`[...document.querySelectorAll('button')].find((b) => b.textContent.trim() === 'Start search').click()`);
     await app.until(`${byTestId('run-progress')}?.dataset.status === 'running'`);
     // Warmed up: the workers run and the first checkpoint with evaluations is saved.

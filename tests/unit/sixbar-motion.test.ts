@@ -10,6 +10,7 @@ import {
 } from '../../src/core/linkage';
 import { V_BRANCH, V_SLOTS } from '../../src/core/synthesis/encoding';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
+import { lcg, triadRoots, type Pt } from '../support/triadRoots';
 
 /**
  * The motion check of a Stephenson II or III family (poseFamilies.ts: the share of a
@@ -24,8 +25,6 @@ import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
  * from root to nearest root every half degree, goes all round and comes back to the
  * reference pose, the motion never fails, on the first turn or on any later one.
  */
-
-type Pt = readonly [number, number];
 
 interface Case {
   readonly name: string;
@@ -58,72 +57,6 @@ const TRIES = 90;
 const SPREADS_MM = [20, 60, 120, 200];
 /** The curve samples every 2°: each edge of a dead arc can be misplaced by one sample. */
 const EDGE_SHARE = 1 / CURVE_SAMPLES;
-
-function lcg(seed: number): () => number {
-  let s = seed;
-  return () => {
-    s = (s * 1103515245 + 12345) % 2147483648;
-    return s / 2147483648;
-  };
-}
-
-/** Every assembly (X1, X2, X3 as six numbers) of the triad with these centres, radii and link shape. */
-function triadRoots(K: readonly Pt[], r: readonly number[], shape: readonly Pt[]): number[][] {
-  const d12 = Math.hypot(shape[1][0] - shape[0][0], shape[1][1] - shape[0][1]);
-  const bx = shape[1][0] - shape[0][0];
-  const by = shape[1][1] - shape[0][1];
-  const qx = shape[2][0] - shape[0][0];
-  const qy = shape[2][1] - shape[0][1];
-  const place = (a: number, side: number): number[] | null => {
-    const x1 = K[0][0] + r[0] * Math.cos(a);
-    const y1 = K[0][1] + r[0] * Math.sin(a);
-    const dx = K[1][0] - x1;
-    const dy = K[1][1] - y1;
-    const d = Math.hypot(dx, dy);
-    const along = (d12 * d12 - r[1] * r[1] + d * d) / (2 * d);
-    const h2 = d12 * d12 - along * along;
-    if (!(h2 >= 0)) return null;
-    const h = side * Math.sqrt(h2);
-    const x2 = x1 + (along * dx - h * dy) / d;
-    const y2 = y1 + (along * dy + h * dx) / d;
-    // The link's rotation and scale from its frame: (X2 − X1) / (b2 − b1) as complex numbers.
-    const c = ((x2 - x1) * bx + (y2 - y1) * by) / (bx * bx + by * by);
-    const s = ((y2 - y1) * bx - (x2 - x1) * by) / (bx * bx + by * by);
-    const x3 = x1 + c * qx - s * qy;
-    const y3 = y1 + s * qx + c * qy;
-    return [x1, y1, x2, y2, x3, y3, Math.hypot(x3 - K[2][0], y3 - K[2][1]) - r[2]];
-  };
-  const roots: number[][] = [];
-  for (const side of [1, -1]) {
-    let before = place(0, side);
-    let aBefore = 0;
-    for (let m = 1; m <= GRID; m++) {
-      const a = (2 * Math.PI * m) / GRID;
-      const now = place(a, side);
-      if (before !== null && now !== null && Math.sign(before[6]) !== Math.sign(now[6])) {
-        let lo = aBefore;
-        let hi = a;
-        let fLo = before[6];
-        for (let it = 0; it < 200 && hi - lo > 1e-15; it++) {
-          const mid = 0.5 * (lo + hi);
-          const f = place(mid, side);
-          if (f === null) break;
-          if (Math.sign(f[6]) === Math.sign(fLo)) {
-            lo = mid;
-            fLo = f[6];
-          } else {
-            hi = mid;
-          }
-        }
-        const f = place(0.5 * (lo + hi), side);
-        if (f !== null && Math.abs(f[6]) < 1e-7) roots.push(f.slice(0, 6));
-      }
-      before = now;
-      aBefore = a;
-    }
-  }
-  return roots;
-}
 
 interface Design {
   readonly plan: Plan;
@@ -159,7 +92,7 @@ function design(c: Case, random: () => number, spreadMm: number): Design | null 
   const first = c.joints.flatMap(pt);
   let last: number[] | null = first;
   for (let m = 1; m <= TRUTH_STEPS; m++) {
-    const roots = triadRoots(centresAt((2 * Math.PI * m) / TRUTH_STEPS), radii, shape);
+    const roots = triadRoots(centresAt((2 * Math.PI * m) / TRUTH_STEPS), radii, shape, GRID);
     if (roots.length === 0) dead++;
     if (last === null) continue;
     let nearest: number[] | null = null;

@@ -9,6 +9,7 @@ import {
   type Plan,
 } from '../../src/core/linkage';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
+import { lcg, triadRoots, type Pt } from '../support/triadRoots';
 
 /**
  * A Stephenson II or III family's curve starts each Newton solve from the poses it has
@@ -22,8 +23,6 @@ import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
  * from the reference pose by fine continuation over two turns (the root nearest the
  * last one, SUB_STEPS sub-steps per TRUTH_PER_TURN step).
  */
-
-type Pt = readonly [number, number];
 
 interface Case {
   readonly name: string;
@@ -54,70 +53,6 @@ const GRID = 1200;
 const CURVE_SAMPLES = 180;
 const TRIES = 12;
 const DESIGNS = 2;
-
-function lcg(seed: number): () => number {
-  let s = seed;
-  return () => {
-    s = (s * 1103515245 + 12345) % 2147483648;
-    return s / 2147483648;
-  };
-}
-
-function triadRoots(K: readonly Pt[], r: readonly number[], shape: readonly Pt[]): number[][] {
-  const d12 = Math.hypot(shape[1][0] - shape[0][0], shape[1][1] - shape[0][1]);
-  const bx = shape[1][0] - shape[0][0];
-  const by = shape[1][1] - shape[0][1];
-  const qx = shape[2][0] - shape[0][0];
-  const qy = shape[2][1] - shape[0][1];
-  const place = (a: number, side: number): number[] | null => {
-    const x1 = K[0][0] + r[0] * Math.cos(a);
-    const y1 = K[0][1] + r[0] * Math.sin(a);
-    const dx = K[1][0] - x1;
-    const dy = K[1][1] - y1;
-    const d = Math.hypot(dx, dy);
-    const along = (d12 * d12 - r[1] * r[1] + d * d) / (2 * d);
-    const h2 = d12 * d12 - along * along;
-    if (!(h2 >= 0)) return null;
-    const h = side * Math.sqrt(h2);
-    const x2 = x1 + (along * dx - h * dy) / d;
-    const y2 = y1 + (along * dy + h * dx) / d;
-    const c = ((x2 - x1) * bx + (y2 - y1) * by) / (bx * bx + by * by);
-    const s = ((y2 - y1) * bx - (x2 - x1) * by) / (bx * bx + by * by);
-    const x3 = x1 + c * qx - s * qy;
-    const y3 = y1 + s * qx + c * qy;
-    return [x1, y1, x2, y2, x3, y3, Math.hypot(x3 - K[2][0], y3 - K[2][1]) - r[2]];
-  };
-  const roots: number[][] = [];
-  for (const side of [1, -1]) {
-    let before = place(0, side);
-    let aBefore = 0;
-    for (let m = 1; m <= GRID; m++) {
-      const a = (2 * Math.PI * m) / GRID;
-      const now = place(a, side);
-      if (before !== null && now !== null && Math.sign(before[6]) !== Math.sign(now[6])) {
-        let lo = aBefore;
-        let hi = a;
-        let fLo = before[6];
-        for (let it = 0; it < 200 && hi - lo > 1e-15; it++) {
-          const mid = 0.5 * (lo + hi);
-          const f = place(mid, side);
-          if (f === null) break;
-          if (Math.sign(f[6]) === Math.sign(fLo)) {
-            lo = mid;
-            fLo = f[6];
-          } else {
-            hi = mid;
-          }
-        }
-        const f = place(0.5 * (lo + hi), side);
-        if (f !== null && Math.abs(f[6]) < 1e-7) roots.push(f.slice(0, 6));
-      }
-      before = now;
-      aBefore = a;
-    }
-  }
-  return roots;
-}
 
 interface Design {
   readonly plan: Plan;
@@ -171,7 +106,7 @@ function design(c: Case, random: () => number): Design | null {
       const t = (2 * Math.PI * (m - 1 + q / SUB_STEPS)) / TRUTH_PER_TURN;
       let nearest: number[] | null = null;
       let gap = Infinity;
-      for (const root of triadRoots(centresAt(t), radii, shape)) {
+      for (const root of triadRoots(centresAt(t), radii, shape, GRID)) {
         let d = 0;
         for (let i = 0; i < 6; i += 2) d = Math.max(d, Math.hypot(root[i] - last[i], root[i + 1] - last[i + 1]));
         if (d < gap) {
