@@ -5,7 +5,7 @@
  * objective is wrapped to box two doubles per evaluation (the control). Prints a number.
  */
 import { readFileSync } from 'node:fs';
-import v8 from 'node:v8';
+import { allocatedBytes } from './allocatedBytes';
 import type { IslandConfig } from '../../workers/api';
 import { Island } from '../../workers/island';
 import { buildObjective } from '../../workers/objective';
@@ -16,17 +16,6 @@ const WINDOW_EVALUATIONS = 2_000;
 /** Windows measured after the warm-up; a window that holds a restart (a new run's buffers) or a recompilation is not the quietest. */
 const MAX_WINDOWS = 30;
 const WARM_UP_EVALUATIONS = 10_000;
-/** Heap bytes allocated while `work` runs, collections included (as objective-allocation.test.ts counts them). */
-function allocatedBytes(work: () => void): number {
-  const profiler = new v8.GCProfiler();
-  profiler.start();
-  const before = v8.getHeapStatistics().used_heap_size;
-  work();
-  const after = v8.getHeapStatistics().used_heap_size;
-  let freed = 0;
-  for (const gc of profiler.stop().statistics) freed += gc.beforeGC.heapStatistics.usedHeapSize - gc.afterGC.heapStatistics.usedHeapSize;
-  return after - before + freed;
-}
 
 function configFor(kind: string): IslandConfig {
   return {

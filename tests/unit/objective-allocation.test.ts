@@ -5,7 +5,7 @@
  * that replaced the helpers returning doubles give the same bits as the helpers did.
  */
 import { readFileSync } from 'node:fs';
-import v8 from 'node:v8';
+import { allocatedBytes } from '../support/allocatedBytes';
 import { describe, expect, it } from 'vitest';
 import { parseSynthesisProblemFile } from '../../src/core/io/problem';
 import { Prng } from '../../src/core/optimize';
@@ -42,21 +42,6 @@ function problemOf(caseId: string): Problem {
   return parsed.problem;
 }
 
-/**
- * Heap bytes allocated while `work` runs: the used heap after minus before, plus what each
- * garbage collection in between freed (v8.GCProfiler reports each with the heap before and
- * after), so a collection neither hides bytes nor adds any.
- */
-function allocatedBytes(work: () => void): number {
-  const profiler = new v8.GCProfiler();
-  profiler.start();
-  const before = v8.getHeapStatistics().used_heap_size;
-  work();
-  const after = v8.getHeapStatistics().used_heap_size;
-  let freed = 0;
-  for (const gc of profiler.stop().statistics) freed += gc.beforeGC.heapStatistics.usedHeapSize - gc.afterGC.heapStatistics.usedHeapSize;
-  return after - before + freed;
-}
 
 describe('the four-bar objective allocates nothing per evaluation', () => {
   // The three objectives share the module's code, as islands of several jobs in one worker do.

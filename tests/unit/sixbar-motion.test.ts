@@ -1,16 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import {
-  compile,
-  stephensonII,
-  stephensonIII,
-  STEPHENSON_II_DEFAULT,
-  STEPHENSON_III_DEFAULT,
-  type Linkage,
-  type Plan,
-} from '../../src/core/linkage';
+import { compile, type Plan } from '../../src/core/linkage';
 import { V_BRANCH, V_SLOTS } from '../../src/core/synthesis/encoding';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
-import { lcg, triadRoots, type Pt } from '../support/triadRoots';
+import { lcg, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
 
 /**
  * The motion check of a Stephenson II or III family (poseFamilies.ts: the share of a
@@ -25,28 +17,6 @@ import { lcg, triadRoots, type Pt } from '../support/triadRoots';
  * from root to nearest root every half degree, goes all round and comes back to the
  * reference pose, the motion never fails, on the first turn or on any later one.
  */
-
-interface Case {
-  readonly name: string;
-  readonly family: 'stephenson-ii' | 'stephenson-iii';
-  readonly build: (at: never) => Linkage;
-  readonly defaults: Record<string, { x: number; y: number }>;
-  readonly joints: readonly string[];
-  readonly centres: readonly string[];
-  readonly pivot: string;
-  readonly driven: readonly string[];
-}
-
-const CASES: readonly Case[] = [
-  {
-    name: 'Stephenson II', family: 'stephenson-ii', build: stephensonII as Case['build'], defaults: { ...STEPHENSON_II_DEFAULT },
-    joints: ['C', 'D', 'E'], centres: ['A', 'B', 'G0'], pivot: 'A0', driven: ['A', 'B'],
-  },
-  {
-    name: 'Stephenson III', family: 'stephenson-iii', build: stephensonIII as Case['build'], defaults: { ...STEPHENSON_III_DEFAULT },
-    joints: ['A', 'B', 'C'], centres: ['A0', 'B0', 'D'], pivot: 'C0', driven: ['D'],
-  },
-];
 
 /** Angles at which the independent answer counts assemblies: every 0.5°. */
 const TRUTH_STEPS = 720;
@@ -67,25 +37,14 @@ interface Design {
 }
 
 /** A seeded design, with the share of a turn where its triad has no assembly, and whether its branch turns all round. */
-function design(c: Case, random: () => number, spreadMm: number): Design | null {
+function design(c: TriadCase, random: () => number, spreadMm: number): Design | null {
   const at: Record<string, { x: number; y: number }> = {};
   for (const [id, q] of Object.entries(c.defaults)) at[id] = { x: q.x + (random() - 0.5) * spreadMm, y: q.y + (random() - 0.5) * spreadMm };
   const compiled = compile(c.build(at as never));
   if (!compiled.ok) return null;
   const plan = compiled.plan;
-  const slot = (id: string) => 2 * (plan.slotIndex.get(id) ?? -1);
+  const { pt, radii, shape, centresAt } = triadOf(c, plan);
   const ref = plan.reference;
-  const pt = (id: string): Pt => [ref[slot(id)], ref[slot(id) + 1]];
-  const radii = c.joints.map((j, m) => Math.hypot(pt(j)[0] - pt(c.centres[m])[0], pt(j)[1] - pt(c.centres[m])[1]));
-  const shape = c.joints.map(pt);
-  const o = pt(c.pivot);
-  const centresAt = (t: number): Pt[] => c.centres.map((id) => {
-    const q = pt(id);
-    if (!c.driven.includes(id)) return q;
-    const x = q[0] - o[0];
-    const y = q[1] - o[1];
-    return [o[0] + Math.cos(t) * x - Math.sin(t) * y, o[1] + Math.sin(t) * x + Math.cos(t) * y];
-  });
   let scaleMm = 0;
   for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
   let dead = 0;
@@ -114,7 +73,7 @@ function design(c: Case, random: () => number, spreadMm: number): Design | null 
 }
 
 /** The motion check over [a, b] after the curve's samples, as a path response calls it. */
-function motionShare(c: Case, d: Design, a: number, b: number): number {
+function motionShare(c: TriadCase, d: Design, a: number, b: number): number {
   const encoding = createPoseFamily(c.family, {}, { cx: 0, cy: 0, size: 200 });
   const parts = new Float64Array(V_SLOTS);
   encoding.load(Float64Array.from(d.plan.reference), 0, parts);
@@ -125,7 +84,7 @@ function motionShare(c: Case, d: Design, a: number, b: number): number {
   return parts[V_BRANCH];
 }
 
-describe.each(CASES)('$name motion check against the triad\'s assemblies counted directly', (c) => {
+describe.each(TRIAD_CASES)('$name motion check against the triad\'s assemblies counted directly', (c) => {
   const random = lcg(c.name.length * 7919);
   const locking: Design[] = [];
   const turning: Design[] = [];

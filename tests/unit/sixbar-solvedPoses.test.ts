@@ -1,15 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import {
-  compile,
-  stephensonII,
-  stephensonIII,
-  STEPHENSON_II_DEFAULT,
-  STEPHENSON_III_DEFAULT,
-  type Linkage,
-  type Plan,
-} from '../../src/core/linkage';
+import { compile, type Plan } from '../../src/core/linkage';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
-import { lcg, triadRoots, type Pt } from '../support/triadRoots';
+import { lcg, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
 
 /**
  * A Stephenson II or III family's curve starts each Newton solve from the poses it has
@@ -23,28 +15,6 @@ import { lcg, triadRoots, type Pt } from '../support/triadRoots';
  * from the reference pose by fine continuation over two turns (the root nearest the
  * last one, SUB_STEPS sub-steps per TRUTH_PER_TURN step).
  */
-
-interface Case {
-  readonly name: string;
-  readonly family: 'stephenson-ii' | 'stephenson-iii';
-  readonly build: (at: never) => Linkage;
-  readonly defaults: Record<string, { x: number; y: number }>;
-  readonly joints: readonly string[];
-  readonly centres: readonly string[];
-  readonly pivot: string;
-  readonly driven: readonly string[];
-}
-
-const CASES: readonly Case[] = [
-  {
-    name: 'Stephenson II', family: 'stephenson-ii', build: stephensonII as Case['build'], defaults: { ...STEPHENSON_II_DEFAULT },
-    joints: ['C', 'D', 'E'], centres: ['A', 'B', 'G0'], pivot: 'A0', driven: ['A', 'B'],
-  },
-  {
-    name: 'Stephenson III', family: 'stephenson-iii', build: stephensonIII as Case['build'], defaults: { ...STEPHENSON_III_DEFAULT },
-    joints: ['A', 'B', 'C'], centres: ['A0', 'B0', 'D'], pivot: 'C0', driven: ['D'],
-  },
-];
 
 /** Truth every quarter of a degree, over two turns; the curve samples every 2° (8 truth steps). */
 const TRUTH_PER_TURN = 1440;
@@ -63,25 +33,14 @@ interface Design {
 }
 
 /** A seeded design whose triad's branch from the reference pose lasts two turns, or null. */
-function design(c: Case, random: () => number): Design | null {
+function design(c: TriadCase, random: () => number): Design | null {
   const at: Record<string, { x: number; y: number }> = {};
   for (const [id, q] of Object.entries(c.defaults)) at[id] = { x: q.x + (random() - 0.5) * 60, y: q.y + (random() - 0.5) * 60 };
   const compiled = compile(c.build(at as never));
   if (!compiled.ok) return null;
   const plan = compiled.plan;
-  const slot = (id: string) => 2 * (plan.slotIndex.get(id) ?? -1);
+  const { slot, pt, radii, shape, centresAt } = triadOf(c, plan);
   const ref = plan.reference;
-  const pt = (id: string): Pt => [ref[slot(id)], ref[slot(id) + 1]];
-  const radii = c.joints.map((j, m) => Math.hypot(pt(j)[0] - pt(c.centres[m])[0], pt(j)[1] - pt(c.centres[m])[1]));
-  const shape = c.joints.map(pt);
-  const o = pt(c.pivot);
-  const centresAt = (t: number): Pt[] => c.centres.map((id) => {
-    const q = pt(id);
-    if (!c.driven.includes(id)) return q;
-    const x = q[0] - o[0];
-    const y = q[1] - o[1];
-    return [o[0] + Math.cos(t) * x - Math.sin(t) * y, o[1] + Math.sin(t) * x + Math.cos(t) * y];
-  });
   let scaleMm = 0;
   for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
   // P rides the triad's link: placed from X1, X2 by the reference shape.
@@ -123,7 +82,7 @@ function design(c: Case, random: () => number): Design | null {
   return { plan, slot, p, scaleMm };
 }
 
-describe.each(CASES)('$name curve started from the poses it solved, against direct circle–circle geometry', (c) => {
+describe.each(TRIAD_CASES)('$name curve started from the poses it solved, against direct circle–circle geometry', (c) => {
   const random = lcg(c.name.length * 104729);
   const all: Design[] = [];
   for (let i = 0; i < TRIES && all.length < DESIGNS; i++) {

@@ -1,18 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import {
-  closureResidualMm,
-  compile,
-  run,
-  runWithRates,
-  stephensonII,
-  stephensonIII,
-  STEPHENSON_II_DEFAULT,
-  STEPHENSON_III_DEFAULT,
-  type Linkage,
-  type Plan,
-} from '../../src/core/linkage';
+import { closureResidualMm, compile, run, runWithRates, type Plan } from '../../src/core/linkage';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
-import { lcg, triadRoots, type Pt } from '../support/triadRoots';
+import { lcg, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
 
 /**
  * The floating ternary link of a Stephenson II or III (a triad: three joints of one
@@ -23,29 +12,6 @@ import { lcg, triadRoots, type Pt } from '../support/triadRoots';
  * third joint's distance error; the branch followed from the reference pose by fine
  * continuation (the root nearest the last one, eight sub-steps per sample).
  */
-
-interface Case {
-  readonly name: string;
-  readonly build: (at: never) => Linkage;
-  readonly defaults: Record<string, { x: number; y: number }>;
-  /** The triad's joints, and the joint each turns about. */
-  readonly joints: readonly string[];
-  readonly centres: readonly string[];
-  readonly pivot: string;
-  /** Centres that turn with the driver about the pivot. */
-  readonly driven: readonly string[];
-}
-
-const CASES: readonly Case[] = [
-  {
-    name: 'Stephenson II', build: stephensonII as Case['build'], defaults: { ...STEPHENSON_II_DEFAULT },
-    joints: ['C', 'D', 'E'], centres: ['A', 'B', 'G0'], pivot: 'A0', driven: ['A', 'B'],
-  },
-  {
-    name: 'Stephenson III', build: stephensonIII as Case['build'], defaults: { ...STEPHENSON_III_DEFAULT },
-    joints: ['A', 'B', 'C'], centres: ['A0', 'B0', 'D'], pivot: 'C0', driven: ['D'],
-  },
-];
 
 const SAMPLES = 180;
 const SUB_STEPS = 8;
@@ -62,25 +28,14 @@ interface Design {
 }
 
 /** The seeded design, and its triad's branch from the reference pose at each sample t_k = 2πk / SAMPLES. */
-function design(c: Case, random: () => number): Design | null {
+function design(c: TriadCase, random: () => number): Design | null {
   const at: Record<string, { x: number; y: number }> = {};
   for (const [id, p] of Object.entries(c.defaults)) at[id] = { x: p.x + (random() - 0.5) * 60, y: p.y + (random() - 0.5) * 60 };
   const compiled = compile(c.build(at as never));
   if (!compiled.ok) return null;
   const plan = compiled.plan;
-  const slot = (id: string) => 2 * (plan.slotIndex.get(id) ?? -1);
+  const { slot, pt, radii, shape, centresAt } = triadOf(c, plan);
   const ref = plan.reference;
-  const pt = (id: string): Pt => [ref[slot(id)], ref[slot(id) + 1]];
-  const radii = c.joints.map((j, m) => Math.hypot(pt(j)[0] - pt(c.centres[m])[0], pt(j)[1] - pt(c.centres[m])[1]));
-  const shape = c.joints.map(pt);
-  const o = pt(c.pivot);
-  const centresAt = (t: number): Pt[] => c.centres.map((id) => {
-    const p = pt(id);
-    if (!c.driven.includes(id)) return p;
-    const x = p[0] - o[0];
-    const y = p[1] - o[1];
-    return [o[0] + Math.cos(t) * x - Math.sin(t) * y, o[1] + Math.sin(t) * x + Math.cos(t) * y];
-  });
   let scaleMm = 0;
   for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
   let last: number[] | null = c.joints.flatMap(pt);
@@ -106,7 +61,7 @@ function design(c: Case, random: () => number): Design | null {
   return { plan, slot, truth, fullTurn: last !== null, scaleMm };
 }
 
-function designs(c: Case, seed: number): Design[] {
+function designs(c: TriadCase, seed: number): Design[] {
   const random = lcg(seed);
   const out: Design[] = [];
   for (let i = 0; i < DESIGNS; i++) {
@@ -116,7 +71,7 @@ function designs(c: Case, seed: number): Design[] {
   return out;
 }
 
-describe.each(CASES)('$name triad against direct circle–circle geometry', (c) => {
+describe.each(TRIAD_CASES)('$name triad against direct circle–circle geometry', (c) => {
   const all = designs(c, c.name.length * 7919);
 
   it('follows the reference branch sample by sample, and assembles over the turn exactly where the branch does', () => {

@@ -1,3 +1,5 @@
+import { STEPHENSON_II_DEFAULT, STEPHENSON_III_DEFAULT, stephensonII, stephensonIII, type Linkage, type Plan } from '../../src/core/linkage';
+
 /**
  * The six-bar tests' independent triad solution: every assembly of a floating ternary
  * link (three joints of one rigid link, each on a circle about a centre) at one pose of
@@ -74,4 +76,58 @@ export function triadRoots(K: readonly Pt[], r: readonly number[], shape: readon
     }
   }
   return roots;
+}
+
+/** A Stephenson six-bar whose floating ternary link is a triad: which joints, about which centres. */
+export interface TriadCase {
+  readonly name: string;
+  readonly family: 'stephenson-ii' | 'stephenson-iii';
+  readonly build: (at: never) => Linkage;
+  readonly defaults: Record<string, { x: number; y: number }>;
+  /** The triad's joints, and the joint each turns about. */
+  readonly joints: readonly string[];
+  readonly centres: readonly string[];
+  readonly pivot: string;
+  /** Centres that turn with the driver about the pivot. */
+  readonly driven: readonly string[];
+}
+
+export const TRIAD_CASES: readonly TriadCase[] = [
+  {
+    name: 'Stephenson II', family: 'stephenson-ii', build: stephensonII as TriadCase['build'], defaults: { ...STEPHENSON_II_DEFAULT },
+    joints: ['C', 'D', 'E'], centres: ['A', 'B', 'G0'], pivot: 'A0', driven: ['A', 'B'],
+  },
+  {
+    name: 'Stephenson III', family: 'stephenson-iii', build: stephensonIII as TriadCase['build'], defaults: { ...STEPHENSON_III_DEFAULT },
+    joints: ['A', 'B', 'C'], centres: ['A0', 'B0', 'D'], pivot: 'C0', driven: ['D'],
+  },
+];
+
+/** The triad of a compiled design, read from its reference pose. */
+export interface Triad {
+  /** A joint's x offset in a pose. */
+  readonly slot: (id: string) => number;
+  /** A joint's reference position. */
+  readonly pt: (id: string) => Pt;
+  readonly radii: readonly number[];
+  readonly shape: readonly Pt[];
+  /** The triad's centres with the driver turned by t from its reference pose. */
+  readonly centresAt: (t: number) => Pt[];
+}
+
+export function triadOf(c: TriadCase, plan: Plan): Triad {
+  const slot = (id: string) => 2 * (plan.slotIndex.get(id) ?? -1);
+  const ref = plan.reference;
+  const pt = (id: string): Pt => [ref[slot(id)], ref[slot(id) + 1]];
+  const radii = c.joints.map((j, m) => Math.hypot(pt(j)[0] - pt(c.centres[m])[0], pt(j)[1] - pt(c.centres[m])[1]));
+  const shape = c.joints.map(pt);
+  const o = pt(c.pivot);
+  const centresAt = (t: number): Pt[] => c.centres.map((id) => {
+    const q = pt(id);
+    if (!c.driven.includes(id)) return q;
+    const x = q[0] - o[0];
+    const y = q[1] - o[1];
+    return [o[0] + Math.cos(t) * x - Math.sin(t) * y, o[1] + Math.sin(t) * x + Math.cos(t) * y];
+  });
+  return { slot, pt, radii, shape, centresAt };
 }
