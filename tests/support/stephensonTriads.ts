@@ -1,4 +1,4 @@
-import { STEPHENSON_II_DEFAULT, STEPHENSON_III_DEFAULT, stephensonII, stephensonIII, type Linkage, type Plan } from '../../src/core/linkage';
+import { compile, STEPHENSON_II_DEFAULT, STEPHENSON_III_DEFAULT, stephensonII, stephensonIII, type Linkage, type Plan } from '../../src/core/linkage';
 
 /**
  * The six-bar tests' independent triad solution: every assembly of a floating ternary
@@ -103,6 +103,14 @@ export const TRIAD_CASES: readonly TriadCase[] = [
   },
 ];
 
+/** The case's family with each default joint moved by up to ± spreadMm / 2 in x and y (two draws each, in the defaults' order), compiled; null where it does not compile. */
+export function seededPlan(c: TriadCase, random: () => number, spreadMm: number): Plan | null {
+  const at: Record<string, { x: number; y: number }> = {};
+  for (const [id, q] of Object.entries(c.defaults)) at[id] = { x: q.x + (random() - 0.5) * spreadMm, y: q.y + (random() - 0.5) * spreadMm };
+  const compiled = compile(c.build(at as never));
+  return compiled.ok ? compiled.plan : null;
+}
+
 /** The triad of a compiled design, read from its reference pose. */
 export interface Triad {
   /** A joint's x offset in a pose. */
@@ -113,6 +121,8 @@ export interface Triad {
   readonly shape: readonly Pt[];
   /** The triad's centres with the driver turned by t from its reference pose. */
   readonly centresAt: (t: number) => Pt[];
+  /** The largest coordinate of the reference pose, mm: the design's size for tolerances. */
+  readonly scaleMm: number;
 }
 
 export function triadOf(c: TriadCase, plan: Plan): Triad {
@@ -129,5 +139,7 @@ export function triadOf(c: TriadCase, plan: Plan): Triad {
     const y = q[1] - o[1];
     return [o[0] + Math.cos(t) * x - Math.sin(t) * y, o[1] + Math.sin(t) * x + Math.cos(t) * y];
   });
-  return { slot, pt, radii, shape, centresAt };
+  let scaleMm = 0;
+  for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
+  return { slot, pt, radii, shape, centresAt, scaleMm };
 }

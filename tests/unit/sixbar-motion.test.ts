@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { compile, type Plan } from '../../src/core/linkage';
+import type { Plan } from '../../src/core/linkage';
 import { V_BRANCH, V_SLOTS } from '../../src/core/synthesis/encoding';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
-import { lcg, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
+import { lcg, seededPlan, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
 
 /**
  * The motion check of a Stephenson II or III family (poseFamilies.ts: the share of a
@@ -38,15 +38,9 @@ interface Design {
 
 /** A seeded design, with the share of a turn where its triad has no assembly, and whether its branch turns all round. */
 function design(c: TriadCase, random: () => number, spreadMm: number): Design | null {
-  const at: Record<string, { x: number; y: number }> = {};
-  for (const [id, q] of Object.entries(c.defaults)) at[id] = { x: q.x + (random() - 0.5) * spreadMm, y: q.y + (random() - 0.5) * spreadMm };
-  const compiled = compile(c.build(at as never));
-  if (!compiled.ok) return null;
-  const plan = compiled.plan;
-  const { pt, radii, shape, centresAt } = triadOf(c, plan);
-  const ref = plan.reference;
-  let scaleMm = 0;
-  for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
+  const plan = seededPlan(c, random, spreadMm);
+  if (plan === null) return null;
+  const { pt, radii, shape, centresAt, scaleMm } = triadOf(c, plan);
   let dead = 0;
   const first = c.joints.flatMap(pt);
   let last: number[] | null = first;

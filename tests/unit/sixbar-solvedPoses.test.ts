@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { compile, type Plan } from '../../src/core/linkage';
+import type { Plan } from '../../src/core/linkage';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
-import { lcg, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
+import { lcg, seededPlan, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
 
 /**
  * A Stephenson II or III family's curve starts each Newton solve from the poses it has
@@ -34,15 +34,10 @@ interface Design {
 
 /** A seeded design whose triad's branch from the reference pose lasts two turns, or null. */
 function design(c: TriadCase, random: () => number): Design | null {
-  const at: Record<string, { x: number; y: number }> = {};
-  for (const [id, q] of Object.entries(c.defaults)) at[id] = { x: q.x + (random() - 0.5) * 60, y: q.y + (random() - 0.5) * 60 };
-  const compiled = compile(c.build(at as never));
-  if (!compiled.ok) return null;
-  const plan = compiled.plan;
-  const { slot, pt, radii, shape, centresAt } = triadOf(c, plan);
+  const plan = seededPlan(c, random, 60);
+  if (plan === null) return null;
+  const { slot, pt, radii, shape, centresAt, scaleMm } = triadOf(c, plan);
   const ref = plan.reference;
-  let scaleMm = 0;
-  for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
   // P rides the triad's link: placed from X1, X2 by the reference shape.
   const j1 = slot(c.joints[0]);
   const j2 = slot(c.joints[1]);

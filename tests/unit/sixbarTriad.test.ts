@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { closureResidualMm, compile, run, runWithRates, type Plan } from '../../src/core/linkage';
+import { closureResidualMm, run, runWithRates, type Plan } from '../../src/core/linkage';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
-import { lcg, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
+import { lcg, seededPlan, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
 
 /**
  * The floating ternary link of a Stephenson II or III (a triad: three joints of one
@@ -29,15 +29,9 @@ interface Design {
 
 /** The seeded design, and its triad's branch from the reference pose at each sample t_k = 2πk / SAMPLES. */
 function design(c: TriadCase, random: () => number): Design | null {
-  const at: Record<string, { x: number; y: number }> = {};
-  for (const [id, p] of Object.entries(c.defaults)) at[id] = { x: p.x + (random() - 0.5) * 60, y: p.y + (random() - 0.5) * 60 };
-  const compiled = compile(c.build(at as never));
-  if (!compiled.ok) return null;
-  const plan = compiled.plan;
-  const { slot, pt, radii, shape, centresAt } = triadOf(c, plan);
-  const ref = plan.reference;
-  let scaleMm = 0;
-  for (const v of ref) scaleMm = Math.max(scaleMm, Math.abs(v));
+  const plan = seededPlan(c, random, 60);
+  if (plan === null) return null;
+  const { slot, pt, radii, shape, centresAt, scaleMm } = triadOf(c, plan);
   let last: number[] | null = c.joints.flatMap(pt);
   const truth: Float64Array[] = [];
   for (let k = 1; k <= SAMPLES; k++) {
