@@ -16,6 +16,13 @@
  * checksums reported outside the timed regions, and every coupler point of the plan is
  * compared bit for bit with the hand-written loop's, the interpreter's, the WebAssembly
  * module's, the batch entry's (generated and interpreted) and the C program's.
+ *
+ * The plan, the batch entry and the hand-written loop are also timed again in fresh
+ * processes (that import this file with the same loader), PROCESSES of them, one after
+ * another: how V8 compiles and places each loop differs from one process to the next and
+ * moves a loop's rate by tens of per cent, the hand-written loop's most, so one process's
+ * ratio is one draw. The median over the processes, with the lowest and highest, is the
+ * figure to read for those ratios.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -43,6 +50,8 @@ const FOURBAR_SOLVES = 500_000;
 const INTERPRETER_SOLVES = 200_000;
 const STEPHENSON_SOLVES = 200_000;
 const ROUNDS = 8;
+/** Fresh processes that time the plan, the batch entry and the hand-written loop again (see the header). */
+const PROCESSES = 5;
 /** Stephenson III input step: a full turn in 720 steps, as a sweep would take it. */
 const STEPHENSON_STEP_RAD = (2 * Math.PI) / 720;
 const C_SOURCE = join(dirname(fileURLToPath(import.meta.url)), 'c', 'fourbar.c');
@@ -310,6 +319,57 @@ function firstDifference(a: Float64Array, b: Float64Array): number {
   return -1;
 }
 
+/** One process's rounds of the plan, the hand-written loop and the batch entry: the median ratios within a round, and the checksums. */
+interface ProcessRatios {
+  readonly planOverHand: number;
+  readonly batchOverHand: number;
+  readonly checksums: readonly number[];
+}
+
+/** Exported for the processes of processRatios, which import this file and print what it returns. */
+export function fourBarProcessRounds(): ProcessRatios {
+  const prng = Prng.fromSeed(SEED);
+  const angles = new Float64Array(INPUT_COUNT);
+  prng.fillFloats(angles, INPUT_COUNT);
+  for (let i = 0; i < INPUT_COUNT; i++) angles[i] *= 2 * Math.PI;
+  const plan = compiled(fourBar());
+  const p = 2 * (plan.slotIndex.get('P') ?? -1);
+  const pose = Float64Array.from(plan.reference);
+  const poseB = Float64Array.from(plan.reference);
+  const hand = new Float64Array(10);
+  const dims = fourBarDims();
+  const batch = batchFor(angles, FOURBAR_SOLVES, p);
+  planLoop(plan, angles, 200_000, pose, p);
+  handLoop(dims, angles, 200_000, hand);
+  batchLoop(plan, angles, 200_000, poseB, batchFor(angles, 200_000, p));
+  const rates = interleaved([
+    { solves: FOURBAR_SOLVES, body: () => planLoop(plan, angles, FOURBAR_SOLVES, pose, p) },
+    { solves: FOURBAR_SOLVES, body: () => handLoop(dims, angles, FOURBAR_SOLVES, hand) },
+    { solves: FOURBAR_SOLVES, body: () => batchLoop(plan, angles, FOURBAR_SOLVES, poseB, batch) },
+  ]);
+  return {
+    planOverHand: 1 / median(rates.overFirst[1]),
+    batchOverHand: median(rates.overFirst[2].map((r, i) => r / rates.overFirst[1][i])),
+    checksums: rates.checksum,
+  };
+}
+
+/**
+ * PROCESSES fresh processes of fourBarProcessRounds, never two at once, each with this
+ * process's loader; or why there can be none (this file was bundled into another).
+ */
+function processRatios(): ProcessRatios[] | string {
+  if (!import.meta.url.endsWith('.ts')) return 'this file runs bundled, so no process can import it alone';
+  const code = `import(${JSON.stringify(import.meta.url)}).then((m) => process.stdout.write(JSON.stringify(m.fourBarProcessRounds())))`;
+  const out: ProcessRatios[] = [];
+  for (let k = 0; k < PROCESSES; k++) {
+    const child = spawnSync(process.execPath, [...process.execArgv, '--input-type=module', '--eval', code], { encoding: 'utf8' });
+    if (child.error || child.status !== 0) throw new Error(`bench: a timing process failed: ${child.error?.message ?? child.stderr}`);
+    out.push(JSON.parse(child.stdout) as ProcessRatios);
+  }
+  return out;
+}
+
 export async function benchKernel(): Promise<Record<string, number | null>> {
   const prng = Prng.fromSeed(SEED);
   const angles = new Float64Array(INPUT_COUNT);
@@ -441,14 +501,32 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
   const batchOver = (loop: number) => median(four.overFirst[BATCH_LOOP].map((r, i) => r / four.overFirst[loop][i]));
 
   const nativeRatio = typeof native === 'string' ? null : median(four.overFirst[C_LOOP]);
+
+  const ran = processRatios();
+  if (typeof ran === 'string') console.log(`kernel: the figures of fresh processes are skipped: ${ran}`);
+  const processes = typeof ran === 'string' ? [] : ran;
+  for (const r of processes) {
+    if (r.checksums[0] !== four.checksum[0] || r.checksums[1] !== four.checksum[0] || r.checksums[2] !== four.checksum[0]) {
+      throw new Error(`bench: a timing process's checksums ${r.checksums.join(', ')} differ from the plan's ${four.checksum[0]}`);
+    }
+  }
+  const spread = (ratios: number[]) => (ratios.length === 0 ? [null, null, null] : [median(ratios), Math.min(...ratios), Math.max(...ratios)]);
+  const [planMedian, planLowest, planHighest] = spread(processes.map((r) => r.planOverHand));
+  const [batchMedian, batchLowest, batchHighest] = spread(processes.map((r) => r.batchOverHand));
   return {
     fourbar_plan_per_s: four.perS[0],
     fourbar_handwritten_per_s: four.perS[1],
     fourbar_plan_over_handwritten_ratio: 1 / median(four.overFirst[1]),
+    fourbar_plan_over_handwritten_ratio_median_of_processes: planMedian,
+    fourbar_plan_over_handwritten_ratio_lowest_process: planLowest,
+    fourbar_plan_over_handwritten_ratio_highest_process: planHighest,
     fourbar_c_per_s: typeof native === 'string' ? null : four.perS[C_LOOP],
     fourbar_plan_over_c_ratio: nativeRatio === null ? null : 1 / nativeRatio,
     fourbar_batch_per_s: four.perS[BATCH_LOOP],
     fourbar_batch_over_handwritten_ratio: batchOver(1),
+    fourbar_batch_over_handwritten_ratio_median_of_processes: batchMedian,
+    fourbar_batch_over_handwritten_ratio_lowest_process: batchLowest,
+    fourbar_batch_over_handwritten_ratio_highest_process: batchHighest,
     fourbar_batch_over_c_ratio: typeof native === 'string' ? null : batchOver(C_LOOP),
     fourbar_wasm_per_s: four.perS[3],
     fourbar_wasm_over_plan_ratio: median(four.overFirst[3]),

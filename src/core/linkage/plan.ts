@@ -138,8 +138,10 @@ export interface Kernel {
 }
 
 /**
- * run.ts's runBatch in one call: for each driver value in `values`, in order, what run
- * would do to `pose`, then the (x, y) of each pose offset in `slots` into `out` (NaN
- * where that value fails), value after value. Returns the number of values that failed.
+ * run.ts's runBatch in one call, for at least one value: for each driver value in
+ * `values`, in order, what run would do to `pose`, then the (x, y) of each pose offset in
+ * `slots` into `out` (NaN where that value fails), value after value. Returns the number
+ * of values that failed, negated when the last one did (failedOp then names where; else
+ * runBatch sets it to -1).
  */
 export type BatchKernel = (pose: Float64Array, values: Float64Array, slots: Int32Array, out: Float64Array) => number;

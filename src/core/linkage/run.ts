@@ -102,7 +102,13 @@ export function runBatch(plan: Plan, values: Float64Array, pose: Float64Array, s
     }
   }
   const kernel = p.kernel;
-  if (kernel !== null && kernel.batch !== null) return kernel.batch(pose, values, slots, out);
+  if (kernel !== null && kernel.batch !== null && values.length > 0) {
+    const last = kernel.batch(pose, values, slots, out);
+    // Negative: the last value failed, and failFrom has named its operation in p.failedOp.
+    if (last < 0) return -last;
+    p.failedOp = -1;
+    return last;
+  }
   const count = values.length;
   const ns = slots.length;
   const opCount = p.opCount;

@@ -203,7 +203,9 @@ function operations(p: PlanInternal, first: number, end: number): string[] {
  * the frame placed once, the params read into locals once (a length driver's own are the
  * driver value), and the operations from the driver on in a loop over the values. A
  * failure ends its value's labelled block; the pose is then what run leaves (run.ts's
- * failFrom), and the frame is placed again before the next value, as run would.
+ * failFrom), and the frame is placed again before the next value, as run would. It
+ * returns the failures negated when the last value failed, and leaves plan.failedOp to
+ * runBatch otherwise.
  */
 function batchSource(p: PlanInternal): string {
   const hoisted = new Set<number>();
@@ -228,12 +230,11 @@ function batchSource(p: PlanInternal): string {
   for (let op = p.setCount; op < p.opCount; op++) emitOperation(body, p, op);
   const lines = ['"use strict";', 'return function batch(pose, values, slots, out) {',
     'const count = values.length; const ns = slots.length; const valid = p.referenceValid;',
-    'if (count === 0) return 0;',
     // Nothing reads the driver value from the plan during the batch; run leaves the last there.
     'dv[0] = values[count - 1];',
     // One output slot (a coupler point) is written without the loop over slots.
     'const only = ns === 1 ? slots[0] : -1;',
-    'let failures = 0; let failed = -1; let w = 0;'];
+    'let failures = 0; let failed = -1; let w = 0; let last = 0;'];
   for (const q of [...hoisted].sort((x, y) => x - y)) lines.push(`const q${q} = prm[${q}];`);
   lines.push(...frame, 'for (let i = 0; i < count; i++) {', 'const d = values[i];');
   lines.push('if (failed >= 0) {', ...restoreFrame, 'failed = -1;', '}');
@@ -245,18 +246,20 @@ function batchSource(p: PlanInternal): string {
     lines.push('if (!(Math.abs(d) < Infinity && valid)) { failed = 0; break sample; }');
   }
   lines.push(...body.lines, '}');
+  // The outcome is settled inside the loop: code after a loop that V8 compiled on stack
+  // replacement has no type feedback, and an operation there (it was p.failedOp = failed)
+  // made every call deoptimise on its way out.
   lines.push(
     'if (failed >= 0) {',
-    'failures++; failFrom(p, failed, pose);',
+    'failures++; failFrom(p, failed, pose); last = -failures;',
     'for (let j = 0; j < ns; j++) { out[w] = NaN; out[w + 1] = NaN; w += 2; }',
-    '} else if (only >= 0) {',
-    'out[w] = pose[only]; out[w + 1] = pose[only + 1]; w += 2;',
     '} else {',
-    'for (let j = 0; j < ns; j++) { const s = slots[j]; out[w] = pose[s]; out[w + 1] = pose[s + 1]; w += 2; }',
+    'last = failures;',
+    'if (only >= 0) { out[w] = pose[only]; out[w + 1] = pose[only + 1]; w += 2; }',
+    'else for (let j = 0; j < ns; j++) { const s = slots[j]; out[w] = pose[s]; out[w + 1] = pose[s + 1]; w += 2; }',
     '}',
     '}',
-    'p.failedOp = failed;',
-    'return failures;',
+    'return last;',
     '};',
   );
   return lines.join('\n');

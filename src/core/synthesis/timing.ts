@@ -79,6 +79,9 @@ export interface MatchScratch {
   readonly runBlock: Int32Array;
   /** Per run, 1 where the row in force skipped it (its sums are not written: Infinity). */
   readonly skipped: Uint8Array;
+  /** Per run of the row in force: its least partial sum and the first index holding it. */
+  readonly runLeast: Float64Array;
+  readonly runLeastAt: Int32Array;
 }
 
 export function createMatchScratch(pointCount: number, sampleCount: number): MatchScratch {
@@ -98,6 +101,8 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
     runStart: new Int32Array(blockCount(sampleCount) + 2),
     runBlock: new Int32Array(blockCount(sampleCount) + 2),
     skipped: new Uint8Array(blockCount(sampleCount) + 2),
+    runLeast: new Float64Array(blockCount(sampleCount) + 2),
+    runLeastAt: new Int32Array(blockCount(sampleCount) + 2),
   };
 }
 
@@ -308,6 +313,8 @@ function boundedPass(
   const runStart = s.runStart;
   const runBlock = s.runBlock;
   const skipped = s.skipped;
+  const runLeast = s.runLeast;
+  const runLeastAt = s.runLeastAt;
   // Runs: a new one where the sample index reaches a block's first (0 included).
   let runs = 0;
   for (let u = 0, j = first; u < m; u++, j++) {
@@ -325,7 +332,18 @@ function boundedPass(
     const to = runStart[q + 1];
     skipped[q] = from > firstSpan ? 1 : 0;
     if (from > firstSpan) continue;
-    for (let u = from; u < to; u++) sums[u] = u <= firstSpan ? cost[u < split ? first + u : u - split] : Infinity;
+    let least = Infinity;
+    let leastAt = from;
+    for (let u = from; u < to; u++) {
+      const v = u <= firstSpan ? cost[u < split ? first + u : u - split] : Infinity;
+      sums[u] = v;
+      if (v < least) {
+        least = v;
+        leastAt = u;
+      }
+    }
+    runLeast[q] = least;
+    runLeastAt[q] = leastAt;
   }
   for (let i = 1; i < n; i++) {
     const row = i * m;
@@ -340,15 +358,13 @@ function boundedPass(
       const from = runStart[q];
       const to = runStart[q + 1];
       const before = skipped[q] === 1;
+      // The least partial sum up to the run's end: the run's own least, kept when it was
+      // written (its first index, as a scan keeping strict improvements would find).
       let runBest = best;
       let runBestU = bestU;
-      if (!before) {
-        for (let u = from; u < to; u++) {
-          if (sums[u] < runBest) {
-            runBest = sums[u];
-            runBestU = u;
-          }
-        }
+      if (!before && runLeast[q] < runBest) {
+        runBest = runLeast[q];
+        runBestU = runLeastAt[q];
       }
       // Every cell of the run: at least the least partial sum up to its end, plus the block's bound.
       const lower = (runBest + bounds[boundRow + runBlock[q]] + restNext) * (1 - BOUND_ROUNDING_MARGIN);
@@ -359,6 +375,8 @@ function boundedPass(
         continue;
       }
       skipped[q] = 0;
+      let least = Infinity;
+      let leastAt = from;
       let j = from < split ? first + from : from - split;
       for (let u = from; u < to; u++, j++) {
         if (!before) {
@@ -375,8 +393,15 @@ function boundedPass(
           const dy = samples[2 * j + 1] - qy;
           c = w * (dx * dx + dy * dy);
         }
-        sums[u] = best + c;
+        const v = best + c;
+        sums[u] = v;
+        if (v < least) {
+          least = v;
+          leastAt = u;
+        }
       }
+      runLeast[q] = least;
+      runLeastAt[q] = leastAt;
     }
     // best: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
     const lower = (best + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
@@ -386,12 +411,9 @@ function boundedPass(
   let best = Infinity;
   let bestU = 0;
   for (let q = 0; q < runs; q++) {
-    if (skipped[q] === 1) continue;
-    for (let u = runStart[q]; u < runStart[q + 1]; u++) {
-      if (sums[u] < best) {
-        best = sums[u];
-        bestU = u;
-      }
+    if (skipped[q] === 0 && runLeast[q] < best) {
+      best = runLeast[q];
+      bestU = runLeastAt[q];
     }
   }
   return unrollBest(s, best, bestU, bound, tieWins);
