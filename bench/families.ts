@@ -7,16 +7,23 @@
  * within the budget). The budget is an evaluation count or a time cap, whichever comes
  * first, so the slow families cannot hold the bench for long.
  *
+ * Beside the four-bar's row, the peers the synthesis bench runs (bench/synthesis.ts:
+ * random search and Powell of optimization-js, Nelder–Mead of fmin, restarted as there),
+ * on the same objective and budget, each a row with its rate, best RMS at the budget and
+ * the time to the stated error (read at every PEER_CHECKPOINT_EVALUATIONS evaluations).
+ *
  * Seeded; untimed warm-up per family; the rate is the search's own (optimizer included).
  * Besides the wall-clock rate, the rate per second of this process's CPU time (the run
  * is one thread): on a machine shared with other work the wall clock counts the time
  * the process waited for a core, the CPU time does not.
  */
 import { performance } from 'node:perf_hooks';
-import { FAMILY_IDS, type FamilyId } from '../src/core/synthesis';
+import { parseProblemFile } from '../src/core/io/problem';
+import { FAMILY_IDS, createObjective, type FamilyId } from '../src/core/synthesis';
 import { DEFAULT_ARCHIVE } from '../src/engine/runSpec';
 import { Island } from '../workers/island';
 import { demoProblemFile } from './demoProblem';
+import { PEERS, loadOptimizationJs, runPeerTrace } from './synthesis';
 
 const SAMPLES = 180;
 const SEED = 1;
@@ -26,6 +33,9 @@ const SLICE_EVALUATIONS = 250;
 const WARM_UP_EVALUATIONS = 1_000;
 /** The stated error: 0.25 mm RMS on a target about 100 mm across (the demo's own four-bar follows it to 0.071 mm). */
 const REACH_RMS_MM = 0.25;
+/** The family the peers search, and how often their best is read. */
+const PEER_FAMILY: FamilyId = 'fourbar';
+const PEER_CHECKPOINT_EVALUATIONS = 250;
 
 
 interface FamilyRun {
@@ -101,5 +111,32 @@ export function benchFamilies(): Promise<Record<string, number | string | null>[
       reachEvaluations: r.reachEvaluations,
     });
   }
+  rows.push(...peerRows(fourBarRate));
   return Promise.resolve(rows);
+}
+
+/** The peers on the four-bar's objective: one row each (null figures when a peer is not installed). */
+function peerRows(fourBarRate: number | null): Record<string, number | string | null>[] {
+  const parsed = parseProblemFile(demoProblemFile(PEER_FAMILY, SAMPLES));
+  if (!parsed.ok) throw new Error(`bench: the demo problem does not parse: ${parsed.issues.map((i) => `${i.path}: ${i.message}`).join('; ')}`);
+  const objective = createObjective(parsed.problem, PEER_FAMILY);
+  const lib = loadOptimizationJs();
+  const checkpoints = Array.from({ length: BUDGET_EVALUATIONS / PEER_CHECKPOINT_EVALUATIONS }, (_, k) => (k + 1) * PEER_CHECKPOINT_EVALUATIONS);
+  return PEERS.map((peer) => {
+    runPeerTrace(peer, lib, objective, SEED + 1_000_000, [WARM_UP_EVALUATIONS]);
+    const trace = runPeerTrace(peer, lib, objective, SEED, checkpoints);
+    const last = checkpoints.length - 1;
+    const reached = trace === null ? -1 : trace.best.findIndex((best) => best <= REACH_RMS_MM);
+    const rate = trace === null ? null : BUDGET_EVALUATIONS / trace.seconds[last];
+    return {
+      family: `${PEER_FAMILY}, peer ${peer}`,
+      evalsPerS: rate,
+      evalsPerSOverFourbarRatio: rate === null || fourBarRate === null ? null : rate / fourBarRate,
+      evaluations: trace === null ? null : BUDGET_EVALUATIONS,
+      bestRmsMm: trace === null || !(trace.best[last] < Infinity) ? null : trace.best[last],
+      reachRmsMm: REACH_RMS_MM,
+      reachS: trace === null || reached < 0 ? null : trace.seconds[reached],
+      reachEvaluations: reached < 0 ? null : checkpoints[reached],
+    };
+  });
 }

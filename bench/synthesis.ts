@@ -112,12 +112,12 @@ interface OmgOptimizer {
 
 const PEERS_DIR = new URL('./peers/', import.meta.url);
 
-function loadOptimizationJs(): OptimizationJs | null {
+export function loadOptimizationJs(): OptimizationJs | null {
   if (!existsSync(new URL('node_modules/optimization-js/package.json', PEERS_DIR))) return null;
   return createRequire(new URL('package.json', PEERS_DIR))('optimization-js') as OptimizationJs;
 }
 
-type PeerName = 'optimization-js rs_minimize' | 'optimization-js minimize_Powell' | 'fmin nelderMead';
+export type PeerName = 'optimization-js rs_minimize' | 'optimization-js minimize_Powell' | 'fmin nelderMead';
 
 /** Thrown by the counting wrapper once the budget is spent: how a peer with no cap of its own is stopped. */
 class BudgetSpent extends Error {}
@@ -133,6 +133,9 @@ class CountedObjective {
   bestPenalised = Infinity;
   bestPoint: number[] = [];
   readonly atBudget: number[];
+  /** Wall-clock seconds from the first evaluation's start to each checkpoint. */
+  readonly secondsAt: number[];
+  private startedAt = 0;
   private readonly unit: Float64Array;
   private readonly real: Float64Array;
   private readonly out = new Float64Array(2);
@@ -145,10 +148,12 @@ class CountedObjective {
     this.unit = new Float64Array(objective.dim);
     this.real = new Float64Array(objective.dim);
     this.atBudget = checkpoints.map(() => Infinity);
+    this.secondsAt = checkpoints.map(() => Infinity);
   }
 
   readonly f = (x: number[]): number => {
     if (!(this.count < this.checkpoints[this.checkpoints.length - 1])) throw new BudgetSpent();
+    if (this.count === 0) this.startedAt = performance.now();
     this.count++;
     const { objective, unit, real, out } = this;
     for (let j = 0; j < objective.dim; j++) unit[j] = x[j];
@@ -163,6 +168,7 @@ class CountedObjective {
       this.bestPoint = x.slice();
     }
     while (this.nextCheckpoint < this.checkpoints.length && this.count === this.checkpoints[this.nextCheckpoint]) {
+      this.secondsAt[this.nextCheckpoint] = (performance.now() - this.startedAt) / 1000;
       this.atBudget[this.nextCheckpoint++] = this.bestFeasible;
     }
     return penalised;
@@ -213,6 +219,12 @@ function checkRsDriver(lib: OptimizationJs, objective: Objective, calls: number)
   }
 }
 
+/** One peer run: the best feasible value at each checkpoint, and the seconds to each. */
+export interface PeerTrace {
+  readonly best: readonly number[];
+  readonly seconds: readonly number[];
+}
+
 /**
  * One peer run to the last checkpoint; the best feasible value at each. Powell and
  * Nelder–Mead stop on their own convergence tests long before such budgets, so they are
@@ -221,7 +233,12 @@ function checkRsDriver(lib: OptimizationJs, objective: Objective, calls: number)
  * an undeclared variable and throws in strict mode (fmin 0.0.4), and sigma = 1 is its own
  * option to stop where it would shrink, which the restart then follows.
  */
-function runPeer(peer: PeerName, lib: OptimizationJs | null, objective: Objective, seed: number, checkpoints: readonly number[]): number[] | null {
+function runPeer(peer: PeerName, lib: OptimizationJs | null, objective: Objective, seed: number, checkpoints: readonly number[]): readonly number[] | null {
+  return runPeerTrace(peer, lib, objective, seed, checkpoints)?.best ?? null;
+}
+
+/** runPeer with the seconds to each checkpoint; null when the peer is not installed. */
+export function runPeerTrace(peer: PeerName, lib: OptimizationJs | null, objective: Objective, seed: number, checkpoints: readonly number[]): PeerTrace | null {
   if (peer !== 'fmin nelderMead' && lib === null) return null;
   const counted = new CountedObjective(objective, checkpoints);
   const budget = checkpoints[checkpoints.length - 1];
@@ -245,7 +262,7 @@ function runPeer(peer: PeerName, lib: OptimizationJs | null, objective: Objectiv
   } catch (error) {
     if (!(error instanceof BudgetSpent)) throw error;
   }
-  return counted.atBudget;
+  return { best: counted.atBudget, seconds: counted.secondsAt };
 }
 
 // ---------------------------------------------------------------------------------------
@@ -340,7 +357,7 @@ function fmt(value: number | null): string {
   return Number(value.toPrecision(4)).toString();
 }
 
-const PEERS: readonly PeerName[] = ['optimization-js rs_minimize', 'optimization-js minimize_Powell', 'fmin nelderMead'];
+export const PEERS: readonly PeerName[] = ['optimization-js rs_minimize', 'optimization-js minimize_Powell', 'fmin nelderMead'];
 
 async function benchCase(caseId: string, referenceBest: number, lib: OptimizationJs | null, s: SynthesisBenchSettings): Promise<{ row: SynthesisRow; lines: string[]; checksum: number }> {
   const problemFile: unknown = JSON.parse(readFileSync(new URL(`../tests/reference/problems/${caseId}.json`, import.meta.url), 'utf8'));
