@@ -64,8 +64,9 @@ const SCENARIOS: Record<string, Record<string, unknown>> = {
   lshade: { kind: 'lshade', dim: 5, maxEvaluations: 6000, seed: 11, stream: 2 },
   'de-rand-1-bin': { kind: 'de-rand-1-bin', dim: 5, maxEvaluations: 6000, seed: 12, stream: 1 },
   'nelder-mead': { kind: 'nelder-mead', dim: 5, maxEvaluations: 3000, seed: 13, stream: 0 },
-  hybrid: { kind: 'hybrid', dim: 5, maxEvaluations: 6000, seed: 14, stream: 3 },
-  restart: { kind: 'restart', inner: { kind: 'hybrid' }, runEvaluations: 1500, growRuns: true, dim: 5, maxEvaluations: 9000, seed: 15, stream: 4 },
+  // The hybrids name the global share the digests were recorded with (the default then).
+  hybrid: { kind: 'hybrid', dim: 5, maxEvaluations: 6000, seed: 14, stream: 3, globalShare: 0.8 },
+  restart: { kind: 'restart', inner: { kind: 'hybrid', globalShare: 0.8 }, runEvaluations: 1500, growRuns: true, dim: 5, maxEvaluations: 9000, seed: 15, stream: 4 },
 };
 
 /** A seeded run to its end on a shifted Rastrigin function with a linear constraint and some failed evaluations. */

@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { canonicalValue, canonicalViolation, DistinctElite, precedes, restoreOptimizer, rmsDistance } from '../../src/core/optimize';
 import type { HybridState, OptimizerConfig } from '../../src/core/optimize';
+import { DEFAULT_GLOBAL_SHARE } from '../../src/core/optimize/config';
 import {
   drive,
   expectExactResume,
@@ -38,10 +39,10 @@ describe('hybrid schedule on published test functions', () => {
     const budget = 20_000;
     for (const seed of [1, 2]) {
       const global = new Trace();
-      const alone = drive(make({ kind: 'lshade', dim: 10, maxEvaluations: 0.8 * budget, seed, stream: 0 }), problem, { trace: global });
+      const alone = drive(make({ kind: 'lshade', dim: 10, maxEvaluations: DEFAULT_GLOBAL_SHARE * budget, seed, stream: 0 }), problem, { trace: global });
       const head = new Trace();
       const hybrid = make({ kind: 'hybrid', dim: 10, maxEvaluations: budget, seed });
-      drive(hybrid, problem, { until: 0.8 * budget, trace: head });
+      drive(hybrid, problem, { until: DEFAULT_GLOBAL_SHARE * budget, trace: head });
       expect(head.hash).toBe(global.hash);
       expect((hybrid.exportState() as HybridState).phase).toBe('polish');
       const r = drive(hybrid, problem);
@@ -105,9 +106,10 @@ describe('distinct candidates (DistinctElite)', () => {
   it('a run on Rastrigin polishes polishCount distinct candidates, the best of the global phase first', () => {
     const problem = shiftedRastrigin(SHIFT_RASTRIGIN_5);
     const opt = make({ kind: 'hybrid', dim: 5, maxEvaluations: 5000, seed: 3, polishCount: 4, distinctDistance: 0.02 });
-    drive(opt, problem, { until: 4000 });
+    const globalEnd = Math.floor(DEFAULT_GLOBAL_SHARE * 5000);
+    drive(opt, problem, { until: globalEnd });
     const bestOfGlobal = opt.best();
-    drive(opt, problem, { until: 4001 });
+    drive(opt, problem, { until: globalEnd + 1 });
     const s = opt.exportState() as HybridState;
     expect(s.phase).toBe('polish');
     expect(s.candidates.length).toBe(4);
@@ -175,7 +177,7 @@ describe('hybrid determinism, resume, budget and failures', () => {
   it('stops as converged after the global phase when there is nothing to polish', () => {
     const r = drive(make({ ...config, polishCount: 0 }), problem);
     expect(r.stopReason).toBe('converged');
-    expect(r.evaluations).toBe(Math.floor(0.8 * 3000));
+    expect(r.evaluations).toBe(Math.floor(DEFAULT_GLOBAL_SHARE * 3000));
   });
 
   it('ranks NaN and Infinity worst', () => {

@@ -33,6 +33,13 @@ export const MAX_POPULATION_ENTRIES = 4 * 1024 * 1024;
 const MAX_MEMORY_SIZE = 1000;
 const MAX_ARCHIVE_RATE = 10;
 const MAX_POLISH_COUNT = 100;
+/**
+ * The hybrid's share of its budget for the global search when a configuration names none:
+ * half. Over the reach set (bench/reachCases.ts, 21 cases, seeds 1–10, 2e5 evaluations)
+ * it reaches on 120 seeds against 110 with 0.8, and in fewer evaluations in every case
+ * both reach. States keep the share they were written with.
+ */
+export const DEFAULT_GLOBAL_SHARE = 0.5;
 const MAX_STALE_RESTARTS = 1_000_000;
 const MAX_POPULATION_GROWTH = 10;
 const MAX_AVOID_ATTEMPTS = 1000;
@@ -130,7 +137,7 @@ export function resolveConfig(input: unknown, where = 'config'): ResolvedConfig 
       const resolved: ResolvedHybrid = {
         kind,
         ...common,
-        globalShare: readNumber(o.globalShare ?? 0.8, `${where}.globalShare`, 0, 1, true),
+        globalShare: readNumber(o.globalShare ?? DEFAULT_GLOBAL_SHARE, `${where}.globalShare`, 0, 1, true),
         polishCount: readInteger(o.polishCount ?? 3, `${where}.polishCount`, 0, MAX_POLISH_COUNT),
         distinctDistance: readNumber(o.distinctDistance ?? 0.05, `${where}.distinctDistance`, 0, 1),
         global: readGlobal(o.global, `${where}.global`, dim),

@@ -134,7 +134,7 @@ export interface NelderMeadOptions {
 export type GlobalOptions = ({ readonly kind: 'lshade' } & LshadeOptions) | ({ readonly kind: 'de-rand-1-bin' } & RandOneBinOptions);
 
 export interface HybridOptions {
-  /** Share of the budget for the global search; default 0.8. */
+  /** Share of the budget for the global search; default DEFAULT_GLOBAL_SHARE (config.ts). */
   readonly globalShare: number;
   /** Number of distinct candidates polished; default 3. */
   readonly polishCount: number;
