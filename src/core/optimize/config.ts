@@ -35,9 +35,8 @@ const MAX_ARCHIVE_RATE = 10;
 const MAX_POLISH_COUNT = 100;
 /**
  * The hybrid's share of its budget for the global search when a configuration names none:
- * half. Over the reach set (bench/reachCases.ts, 21 cases, seeds 1–10, 2e5 evaluations)
- * it reaches on 120 seeds against 110 with 0.8, and in fewer evaluations in every case
- * both reach. States keep the share they were written with.
+ * half, chosen on the whole reach set (bench/README.md, "Reach"). States keep the share
+ * they were written with.
  */
 export const DEFAULT_GLOBAL_SHARE = 0.5;
 const MAX_STALE_RESTARTS = 1_000_000;
