@@ -39,7 +39,9 @@ describeBrowser('suspension search over a reload', () => {
     await page.locator('[data-field="seed"] input').fill('5');
     await expect.poll(() => start.isEnabled()).toBe(true);
     await start.click();
-    await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
+    // The first start builds the run's workers: on two cores shared with another browser file it has taken over 30 s.
+    await progress.waitFor({ timeout: LONG_MS });
+    await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
 
     // Two checkpoints with evaluations in them (the run's first is taken before any), and the running search kept in the project.
     await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(2);
