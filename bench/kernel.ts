@@ -1,7 +1,8 @@
 /**
  * Kernel throughput on one core: four-bar coupler-point solves per second through the
- * compiled plan (its generated kernel, called per driver value and through the batch
- * entry runBatch, and the interpreter that replaces it where a Content-Security-Policy
+ * compiled plan (its generated kernel, called per driver value through run and through
+ * runSized, the entry the core's hot loops call, and through the batch entry runBatch,
+ * and the interpreter that replaces it where a Content-Security-Policy
  * forbids code generation), beside a hand-written four-bar loop
  * on typed arrays doing the same arithmetic, the same loop in C (bench/c/fourbar.c,
  * gcc -O3, skipped when gcc is absent) and the plan as a WebAssembly module
@@ -32,7 +33,7 @@ import { fileURLToPath } from 'node:url';
 import { polarInto as polarImport } from '../src/core/geometry';
 import { SINCOS_CONSTANTS, SINCOS_REDUCTION_LIMIT } from '../src/core/geometry/trig';
 import { FOUR_BAR_DEFAULT, STEPHENSON_III_DEFAULT, compile, fourBar, run as runImport, stephensonIII, type Plan } from '../src/core/linkage';
-import { runBatch as runBatchImport } from '../src/core/linkage/run';
+import { runBatch as runBatchImport, runSized as runSizedImport } from '../src/core/linkage/run';
 import type { PlanInternal } from '../src/core/linkage/plan';
 import { runWasm as runWasmImport, wasmKernel, type WasmKernel } from './wasmKernel';
 import { Prng } from '../src/core/optimize/prng';
@@ -41,6 +42,7 @@ import { Prng } from '../src/core/optimize/prng';
 // call per use that would also stop inlining (see src/core/linkage/run.ts).
 const run = runImport;
 const runBatch = runBatchImport;
+const runSized = runSizedImport;
 const polarInto = polarImport;
 const runWasm = runWasmImport;
 
@@ -67,6 +69,17 @@ function planLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float6
   let acc = 0;
   for (let i = 0; i < solves; i++) {
     run(plan, angles[i & mask], pose);
+    acc += pose[pSlot] + pose[pSlot + 1];
+  }
+  return acc;
+}
+
+/** planLoop through runSized, the entry the core's hot loops call (their pose is made for the plan: no check of its length). */
+function planSizedLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float64Array, pSlot: number): number {
+  const mask = angles.length - 1;
+  let acc = 0;
+  for (let i = 0; i < solves; i++) {
+    runSized(plan, angles[i & mask], pose);
     acc += pose[pSlot] + pose[pSlot + 1];
   }
   return acc;
@@ -322,6 +335,7 @@ function firstDifference(a: Float64Array, b: Float64Array): number {
 /** One process's rounds of the plan, the hand-written loop and the batch entry: the median ratios within a round, and the checksums. */
 interface ProcessRatios {
   readonly planOverHand: number;
+  readonly planSizedOverHand: number;
   readonly batchOverHand: number;
   readonly checksums: readonly number[];
 }
@@ -336,20 +350,25 @@ export function fourBarProcessRounds(): ProcessRatios {
   const p = 2 * (plan.slotIndex.get('P') ?? -1);
   const pose = Float64Array.from(plan.reference);
   const poseB = Float64Array.from(plan.reference);
+  const poseS = Float64Array.from(plan.reference);
   const hand = new Float64Array(10);
   const dims = fourBarDims();
   const batch = batchFor(angles, FOURBAR_SOLVES, p);
   planLoop(plan, angles, 200_000, pose, p);
   handLoop(dims, angles, 200_000, hand);
   batchLoop(plan, angles, 200_000, poseB, batchFor(angles, 200_000, p));
+  planSizedLoop(plan, angles, 200_000, poseS, p);
   const rates = interleaved([
     { solves: FOURBAR_SOLVES, body: () => planLoop(plan, angles, FOURBAR_SOLVES, pose, p) },
     { solves: FOURBAR_SOLVES, body: () => handLoop(dims, angles, FOURBAR_SOLVES, hand) },
     { solves: FOURBAR_SOLVES, body: () => batchLoop(plan, angles, FOURBAR_SOLVES, poseB, batch) },
+    { solves: FOURBAR_SOLVES, body: () => planSizedLoop(plan, angles, FOURBAR_SOLVES, poseS, p) },
   ]);
+  const overHand = (loop: number) => median(rates.overFirst[loop].map((r, i) => r / rates.overFirst[1][i]));
   return {
     planOverHand: 1 / median(rates.overFirst[1]),
-    batchOverHand: median(rates.overFirst[2].map((r, i) => r / rates.overFirst[1][i])),
+    planSizedOverHand: overHand(3),
+    batchOverHand: overHand(2),
     checksums: rates.checksum,
   };
 }
@@ -392,9 +411,11 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
 
   const batch4 = batchFor(angles, FOURBAR_SOLVES, p4);
   const poseB = Float64Array.from(plan4.reference);
+  const poseS = Float64Array.from(plan4.reference);
 
   // Warm-up: let the JIT compile every loop before timing.
   planLoop(plan4, angles, 200_000, pose4, p4);
+  planSizedLoop(plan4, angles, 200_000, poseS, p4);
   batchLoop(plan4, angles, 200_000, poseB, batchFor(angles, 200_000, p4));
   handLoop(dims, angles, 200_000, hand);
   handLoopMathTrig(dims, angles, 200_000, hand);
@@ -408,9 +429,11 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
     { solves: FOURBAR_SOLVES, body: () => wasmLoop(wasm, plan4 as PlanInternal, angles, FOURBAR_SOLVES, poseW, p4) },
     { solves: FOURBAR_SOLVES, body: () => wasmInMemoryLoop(wasm, angles, FOURBAR_SOLVES, p4) },
     { solves: FOURBAR_SOLVES, body: () => batchLoop(plan4, angles, FOURBAR_SOLVES, poseB, batch4) },
+    { solves: FOURBAR_SOLVES, body: () => planSizedLoop(plan4, angles, FOURBAR_SOLVES, poseS, p4) },
   ];
   const BATCH_LOOP = 5;
-  const C_LOOP = 6;
+  const SIZED_LOOP = 6;
+  const C_LOOP = 7;
   if (typeof native !== 'string') {
     // The C loop times itself inside its process, so the spawn is not counted.
     let nativeRate = 0;
@@ -497,8 +520,10 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
   if (four.checksum[4] !== four.checksum[0]) throw new Error(`bench: the WebAssembly kernel's checksum ${four.checksum[4]} differs from the plan's ${four.checksum[0]}`);
   if (four.checksum[0] !== four.checksum[1]) throw new Error(`bench: plan checksum ${four.checksum[0]} differs from the hand-written loop's ${four.checksum[1]}`);
   if (four.checksum[BATCH_LOOP] !== four.checksum[0]) throw new Error(`bench: the batch entry's checksum ${four.checksum[BATCH_LOOP]} differs from the plan's ${four.checksum[0]}`);
-  // Within each round: the batch entry over the hand-written loop, and over the C loop.
-  const batchOver = (loop: number) => median(four.overFirst[BATCH_LOOP].map((r, i) => r / four.overFirst[loop][i]));
+  if (four.checksum[SIZED_LOOP] !== four.checksum[0]) throw new Error(`bench: runSized's checksum ${four.checksum[SIZED_LOOP]} differs from run's ${four.checksum[0]}`);
+  // Within each round: one loop over another (the hand-written loop, the C loop).
+  const over = (loop: number, other: number) => median(four.overFirst[loop].map((r, i) => r / four.overFirst[other][i]));
+  const batchOver = (other: number) => over(BATCH_LOOP, other);
 
   const nativeRatio = typeof native === 'string' ? null : median(four.overFirst[C_LOOP]);
 
@@ -506,12 +531,13 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
   if (typeof ran === 'string') console.log(`kernel: the figures of fresh processes are skipped: ${ran}`);
   const processes = typeof ran === 'string' ? [] : ran;
   for (const r of processes) {
-    if (r.checksums[0] !== four.checksum[0] || r.checksums[1] !== four.checksum[0] || r.checksums[2] !== four.checksum[0]) {
+    if (r.checksums.some((c) => c !== four.checksum[0])) {
       throw new Error(`bench: a timing process's checksums ${r.checksums.join(', ')} differ from the plan's ${four.checksum[0]}`);
     }
   }
   const spread = (ratios: number[]) => (ratios.length === 0 ? [null, null, null] : [median(ratios), Math.min(...ratios), Math.max(...ratios)]);
   const [planMedian, planLowest, planHighest] = spread(processes.map((r) => r.planOverHand));
+  const [sizedMedian, sizedLowest, sizedHighest] = spread(processes.map((r) => r.planSizedOverHand));
   const [batchMedian, batchLowest, batchHighest] = spread(processes.map((r) => r.batchOverHand));
   return {
     fourbar_plan_per_s: four.perS[0],
@@ -520,6 +546,11 @@ export async function benchKernel(): Promise<Record<string, number | null>> {
     fourbar_plan_over_handwritten_ratio_median_of_processes: planMedian,
     fourbar_plan_over_handwritten_ratio_lowest_process: planLowest,
     fourbar_plan_over_handwritten_ratio_highest_process: planHighest,
+    fourbar_plan_sized_per_s: four.perS[SIZED_LOOP],
+    fourbar_plan_sized_over_handwritten_ratio: over(SIZED_LOOP, 1),
+    fourbar_plan_sized_over_handwritten_ratio_median_of_processes: sizedMedian,
+    fourbar_plan_sized_over_handwritten_ratio_lowest_process: sizedLowest,
+    fourbar_plan_sized_over_handwritten_ratio_highest_process: sizedHighest,
     fourbar_c_per_s: typeof native === 'string' ? null : four.perS[C_LOOP],
     fourbar_plan_over_c_ratio: nativeRatio === null ? null : 1 / nativeRatio,
     fourbar_batch_per_s: four.perS[BATCH_LOOP],

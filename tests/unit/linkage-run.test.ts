@@ -19,6 +19,7 @@ import {
   type Plan,
 } from '../../src/core/linkage';
 import type { PlanInternal } from '../../src/core/linkage/plan';
+import { runSized } from '../../src/core/linkage/run';
 
 function compiled(linkage: Linkage): Plan {
   const result = compile(linkage);
@@ -138,6 +139,27 @@ describe('run: Freudenstein’s equation holds at solved four-bar poses', () => 
       const theta2 = Math.atan2(A.y - at0.A0.y, A.x - at0.A0.x) - groundAngle;
       const theta4 = Math.atan2(B.y - at0.B0.y, B.x - at0.B0.x) - groundAngle;
       expect(Math.abs(K1 * Math.cos(theta4) - K2 * Math.cos(theta2) + K3 - Math.cos(theta2 - theta4))).toBeLessThan(1e-12);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(40);
+  });
+  it.each(cases)('%s, through runSized (the hot loops\' entry, which skips the check of the pose\'s length)', (_name, at0) => {
+    const plan = compiled(fourBar({ ...at0, P: vec2(0, 0) }));
+    const a = distance(at0.A0, at0.A);
+    const b = distance(at0.A, at0.B);
+    const c = distance(at0.B0, at0.B);
+    const d = distance(at0.A0, at0.B0);
+    const groundAngle = Math.atan2(at0.B0.y - at0.A0.y, at0.B0.x - at0.A0.x);
+    const K3 = (a * a - b * b + c * c + d * d) / (2 * a * c);
+    const pose = Float64Array.from(plan.reference);
+    let checked = 0;
+    for (let k = 0; k < 241; k++) {
+      if (!runSized(plan, plan.driverReferenceValue + (2 * Math.PI * k) / 240, pose)) continue;
+      const A = at(plan, pose, 'A');
+      const B = at(plan, pose, 'B');
+      const theta2 = Math.atan2(A.y - at0.A0.y, A.x - at0.A0.x) - groundAngle;
+      const theta4 = Math.atan2(B.y - at0.B0.y, B.x - at0.B0.x) - groundAngle;
+      expect(Math.abs((d / a) * Math.cos(theta4) - (d / c) * Math.cos(theta2) + K3 - Math.cos(theta2 - theta4))).toBeLessThan(1e-12);
       checked++;
     }
     expect(checked).toBeGreaterThan(40);

@@ -69,6 +69,17 @@ export function failFrom(p: PlanInternal, op: number, pose: Float64Array): false
 export function run(plan: Plan, driverValue: number, pose: Float64Array): boolean {
   const p = plan as PlanInternal;
   if (pose.length !== 2 * p.slotCount) throw poseLengthError(p, pose, 'run: pose');
+  return runSized(p, driverValue, pose);
+}
+
+/**
+ * run for a caller that made its pose for this plan (2 × slotCount numbers) and keeps
+ * it: the same solve without the check of the pose's length, which costs a tenth of a
+ * four-bar's solve. For the hot loops of the core (the curve of a pose family, the
+ * sweep); everything else calls run.
+ */
+export function runSized(plan: Plan, driverValue: number, pose: Float64Array): boolean {
+  const p = plan as PlanInternal;
   // Small enough to inline into a caller's loop, and the plan's kernel into it; the
   // value crosses into the kernel through a Float64Array, since a double passed to a
   // call that is not inlined is boxed: an allocation per run.

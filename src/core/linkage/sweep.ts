@@ -22,7 +22,7 @@ import {
   type PlanInternal,
 } from './plan';
 import { blockJacobianSign } from './newton';
-import { poseRatesInto, run, runBatch, runPrefix, runWithRates } from './run';
+import { poseRatesInto, runBatch, runPrefix, runSized, runWithRates } from './run';
 import {
   DEAD_CENTRE_SIN_TOL,
   FULL_TURN_TOL_RAD,
@@ -665,7 +665,7 @@ function solveNear(p: PlanInternal, t: Tracker, v: number, at: number, pose: Flo
     const predicted = pose[i] + rates[i] * (v - at);
     t.pose[i] = Number.isFinite(predicted) ? predicted : pose[i];
   }
-  if (!run(p, v, t.pose)) return false;
+  if (!runSized(p, v, t.pose)) return false;
   for (let b = 0; b < p.blockCount; b++) {
     if (blockJacobianSign(p, b, t.pose) !== t.referenceSigns[b]) {
       p.failedOp = t.blockOps[b];

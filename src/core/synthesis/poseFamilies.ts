@@ -31,7 +31,7 @@ import {
 } from '../linkage';
 import { newtonUnknownSlots } from '../linkage/newton';
 import type { PlanInternal } from '../linkage/plan';
-import { poseRatesInto as poseRatesIntoBinding } from '../linkage/run';
+import { poseRatesInto as poseRatesIntoBinding, runSized as runSizedBinding } from '../linkage/run';
 import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
 import {
   CURVE_DX as CURVE_DX_BINDING,
@@ -75,6 +75,7 @@ const V_TRANSMISSION = V_TRANSMISSION_BINDING;
 const EXTENT_COS = EXTENT_COS_BINDING;
 const run = runBinding;
 const runWithRates = runWithRatesBinding;
+const runSized = runSizedBinding;
 const poseRatesInto = poseRatesIntoBinding;
 
 const TAU = 2 * Math.PI;
@@ -585,7 +586,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const value = plan.driverReferenceValue + t;
     // A pose solved at t already is its solution: no need to solve it again for the point.
     const known = this.predicts && this.start(t) && (order === 0 || this.ratesFromPose);
-    const ok = known || (order === 0 ? run(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates));
+    // this.pose is made for the plan (constructor): runSized skips the check of its length.
+    const ok = known || (order === 0 ? runSized(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates));
     if (known) this.knownSolved(t, order > 0);
     else this.solved(t, ok, order > 0);
     const s = this.pSlot;
