@@ -3,7 +3,7 @@
  * (family `fourbar`) on the demo target (24 points, closed, matched timing, free
  * placement, 180 curve samples), searched by one island in this thread with the
  * `hybrid` optimizer, beside four-bar solves per second through the compiled plan in
- * the same run. The figure to watch is
+ * the same run (runSized, the per-value entry the curve calls). The figure to watch is
  *
  *   evalPerSolveRatio = (evaluations/s × curve samples) / (plan solves/s),
  *
@@ -16,14 +16,15 @@
  * Seeded throughout; untimed warm-up; each rate the best of interleaved rounds.
  */
 import { performance, PerformanceObserver } from 'node:perf_hooks';
-import { compile, fourBar, run as runImport, type Plan } from '../src/core/linkage';
+import { compile, fourBar, type Plan } from '../src/core/linkage';
+import { runSized as runSizedImport } from '../src/core/linkage/run';
 import { Prng } from '../src/core/optimize/prng';
 import { createObjective, createProblem } from '../src/core/synthesis';
 import { DEFAULT_ARCHIVE } from '../src/engine/runSpec';
 import { demoProblemFile } from './demoProblem';
 import { Island } from '../workers/island';
 
-const run = runImport;
+const runSized = runSizedImport;
 
 const SAMPLES = 180;
 const FAMILY = 'fourbar';
@@ -38,7 +39,7 @@ const INPUT_COUNT = 4096;
 function planLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float64Array, pSlot: number): number {
   let acc = 0;
   for (let i = 0; i < solves; i++) {
-    run(plan, angles[i & (INPUT_COUNT - 1)], pose);
+    runSized(plan, angles[i & (INPUT_COUNT - 1)], pose);
     acc += pose[pSlot] + pose[pSlot + 1];
   }
   return acc;
