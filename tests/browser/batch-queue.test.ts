@@ -13,8 +13,12 @@ import { expect, it } from 'vitest';
 import { describeBrowser, saveScreenshot, useBrowser } from './harness';
 
 const LONG_MS = 240_000;
-/** A time-budget job long enough to take a checkpoint after its first (every 10 s of a running search) and go on after the reload. */
-const TIMED_JOB_S = '25';
+/**
+ * A time-budget job long enough to take a checkpoint after its first (every 10 s of a running
+ * search) and still be running when the page reloads: before that reload the test opens a
+ * second page of the app, which on a loaded machine can take many seconds of the job's time.
+ */
+const TIMED_JOB_S = '40';
 
 describeBrowser('batch queue', () => {
   const browser = useBrowser();

@@ -10,6 +10,9 @@ import { DEFAULT_RESULTS_PER_FAMILY } from '../../src/engine/runSpec';
 import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
 
 const SEARCH_TIMEOUT_MS = 180_000;
+/** A test with searches in it: each wait for one may take SEARCH_TIMEOUT_MS, more than the 60 s a test may take by default. */
+const ONE_SEARCH_TEST_MS = 2 * SEARCH_TIMEOUT_MS;
+const TWO_SEARCHES_TEST_MS = 3 * SEARCH_TIMEOUT_MS;
 
 describeBrowser('per-family results and run history', () => {
   const browser = useBrowser();
@@ -71,7 +74,7 @@ describeBrowser('per-family results and run history', () => {
     await page.getByTestId('run-history').scrollIntoViewIfNeeded();
     await saveScreenshot(page, 'history-1920');
     expect(app.problems()).toEqual([]);
-  });
+  }, ONE_SEARCH_TEST_MS);
 
   it('keeps two runs, compares pinned designs of both, keeps the pins over a new run and a reload, deletes on request', async () => {
     const app = await openWorkspace();
@@ -128,5 +131,5 @@ describeBrowser('per-family results and run history', () => {
     expect(await page.getByTestId('pinned-design').count()).toBe(2);
     await saveScreenshot(page, 'history-after-delete-1280', { fullPage: true });
     expect(app.problems()).toEqual([]);
-  });
+  }, TWO_SEARCHES_TEST_MS);
 });

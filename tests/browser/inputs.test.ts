@@ -13,6 +13,10 @@ import { defineRun } from '../../src/engine';
 import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
 
 const SEARCH_TIMEOUT_MS = 150_000;
+/** A test with a search in it: a wait for the search may take SEARCH_TIMEOUT_MS, more than the 60 s a test may take by default. */
+const SEARCH_TEST_MS = 2 * SEARCH_TIMEOUT_MS;
+/** A test that waits for a search several times (a checkpoint, a resume after a reload, the end). */
+const LONG_SEARCH_TEST_MS = 4 * SEARCH_TIMEOUT_MS;
 
 /** Words of the code's own: dotted paths and array indices, which the page must never show. */
 const INTERNAL_PATH = /\b(?:bounds|budget|jobs|constraints|target|objective|problem)(?:\.|\[)|worker \d+ refused/;
@@ -325,7 +329,7 @@ describeBrowser('state that tells the truth', () => {
     await expect.poll(() => page.getByTestId('keep-out-region').count()).toBe(1);
     expect(await page.getByTestId('set-aside').count()).toBe(0);
     expect(app.problems()).toEqual([]);
-  });
+  }, SEARCH_TEST_MS);
 
   it('says "Resumed after a reload" only after a reload, not after Pause and Resume or Stop', async () => {
     const app = await openWorkspace(browser);
@@ -341,10 +345,10 @@ describeBrowser('state that tells the truth', () => {
     expect(await resumed.count()).toBe(0);
 
     // A checkpoint to go on from, then the reload.
-    await page.getByTestId('run-checkpoint').waitFor({ timeout: 60_000 });
+    await page.getByTestId('run-checkpoint').waitFor({ timeout: SEARCH_TIMEOUT_MS });
     await page.reload();
     await page.getByTestId('project-name').waitFor({ timeout: 30_000 });
-    await resumed.waitFor({ timeout: 60_000 });
+    await resumed.waitFor({ timeout: SEARCH_TIMEOUT_MS });
     expect(await resumed.textContent()).toMatch(/^Resumed after a reload from the checkpoint of round \d+/);
     await saveScreenshot(page, 'inputs-resumed-after-reload');
 
@@ -358,5 +362,5 @@ describeBrowser('state that tells the truth', () => {
     expect(await waitForStatus(page, ['finished', 'failed'])).toBe('finished');
     expect(await resumed.count()).toBe(0);
     expect(app.problems()).toEqual([]);
-  });
+  }, LONG_SEARCH_TEST_MS);
 });

@@ -79,7 +79,7 @@ describeBrowser('walking-leg search over a reload', () => {
     await page.locator('[data-field="seed"] input').fill('5');
     await expect.poll(() => start.isEnabled()).toBe(true);
     await start.click();
-    await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
+    await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
 
     // Two checkpoints with evaluations in them (the run's first is taken before any), and the running search kept in the project.
     await expect.poll(async () => counted(await storedCheckpoints(page, 'leg')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(2);
@@ -125,7 +125,7 @@ describeBrowser('walking-leg search over a reload', () => {
     await start.click();
     const drop = page.getByRole('alertdialog', { name: 'Drop the older run?' });
     if (await drop.count() > 0) await drop.getByRole('button', { name: 'Start and drop the older run' }).click();
-    await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
+    await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
     const back = page.getByRole('button', { name: 'Back to path synthesis' });
     await back.click();
     const closing = page.getByRole('alertdialog', { name: 'Close while the search runs?' });

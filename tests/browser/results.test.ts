@@ -16,6 +16,8 @@ import { PAGE_BASE, buildResultsPage, type BuiltPage } from './results-page/serv
 const fixture = resultsFixture();
 const CAUTION = 'Loci computes kinematics only; check the design with a qualified engineer, physical tests and the applicable standards.';
 const DETAIL_STEPS = 361;
+/** A test with a search of the app's in it: the wait for the search alone may take up to 150 s, more than the 60 s a test may take by default. */
+const SEARCH_TEST_MS = 300_000;
 
 describeBrowser('results views', () => {
   const browser = useBrowser();
@@ -241,13 +243,16 @@ describeBrowser('results views', () => {
     expect(await compare.getByTestId('compare-drawing').count()).toBe(2);
     await saveScreenshot(page, 'results-app', { fullPage: true });
     expect(app.problems()).toEqual([]);
-  });
+  }, SEARCH_TEST_MS);
 
   it('keeps working while a search refreshes the candidates', async () => {
     const app = await openResultsPage('?running=1');
     const page = app.page;
     expect(await page.getByText('search running').count()).toBe(1);
+    // A design selected, then the refreshes: they start on the test's word, not on a timer from
+    // the page's load, which a slow machine could let run out before the test got here.
     await select(page, 2);
+    await page.getByRole('button', { name: 'Start the refreshes' }).click();
     await page.waitForFunction(() => document.querySelector('[data-testid="refreshes"]')?.textContent === '8');
     // The selection survives fresh report objects for the same designs.
     expect(await page.getByTestId('detail-view').getByRole('heading').textContent()).toBe(`Rank 2: ${familyName(fixture.candidates[1].family)}`);

@@ -62,6 +62,48 @@ export function damageNewestCheckpoint(page: Page, scope: string): Promise<boole
   }), `${scope}-`);
 }
 
+/**
+ * For a page about to be reloaded while its search runs: from now on the page writes no
+ * checkpoint (each write throws, as in a page that is going away; in this document only,
+ * not an init script, so the reloaded page saves as before), then one digit of the newest
+ * checkpoint's evaluation count (runs `scope-…`) is changed under its unchanged checksum,
+ * as a torn write leaves it. Without the first step a search that saves every few seconds
+ * may write a newer checkpoint between the damage and the reload, and the page would go
+ * on from that one. Gives the evaluations of the checkpoint before the damaged one, the
+ * one a resume goes back to; null when fewer than two checkpoints are stored.
+ */
+export function damageNewestCheckpointOfRunningSearch(page: Page, scope: string): Promise<number | null> {
+  return page.evaluate((prefix) => new Promise<number | null>((resolve, reject) => {
+    const put = IDBObjectStore.prototype.put;
+    IDBObjectStore.prototype.put = function (this: IDBObjectStore, ...args: Parameters<IDBObjectStore['put']>) {
+      if (this.name === 'checkpoints') throw new DOMException('the test reloads this page: it writes no more checkpoints', 'AbortError');
+      return put.apply(this, args);
+    };
+    const open = indexedDB.open('loci');
+    open.onerror = () => reject(new Error('cannot open the database'));
+    open.onsuccess = () => {
+      const db = open.result;
+      // A save begun before the writes stopped is a transaction created before this one: it ends first, and is seen here.
+      const tx = db.transaction('checkpoints', 'readwrite');
+      const store = tx.objectStore('checkpoints');
+      const all = store.getAll();
+      let beforeEvaluations: number | null = null;
+      all.onsuccess = () => {
+        const records = (all.result as { runId: string; seq: number; text: string }[]).filter((r) => r.runId.startsWith(prefix)).sort((a, b) => b.seq - a.seq);
+        if (records.length < 2) return;
+        const [newest, before] = records;
+        const at = newest.text.indexOf('"evaluations":') + '"evaluations":'.length;
+        const digit = newest.text[at];
+        const text = newest.text.slice(0, at) + (digit === '9' ? '8' : String(Number(digit) + 1)) + newest.text.slice(at + 1);
+        put.call(store, { ...newest, text });
+        beforeEvaluations = (JSON.parse(before.text) as { payload: { evaluations: number } }).payload.evaluations;
+      };
+      tx.oncomplete = () => { db.close(); resolve(beforeEvaluations); };
+      tx.onerror = () => reject(new Error('the damaging write failed'));
+    };
+  }), `${scope}-`);
+}
+
 /** The checkpoint the path workspace says it last saved (its round and evaluations), or null before the first. */
 export async function pathCheckpointShown(page: Page): Promise<{ round: number; evaluations: number } | null> {
   const note = page.getByTestId('run-checkpoint');
@@ -81,7 +123,9 @@ export async function pathEvaluationsShown(page: Page): Promise<number> {
  * aborted and the page reloads, as a reload or crash does to a transaction not yet
  * committed. Once per tab (sessionStorage remembers it across the reload), noting the
  * evaluations of the torn checkpoint and of the one written before it under
- * `loci-test-torn-write`.
+ * `loci-test-torn-write`. The page it reloads writes no checkpoint after the torn one (each
+ * write throws, as in a page going away): it runs on until the new page replaces it, and a
+ * checkpoint it saved in that moment, on a slow machine, would be the one resumed from.
  */
 export function tornCheckpointWriteScript(nth: number): string {
   return `(() => {
@@ -91,7 +135,9 @@ export function tornCheckpointWriteScript(nth: number): string {
     const evaluationsOf = (text) => { try { return JSON.parse(text).payload.evaluations; } catch { return null; } };
     let writes = 0;
     let before = null;
+    let reloading = false;
     IDBObjectStore.prototype.put = function (...args) {
+      if (this.name === 'checkpoints' && reloading) throw new DOMException('the page is reloading: it writes no more checkpoints', 'AbortError');
       const request = put.apply(this, args);
       if (this.name === 'checkpoints') {
         writes += 1;
@@ -99,6 +145,7 @@ export function tornCheckpointWriteScript(nth: number): string {
         if (writes === ${nth}) {
           sessionStorage.setItem(KEY, JSON.stringify({ torn: evaluations, before }));
           this.transaction.abort();
+          reloading = true;
           location.reload();
         }
         before = evaluations;

@@ -12,8 +12,15 @@ import { describeBrowser, saveScreenshot, useBrowser } from './harness';
 import { damageNewestCheckpoint, storedCheckpoints, type StoredCheckpoint } from './storedCheckpoints';
 import { storedTextHas } from './storedProject';
 
-/** Long enough that the search is still running when the page reloads (it stops on Stop or its time budget). */
-const BUDGET_S = '10';
+/**
+ * The first run's time budget: long enough that the search is still running when the page
+ * reloads. The test waits for two checkpoints (one each second of searching) and a project
+ * write before the reload, which on a loaded machine can take several seconds: the run
+ * must not end by its budget before it.
+ */
+const BUDGET_S = '20';
+/** The later runs end on the user's word (Stop, or Stop and close): a budget they never reach, so none ends by itself while the test is between its steps. */
+const LATER_BUDGET_S = '600';
 const LONG_MS = 180_000;
 
 const counted = (cs: readonly StoredCheckpoint[]) => cs.filter((c) => c.evaluations !== null && c.evaluations > 0).length;
@@ -80,8 +87,10 @@ describeBrowser('suspension search over a reload', () => {
     await expect.poll(() => storedTextHas(page, 'searchRunning'), { timeout: 10_000 }).toBe(false);
 
     // A second run, stopped: the designs it found are kept, and the resumed run is the previous one.
+    await page.locator('[data-field="budget.seconds"] input').fill(LATER_BUDGET_S);
+    await expect.poll(() => start.isEnabled()).toBe(true);
     await start.click();
-    await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
+    await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
     expect(await notice.count()).toBe(0);
     await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
     await stop.click();
@@ -104,7 +113,7 @@ describeBrowser('suspension search over a reload', () => {
     expect(await progress.getAttribute('data-status')).toBe('finished');
     await start.click();
     await drop.getByRole('button', { name: 'Start and drop the older run' }).click();
-    await expect.poll(() => progress.getAttribute('data-status')).toBe('running');
+    await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
     await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
 
     // Closing the workspace while it runs asks; Keep searching leaves it running.

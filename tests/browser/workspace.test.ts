@@ -10,11 +10,15 @@ import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
 import { traceMainThread } from './mainThreadTasks';
+import { damageNewestCheckpointOfRunningSearch } from './storedCheckpoints';
+import { storedTextHas } from './storedProject';
 
 /** A main-thread task's CPU time the page must stay under while a search runs, ms: the browser's long-task threshold (W3C Long Tasks API). */
 const LONG_TASK_MS = 50;
 
 const SEARCH_TIMEOUT_MS = 150_000;
+/** A test with a search in it: its waits for the search, each up to SEARCH_TIMEOUT_MS, and what it does around them (the file's default of 60 s is less than one such wait). */
+const SEARCH_TEST_MS = 600_000;
 
 async function openWorkspace(browser: ReturnType<typeof useBrowser>): Promise<AppPage> {
   const app = await browser.openApp('/');
@@ -65,7 +69,7 @@ async function checkpointSeen(page: Page): Promise<{ round: number; evaluations:
 }
 
 /** Waits for a checkpoint of a round after `afterRound`, and returns it. */
-async function waitForCheckpointAfter(page: Page, afterRound: number, timeoutMs = 60_000): Promise<{ round: number; evaluations: number }> {
+async function waitForCheckpointAfter(page: Page, afterRound: number, timeoutMs = SEARCH_TIMEOUT_MS): Promise<{ round: number; evaluations: number }> {
   await expect.poll(async () => (await checkpointSeen(page))?.round ?? -1, { timeout: timeoutMs, interval: 200 }).toBeGreaterThan(afterRound);
   return (await checkpointSeen(page)) as { round: number; evaluations: number };
 }
@@ -212,8 +216,9 @@ describeBrowser('workspace', () => {
     for (const f of [0.2, 0.4, 0.6]) await page.mouse.click(traced.x + f * traced.width, traced.y + 0.4 * traced.height);
     await expect.poll(() => pointRows(page)).toBe(3);
     await saveScreenshot(page, 'workspace-background');
-    // The image survives a reload (its bytes are in IndexedDB, shown through a blob: URL).
-    await page.waitForTimeout(2500);
+    // The image survives a reload (its bytes are in IndexedDB, shown through a blob: URL). The
+    // project naming it is saved a moment after the change (the saver's delay): wait for the record, then reload.
+    await expect.poll(() => storedTextHas(page, 'side-view.png', '"calibrated":true'), { timeout: 10_000 }).toBe(true);
     await page.reload();
     await page.getByTestId('background-image').waitFor({ timeout: 30_000 });
     expect(await page.getByTestId('background-image').getAttribute('href')).toMatch(/^blob:/);
@@ -250,7 +255,8 @@ describeBrowser('workspace', () => {
       await page.mouse.wheel(0, 150);
       await page.waitForTimeout(100);
     }
-    expect(await regionWidth()).toBeLessThan(Math.min(wide, 0.6 * box.width) + 1);
+    // The last wheel turns may not be drawn yet when the loop ends.
+    await expect.poll(regionWidth).toBeLessThan(Math.min(wide, 0.6 * box.width) + 1);
     expect(await regionWidth()).toBeLessThan(wide);
     await saveScreenshot(page, 'workspace-constraints');
     await page.getByRole('button', { name: 'Remove keep-out region 1' }).click();
@@ -297,7 +303,7 @@ describeBrowser('workspace', () => {
     expect(await page.getByLabel('Budget in evaluations').inputValue()).toBe('4000');
     expect(await runStatus(page)).toBe('finished');
     expect(app.problems()).toEqual([]);
-  });
+  }, SEARCH_TEST_MS);
 
   it('goes on from its checkpoint after a reload, skipping a damaged newest checkpoint', async () => {
     const app = await openWorkspace(browser);
@@ -321,49 +327,33 @@ describeBrowser('workspace', () => {
     const second = await waitForCheckpointAfter(page, first.round);
     expect(second.evaluations).toBeGreaterThan(first.evaluations);
 
-    // Damage the newest checkpoint in IndexedDB (one digit of its payload), as a torn write would.
-    const damaged = await page.evaluate(
-      () =>
-        new Promise<string>((resolve, reject) => {
-          const open = indexedDB.open('loci');
-          open.onerror = () => reject(new Error('cannot open the database'));
-          open.onsuccess = () => {
-            const db = open.result;
-            const tx = db.transaction('checkpoints', 'readwrite');
-            const store = tx.objectStore('checkpoints');
-            const all = store.getAll();
-            all.onsuccess = () => {
-              const records = (all.result as { runId: string; seq: number; text: string }[]).sort((a, b) => b.seq - a.seq);
-              const newest = records[0];
-              const at = newest.text.indexOf('"evaluations":') + '"evaluations":'.length;
-              const digit = newest.text[at];
-              const text = newest.text.slice(0, at) + (digit === '9' ? '8' : String(Number(digit) + 1)) + newest.text.slice(at + 1);
-              store.put({ ...newest, text });
-              tx.oncomplete = () => resolve(`seq ${newest.seq} of ${records.length}`);
-            };
-          };
-        }),
-    );
-    expect(damaged).toMatch(/^seq \d+ of \d+$/);
+    // Damage the newest checkpoint in IndexedDB (one digit of its payload), as a torn write would,
+    // and write no more in this page: the search saves every 2 s, so one saved after `second`, or
+    // between the damage and the reload, would otherwise be the newest by the time the page reloads.
+    const before = await damageNewestCheckpointOfRunningSearch(page, 'run');
+    if (before === null) throw new Error('fewer than two checkpoints stored: none to damage and go back before');
+    // The checkpoint before the damaged one: `first`, or one saved after it (`second`, or the one
+    // before a newer checkpoint saved in the moment before the writes stopped).
+    expect(before).toBeGreaterThanOrEqual(first.evaluations);
 
     await page.reload();
     await page.getByTestId('project-name').waitFor({ timeout: 30_000 });
     const resumed = page.getByTestId('run-resumed');
-    await resumed.waitFor({ timeout: 60_000 });
+    await resumed.waitFor({ timeout: SEARCH_TIMEOUT_MS });
     // It went back to the checkpoint before the damaged one, not to the start.
-    expect(Number(await resumed.getAttribute('data-evaluations'))).toBe(first.evaluations);
+    expect(Number(await resumed.getAttribute('data-evaluations'))).toBe(before);
     await expect.poll(() => page.getByText(/Skipped 1 damaged checkpoint/).count()).toBe(1);
     // The best candidates found before the reload are there while the search goes on.
     await expect.poll(() => page.getByTestId('candidate-row').count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(5);
     await waitForStatus(page, ['running']);
     await expect
-      .poll(async () => Number((await page.getByTestId('run-evaluations').textContent())?.split(' of ')[0].replace(/,/g, '')), { timeout: 30_000 })
-      .toBeGreaterThan(first.evaluations);
+      .poll(async () => Number((await page.getByTestId('run-evaluations').textContent())?.split(' of ')[0].replace(/,/g, '')), { timeout: SEARCH_TIMEOUT_MS })
+      .toBeGreaterThan(before);
     await saveScreenshot(page, 'workspace-resumed');
 
     await page.getByRole('button', { name: 'Stop' }).click();
     expect(await waitForStatus(page, ['finished', 'failed'])).toBe('finished');
     await expect.poll(() => page.getByTestId('candidate-row').count(), { timeout: 30_000 }).toBeGreaterThanOrEqual(5);
     expect(app.problems()).toEqual([]);
-  });
+  }, SEARCH_TEST_MS);
 });

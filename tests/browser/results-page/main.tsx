@@ -3,7 +3,9 @@
  * with reports from synthesis `describe` of known linkages (candidates.ts).
  *
  * `?running=1` plays a running search: the same designs arrive again as fresh report
- * objects every REFRESH_MS, as the workspace's store hands them over, a few times.
+ * objects every REFRESH_MS, as the workspace's store hands them over, a few times, from
+ * when the test presses "Start the refreshes" (so the test can look at the page before
+ * any refresh, however slowly it gets there).
  */
 import { StrictMode, useEffect, useState } from 'react';
 import { createRoot } from 'react-dom/client';
@@ -19,19 +21,25 @@ const running = new URLSearchParams(window.location.search).get('running') === '
 
 function Page() {
   const [round, setRound] = useState(0);
+  const [refreshing, setRefreshing] = useState(false);
   const [candidates, setCandidates] = useState(fixture.candidates);
   useEffect(() => {
-    if (!running || round >= REFRESHES) return;
+    if (!running || !refreshing || round >= REFRESHES) return;
     const timer = setTimeout(() => {
       setCandidates(resultsFixture().candidates);
       setRound((r) => r + 1);
     }, REFRESH_MS);
     return () => clearTimeout(timer);
-  }, [round]);
+  }, [round, refreshing]);
   return (
     <main className="app">
       <h1>Results test page</h1>
       <p data-testid="refreshes">{round}</p>
+      {running && (
+        <button type="button" onClick={() => setRefreshing(true)} disabled={refreshing}>
+          Start the refreshes
+        </button>
+      )}
       <ResultsView target={fixture.target} candidates={candidates} running={running && round < REFRESHES} />
     </main>
   );
