@@ -20,6 +20,14 @@
  * 2 workers when the engine adds no work, whatever the load), and of those the share of
  * V8's background threads (JIT compiler, garbage-collector helpers).
  *
+ * Each case also runs under a time budget (`…TimeBudget`), as an overnight search does:
+ * there every slice lasts the engine's slice time instead of a fixed number of
+ * evaluations, so a worker whose islands are in a costlier phase (a Nelder–Mead polish
+ * costs more per evaluation than a differential-evolution generation on these cheap
+ * problems) does not hold the other back, as it does when slices are counted in
+ * evaluations and the run must come out the same on any number of workers. Those runs
+ * are not deterministic; their window is from a quarter to END_SHARE of the time.
+ *
  * The 16-worker figure is simulated, not a 16-core measurement: on 2 cores, 16 workers
  * share the cores 8 to a core, so what it shows is the cost of orchestrating 16 workers
  * (messages, merges, waits) against 2 on the same work: `sixteenOverTwoWorkerRatio` is
@@ -38,6 +46,13 @@ const ISLANDS = 4;
 const EVALUATIONS = 800_000;
 /** Share of the budget done before the steady window opens: each worker's JIT warm-up runs past the first slice. */
 const WARM_UP_SHARE = 0.25;
+/**
+ * The same searches under a time budget (an overnight run's mode: slices of a fixed time,
+ * not of a fixed number of evaluations), seconds each; its window closes at the first
+ * report past END_SHARE of that time, before the run winds down.
+ */
+const TIME_BUDGET_S = 10;
+const END_SHARE = 0.9;
 /** Interleaved rounds of 1 and 2 workers (and of the control); each keeps its best. */
 const ROUNDS = 2;
 const SIMULATED_WORKERS = 16;
@@ -53,6 +68,11 @@ function spec(caseId: string, islands: number, evaluations: number): RunInput {
     budget: { evaluations },
     deterministic: true,
   };
+}
+
+/** The same job under a time budget: slices of the engine's default time, not deterministic. */
+function timedSpec(caseId: string, seconds: number): RunInput {
+  return { ...spec(caseId, ISLANDS, 1), budget: { seconds }, deterministic: false };
 }
 
 /** Clock ticks per second of /proc's CPU times (USER_HZ; 100 on Linux). */
@@ -173,13 +193,16 @@ async function measure(input: RunInput, workers: number): Promise<Windows> {
   const made = createRun(env, input, { workers, topK: 1 });
   if (!made.ok) throw new Error(made.reason);
   const marks: Mark[] = [];
-  const budget = input.budget.evaluations ?? Infinity;
+  const t0 = performance.now();
+  // The share of the budget done: of its evaluations, or of its time (ending at END_SHARE).
+  const { evaluations: budget, seconds } = input.budget;
+  const done = (evaluations: number) => (typeof budget === 'number' ? evaluations / budget : (performance.now() - t0) / (END_SHARE * 1000 * (seconds ?? Infinity)));
   made.run.onProgress((p) => {
     // Marks at the first slice, the first past the warm-up share and the one that ends the
     // budget only: the bench adds no work to the slices between.
     if (p.status !== 'running' || p.rounds < 1 || marks.length === 3) return;
-    if (marks.length === 1 && p.evaluations < WARM_UP_SHARE * budget) return;
-    if (marks.length === 2 && p.evaluations < budget) return;
+    if (marks.length === 1 && done(p.evaluations) < WARM_UP_SHARE) return;
+    if (marks.length === 2 && done(p.evaluations) < 1) return;
     const mark = {
       evaluations: p.evaluations,
       ms: performance.now(),
@@ -205,6 +228,7 @@ type Row = Record<string, number | string | null>;
 export async function benchScaling(): Promise<Row[]> {
   const loadAtStart = loadavg()[0];
   const best = new Map<string, { one: Windows | null; two: Windows | null }>(CASES.map((c) => [c, { one: null, two: null }]));
+  const timed = new Map<string, { one: Measured | null; two: Measured | null }>(CASES.map((c) => [c, { one: null, two: null }]));
   let spinOne = 0;
   let spinTwo = 0;
   for (let round = 0; round < ROUNDS; round++) {
@@ -224,6 +248,12 @@ export async function benchScaling(): Promise<Row[]> {
         if (workers === 1 && (entry.one === null || m.steady.evalsPerS > entry.one.steady.evalsPerS)) entry.one = m;
         if (workers === 2 && (entry.two === null || m.steady.evalsPerS > entry.two.steady.evalsPerS)) entry.two = m;
       }
+      const byTime = timed.get(caseId) as { one: Measured | null; two: Measured | null };
+      for (const workers of [1, 2] as const) {
+        const m = (await measure(timedSpec(caseId, TIME_BUDGET_S), workers)).steady;
+        if (workers === 1 && (byTime.one === null || m.evalsPerS > byTime.one.evalsPerS)) byTime.one = m;
+        if (workers === 2 && (byTime.two === null || m.evalsPerS > byTime.two.evalsPerS)) byTime.two = m;
+      }
     }
   }
   const control = spinTwo / spinOne;
@@ -234,6 +264,8 @@ export async function benchScaling(): Promise<Row[]> {
     const two = windows.two.steady;
     const ratio = two.evalsPerS / one.evalsPerS;
     const ratioFromFirstSlice = windows.two.fromFirstSlice.evalsPerS / windows.one.fromFirstSlice.evalsPerS;
+    const byTime = timed.get(caseId) as { one: Measured; two: Measured };
+    const timedRatio = byTime.two.evalsPerS / byTime.one.evalsPerS;
     rows.push({
       case: caseId,
       evalsPerS1Worker: one.evalsPerS,
@@ -253,6 +285,13 @@ export async function benchScaling(): Promise<Row[]> {
       workerCpuMsPerMillionEvals1WorkerFromFirstSlice: windows.one.fromFirstSlice.otherCpuMsPerMillionEvals,
       workerCpuMsPerMillionEvals2WorkersFromFirstSlice: windows.two.fromFirstSlice.otherCpuMsPerMillionEvals,
       bestValueChecksum: one.best,
+      evalsPerS1WorkerTimeBudget: byTime.one.evalsPerS,
+      evalsPerS2WorkersTimeBudget: byTime.two.evalsPerS,
+      twoOverOneWorkerRatioTimeBudget: timedRatio,
+      ratioOverControlRatioTimeBudget: timedRatio / control,
+      workerBusyShare2WorkersTimeBudget: byTime.two.workerBusyShare,
+      workerCpuMsPerMillionEvals1WorkerTimeBudget: byTime.one.otherCpuMsPerMillionEvals,
+      workerCpuMsPerMillionEvals2WorkersTimeBudget: byTime.two.otherCpuMsPerMillionEvals,
     });
   }
   rows.push({ case: 'plain-arithmetic control', twoOverOneThreadRatio: control });
