@@ -74,7 +74,7 @@ function planLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float6
   return acc;
 }
 
-/** planLoop through runSized, the entry the core's hot loops call (their pose is made for the plan: no check of its length). */
+/** planLoop through runSized, the entry the core's hot loops call (their pose is made for the plan: no check of its length); its own function, so each loop's JIT feedback is its own. */
 function planSizedLoop(plan: Plan, angles: Float64Array, solves: number, pose: Float64Array, pSlot: number): number {
   const mask = angles.length - 1;
   let acc = 0;

@@ -119,47 +119,38 @@ describe('run: Freudenstein’s equation holds at solved four-bar poses', () => 
     ['double crank, tilted ground', { A0: vec2(10, 5), B0: vec2(40, 45), A: vec2(80, 40), B: vec2(130, 60) }],
     ['triple rocker (non-Grashof)', { A0: vec2(-50, 20), B0: vec2(50, 20), A: vec2(-40, 80), B: vec2(30, 95) }],
   ];
-  it.each(cases)('%s', (_name, at0) => {
-    const plan = compiled(fourBar({ ...at0, P: vec2(0, 0) }));
+  /** The residual of Freudenstein's equation at a solved pose of the four-bar `at0`. */
+  function freudensteinResidual(at0: Record<'A0' | 'B0' | 'A' | 'B', Vec2>, plan: Plan, pose: Float64Array): number {
     const a = distance(at0.A0, at0.A);
     const b = distance(at0.A, at0.B);
     const c = distance(at0.B0, at0.B);
     const d = distance(at0.A0, at0.B0);
     const groundAngle = Math.atan2(at0.B0.y - at0.A0.y, at0.B0.x - at0.A0.x);
-    const K1 = d / a;
-    const K2 = d / c;
     const K3 = (a * a - b * b + c * c + d * d) / (2 * a * c);
+    const A = at(plan, pose, 'A');
+    const B = at(plan, pose, 'B');
+    const theta2 = Math.atan2(A.y - at0.A0.y, A.x - at0.A0.x) - groundAngle;
+    const theta4 = Math.atan2(B.y - at0.B0.y, B.x - at0.B0.x) - groundAngle;
+    return (d / a) * Math.cos(theta4) - (d / c) * Math.cos(theta2) + K3 - Math.cos(theta2 - theta4);
+  }
+  it.each(cases)('%s', (_name, at0) => {
+    const plan = compiled(fourBar({ ...at0, P: vec2(0, 0) }));
     const s = sweep(plan, { from: 0, to: 2 * Math.PI, steps: 241 });
     let checked = 0;
     for (let k = 0; k < s.values.length; k++) {
       if (s.assembled[k] === 0) continue;
-      const pose = poseAt(plan, s.poses, k);
-      const A = at(plan, pose, 'A');
-      const B = at(plan, pose, 'B');
-      const theta2 = Math.atan2(A.y - at0.A0.y, A.x - at0.A0.x) - groundAngle;
-      const theta4 = Math.atan2(B.y - at0.B0.y, B.x - at0.B0.x) - groundAngle;
-      expect(Math.abs(K1 * Math.cos(theta4) - K2 * Math.cos(theta2) + K3 - Math.cos(theta2 - theta4))).toBeLessThan(1e-12);
+      expect(Math.abs(freudensteinResidual(at0, plan, poseAt(plan, s.poses, k)))).toBeLessThan(1e-12);
       checked++;
     }
     expect(checked).toBeGreaterThan(40);
   });
   it.each(cases)('%s, through runSized (the hot loops\' entry, which skips the check of the pose\'s length)', (_name, at0) => {
     const plan = compiled(fourBar({ ...at0, P: vec2(0, 0) }));
-    const a = distance(at0.A0, at0.A);
-    const b = distance(at0.A, at0.B);
-    const c = distance(at0.B0, at0.B);
-    const d = distance(at0.A0, at0.B0);
-    const groundAngle = Math.atan2(at0.B0.y - at0.A0.y, at0.B0.x - at0.A0.x);
-    const K3 = (a * a - b * b + c * c + d * d) / (2 * a * c);
     const pose = Float64Array.from(plan.reference);
     let checked = 0;
     for (let k = 0; k < 241; k++) {
       if (!runSized(plan, plan.driverReferenceValue + (2 * Math.PI * k) / 240, pose)) continue;
-      const A = at(plan, pose, 'A');
-      const B = at(plan, pose, 'B');
-      const theta2 = Math.atan2(A.y - at0.A0.y, A.x - at0.A0.x) - groundAngle;
-      const theta4 = Math.atan2(B.y - at0.B0.y, B.x - at0.B0.x) - groundAngle;
-      expect(Math.abs((d / a) * Math.cos(theta4) - (d / c) * Math.cos(theta2) + K3 - Math.cos(theta2 - theta4))).toBeLessThan(1e-12);
+      expect(Math.abs(freudensteinResidual(at0, plan, pose))).toBeLessThan(1e-12);
       checked++;
     }
     expect(checked).toBeGreaterThan(40);
