@@ -332,7 +332,7 @@ function firstDifference(a: Float64Array, b: Float64Array): number {
   return -1;
 }
 
-/** One process's rounds of the plan, the hand-written loop and the batch entry: the median ratios within a round, and the checksums. */
+/** One process's rounds of the plan (through run and through runSized), the hand-written loop and the batch entry: the median ratios within a round, and the checksums. */
 interface ProcessRatios {
   readonly planOverHand: number;
   readonly planSizedOverHand: number;
