@@ -19,7 +19,10 @@
  * To measure a change on part of the set: LOCI_REACH_CASES (case ids, comma-separated),
  * LOCI_REACH_SEEDS (seeds 1 … n) and LOCI_REACH_OPTIMIZER (a job's optimizer as JSON; a
  * restart scheme is taken as it is, anything else is run inside the island's) narrow or
- * change what `reach` runs; the rows then say so.
+ * change what `reach` runs; the rows then say so. LOCI_REACH_FREE_TIMING=matched poses each
+ * free-timing case as an unprescribed one (the driver values taken from the in-order match
+ * of the curve, refined, instead of searched; the problem's default samples), the
+ * reformulation measured as the lead for free timing (README, Benchmarks).
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
@@ -98,11 +101,28 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
   };
 }
 
+/** How a free-timing case is searched: its driver values as variables (the problem as set), or matched as unprescribed timing matches them. */
+type FreeTiming = 'searched' | 'matched';
+
 interface Task {
   readonly caseId: string;
   readonly seed: number;
   readonly budget: number;
   readonly optimizer: Record<string, unknown>;
+  readonly freeTiming: FreeTiming;
+}
+
+/** `c`, or for a free-timing case with `freeTiming` 'matched', the same target and family posed with unprescribed timing. */
+export function withFreeTiming(c: ReachCase, freeTiming: FreeTiming): ReachCase {
+  if (freeTiming === 'searched' || c.timing !== 'free') return c;
+  const mechanism = c.design.length - c.spec.driverValues.length;
+  return {
+    ...c,
+    timing: 'unprescribed',
+    problem: { ...c.problem, timing: { mode: 'unprescribed' } },
+    design: c.design.slice(0, mechanism),
+    designNames: c.designNames.slice(0, mechanism),
+  };
 }
 
 // A worker thread of this bench: started through the engine's bootstrap (which registers
@@ -116,7 +136,7 @@ if (!isMainThread && parentPort !== null && (workerData as { reachWorker?: boole
       c = reachCases([task.caseId])[0];
       cache.set(task.caseId, c);
     }
-    port.postMessage(runReachSeed(c, task.seed, task.budget, task.optimizer));
+    port.postMessage(runReachSeed(withFreeTiming(c, task.freeTiming), task.seed, task.budget, task.optimizer));
   });
 }
 
@@ -192,13 +212,19 @@ export function reachRow(c: ReachCase, runs: readonly SeedRun[], budget: number)
 }
 
 /** The rows of `cases` at `seeds` seeds (1 … seeds) and `budget` evaluations, run on both cores. */
-export async function reachRows(cases: readonly ReachCase[], seeds: number, budget: number, optimizer: Record<string, unknown> = DEFAULT_JOB_OPTIMIZER): Promise<ReachRow[]> {
+export async function reachRows(
+  cases: readonly ReachCase[],
+  seeds: number,
+  budget: number,
+  optimizer: Record<string, unknown> = DEFAULT_JOB_OPTIMIZER,
+  freeTiming: FreeTiming = 'searched',
+): Promise<ReachRow[]> {
   // Seed-major order: every case's first seeds run before any case's last, so a long case does not come last alone.
   const tasks: Task[] = [];
-  for (let seed = 1; seed <= seeds; seed++) for (const c of cases) tasks.push({ caseId: c.id, seed, budget, optimizer });
+  for (let seed = 1; seed <= seeds; seed++) for (const c of cases) tasks.push({ caseId: c.id, seed, budget, optimizer, freeTiming });
   const threads = Math.min(MAX_THREADS, availableParallelism());
   const runs = await runTasks(tasks, threads);
-  const rows = cases.map((c) => reachRow(c, runs.filter((r) => r.caseId === c.id), budget));
+  const rows = cases.map((c) => reachRow(withFreeTiming(c, freeTiming), runs.filter((r) => r.caseId === c.id), budget));
   const load = loadavg()[0];
   return rows.map((row) => ({ ...row, threads, loadAverage: load }));
 }
@@ -216,8 +242,14 @@ export async function benchReach(): Promise<ReachRow[]> {
     if (typeof parsed !== 'object' || parsed === null || Array.isArray(parsed)) throw new Error(`LOCI_REACH_OPTIMIZER is ${optimizerText}; expected a JSON object such as {"kind":"hybrid"}`);
     optimizer = parsed as Record<string, unknown>;
   }
-  const rows = await reachRows(reachCases(ids === undefined || ids.length === 0 ? undefined : ids), seeds, BUDGET, optimizer);
-  return optimizerText === undefined ? rows : rows.map((row) => ({ ...row, optimizer: optimizerText }));
+  const freeTimingText = process.env.LOCI_REACH_FREE_TIMING ?? 'searched';
+  if (freeTimingText !== 'searched' && freeTimingText !== 'matched') throw new Error(`LOCI_REACH_FREE_TIMING is ${JSON.stringify(freeTimingText)}; expected searched or matched`);
+  const rows = await reachRows(reachCases(ids === undefined || ids.length === 0 ? undefined : ids), seeds, BUDGET, optimizer, freeTimingText);
+  return rows.map((row) => ({
+    ...row,
+    ...(optimizerText === undefined ? {} : { optimizer: optimizerText }),
+    ...(freeTimingText === 'matched' ? { freeTiming: 'matched as unprescribed' } : {}),
+  }));
 }
 
 export function benchReachQuick(): Promise<ReachRow[]> {
