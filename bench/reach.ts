@@ -113,13 +113,15 @@ interface Task {
 }
 
 /** `c`, or for a free-timing case with `freeTiming` 'matched', the same target and family posed with unprescribed timing. */
-export function withFreeTiming(c: ReachCase, freeTiming: FreeTiming): ReachCase {
+function withFreeTiming(c: ReachCase, freeTiming: FreeTiming): ReachCase {
   if (freeTiming === 'searched' || c.timing !== 'free') return c;
   const mechanism = c.design.length - c.spec.driverValues.length;
+  // The free timing's wrap (whether the values may pass through the turn's start) is kept: the same problem, the timing found another way.
+  const wrap = c.problem.timing.mode === 'free' ? c.problem.timing.wrap : undefined;
   return {
     ...c,
     timing: 'unprescribed',
-    problem: { ...c.problem, timing: { mode: 'unprescribed' } },
+    problem: { ...c.problem, timing: { mode: 'unprescribed', wrap } },
     design: c.design.slice(0, mechanism),
     designNames: c.designNames.slice(0, mechanism),
   };
