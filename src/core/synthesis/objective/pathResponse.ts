@@ -15,6 +15,8 @@ import {
   similarityFitInto,
 } from '../../geometry';
 import {
+  CURVE_DX as CURVE_DX_BINDING,
+  CURVE_DY as CURVE_DY_BINDING,
   CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING,
   CURVE_X as CURVE_X_BINDING,
   CURVE_Y as CURVE_Y_BINDING,
@@ -28,6 +30,7 @@ import {
 } from '../encoding';
 import { createJointFit } from '../jointFit';
 import { measureValueInto } from '../measures';
+import { SampledCurve } from '../sampledCurve';
 import { DEFAULT_MATCH_SAMPLES, type Problem } from '../problem';
 import { boxViolationInto, type PathDesignSpace } from './designSpace';
 import { PE_PENALTY, PE_SIZE_VIOLATION, PE_TRANSMISSION_VIOLATION, createPathExtent, type PathExtent } from './pathExtent';
@@ -57,6 +60,8 @@ const SIM_TY = SIM_TY_BINDING;
 const CURVE_OUT_LENGTH = CURVE_OUT_LENGTH_BINDING;
 const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
+const CURVE_DX = CURVE_DX_BINDING;
+const CURVE_DY = CURVE_DY_BINDING;
 const V_ASSEMBLY = V_ASSEMBLY_BINDING;
 const V_BOUNDS = V_BOUNDS_BINDING;
 const V_ORDER = V_ORDER_BINDING;
@@ -136,6 +141,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const refineFree = timing.mode === 'free' && timing.refine === true;
   const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : 0;
   const samples = new Float64Array(2 * sampleCount);
+  const sampled = new SampledCurve(Math.max(sampleCount, 1));
   const placedSamples = new Float64Array(freePlacement ? 2 * sampleCount : 0);
   const valid = new Uint8Array(sampleCount);
   const arc = new Float64Array(freePlacement ? sampleCount + 1 : 0);
@@ -170,17 +176,26 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     for (let i = 0; i < n; i++) targetArc[i] /= total;
   }
 
-  function sampleCurve(): void {
+  /** The curve at the samples, with rates when `order` is 1 (into `sampled`, for the joint refinement). */
+  function sampleCurve(order: 0 | 1): void {
     const step = TAU / sampleCount;
+    const withRates = sampled.samples;
     let any = false;
     for (let j = 0; j < sampleCount; j++) {
-      const margin = curve.at(j * step, 0, buf);
+      const margin = curve.at(j * step, order, buf);
       samples[2 * j] = buf[CURVE_X];
       samples[2 * j + 1] = buf[CURVE_Y];
       const ok = margin >= 0 && Number.isFinite(buf[CURVE_X] + buf[CURVE_Y]);
       valid[j] = ok ? 1 : 0;
       any = any || ok;
+      if (order === 0) continue;
+      withRates[4 * j] = buf[CURVE_X];
+      withRates[4 * j + 1] = buf[CURVE_Y];
+      withRates[4 * j + 2] = buf[CURVE_DX];
+      withRates[4 * j + 3] = buf[CURVE_DY];
+      sampled.valid[j] = ok && Number.isFinite(buf[CURVE_DX] + buf[CURVE_DY]) ? 1 : 0;
     }
+    if (order === 1) sampled.sampledFrom(curve);
     // Nothing assembles: match anyway on the stand-in curve, so the value still ranks.
     if (!any) for (let j = 0; j < sampleCount; j++) valid[j] = Number.isFinite(samples[2 * j] + samples[2 * j + 1]) ? 1 : 0;
   }
@@ -210,7 +225,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
 
   /** Unprescribed timing with a fixed placement: match in order on the samples, refine. */
   function matchTiming(t: Float64Array, o: number): void {
-    sampleCurve();
+    sampleCurve(0);
     matchInOrder(samples, valid, targets, weights, wrap, matchScratch, matched);
     const step = TAU / sampleCount;
     for (let i = 0; i < n; i++) t[o + i] = matched[i] * step;
@@ -232,10 +247,11 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
    * Unprescribed timing with a free placement: align by arc length from a few starting
    * offsets (the curve unknown in size and pose, the target's points spread along it
    * as along the target), then alternate matching in order and refitting (an iterative
-   * closest point scheme, Besl and McKay, 1992), then refine on the placed curve.
+   * closest point scheme, Besl and McKay, 1992), then refine driver values and placement
+   * together: on the samples read as cubics, then a last step on the curve (jointFit.ts).
    */
   function matchPlacedTiming(t: Float64Array, o: number): void {
-    sampleCurve();
+    sampleCurve(1);
     arc[0] = 0;
     for (let j = 1; j <= sampleCount; j++) {
       const a = j - 1;
@@ -307,7 +323,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       limits[1] = TAU;
     }
     limits[2] = step;
-    jointFit.refine(curve, targets, weights, t, o, sim, limits);
+    jointFit.refineOnSamples(sampled, curve, targets, weights, t, o, sim, limits);
   }
 
   function refineFreeTiming(x: Float64Array, t: Float64Array, o: number): void {
