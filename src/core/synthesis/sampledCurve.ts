@@ -7,9 +7,8 @@
  * can iterate on it and take only its last steps on the curve itself. It asks the curve
  * itself between samples the cubic does not resolve: where either did not assemble, and
  * where either end's rate times h is not within a factor RESOLVED_RATIO of the chord
- * (the curve turns or speeds up within the step: near a lock, where a dyad nears its
- * toggle and its rates grow without bound, and where it could pass a lock narrower than
- * the step that the samples on either side do not see).
+ * (the curve turns or speeds up within the step, as near a lock, where a dyad nears its
+ * toggle and its rates grow without bound).
  *
  * Hermite interpolation: e.g. Burden & Faires, Numerical Analysis, § 3.4.
  */

@@ -141,7 +141,8 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const refineFree = timing.mode === 'free' && timing.refine === true;
   const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : 0;
   const samples = new Float64Array(2 * sampleCount);
-  const sampled = new SampledCurve(Math.max(sampleCount, 1));
+  // The samples with their rates serve the joint refinement of a free placement only.
+  const sampled = new SampledCurve(freePlacement ? Math.max(sampleCount, 1) : 1);
   const placedSamples = new Float64Array(freePlacement ? 2 * sampleCount : 0);
   const valid = new Uint8Array(sampleCount);
   const arc = new Float64Array(freePlacement ? sampleCount + 1 : 0);
