@@ -256,6 +256,10 @@ export function createJointFit(n: number): JointFit {
           if (v > hi) v = hi;
           trial[i] = v;
         }
+        // Where a value's step took it past the next one's limit, that one stayed at its
+        // limit, below it: brought back to it, so the values stay in order (on a closed
+        // path a value below the one before is read as most of a turn between them).
+        for (let i = n - 2; i >= 0; i--) if (trial[i] > trial[i + 1]) trial[i] = trial[i + 1];
         for (let k = 0; k < 4; k++) trialPlacement[k] = placement[k] + scale * dTheta[k];
         fNew = sumSquares(curve, targets, weights, trial, 0, trialPlacement, 1 - current);
         if (fNew < f) {

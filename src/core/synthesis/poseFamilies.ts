@@ -9,7 +9,11 @@
  * PREDICT_MAX_STEP_RAD); a value solved already is not solved again, and past the first
  * turn, where the motion closes in one turn, the poses a turn back serve as they are.
  * Driver values are the crank's rotation from its reference-pose angle. The assembly branch of every dyad is
- * the one of the reference pose. A slider's direction stays that of the family's default.
+ * the one of the reference pose; a Newton block's is the part of the reference pose's
+ * assembly its driver reaches turning either way from it (sweepReachable: det J of the
+ * block keeps its sign, and nothing past the first lock each way is solved), the motion
+ * the analysis of an exported linkage follows. A slider's direction stays that of the
+ * family's default.
  *
  * Locks: the search samples a motion every MOTION_CHECK_STEP_RAD, a family with a Newton
  * block on its bins' values instead (every SOLVED_BIN_RAD, where the curve's samples have
@@ -29,7 +33,7 @@ import {
   type Linkage,
   type Plan,
 } from '../linkage';
-import { newtonUnknownSlots } from '../linkage/newton';
+import { blockJacobianSign, newtonUnknownSlots } from '../linkage/newton';
 import type { PlanInternal } from '../linkage/plan';
 import { poseRatesInto as poseRatesIntoBinding, runSized as runSizedBinding } from '../linkage/run';
 import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
@@ -137,6 +141,8 @@ const SOLVED_WRAP_AGREE = 0.25;
  * prediction allows, PREDICT_MAX_SPEED crank lengths per radian, 1e-13 crank lengths).
  */
 const SAME_DRIVER_VALUE_RAD = 1e-14;
+/** sweepReachable halves a step that fails down to this (rad) before it calls the value unreachable. */
+const REACH_MIN_STEP_RAD = SOLVED_BIN_RAD / 1024;
 /**
  * A motion closes in one turn where its pose a turn on is its first pose within this
  * share of the crank: two solutions of the same closure equations that near each other
@@ -193,6 +199,16 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private fromReference = false;
   /** The Newton blocks' joints interpolated between bins (interpolate). */
   private readonly begin: Float64Array;
+  /** Sign of det J of each Newton block in the reference pose: the assembly the design is (see onReferenceBranch). */
+  private readonly referenceSigns: Int8Array;
+  /**
+   * Driver values in [0, 2π) the reference pose cannot reach, turning either way, without
+   * passing a lock (sweepReachable): from gapFrom to gapTo, both included; NaN: none known.
+   */
+  private gapFrom = NaN;
+  private gapTo = NaN;
+  /** The point of sweepReachable's solves. */
+  private readonly sweepPoint = new Float64Array(8);
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
     this.plan = plan;
     this.pose = new Float64Array(2 * plan.slotCount);
@@ -207,15 +223,98 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.solvedHasRates = new Uint8Array(this.predicts ? SOLVED_BINS : 0);
     this.failedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
     this.begin = new Float64Array(2 * plan.slotCount);
+    this.referenceSigns = new Int8Array((plan as PlanInternal).blockCount);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
     this.tipSlot = tipSlot;
   }
-  /** A new design: the poses solved for the last one are no start for its solves. */
+  /** A new design, its reference pose set: the poses solved for the last one are no start for its solves. */
   forgetSolved(): void {
     this.solvedT.fill(NaN);
     this.failedT.fill(NaN);
     this.closes = -1;
+    this.gapFrom = NaN;
+    this.gapTo = NaN;
+    const plan = this.plan as PlanInternal;
+    for (let b = 0; b < plan.blockCount; b++) this.referenceSigns[b] = blockJacobianSign(plan, b, plan.reference);
+  }
+  /**
+   * Every Newton block of the pose just solved has the reference pose's sign of det J:
+   * a solve that lands on the other side of a fold is another assembly, which the
+   * design's driver cannot reach from its reference pose without passing a lock. The
+   * analysis of an exported linkage refuses such a solve by the same rule (sweep.ts),
+   * so the curve's motion is the one the candidate's report follows.
+   */
+  private onReferenceBranch(): boolean {
+    const plan = this.plan as PlanInternal;
+    for (let b = 0; b < plan.blockCount; b++) if (blockJacobianSign(plan, b, this.pose) !== this.referenceSigns[b]) return false;
+    return true;
+  }
+  /**
+   * The driver values the design reaches from its reference pose (a new design, after
+   * forgetSolved): its bins solved turning forward from 0 until a solve fails, then
+   * backward from 2π until one fails; what lies between is another assembly or none, so
+   * every later solve there fails (unreachable). Without it a solve after a failure starts
+   * from the reference pose however far away, and may land on an assembly the linkage
+   * cannot reach: a motion the report (which follows the motion from the reference pose)
+   * would not draw. The bins keep the poses, so the curve's samples on them cost no solve.
+   */
+  sweepReachable(): void {
+    if (!this.predicts) return;
+    this.reset();
+    let first = SOLVED_BINS;
+    for (let j = 0; j < SOLVED_BINS; j++) {
+      if (!this.reach(j === 0 ? 0 : (j - 1) * SOLVED_BIN_RAD, j * SOLVED_BIN_RAD)) {
+        first = j;
+        break;
+      }
+    }
+    if (first < SOLVED_BINS) {
+      this.reset();
+      let last = first;
+      for (let j = SOLVED_BINS - 1; j > first; j--) {
+        if (!this.reach(j === SOLVED_BINS - 1 ? TAU : (j + 1) * SOLVED_BIN_RAD, j * SOLVED_BIN_RAD)) {
+          last = j;
+          break;
+        }
+      }
+      this.gapFrom = first * SOLVED_BIN_RAD;
+      this.gapTo = last * SOLVED_BIN_RAD;
+    }
+    this.reset();
+  }
+  /**
+   * Solves at `to` from `from`, solved last (2π: the reference pose); where that fails,
+   * on again from `from` in steps halved down to REACH_MIN_STEP_RAD, as the analysis of
+   * a linkage advances near a fold (sweep.ts), so a step that only overshoots a sharp
+   * turn of the motion is no lock. True when `to` is solved.
+   */
+  private reach(from: number, to: number): boolean {
+    const point = this.sweepPoint;
+    if (this.at(to, 1, point) >= 0) return true;
+    let at = from;
+    let h = (to - from) / 2;
+    // A failure leaves the reference pose: the next try starts from the pose at `at`, which its bin keeps.
+    let restore = true;
+    while (Math.abs(h) >= REACH_MIN_STEP_RAD) {
+      if (restore && at !== TAU) this.at(at, 1, point);
+      const next = Math.abs(to - at) <= Math.abs(h) ? to : at + h;
+      restore = this.at(next, 1, point) < 0;
+      if (restore) {
+        h /= 2;
+        continue;
+      }
+      if (next === to) return true;
+      at = next;
+    }
+    return false;
+  }
+  /** t lies where the reference pose cannot reach (sweepReachable); the curve is then left as a failed solve leaves it. */
+  private unreachable(t: number): boolean {
+    const u = t - Math.floor(t / TAU) * TAU;
+    if (!(u >= this.gapFrom && u <= this.gapTo)) return false;
+    this.failed(t);
+    return true;
   }
   /** Start the next sweep from the reference pose. */
   reset(): void {
@@ -567,8 +666,9 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   marginAt(t: number): number {
     const plan = this.plan;
+    if (this.unreachable(t)) return -1;
     const known = this.predicts && this.start(t) && this.ratesFromPose;
-    const ok = known || runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates);
+    const ok = known || (runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates) && (!this.predicts || this.onReferenceBranch()));
     if (known) this.knownSolved(t, true);
     else this.solved(t, ok, true);
     if (!ok) return -1;
@@ -581,24 +681,27 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const margin = this.crankMm / (this.crankMm + fastest);
     return margin >= 0 ? margin : -1;
   }
+  /** Where the plan does not assemble: a finite stand-in, the reference point, and margin −1. */
+  private standIn(out: Float64Array): number {
+    const s = this.pSlot;
+    out[CURVE_X] = this.plan.reference[s];
+    out[CURVE_Y] = this.plan.reference[s + 1];
+    out[CURVE_DX] = 0;
+    out[CURVE_DY] = 0;
+    return -1;
+  }
   at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
     const plan = this.plan;
     const value = plan.driverReferenceValue + t;
+    if (this.unreachable(t)) return this.standIn(out);
     // A pose solved at t already is its solution: no need to solve it again for the point.
     const known = this.predicts && this.start(t) && (order === 0 || this.ratesFromPose);
     // this.pose is made for the plan (constructor): runSized skips the check of its length.
-    const ok = known || (order === 0 ? runSized(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates));
+    const ok = known || ((order === 0 ? runSized(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates)) && (!this.predicts || this.onReferenceBranch()));
     if (known) this.knownSolved(t, order > 0);
     else this.solved(t, ok, order > 0);
+    if (!ok) return this.standIn(out);
     const s = this.pSlot;
-    if (!ok) {
-      // A finite stand-in: the reference point.
-      out[CURVE_X] = plan.reference[s];
-      out[CURVE_Y] = plan.reference[s + 1];
-      out[CURVE_DX] = 0;
-      out[CURVE_DY] = 0;
-      return -1;
-    }
     out[CURVE_X] = this.pose[s];
     out[CURVE_Y] = this.pose[s + 1];
     if (order > 0) {
@@ -721,6 +824,14 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     return failed * share;
   }
 
+  /** Moves the curve from the reference pose to driver value t in steps of MOTION_CHECK_STEP_RAD; false where a step does not assemble. */
+  function stepTo(t: number): boolean {
+    curve.reset();
+    const steps = Math.min(LOCK_SEARCH_MAX_STEPS, Math.max(1, Math.ceil(Math.abs(t) / MOTION_CHECK_STEP_RAD)));
+    for (let k = 1; k <= steps; k++) if (curve.at((t * k) / steps, 0, point) < 0) return false;
+    return true;
+  }
+
   /** Locks met in a full turn from the reference pose, found exactly. */
   function fullTurnLocks(): number {
     curve.reset();
@@ -740,6 +851,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       for (let k = 0; k < reference.length; k++) reference[k] = x[k];
       setReferencePose(plan, reference);
       curve.forgetSolved();
+      curve.sweepReachable();
       curve.reset();
       if (fullTurn) {
         if (grashofLoop !== undefined) {
@@ -831,11 +943,11 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       }
     },
     report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport {
-      // The pose at t, reached in steps from the reference so a Newton block keeps its branch.
-      curve.reset();
-      const steps = Math.min(LOCK_SEARCH_MAX_STEPS, Math.max(1, Math.ceil(Math.abs(t) / MOTION_CHECK_STEP_RAD)));
-      let assembles = true;
-      for (let k = 1; k <= steps && assembles; k++) assembles = curve.at((t * k) / steps, 0, point) >= 0;
+      // The pose at t, reached in steps from the reference so a Newton block keeps its
+      // branch; where a lock bars the way, the other way round (a turn back or on), as the
+      // curve reaches the values past its gap (sweepReachable).
+      let assembles = stepTo(t);
+      if (!assembles && Math.abs(t) > 0) assembles = stepTo(t > 0 ? t - TAU : t + TAU);
       const drawnAt = assembles ? t : 0;
       const pose = assembles ? Float64Array.from(curve.pose) : Float64Array.from(plan.reference);
       const place = (s: number) => ({ x: sa * pose[2 * s] - sb * pose[2 * s + 1] + tx, y: sb * pose[2 * s] + sa * pose[2 * s + 1] + ty });
