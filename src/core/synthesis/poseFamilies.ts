@@ -33,8 +33,13 @@ import {
   type Linkage,
   type Plan,
 } from '../linkage';
-import { blockJacobianSign, newtonUnknownSlots } from '../linkage/newton';
+import { blockJacobianSign as blockJacobianSignBinding, newtonUnknownSlots } from '../linkage/newton';
 import type { PlanInternal } from '../linkage/plan';
+import {
+  COINCIDENT_JOINT_TOL_MM as COINCIDENT_JOINT_TOL_MM_BINDING,
+  SWEEP_CORRECTION_FLOOR_REL as SWEEP_CORRECTION_FLOOR_REL_BINDING,
+  SWEEP_CORRECTION_MAX_SHARE as SWEEP_CORRECTION_MAX_SHARE_BINDING,
+} from '../linkage/tolerances';
 import { poseRatesInto as poseRatesIntoBinding, runSized as runSizedBinding } from '../linkage/run';
 import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
 import {
@@ -78,6 +83,10 @@ const V_LINK_LENGTH = V_LINK_LENGTH_BINDING;
 const V_TRANSMISSION = V_TRANSMISSION_BINDING;
 const EXTENT_COS = EXTENT_COS_BINDING;
 const run = runBinding;
+const blockJacobianSign = blockJacobianSignBinding;
+const COINCIDENT_JOINT_TOL_MM = COINCIDENT_JOINT_TOL_MM_BINDING;
+const SWEEP_CORRECTION_FLOOR_REL = SWEEP_CORRECTION_FLOOR_REL_BINDING;
+const SWEEP_CORRECTION_MAX_SHARE = SWEEP_CORRECTION_MAX_SHARE_BINDING;
 const runWithRates = runWithRatesBinding;
 const runSized = runSizedBinding;
 const poseRatesInto = poseRatesIntoBinding;
@@ -203,10 +212,21 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private readonly referenceSigns: Int8Array;
   /**
    * Driver values in [0, 2π) the reference pose cannot reach, turning either way, without
-   * passing a lock (sweepReachable): from gapFrom to gapTo, both included; NaN: none known.
+   * passing a lock (sweepReachable): those strictly between gapFrom (the last value
+   * reached turning forward) and gapTo (the last turning backward); NaN: none known.
    */
   private gapFrom = NaN;
   private gapTo = NaN;
+  /** The last value `reach` solved on its way. */
+  private reached = NaN;
+  /** A continuation (reach) is under way: a failed solve is its to handle, not recover's. */
+  private continuing = false;
+  /**
+   * In a continuation, the Newton blocks' joints moved on from the last pose by its rates,
+   * and the largest such move (mm; NaN: no tangent to check against, see followsTangent).
+   */
+  private readonly expected: Float64Array;
+  private expectedMotion = NaN;
   /** The point of sweepReachable's solves. */
   private readonly sweepPoint = new Float64Array(8);
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
@@ -223,6 +243,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.solvedHasRates = new Uint8Array(this.predicts ? SOLVED_BINS : 0);
     this.failedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
     this.begin = new Float64Array(2 * plan.slotCount);
+    this.expected = new Float64Array(2 * plan.slotCount);
     this.referenceSigns = new Int8Array((plan as PlanInternal).blockCount);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
@@ -261,6 +282,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   sweepReachable(): void {
     if (!this.predicts) return;
+    this.continuing = true;
     this.reset();
     let first = SOLVED_BINS;
     for (let j = 0; j < SOLVED_BINS; j++) {
@@ -270,35 +292,64 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       }
     }
     if (first < SOLVED_BINS) {
+      const forwardEnd = this.reached;
       this.reset();
-      let last = first;
+      // Where the motions forward and backward overlap (the driver reaches some values in
+      // two poses), the bins keep the forward one's poses below `first` and the backward
+      // one's above it, and the bin above `first` is the gap's far end.
+      let backwardEnd = (first + 1) * SOLVED_BIN_RAD;
       for (let j = SOLVED_BINS - 1; j > first; j--) {
         if (!this.reach(j === SOLVED_BINS - 1 ? TAU : (j + 1) * SOLVED_BIN_RAD, j * SOLVED_BIN_RAD)) {
-          last = j;
+          backwardEnd = this.reached;
           break;
         }
       }
-      this.gapFrom = first * SOLVED_BIN_RAD;
-      this.gapTo = last * SOLVED_BIN_RAD;
+      this.gapFrom = forwardEnd;
+      this.gapTo = backwardEnd;
+    } else {
+      // Round the whole turn: whether the motion closes, found by going on to 2π as the
+      // sweep went (the poses a turn on taken for none until then), not by a solve from
+      // the last pose, which near another assembly may land on the first pose anyway.
+      this.closes = 0;
+      const closes = this.reach((SOLVED_BINS - 1) * SOLVED_BIN_RAD, TAU) && this.atFirstPose();
+      this.closes = closes ? 1 : 0;
     }
+    this.continuing = false;
     this.reset();
+  }
+  /** The Newton blocks' joints are where bin 0 (the reference pose, solved at 0) has them, within CLOSURE_REL_TOL of the crank. */
+  private atFirstPose(): boolean {
+    const pose = this.pose;
+    const poses = this.solvedPoses;
+    const tol = CLOSURE_REL_TOL * this.crankMm;
+    const unknowns = this.unknowns;
+    for (let k = 0; k < unknowns.length; k++) {
+      const i = unknowns[k];
+      if (!(Math.abs(pose[i] - poses[i]) <= tol && Math.abs(pose[i + 1] - poses[i + 1]) <= tol)) return false;
+    }
+    return true;
   }
   /**
    * Solves at `to` from `from`, solved last (2π: the reference pose); where that fails,
    * on again from `from` in steps halved down to REACH_MIN_STEP_RAD, as the analysis of
    * a linkage advances near a fold (sweep.ts), so a step that only overshoots a sharp
-   * turn of the motion is no lock. True when `to` is solved.
+   * turn of the motion is no lock. True when `to` is solved; else `reached` is the last
+   * value solved, within REACH_MIN_STEP_RAD of where the motion ends.
    */
   private reach(from: number, to: number): boolean {
     const point = this.sweepPoint;
+    this.reached = from;
     if (this.at(to, 1, point) >= 0) return true;
     let at = from;
-    let h = (to - from) / 2;
+    // First the whole step from the pose at `from` (the try above started where `start` chose).
+    let h = to - from;
+    const least = Math.min(REACH_MIN_STEP_RAD, Math.abs(h));
     // A failure leaves the reference pose: the next try starts from the pose at `at`, which its bin keeps.
     let restore = true;
-    while (Math.abs(h) >= REACH_MIN_STEP_RAD) {
+    while (h !== 0 && Math.abs(h) >= least) {
       if (restore && at !== TAU) this.at(at, 1, point);
-      const next = Math.abs(to - at) <= Math.abs(h) ? to : at + h;
+      // A step below the rounding of `at` is the last one.
+      const next = Math.abs(to - at) <= Math.abs(h) || at + h === at ? to : at + h;
       restore = this.at(next, 1, point) < 0;
       if (restore) {
         h /= 2;
@@ -306,13 +357,61 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       }
       if (next === to) return true;
       at = next;
+      this.reached = at;
     }
     return false;
+  }
+  /**
+   * A solve at t in the first turn, outside the gap, failed, though the sweep reached every
+   * value there: near a fold a start between kept poses may lead Newton's method to the
+   * fold's other branch, which the sign rule refuses. The motion goes on to t from the kept
+   * pose nearest t on the side away from the gap, as the sweep went (reach). True when t
+   * is solved; the curve is then at t, with its rates.
+   */
+  private recover(t: number): boolean {
+    if (this.continuing || !this.predicts || !(t >= 0 && t < TAU)) return false;
+    const times = this.solvedT;
+    const upward = !(t >= this.gapTo);
+    let from = upward ? 0 : TAU;
+    let b = Math.min(SOLVED_BINS - 1, Math.round(t / SOLVED_BIN_RAD));
+    if (upward) {
+      for (; b >= 0; b--) {
+        if (times[b] <= t) {
+          from = times[b];
+          break;
+        }
+      }
+    } else {
+      for (; b < SOLVED_BINS; b++) {
+        if (times[b] >= t) {
+          from = times[b];
+          break;
+        }
+      }
+    }
+    this.continuing = true;
+    this.reset();
+    const ok = this.reach(from, t);
+    this.continuing = false;
+    return ok;
+  }
+  /**
+   * The driver can turn on and on: nothing the reference pose cannot reach
+   * (sweepReachable), and a turn brings the motion back to the pose it started from (a
+   * motion that does not close in one turn may meet a lock in its second, beyond the
+   * turn the search's samples and lock search see). Plans without a Newton block place
+   * every joint by the driver value alone, so their motion closes in one turn.
+   */
+  get turnsOn(): boolean {
+    if (!this.predicts) return true;
+    return Number.isNaN(this.gapFrom) && this.closesInOneTurn();
   }
   /** t lies where the reference pose cannot reach (sweepReachable); the curve is then left as a failed solve leaves it. */
   private unreachable(t: number): boolean {
     const u = t - Math.floor(t / TAU) * TAU;
-    if (!(u >= this.gapFrom && u <= this.gapTo)) return false;
+    if (!(u > this.gapFrom && u < this.gapTo)) return false;
+    // Not a failed solve from the reference pose: failedAt keeps none for it.
+    this.fromReference = false;
     this.failed(t);
     return true;
   }
@@ -343,7 +442,24 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       if (!(sx <= fastest)) fastest = sx;
       if (!(sy <= fastest)) fastest = sy;
     }
-    const predict = slope !== 0 && Math.abs(dt) <= PREDICT_MAX_STEP_RAD && fastest <= PREDICT_MAX_SPEED * this.crankMm;
+    // A continuation steps as the analysis does: always from the tangent (followsTangent checks where it lands).
+    const checked = this.continuing && tangent && dt === dt;
+    const predict = slope !== 0 && (checked || (Math.abs(dt) <= PREDICT_MAX_STEP_RAD && fastest <= PREDICT_MAX_SPEED * this.crankMm));
+    if (checked) {
+      // What followsTangent checks the step against, as the analysis has it: the move of
+      // every joint (the driven link's too), so a block's joint momentarily at rest still
+      // has a step of the linkage's size to be compared with.
+      const expected = this.expected;
+      let motion = 0;
+      for (let i = 0; i < pose.length; i += 2) {
+        const mx = rates[i] * dt;
+        const my = rates[i + 1] * dt;
+        expected[i] = pose[i] + mx;
+        expected[i + 1] = pose[i + 1] + my;
+        if (Number.isFinite(mx) && Number.isFinite(my)) motion = Math.max(motion, Math.sqrt(mx * mx + my * my));
+      }
+      this.expectedMotion = motion;
+    }
     for (let k = 0; k < 2 * unknowns.length; k++) {
       const i = unknowns[k >> 1] + (k & 1);
       const x = pose[i];
@@ -354,6 +470,28 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       previous[i] = x;
     }
     this.previousT = this.lastT;
+  }
+  /**
+   * A continuation's step landed where its tangent points: no joint of a Newton block is
+   * further from the last pose moved on by its rates than SWEEP_CORRECTION_MAX_SHARE of
+   * that move (plus the floor of rounding). A step across a lock narrower than itself
+   * lands on the far side's motion, with the same sign of det J but far from the
+   * tangent: the analysis refuses it by this rule (sweep.ts), and so does the sweep here.
+   */
+  private followsTangent(): boolean {
+    const motion = this.expectedMotion;
+    if (!(motion === motion)) return true;
+    const pose = this.pose;
+    const expected = this.expected;
+    const unknowns = this.unknowns;
+    const allowed = SWEEP_CORRECTION_MAX_SHARE * motion + SWEEP_CORRECTION_FLOOR_REL * (this.plan as PlanInternal).lengthScaleMm;
+    for (let k = 0; k < unknowns.length; k++) {
+      const i = unknowns[k];
+      const dx = pose[i] - expected[i];
+      const dy = pose[i + 1] - expected[i + 1];
+      if (!(Math.sqrt(dx * dx + dy * dy) <= allowed)) return false;
+    }
+    return true;
   }
   /** After a solve at t: a failure leaves a sane start for the next Newton block, the reference pose, and no history. */
   private solved(t: number, ok: boolean, withRates: boolean): void {
@@ -476,8 +614,9 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   }
 
   /**
-   * The bins solved nearest u on each side (see SOLVED_BINS), into bracketLo and the
-   * return value (hi); -1 when there is none on the upper side or the lower one.
+   * The bins solved nearest u on each side (see SOLVED_BINS) and on u's side of the gap,
+   * into bracketLo and the return value (hi); where there is one above only, both are it;
+   * hi −1 when there is none above.
    */
   private bracket(u: number, bin: number): number {
     const times = this.solvedT;
@@ -489,12 +628,17 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
         break;
       }
     }
-    for (let b = bin, end = bin + SOLVED_REACH_BINS; lo >= 0 && b < SOLVED_BINS && b <= end; b++) {
+    // No pair across the gap (sweepReachable): its two sides are the two ends of the motion.
+    if (lo >= 0 && u >= this.gapTo && !(times[lo] >= this.gapTo)) lo = -1;
+    for (let b = bin, end = bin + SOLVED_REACH_BINS; b < SOLVED_BINS && b <= end; b++) {
       if (times[b] >= u) {
         hi = b;
         break;
       }
     }
+    if (hi >= 0 && u <= this.gapFrom && !(times[hi] <= this.gapFrom)) hi = -1;
+    // Above only (below is the gap, or not solved): that pose alone.
+    if (lo < 0) lo = hi;
     this.bracketLo = lo;
     return hi;
   }
@@ -525,6 +669,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    * turns has another pose there. True when t itself was solved: the pose is its solution.
    */
   private start(t: number): boolean {
+    this.expectedMotion = NaN;
     let turns = Math.floor(t / TAU);
     const u = t - turns * TAU;
     // A motion that closes in one turn has a turn on the poses a turn back: t is u.
@@ -533,6 +678,11 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const times = this.solvedT;
     let hi = this.bracket(u, bin);
     let lo = this.bracketLo;
+    // A continuation (reach) goes on from the pose it solved last, moved on by its rates:
+    // kept poses on both sides of t may straddle a fold, and a start between them lead
+    // Newton's method to the fold's other branch.
+    const solvedHere = (lo >= 0 && Math.abs(u - times[lo]) <= SAME_DRIVER_VALUE_RAD) || (hi >= 0 && Math.abs(times[hi] - u) <= SAME_DRIVER_VALUE_RAD);
+    if (this.continuing && this.lastT === this.lastT && !solvedHere) hi = -1;
     const pose = this.pose;
     const unknowns = this.unknowns;
     const previous = this.previous;
@@ -553,7 +703,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       this.previousT = this.lastT;
     }
     // t itself solved already: the pose there is its solution (SAME_DRIVER_VALUE_RAD).
-    const same = u - times[lo] <= SAME_DRIVER_VALUE_RAD ? lo : times[hi] - u <= SAME_DRIVER_VALUE_RAD ? hi : -1;
+    const same = Math.abs(u - times[lo]) <= SAME_DRIVER_VALUE_RAD ? lo : Math.abs(times[hi] - u) <= SAME_DRIVER_VALUE_RAD ? hi : -1;
     if (same >= 0) {
       lo = same;
       hi = same;
@@ -567,6 +717,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       return true;
     }
     this.interpolate(u, lo, hi);
+    if (turns === 0) this.expectFromBins(u, lo, hi);
     const begin = this.begin;
     if (turns !== 0) {
       // Past the first turn: only where the start a turn back agrees with the last pose moved on.
@@ -647,6 +798,42 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     }
   }
 
+  /**
+   * A solve started from kept poses must land near its start, as a continuation's near
+   * its tangent (followsTangent): within SWEEP_CORRECTION_MAX_SHARE of the motion between
+   * the two poses (of the move by the one pose's rates, where there is one), else it has
+   * found another assembly and recover continues from the nearest kept pose instead. A
+   * pose the curve keeps is then always one of the motion the sweep followed.
+   */
+  private expectFromBins(u: number, lo: number, hi: number): void {
+    const poses = this.solvedPoses;
+    const expected = this.expected;
+    const stride = expected.length;
+    const oLo = lo * stride;
+    let motion = 0;
+    if (hi !== lo) {
+      const oHi = hi * stride;
+      for (let i = 0; i < stride; i += 2) {
+        const dx = poses[oHi + i] - poses[oLo + i];
+        const dy = poses[oHi + i + 1] - poses[oLo + i + 1];
+        motion = Math.max(motion, Math.sqrt(dx * dx + dy * dy));
+      }
+      expected.set(this.begin);
+    } else {
+      if (this.solvedHasRates[lo] !== 1) return;
+      const rates = this.solvedRates;
+      const du = u - this.solvedT[lo];
+      for (let i = 0; i < stride; i += 2) {
+        const mx = rates[oLo + i] * du;
+        const my = rates[oLo + i + 1] * du;
+        expected[i] = poses[oLo + i] + mx;
+        expected[i + 1] = poses[oLo + i + 1] + my;
+        if (Number.isFinite(mx) && Number.isFinite(my)) motion = Math.max(motion, Math.sqrt(mx * mx + my * my));
+      }
+    }
+    this.expectedMotion = motion;
+  }
+
   /** No Newton block's joint moves faster than `fastest` (mm per radian) by the rates kept in bin a. */
   private slowerThan(a: number, fastest: number): boolean {
     const rates = this.solvedRates;
@@ -668,10 +855,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const plan = this.plan;
     if (this.unreachable(t)) return -1;
     const known = this.predicts && this.start(t) && this.ratesFromPose;
-    const ok = known || (runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates) && (!this.predicts || this.onReferenceBranch()));
+    const ok = known || (runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates) && (!this.predicts || (this.onReferenceBranch() && this.followsTangent())));
     if (known) this.knownSolved(t, true);
     else this.solved(t, ok, true);
-    if (!ok) return -1;
+    if (!ok && !this.recover(t)) return -1;
     const rates = this.rates;
     let fastest = 0;
     for (let i = 0; i < rates.length; i++) {
@@ -697,10 +884,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     // A pose solved at t already is its solution: no need to solve it again for the point.
     const known = this.predicts && this.start(t) && (order === 0 || this.ratesFromPose);
     // this.pose is made for the plan (constructor): runSized skips the check of its length.
-    const ok = known || ((order === 0 ? runSized(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates)) && (!this.predicts || this.onReferenceBranch()));
+    const ok = known || ((order === 0 ? runSized(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates)) && (!this.predicts || (this.onReferenceBranch() && this.followsTangent())));
     if (known) this.knownSolved(t, order > 0);
     else this.solved(t, ok, order > 0);
-    if (!ok) return this.standIn(out);
+    if (!ok && !this.recover(t)) return this.standIn(out);
     const s = this.pSlot;
     out[CURVE_X] = this.pose[s];
     out[CURVE_Y] = this.pose[s + 1];
@@ -710,6 +897,17 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     }
     return 1;
   }
+}
+
+/** Every pair of joints of one moving body (pose offsets): the pairs a linkage file's reference pose is checked on (validate.ts). */
+function bodyJointPairs(plan: Plan): Int32Array {
+  const pairs: number[] = [];
+  const jointCount = plan.jointIds.length;
+  for (let b = 1; b < plan.bodies.length; b++) {
+    const slots = Array.from(plan.bodies[b].slots).filter((s) => s < jointCount);
+    for (let i = 0; i < slots.length; i++) for (let j = i + 1; j < slots.length; j++) pairs.push(2 * slots[i], 2 * slots[j]);
+  }
+  return Int32Array.from(pairs);
 }
 
 /** Pairs of slots (pose offsets) that are the ends of a link: the first joint of each body to each other joint. */
@@ -745,6 +943,9 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     source.joints.filter((j) => j.ground === true).map((j) => 2 * (plan.slotIndex.get(j.id) ?? 0)),
   );
   const links = linkPairs(plan);
+  const jointPairs = bodyJointPairs(plan);
+  /** The least distance between two joints of one body in the loaded design's reference pose (mm, before placement). */
+  const closestJoints = new Float64Array(1);
   const loops: FourBarLoop[] = fourBarLoops(plan);
   const driven = loops.find((l) => l.grounded && l.inputDriven);
   // The four-bar's full turn is Grashof's criterion on its one loop, exactly; the other
@@ -837,7 +1038,10 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     curve.reset();
     const locks = lockSearch.count(curve, 0, TAU, MOTION_CHECK_STEP_RAD, true);
     curve.reset();
-    return locks;
+    // A design whose reachable motion has a gap does not turn fully, even where the lock
+    // search's grid steps over the gap (one bin wide where the motions forward and backward
+    // overlap); nor does one whose motion a turn on is another (see turnsOn).
+    return locks === 0 && !curve.turnsOn ? 1 : locks;
   }
 
   return {
@@ -850,6 +1054,16 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     load(x: Float64Array, _branch: number, parts: Float64Array): void {
       for (let k = 0; k < reference.length; k++) reference[k] = x[k];
       setReferencePose(plan, reference);
+      let closest = Infinity;
+      for (let k = 0; k < jointPairs.length; k += 2) {
+        const i = jointPairs[k];
+        const j = jointPairs[k + 1];
+        const dx = reference[j] - reference[i];
+        const dy = reference[j + 1] - reference[i + 1];
+        const d = Math.sqrt(dx * dx + dy * dy);
+        if (!(d >= closest)) closest = d;
+      }
+      closestJoints[0] = closest;
       curve.forgetSolved();
       curve.sweepReachable();
       curve.reset();
@@ -921,8 +1135,14 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       const sb = placement[1];
       const tx = placement[2];
       const ty = placement[3];
-      const scale = Math.hypot(sa, sb);
+      // Math.sqrt, not Math.hypot: hypot allocates its answer in V8.
+      const scale = Math.sqrt(sa * sa + sb * sb);
       const ref = plan.reference;
+      // Two joints of one body closer than a linkage file allows (coincident in the
+      // design, or a placement whose scale collapsed to nothing, as where every target
+      // point is matched to one driver value): no linkage to export or analyse, so the
+      // report could not stand behind it. As infeasible as one that cannot be built.
+      if (!(scale * closestJoints[0] >= COINCIDENT_JOINT_TOL_MM)) parts[V_LINK_LENGTH] += 1;
       if (linkLimits !== undefined) {
         const [lo, hi] = linkLimits;
         for (let k = 0; k < links.length; k += 2) {
@@ -943,11 +1163,18 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       }
     },
     report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport {
-      // The pose at t, reached in steps from the reference so a Newton block keeps its
-      // branch; where a lock bars the way, the other way round (a turn back or on), as the
-      // curve reaches the values past its gap (sweepReachable).
-      let assembles = stepTo(t);
-      if (!assembles && Math.abs(t) > 0) assembles = stepTo(t > 0 ? t - TAU : t + TAU);
+      // The pose at t: in the first turn, the curve's own (its bins hold the motion the
+      // driver reaches from the reference pose either way, sweepReachable), so the drawn
+      // pose is the fitted one; past it, reached in steps from the reference so a Newton
+      // block keeps its branch, and where a lock bars the way, the other way round.
+      let assembles: boolean;
+      if (t >= 0 && t < TAU) {
+        curve.reset();
+        assembles = curve.at(t, 0, point) >= 0;
+      } else {
+        assembles = stepTo(t);
+        if (!assembles) assembles = stepTo(t > 0 ? t - TAU : t + TAU);
+      }
       const drawnAt = assembles ? t : 0;
       const pose = assembles ? Float64Array.from(curve.pose) : Float64Array.from(plan.reference);
       const place = (s: number) => ({ x: sa * pose[2 * s] - sb * pose[2 * s + 1] + tx, y: sb * pose[2 * s] + sa * pose[2 * s + 1] + ty });

@@ -6,22 +6,29 @@
  * changes sign). Two methods written apart: a design the search ranks as feasible must be
  * feasible in its report, or the table would rank a motion the linkage cannot make.
  * Stephenson II and III are the families with Newton blocks; the others place every
- * joint by dyads, the branch fixed by the reference pose's side.
+ * joint by dyads, the branch fixed by the reference pose's side. The report draws the
+ * linkage at target point 1, so the figures are taken over the fitted motion.
  */
 import { describe, expect, it } from 'vitest';
 import { demoTargetPoints } from '../../../src/app/demo/transferDemo';
 import { Prng } from '../../../src/core/optimize/prng';
 import { createObjective, createProblem, type FamilyId } from '../../../src/core/synthesis';
 
-/** Random designs per family: before the curve kept to the reference pose's assembly, 6 (Stephenson II) and 4 (III) of these disagreed. */
+/**
+ * Random designs per family and path: before the curve kept to the reference pose's
+ * assembly, 6 (Stephenson II) and 4 (III) of these disagreed on the closed path; on the
+ * open one, before a gap's ends were the values reached, a collapsed placement counted
+ * and the report drew the curve's own pose, 7 and 9 (on 3,000 designs, 3 and 2 still do:
+ * see the closing note of issue 13).
+ */
 const DESIGNS = 400;
 
 describe('search and report agree on six-bar motions', () => {
-  for (const family of ['stephenson-ii', 'stephenson-iii'] as FamilyId[]) {
-    it(`${family}: every random design the search calls feasible is feasible in its report`, () => {
+  for (const [family, closed] of [['stephenson-ii', true], ['stephenson-iii', true], ['stephenson-ii', false], ['stephenson-iii', false]] as [FamilyId, boolean][]) {
+    it(`${family}, ${closed ? 'closed' : 'open'} path: every random design the search calls feasible is feasible in its report`, () => {
       const made = createProblem({
         name: 'agreement',
-        target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed: true },
+        target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed },
         timing: { mode: 'unprescribed', samples: 180 },
         placement: 'free',
         families: [family],
@@ -43,6 +50,9 @@ describe('search and report agree on six-bar motions', () => {
         feasible++;
         const report = objective.describe(Float64Array.from(x));
         if (!report.feasible) disagree.push(`design ${k}: ${report.defects.join('; ')}`);
+        // The exported linkage is drawn where the search fitted target point 1 (reached
+        // the other way round where a lock bars the way forward), not in its reference pose.
+        else if (report.referencePose !== 'target point 1') disagree.push(`design ${k}: drawn in its ${report.referencePose}`);
       }
       // Enough feasible designs for the check to mean something (about one in ten).
       expect(feasible).toBeGreaterThan(DESIGNS / 20);
