@@ -899,18 +899,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   }
 }
 
-/** Every pair of joints of one moving body (pose offsets): the pairs a linkage file's reference pose is checked on (validate.ts). */
-function bodyJointPairs(plan: Plan): Int32Array {
-  const pairs: number[] = [];
-  const jointCount = plan.jointIds.length;
-  for (let b = 1; b < plan.bodies.length; b++) {
-    const slots = Array.from(plan.bodies[b].slots).filter((s) => s < jointCount);
-    for (let i = 0; i < slots.length; i++) for (let j = i + 1; j < slots.length; j++) pairs.push(2 * slots[i], 2 * slots[j]);
-  }
-  return Int32Array.from(pairs);
-}
-
-/** Pairs of slots (pose offsets) that are the ends of a link: the first joint of each body to each other joint. */
+/** Pairs of slots (pose offsets) that are the ends of a link: every pair of joints of one moving body (the pairs a linkage file's reference pose is checked on, validate.ts). */
 function linkPairs(plan: Plan): Int32Array {
   const pairs: number[] = [];
   const jointCount = plan.jointIds.length;
@@ -943,7 +932,6 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     source.joints.filter((j) => j.ground === true).map((j) => 2 * (plan.slotIndex.get(j.id) ?? 0)),
   );
   const links = linkPairs(plan);
-  const jointPairs = bodyJointPairs(plan);
   /** The least distance between two joints of one body in the loaded design's reference pose (mm, before placement). */
   const closestJoints = new Float64Array(1);
   const loops: FourBarLoop[] = fourBarLoops(plan);
@@ -1055,9 +1043,9 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       for (let k = 0; k < reference.length; k++) reference[k] = x[k];
       setReferencePose(plan, reference);
       let closest = Infinity;
-      for (let k = 0; k < jointPairs.length; k += 2) {
-        const i = jointPairs[k];
-        const j = jointPairs[k + 1];
+      for (let k = 0; k < links.length; k += 2) {
+        const i = links[k];
+        const j = links[k + 1];
         const dx = reference[j] - reference[i];
         const dy = reference[j + 1] - reference[i + 1];
         const d = Math.sqrt(dx * dx + dy * dy);
