@@ -1,4 +1,4 @@
-import type { CurveEvaluator } from '../../src/core/synthesis/curve';
+import { CURVE_MARGIN, CURVE_T, type CurveEvaluator } from '../../src/core/synthesis/curve';
 
 /** A smooth closed curve with exact rates: a circle of radius r0 with a 3-lobed ripple; `calls` counts evaluations. */
 export class RippleCurve implements CurveEvaluator {
@@ -8,8 +8,9 @@ export class RippleCurve implements CurveEvaluator {
     readonly r0: number,
     readonly ripple: number,
   ) {}
-  at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
+  atIo(order: 0 | 1 | 2, out: Float64Array): void {
     this.calls++;
+    const t = out[CURVE_T];
     const { r0, ripple } = this;
     out[0] = r0 * Math.cos(t) + ripple * Math.cos(3 * t);
     out[1] = r0 * Math.sin(t) - ripple * Math.sin(3 * t);
@@ -17,6 +18,6 @@ export class RippleCurve implements CurveEvaluator {
       out[2] = -r0 * Math.sin(t) - 3 * ripple * Math.sin(3 * t);
       out[3] = r0 * Math.cos(t) - 3 * ripple * Math.cos(3 * t);
     }
-    return 1;
+    out[CURVE_MARGIN] = 1;
   }
 }

@@ -3,6 +3,7 @@ import type { Plan } from '../../src/core/linkage';
 import { V_BRANCH, V_SLOTS } from '../../src/core/synthesis/encoding';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
 import { lcg, seededPlan, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
+import { curveAt } from '../support/curveAt';
 
 /**
  * The motion check of a Stephenson II or III family (poseFamilies.ts: the share of a
@@ -72,8 +73,8 @@ function motionShare(c: TriadCase, d: Design, a: number, b: number): number {
   const parts = new Float64Array(V_SLOTS);
   encoding.load(Float64Array.from(d.plan.reference), 0, parts);
   const out = new Float64Array(8);
-  for (let k = 0; k < CURVE_SAMPLES; k++) encoding.curve.at((2 * Math.PI * k) / CURVE_SAMPLES, 0, out);
-  encoding.curve.at(a, 0, out);
+  for (let k = 0; k < CURVE_SAMPLES; k++) curveAt(encoding.curve, (2 * Math.PI * k) / CURVE_SAMPLES, 0, out);
+  curveAt(encoding.curve, a, 0, out);
   encoding.motion(Float64Array.of(a, b), parts);
   return parts[V_BRANCH];
 }

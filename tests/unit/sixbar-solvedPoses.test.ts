@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Plan } from '../../src/core/linkage';
 import { createPoseFamily } from '../../src/core/synthesis/poseFamilies';
 import { lcg, seededPlan, TRIAD_CASES, triadOf, triadRoots, type TriadCase } from '../support/stephensonTriads';
+import { curveAt } from '../support/curveAt';
 
 /**
  * A Stephenson II or III family's curve starts each Newton solve from the poses it has
@@ -104,7 +105,7 @@ describe.each(TRIAD_CASES)('$name curve started from the poses it solved, agains
       encoding.load(Float64Array.from(d.plan.reference), 0, new Float64Array(16));
       const out = new Float64Array(8);
       for (const [m, order0] of order) {
-        expect(encoding.curve.at((2 * Math.PI * m) / TRUTH_PER_TURN, order0, out)).toBe(1);
+        expect(curveAt(encoding.curve, (2 * Math.PI * m) / TRUTH_PER_TURN, order0, out)).toBe(1);
         // Source: theorem — the motion from the reference pose is the continuous branch of the triad's closure.
         expect(Math.hypot(out[0] - d.p[2 * m], out[1] - d.p[2 * m + 1])).toBeLessThan(1e-7 * d.scaleMm);
         compared++;

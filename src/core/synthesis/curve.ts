@@ -4,23 +4,40 @@
  * design being evaluated.
  */
 
-/** Layout of `CurveEvaluator.at` output: x, y, dx/dt, dy/dt, d²x/dt², d²y/dt². */
+/**
+ * Layout of the `io` array of `CurveEvaluator.atIo`: the driver value in; out, the point
+ * x, y, its rates dx/dt, dy/dt, d²x/dt², d²y/dt², and the assembly margin.
+ */
 export const CURVE_X = 0;
 export const CURVE_Y = 1;
 export const CURVE_DX = 2;
 export const CURVE_DY = 3;
 export const CURVE_DDX = 4;
 export const CURVE_DDY = 5;
-/** Slots 6 and 7 are the evaluator's own scratch. */
+export const CURVE_T = 6;
+export const CURVE_MARGIN = 7;
 export const CURVE_OUT_LENGTH = 8;
 
 export interface CurveEvaluator {
   /** True when `at(t, 2, …)` fills second derivatives; otherwise Newton drops the curvature term. */
   readonly secondDerivatives: boolean;
   /**
-   * The output point at driver value `t` with rates up to `order`, into `out`
-   * (CURVE_* layout). Returns the assembly margin: ≥ 0 when the mechanism assembles
-   * at `t`, < 0 (or NaN) when it does not; the point is then a finite stand-in.
+   * The output point at driver value io[CURVE_T] with rates up to `order`, into `io`
+   * (CURVE_* layout), and the assembly margin into io[CURVE_MARGIN]: ≥ 0 when the
+   * mechanism assembles there, < 0 (or NaN) when it does not; the point is then a finite
+   * stand-in. The value and the margin cross in the array because every family's curve
+   * answers at the same call sites: V8 does not inline a call that sees several of them,
+   * and a double passed to or returned from a call it does not inline is boxed (an
+   * allocation on every call).
    */
-  at(t: number, order: 0 | 1 | 2, out: Float64Array): number;
+  atIo(order: 0 | 1 | 2, io: Float64Array): void;
+}
+
+/**
+ * Throws unless `io` holds the whole CURVE_* layout: a shorter array would drop the
+ * driver value's and the margin's slots without a word (a typed array ignores a write
+ * past its end and reads undefined there), and every value would seem to assemble.
+ */
+export function checkCurveIo(io: Float64Array): void {
+  if (io.length < CURVE_OUT_LENGTH) throw new RangeError(`a curve's io array holds ${CURVE_OUT_LENGTH} numbers, not ${io.length}`);
 }

@@ -18,6 +18,8 @@
  * with its rates costs a few dozen flops, one sqrt and one cos/sin pair.
  */
 
+import { CURVE_DDX, CURVE_DDY, CURVE_DX, CURVE_DY, CURVE_MARGIN, CURVE_OUT_LENGTH, CURVE_T, CURVE_X, CURVE_Y } from './curve';
+
 /** Indices of the nine literature variables in a design vector. */
 export const R1 = 0;
 export const R2 = 1;
@@ -30,17 +32,20 @@ export const X0 = 7;
 export const Y0 = 8;
 export const FOUR_BAR_LENGTH_VARIABLES = 9;
 
-/** Layout of the output written by `fourBarCouplerPointInto`. */
-export const OUT_X = 0;
-export const OUT_Y = 1;
-export const OUT_DX = 2;
-export const OUT_DY = 3;
-export const OUT_DDX = 4;
-export const OUT_DDY = 5;
-/** Scratch slots: the crank angle passed in, the assembly margin passed out. */
-export const OUT_THETA2 = 6;
-export const OUT_MARGIN = 7;
-export const FOUR_BAR_OUT_LENGTH = 8;
+/**
+ * Layout of the output written by `fourBarCouplerPointInto`: a curve's (curve.ts), so the
+ * four-bar's curve hands its array straight through. The crank angle passed in and the
+ * assembly margin passed out have slots of their own.
+ */
+export const OUT_X = CURVE_X;
+export const OUT_Y = CURVE_Y;
+export const OUT_DX = CURVE_DX;
+export const OUT_DY = CURVE_DY;
+export const OUT_DDX = CURVE_DDX;
+export const OUT_DDY = CURVE_DDY;
+export const OUT_THETA2 = CURVE_T;
+export const OUT_MARGIN = CURVE_MARGIN;
+export const FOUR_BAR_OUT_LENGTH = CURVE_OUT_LENGTH;
 
 /**
  * The coupler point at crank angle `theta2` (rad, from the ground line) in world

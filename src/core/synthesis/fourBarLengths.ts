@@ -11,7 +11,7 @@ import { FOUR_BAR_FIXED_NAMES, FOUR_BAR_FREE_NAMES } from './familyVariables';
 import { fourBar } from '../linkage';
 import { classifyFourBar } from '../linkage/analysis';
 import { crankViolationInto, inputTurnsFully } from './grashofTurn';
-import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, type CurveEvaluator } from './curve';
+import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, checkCurveIo, type CurveEvaluator } from './curve';
 import {
   V_BRANCH as V_BRANCH_BINDING,
   V_CRANK as V_CRANK_BINDING,
@@ -90,8 +90,10 @@ class ClosedFormCurve implements CurveEvaluator {
   readonly secondDerivatives = true;
   readonly p = new Float64Array(FOUR_BAR_LENGTH_VARIABLES);
   sign = 1;
-  at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
-    return fourBarCouplerPointInto(this.p, 0, t, this.sign, order, out);
+  atIo(order: 0 | 1 | 2, io: Float64Array): void {
+    checkCurveIo(io);
+    // The coupler point's layout is the curve's (fourBarClosedForm.ts).
+    fourBarCouplerPointIo(this.p, 0, this.sign, order, io);
   }
 }
 
@@ -229,7 +231,7 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       let failed = 0;
       for (let k = 0; k <= steps; k++) {
         const t = from + ((to - from) * k) / steps;
-        // As curve.at and fourBarJointsInto, with t passed in arrays: this loop allocates nothing
+        // As fourBarJointsInto, with t passed in arrays: this loop allocates nothing
         // whether or not the compiler inlines those wrappers here.
         sample[OUT_THETA2] = t;
         fourBarCouplerPointIo(p, 0, curve.sign, 0, sample);
@@ -255,7 +257,7 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
     report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport {
       fourBarJointsInto(p, 0, t, curve.sign, joints);
       const point = new Float64Array(CURVE_OUT_LENGTH);
-      curve.at(t, 0, point);
+      fourBarCouplerPointInto(p, 0, t, curve.sign, 0, point);
       const place = (x: number, y: number) => ({ x: sa * x - sb * y + tx, y: sb * x + sa * y + ty });
       const linkage = fourBar({
         A0: place(joints[0], joints[1]),

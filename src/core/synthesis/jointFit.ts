@@ -10,7 +10,7 @@
  * Coarse to fine (refineOnSamples), the steps run on the curve's samples read as cubics
  * (SampledCurve, no solve of the linkage) and only the last on the curve itself.
  */
-import type { CurveEvaluator } from './curve';
+import { CURVE_OUT_LENGTH, CURVE_T as CURVE_T_BINDING, type CurveEvaluator } from './curve';
 import type { SampledCurve } from './sampledCurve';
 
 /** Gauss–Newton steps at most. */
@@ -27,6 +27,10 @@ export const JOINT_FIT_CURVE_ITERATIONS = 1;
 export const JOINT_FIT_CURVE_HALVINGS = 1;
 /** Stop when a step lowers the sum by less than this share of it. */
 export const JOINT_FIT_REL_TOL = 1e-14;
+
+// An imported constant as a local: a module transform (tsx, vitest) may turn each read of
+// an imported binding into a getter call, which the sums below cannot afford.
+const CURVE_T = CURVE_T_BINDING;
 
 /** Placement layout shared with geometry's similarity fit: a = s cos θ, b = s sin θ, tx, ty. */
 const A = 0;
@@ -88,7 +92,7 @@ export function createJointFit(n: number): JointFit {
   const m = new Float64Array(20); // 4 × 5 augmented Schur system
   const dTheta = new Float64Array(4);
   const trialPlacement = new Float64Array(4);
-  const buf = new Float64Array(8);
+  const buf = new Float64Array(CURVE_OUT_LENGTH);
   /** Which of the two sets of arrays holds the values in force (0: px…, 1: tx…). */
   let current = 0;
 
@@ -112,7 +116,8 @@ export function createJointFit(n: number): JointFit {
     const ody = into === 0 ? dpy : tdy;
     let sum = 0;
     for (let i = 0; i < n; i++) {
-      curve.at(ts[to + i], 1, buf);
+      buf[CURVE_T] = ts[to + i];
+      curve.atIo(1, buf);
       ox[i] = buf[0];
       oy[i] = buf[1];
       odx[i] = buf[2];

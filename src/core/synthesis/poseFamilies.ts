@@ -45,8 +45,12 @@ import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop }
 import {
   CURVE_DX as CURVE_DX_BINDING,
   CURVE_DY as CURVE_DY_BINDING,
+  CURVE_MARGIN as CURVE_MARGIN_BINDING,
+  CURVE_OUT_LENGTH,
+  CURVE_T as CURVE_T_BINDING,
   CURVE_X as CURVE_X_BINDING,
   CURVE_Y as CURVE_Y_BINDING,
+  checkCurveIo as checkCurveIoBinding,
   type CurveEvaluator,
 } from './curve';
 import {
@@ -65,7 +69,7 @@ import {
   type TargetFrame,
 } from './encoding';
 import { POSE_FAMILY_BUILDERS, poseVariableNames } from './familyVariables';
-import { crankViolation, inputTurnsFully } from './grashofTurn';
+import { crankViolationInto, inputTurnsFully } from './grashofTurn';
 import { LOCK_ARC_LENGTH, LockSearch, fourBarLockArcs, fourBarLockCount, type MarginCurve } from './lockSearch';
 import type { Constraints, FamilyId } from './problem';
 
@@ -74,6 +78,8 @@ import type { Constraints, FamilyId } from './problem';
 // cannot afford.
 const CURVE_DX = CURVE_DX_BINDING;
 const CURVE_DY = CURVE_DY_BINDING;
+const CURVE_MARGIN = CURVE_MARGIN_BINDING;
+const CURVE_T = CURVE_T_BINDING;
 const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
 const V_BRANCH = V_BRANCH_BINDING;
@@ -90,8 +96,11 @@ const SWEEP_CORRECTION_MAX_SHARE = SWEEP_CORRECTION_MAX_SHARE_BINDING;
 const runWithRates = runWithRatesBinding;
 const runSized = runSizedBinding;
 const poseRatesInto = poseRatesIntoBinding;
+const checkCurveIo = checkCurveIoBinding;
 
 const TAU = 2 * Math.PI;
+/** One turn from the reference pose, as the sweeps take a span (from, to). */
+const FULL_TURN = Float64Array.of(0, TAU);
 /** Driver step of the lock and transmission checks along a motion: 72 per turn. */
 export const MOTION_CHECK_STEP_RAD = TAU / 72;
 /** Most samples of one lock search (a span of ten turns at MOTION_CHECK_STEP_RAD). */
@@ -228,7 +237,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private readonly expected: Float64Array;
   private expectedMotion = NaN;
   /** The point of sweepReachable's solves. */
-  private readonly sweepPoint = new Float64Array(8);
+  private readonly sweepPoint = new Float64Array(CURVE_OUT_LENGTH);
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
     this.plan = plan;
     this.pose = new Float64Array(2 * plan.slotCount);
@@ -339,7 +348,9 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private reach(from: number, to: number): boolean {
     const point = this.sweepPoint;
     this.reached = from;
-    if (this.at(to, 1, point) >= 0) return true;
+    point[CURVE_T] = to;
+    this.atIo(1, point);
+    if (point[CURVE_MARGIN] >= 0) return true;
     let at = from;
     // First the whole step from the pose at `from` (the try above started where `start` chose).
     let h = to - from;
@@ -347,10 +358,15 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     // A failure leaves the reference pose: the next try starts from the pose at `at`, which its bin keeps.
     let restore = true;
     while (h !== 0 && Math.abs(h) >= least) {
-      if (restore && at !== TAU) this.at(at, 1, point);
+      if (restore && at !== TAU) {
+        point[CURVE_T] = at;
+        this.atIo(1, point);
+      }
       // A step below the rounding of `at` is the last one.
       const next = Math.abs(to - at) <= Math.abs(h) || at + h === at ? to : at + h;
-      restore = this.at(next, 1, point) < 0;
+      point[CURVE_T] = next;
+      this.atIo(1, point);
+      restore = point[CURVE_MARGIN] < 0;
       if (restore) {
         h /= 2;
         continue;
@@ -421,7 +437,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.pose.set(ref);
     this.lastT = NaN;
     this.previousT = NaN;
-    this.crankMm = Math.hypot(ref[this.tipSlot] - ref[this.pivotSlot], ref[this.tipSlot + 1] - ref[this.pivotSlot + 1]);
+    // Math.sqrt, not Math.hypot: hypot allocates its answer in V8.
+    const cx = ref[this.tipSlot] - ref[this.pivotSlot];
+    const cy = ref[this.tipSlot + 1] - ref[this.pivotSlot + 1];
+    this.crankMm = Math.sqrt(cx * cx + cy * cy);
   }
   /** Moves the Newton blocks' joints on to driver value t (see PREDICT_MAX_STEP_RAD), keeping the last pose solved in `previous`. */
   private predict(t: number): void {
@@ -869,25 +888,42 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     return margin >= 0 ? margin : -1;
   }
   /** Where the plan does not assemble: a finite stand-in, the reference point, and margin −1. */
-  private standIn(out: Float64Array): number {
+  private standIn(out: Float64Array): void {
     const s = this.pSlot;
     out[CURVE_X] = this.plan.reference[s];
     out[CURVE_Y] = this.plan.reference[s + 1];
     out[CURVE_DX] = 0;
     out[CURVE_DY] = 0;
-    return -1;
+    out[CURVE_MARGIN] = -1;
   }
-  at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
+  /**
+   * atIo with the driver value passed and the margin returned, for the callers below that
+   * hold a PlanCurve: small enough to inline, so neither number is boxed (curve.ts).
+   */
+  pointAt(t: number, order: 0 | 1 | 2, out: Float64Array): number {
+    out[CURVE_T] = t;
+    this.atIo(order, out);
+    return out[CURVE_MARGIN];
+  }
+  atIo(order: 0 | 1 | 2, out: Float64Array): void {
+    checkCurveIo(out);
+    const t = out[CURVE_T];
     const plan = this.plan;
     const value = plan.driverReferenceValue + t;
-    if (this.unreachable(t)) return this.standIn(out);
+    if (this.unreachable(t)) {
+      this.standIn(out);
+      return;
+    }
     // A pose solved at t already is its solution: no need to solve it again for the point.
     const known = this.predicts && this.start(t) && (order === 0 || this.ratesFromPose);
     // this.pose is made for the plan (constructor): runSized skips the check of its length.
     const ok = known || ((order === 0 ? runSized(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates)) && (!this.predicts || (this.onReferenceBranch() && this.followsTangent())));
     if (known) this.knownSolved(t, order > 0);
     else this.solved(t, ok, order > 0);
-    if (!ok && !this.recover(t)) return this.standIn(out);
+    if (!ok && !this.recover(t)) {
+      this.standIn(out);
+      return;
+    }
     const s = this.pSlot;
     out[CURVE_X] = this.pose[s];
     out[CURVE_Y] = this.pose[s + 1];
@@ -895,7 +931,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       out[CURVE_DX] = this.rates[s];
       out[CURVE_DY] = this.rates[s + 1];
     }
-    return 1;
+    out[CURVE_MARGIN] = 1;
   }
 }
 
@@ -947,77 +983,116 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   const linkLimits = constraints.linkLengthMm;
   const keepOut = constraints.keepOut ?? [];
   const reference = new Float64Array(2 * plan.slotCount);
-  const point = new Float64Array(6);
+  const point = new Float64Array(CURVE_OUT_LENGTH);
   const lockSearch = new LockSearch(2 * plan.slotCount, LOCK_SEARCH_MAX_STEPS);
   const solvedPose = new Float64Array(2 * plan.slotCount);
+  /** A loop's four sides (loopLengthsInto), and the crank violation of the Grashof loop's. */
+  const loopSides = new Float64Array(4);
+  const crank = new Float64Array(1);
+  /** The transmission defect summed along a sweep (addTransmissionDefect). */
+  const transmission = new Float64Array(1);
 
-  /** Length of side i of a loop in the reference pose (ground, input, coupler, output for a loop through ground). */
-  function loopLength(loop: FourBarLoop, i: number): number {
+  /** The four sides of a loop in the reference pose (ground, input, coupler, output for a loop through ground), into `lengths`. */
+  function loopLengthsInto(loop: FourBarLoop, lengths: Float64Array): void {
     const ref = plan.reference;
-    const a = loop.joints[(i + 3) % 4];
-    const b = loop.joints[i];
-    return Math.hypot(ref[2 * b] - ref[2 * a], ref[2 * b + 1] - ref[2 * a + 1]);
+    for (let i = 0; i < 4; i++) {
+      const a = loop.joints[(i + 3) % 4];
+      const b = loop.joints[i];
+      const dx = ref[2 * b] - ref[2 * a];
+      const dy = ref[2 * b + 1] - ref[2 * a + 1];
+      lengths[i] = Math.sqrt(dx * dx + dy * dy);
+    }
   }
 
-  function transmissionAtPose(parts: Float64Array, share: number, pose: Float64Array = curve.pose): void {
+  /** Adds the transmission defect of `pose` (each loop's |cos μ| beyond the limit) to transmission[0]; the callers scale the sum by the share of a turn each pose stands for. */
+  function addTransmissionDefect(pose: Float64Array): void {
     if (cosLimit >= 1) return;
     for (let q = 0; q < loops.length; q++) {
       const loop = loops[q];
       const c = Math.abs(Math.cos(transmissionAngleRad(loop, pose)));
-      if (!(c <= cosLimit)) parts[V_TRANSMISSION] += share * (Number.isNaN(c) ? 1 : c - cosLimit);
+      if (!(c <= cosLimit)) transmission[0] += Number.isNaN(c) ? 1 : c - cosLimit;
     }
-  }
-
-  /** Runs the driver from a to b in steps of MOTION_CHECK_STEP_RAD; returns the share of a turn that failed. */
-  function sweepFailures(a: number, b: number, parts: Float64Array): number {
-    const steps = Math.min(LOCK_SEARCH_MAX_STEPS, Math.max(1, Math.ceil((b - a) / MOTION_CHECK_STEP_RAD)));
-    const h = (b - a) / steps;
-    let failed = 0;
-    for (let k = 1; k <= steps; k++) {
-      if (curve.at(a + k * h, 0, point) < 0) failed++;
-      else transmissionAtPose(parts, h / TAU);
-    }
-    return (failed * h) / TAU;
   }
 
   /**
-   * sweepFailures for a motion from a to b, on the curve's bins' driver values (every
-   * SOLVED_BIN_RAD, finer than MOTION_CHECK_STEP_RAD) between them and at b: where the
-   * curve has solved a value already (its samples, of the same bins), its pose or its
-   * failure is that value's without a solve. The share of a turn that failed.
+   * Runs the driver over `span` (from, to) in steps of MOTION_CHECK_STEP_RAD: adds the
+   * share of a turn that failed to parts[slot], and the transmission defect along the way
+   * to parts[V_TRANSMISSION]. Numbers cross in arrays, not as arguments (curve.ts).
    */
-  function motionFailures(a: number, b: number, parts: Float64Array): number {
+  function sweepFailures(span: Float64Array, parts: Float64Array, slot: number): void {
+    const a = span[0];
+    const b = span[1];
+    const steps = Math.min(LOCK_SEARCH_MAX_STEPS, Math.max(1, Math.ceil((b - a) / MOTION_CHECK_STEP_RAD)));
+    const h = (b - a) / steps;
+    let failed = 0;
+    transmission[0] = 0;
+    for (let k = 1; k <= steps; k++) {
+      point[CURVE_T] = a + k * h;
+      curve.atIo(0, point);
+      if (point[CURVE_MARGIN] < 0) failed++;
+      else addTransmissionDefect(curve.pose);
+    }
+    parts[slot] += (failed * h) / TAU;
+    parts[V_TRANSMISSION] += (h / TAU) * transmission[0];
+  }
+
+  /**
+   * sweepFailures for a motion over `span`, on the curve's bins' driver values (every
+   * SOLVED_BIN_RAD, finer than MOTION_CHECK_STEP_RAD) between its ends and at its end:
+   * where the curve has solved a value already (its samples, of the same bins), its pose
+   * or its failure is that value's without a solve.
+   */
+  function motionFailures(span: Float64Array, parts: Float64Array, slot: number): void {
+    const a = span[0];
+    const b = span[1];
     const first = Math.floor(a / SOLVED_BIN_RAD) + 1;
     const last = Math.ceil(b / SOLVED_BIN_RAD) - 1;
     const count = last - first + 2;
     // Without a Newton block every solve is a run of dyads, as cheap as a lookup: sampled as before.
-    if (!curve.keepsSolved || !(count >= 1 && count <= MOTION_MAX_SAMPLES)) return sweepFailures(a, b, parts);
+    if (!curve.keepsSolved || !(count >= 1 && count <= MOTION_MAX_SAMPLES)) {
+      sweepFailures(span, parts, slot);
+      return;
+    }
     const share = (b - a) / (count * TAU);
     const into = cosLimit < 1 ? solvedPose : null;
     let failed = 0;
+    transmission[0] = 0;
     // The last value passed over as solved already: the curve takes it up before a solve, as its start.
     let passed = NaN;
     for (let k = first; k <= last + 1; k++) {
       const t = k <= last ? k * SOLVED_BIN_RAD : b;
       if (curve.solvedPoseAt(t, into)) {
-        if (into !== null) transmissionAtPose(parts, share, into);
+        if (into !== null) addTransmissionDefect(into);
         passed = t;
         continue;
       }
-      if (passed === passed) curve.at(passed, 0, point);
+      if (passed === passed) {
+        point[CURVE_T] = passed;
+        curve.atIo(0, point);
+      }
       passed = NaN;
-      if (curve.failedAt(t) || curve.at(t, 0, point) < 0) failed++;
-      else transmissionAtPose(parts, share);
+      if (curve.failedAt(t)) {
+        failed++;
+        continue;
+      }
+      point[CURVE_T] = t;
+      curve.atIo(0, point);
+      if (point[CURVE_MARGIN] < 0) failed++;
+      else addTransmissionDefect(curve.pose);
     }
-    if (passed === passed) curve.at(passed, 0, point);
-    return failed * share;
+    if (passed === passed) {
+      point[CURVE_T] = passed;
+      curve.atIo(0, point);
+    }
+    parts[slot] += failed * share;
+    parts[V_TRANSMISSION] += share * transmission[0];
   }
 
   /** Moves the curve from the reference pose to driver value t in steps of MOTION_CHECK_STEP_RAD; false where a step does not assemble. */
   function stepTo(t: number): boolean {
     curve.reset();
     const steps = Math.min(LOCK_SEARCH_MAX_STEPS, Math.max(1, Math.ceil(Math.abs(t) / MOTION_CHECK_STEP_RAD)));
-    for (let k = 1; k <= steps; k++) if (curve.at((t * k) / steps, 0, point) < 0) return false;
+    for (let k = 1; k <= steps; k++) if (curve.pointAt((t * k) / steps, 0, point) < 0) return false;
     return true;
   }
 
@@ -1057,10 +1132,11 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       curve.reset();
       if (fullTurn) {
         if (grashofLoop !== undefined) {
-          const g = grashofLoop;
-          parts[V_CRANK] += crankViolation(loopLength(g, 0), loopLength(g, 1), loopLength(g, 2), loopLength(g, 3), true);
+          loopLengthsInto(grashofLoop, loopSides);
+          crankViolationInto(loopSides, 0, true, crank, 0);
+          parts[V_CRANK] += crank[0];
         }
-        parts[V_CRANK] += sweepFailures(0, TAU, parts);
+        sweepFailures(FULL_TURN, parts, V_CRANK);
         curve.reset();
       }
     },
@@ -1069,8 +1145,9 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       const b = span[1];
       // A full turn was swept in load: it found every lock and every poor transmission angle.
       if (fullTurn || !(b > a)) return;
-      curve.at(a, 0, point);
-      parts[V_BRANCH] += motionFailures(a, b, parts);
+      point[CURVE_T] = a;
+      curve.atIo(0, point);
+      motionFailures(span, parts, V_BRANCH);
     },
     verify(spans: Float64Array, count: number, parts: Float64Array): void {
       if (fullTurn) {
@@ -1105,7 +1182,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       const pose = curve.pose;
       let failed = 0;
       for (let k = 0; k <= steps; k++) {
-        if (curve.at(from + ((to - from) * k) / steps, 0, point) < 0) {
+        if (curve.pointAt(from + ((to - from) * k) / steps, 0, point) < 0) {
           failed++;
           continue;
         }
@@ -1136,7 +1213,9 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
         for (let k = 0; k < links.length; k += 2) {
           const i = links[k];
           const j = links[k + 1];
-          parts[V_LINK_LENGTH] += lengthViolation(scale * Math.hypot(ref[j] - ref[i], ref[j + 1] - ref[i + 1]), lo, hi);
+          const dx = ref[j] - ref[i];
+          const dy = ref[j + 1] - ref[i + 1];
+          parts[V_LINK_LENGTH] += lengthViolation(scale * Math.sqrt(dx * dx + dy * dy), lo, hi);
         }
       }
       for (let g = 0; g < groundSlots.length; g++) {
@@ -1145,7 +1224,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
         const y = sb * ref[s] + sa * ref[s + 1] + ty;
         for (let q = 0; q < keepOut.length; q++) {
           const c = keepOut[q];
-          const d = Math.hypot(x - c.x, y - c.y);
+          const d = Math.sqrt((x - c.x) * (x - c.x) + (y - c.y) * (y - c.y));
           if (!(d >= c.r)) parts[V_KEEP_OUT] += Number.isNaN(d) ? 1 : (c.r - d) / c.r;
         }
       }
@@ -1158,7 +1237,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       let assembles: boolean;
       if (t >= 0 && t < TAU) {
         curve.reset();
-        assembles = curve.at(t, 0, point) >= 0;
+        assembles = curve.pointAt(t, 0, point) >= 0;
       } else {
         assembles = stepTo(t);
         if (!assembles) assembles = stepTo(t > 0 ? t - TAU : t + TAU);
@@ -1178,14 +1257,14 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       let grashof: EncodingReport['grashof'];
       if (driven !== undefined) {
         try {
-          grashof = classifyFourBar(scale * loopLength(driven, 0), scale * loopLength(driven, 1), scale * loopLength(driven, 2), scale * loopLength(driven, 3));
+          loopLengthsInto(driven, loopSides);
+          grashof = classifyFourBar(scale * loopSides[0], scale * loopSides[1], scale * loopSides[2], scale * loopSides[3]);
         } catch {
           grashof = undefined;
         }
       }
-      const turnsFully = grashofLoop !== undefined
-        ? inputTurnsFully(loopLength(grashofLoop, 0), loopLength(grashofLoop, 1), loopLength(grashofLoop, 2), loopLength(grashofLoop, 3))
-        : fullTurnLocks() === 0;
+      if (grashofLoop !== undefined) loopLengthsInto(grashofLoop, loopSides);
+      const turnsFully = grashofLoop !== undefined ? inputTurnsFully(loopSides[0], loopSides[1], loopSides[2], loopSides[3]) : fullTurnLocks() === 0;
       curve.reset();
       return {
         linkage,

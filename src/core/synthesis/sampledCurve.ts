@@ -12,14 +12,25 @@
  *
  * Hermite interpolation: e.g. Burden & Faires, Numerical Analysis, § 3.4.
  */
-import { CURVE_DX as CURVE_DX_BINDING, CURVE_DY as CURVE_DY_BINDING, CURVE_X as CURVE_X_BINDING, CURVE_Y as CURVE_Y_BINDING, type CurveEvaluator } from './curve';
+import {
+  CURVE_DX as CURVE_DX_BINDING,
+  CURVE_DY as CURVE_DY_BINDING,
+  CURVE_MARGIN as CURVE_MARGIN_BINDING,
+  CURVE_T as CURVE_T_BINDING,
+  CURVE_X as CURVE_X_BINDING,
+  CURVE_Y as CURVE_Y_BINDING,
+  checkCurveIo,
+  type CurveEvaluator,
+} from './curve';
 
 // Imported constants as locals: a module transform (tsx, vitest) may turn each read of an
-// imported binding into a getter call, which `at` cannot afford.
+// imported binding into a getter call, which `atIo` cannot afford.
 const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
 const CURVE_DX = CURVE_DX_BINDING;
 const CURVE_DY = CURVE_DY_BINDING;
+const CURVE_MARGIN = CURVE_MARGIN_BINDING;
+const CURVE_T = CURVE_T_BINDING;
 const TAU = 2 * Math.PI;
 /** Largest ratio, either way, of an end's rate times the step to the chord, for a cubic to be read between two samples. */
 const RESOLVED_RATIO = 2;
@@ -66,14 +77,19 @@ export class SampledCurve implements CurveEvaluator {
     }
   }
 
-  at(t: number, order: 0 | 1 | 2, out: Float64Array): number {
+  atIo(order: 0 | 1 | 2, out: Float64Array): void {
+    checkCurveIo(out);
+    const t = out[CURVE_T];
     const count = this.count;
     const u = (t - Math.floor(t / TAU) * TAU) / this.step;
     let j = Math.floor(u);
     // Rounding can put u at count itself.
     if (j >= count) j = count - 1;
     const k = j + 1 < count ? j + 1 : 0;
-    if (!(u >= 0) || this.resolved[j] !== 1) return (this.curve as CurveEvaluator).at(t, order, out);
+    if (!(u >= 0) || this.resolved[j] !== 1) {
+      (this.curve as CurveEvaluator).atIo(order, out);
+      return;
+    }
     const h = this.step;
     const s = this.samples;
     const a = 4 * j;
@@ -95,6 +111,6 @@ export class SampledCurve implements CurveEvaluator {
       out[CURVE_DX] = d01 * (s[b] - s[a]) + d10 * s[a + 2] + d11 * s[b + 2];
       out[CURVE_DY] = d01 * (s[b + 1] - s[a + 1]) + d10 * s[a + 3] + d11 * s[b + 3];
     }
-    return 1;
+    out[CURVE_MARGIN] = 1;
   }
 }

@@ -17,6 +17,7 @@ import {
   CURVE_DDY as CURVE_DDY_BINDING,
   CURVE_DX as CURVE_DX_BINDING,
   CURVE_DY as CURVE_DY_BINDING,
+  CURVE_T as CURVE_T_BINDING,
   CURVE_X as CURVE_X_BINDING,
   CURVE_Y as CURVE_Y_BINDING,
   type CurveEvaluator,
@@ -28,6 +29,7 @@ const CURVE_DDX = CURVE_DDX_BINDING;
 const CURVE_DDY = CURVE_DDY_BINDING;
 const CURVE_DX = CURVE_DX_BINDING;
 const CURVE_DY = CURVE_DY_BINDING;
+const CURVE_T = CURVE_T_BINDING;
 const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
 
@@ -583,7 +585,7 @@ export const REFINE_IO_LENGTH = 6;
  * value 2|P'|² (always downhill); steps are capped at io[REFINE_MAX_STEP], and a step
  * that raises f is halved (at most 4 times). Writes the refined value to io[REFINE_T].
  * Numbers cross through `io` because a double passed to a call that is not inlined is
- * boxed. `buf` is scratch of CURVE_OUT_LENGTH.
+ * boxed. `buf` is the curve's io (CURVE_OUT_LENGTH).
  */
 export function refineDriverValue(curve: CurveEvaluator, io: Float64Array, maxIterations: number, buf: Float64Array): void {
   let t = io[REFINE_T];
@@ -593,7 +595,8 @@ export function refineDriverValue(curve: CurveEvaluator, io: Float64Array, maxIt
   const hi = io[REFINE_HI];
   const maxStep = io[REFINE_MAX_STEP];
   const order = curve.secondDerivatives ? 2 : 1;
-  curve.at(t, order, buf);
+  buf[CURVE_T] = t;
+  curve.atIo(order, buf);
   let ex = buf[CURVE_X] - qx;
   let ey = buf[CURVE_Y] - qy;
   let f = ex * ex + ey * ey;
@@ -617,7 +620,8 @@ export function refineDriverValue(curve: CurveEvaluator, io: Float64Array, maxIt
       if (next < lo) next = lo;
       if (next > hi) next = hi;
       if (!(Math.abs(next - t) > DRIVER_STEP_TOLERANCE)) break;
-      curve.at(next, order, buf);
+      buf[CURVE_T] = next;
+      curve.atIo(order, buf);
       const nx = buf[CURVE_X] - qx;
       const ny = buf[CURVE_Y] - qy;
       const fn = nx * nx + ny * ny;

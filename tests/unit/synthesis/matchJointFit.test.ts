@@ -4,6 +4,7 @@ import type { CurveEvaluator } from '../../../src/core/synthesis/curve';
 import { RippleCurve } from '../../support/rippleCurve';
 import { JOINT_FIT_HALVINGS, JOINT_FIT_ITERATIONS, JOINT_FIT_REL_TOL, createJointFit } from '../../../src/core/synthesis/jointFit';
 import { SampledCurve } from '../../../src/core/synthesis/sampledCurve';
+import { curveAt } from '../../support/curveAt';
 
 /**
  * The joint refinement of driver values and placement after an in-order match, against
@@ -27,7 +28,7 @@ function referenceRefine(
   const sumSquares = (ts: Float64Array, p: Float64Array): number => {
     let sum = 0;
     for (let i = 0; i < n; i++) {
-      curve.at(ts[i], 0, buf);
+      curveAt(curve, ts[i], 0, buf);
       const x = p[0] * buf[0] - p[1] * buf[1] + p[2] - targets[2 * i];
       const y = p[1] * buf[0] + p[0] * buf[1] + p[3] - targets[2 * i + 1];
       sum += (weights === undefined ? 1 : weights[i]) * (x * x + y * y);
@@ -46,7 +47,7 @@ function referenceRefine(
     const [a, b] = placement;
     const m = new Float64Array(20);
     for (let i = 0; i < n; i++) {
-      curve.at(t[i], 1, buf);
+      curveAt(curve, t[i], 1, buf);
       const [px, py, dpx, dpy] = buf;
       const w = weights === undefined ? 1 : weights[i];
       const rx = a * px - b * py + placement[2] - targets[2 * i];
@@ -154,7 +155,7 @@ function randomCase(prng: Prng, n: number, weighted: boolean, noiseMm: number): 
   const buf = new Float64Array(8);
   for (let i = 0; i < n; i++) {
     truth[i] = start + (2 * Math.PI * (i + 0.3 * (prng.float() - 0.5))) / n;
-    curve.at(truth[i], 0, buf);
+    curveAt(curve, truth[i], 0, buf);
     targets[2 * i] = a * buf[0] - b * buf[1] + tx + noiseMm * (prng.float() - 0.5);
     targets[2 * i + 1] = b * buf[0] + a * buf[1] + ty + noiseMm * (prng.float() - 0.5);
   }
@@ -199,7 +200,7 @@ describe('joint refinement of driver values and placement', () => {
       createJointFit(n).refine(c.curve, c.targets, c.weights, t, 0, placement, c.limits, JOINT_FIT_ITERATIONS, JOINT_FIT_HALVINGS);
       const buf = new Float64Array(8);
       for (let i = 0; i < n; i++) {
-        c.curve.at(t[i], 0, buf);
+        curveAt(c.curve, t[i], 0, buf);
         const x = placement[0] * buf[0] - placement[1] * buf[1] + placement[2];
         const y = placement[1] * buf[0] + placement[0] * buf[1] + placement[3];
         // 1e-6 mm: far below any figure Loci reports (µm), far above rounding.
@@ -219,7 +220,7 @@ describe('joint refinement of driver values and placement', () => {
       const c = randomCase(prng, n, trial % 3 === 0, noise);
       const sampled = new SampledCurve(180);
       for (let j = 0; j < 180; j++) {
-        c.curve.at((2 * Math.PI * j) / 180, 1, buf);
+        curveAt(c.curve, (2 * Math.PI * j) / 180, 1, buf);
         sampled.samples.set(buf.subarray(0, 4), 4 * j);
         sampled.valid[j] = 1;
       }
@@ -238,10 +239,10 @@ describe('joint refinement of driver values and placement', () => {
       let apart = 0;
       for (let i = 0; i < n; i++) {
         const w = c.weights === undefined ? 1 : c.weights[i];
-        c.curve.at(t[i], 0, buf);
+        curveAt(c.curve, t[i], 0, buf);
         const x = placement[0] * buf[0] - placement[1] * buf[1] + placement[2];
         const y = placement[1] * buf[0] + placement[0] * buf[1] + placement[3];
-        c.curve.at(wantT[i], 0, buf);
+        curveAt(c.curve, wantT[i], 0, buf);
         const wx = wantPlacement[0] * buf[0] - wantPlacement[1] * buf[1] + wantPlacement[2];
         const wy = wantPlacement[1] * buf[0] + wantPlacement[0] * buf[1] + wantPlacement[3];
         sum += w * ((x - c.targets[2 * i]) ** 2 + (y - c.targets[2 * i + 1]) ** 2);

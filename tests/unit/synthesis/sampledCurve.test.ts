@@ -2,13 +2,14 @@ import { describe, expect, it } from 'vitest';
 import type { CurveEvaluator } from '../../../src/core/synthesis/curve';
 import { RippleCurve } from '../../support/rippleCurve';
 import { SampledCurve } from '../../../src/core/synthesis/sampledCurve';
+import { curveAt } from '../../support/curveAt';
 
 /** The curve sampled as the path response samples it, sample `failed` (if any) marked as not assembling. */
 function sample(curve: CurveEvaluator, count: number, failed = -1): SampledCurve {
   const sampled = new SampledCurve(count);
   const buf = new Float64Array(8);
   for (let j = 0; j < count; j++) {
-    curve.at((2 * Math.PI * j) / count, 1, buf);
+    curveAt(curve, (2 * Math.PI * j) / count, 1, buf);
     sampled.samples.set(buf.subarray(0, 4), 4 * j);
     sampled.valid[j] = j === failed ? 0 : 1;
   }
@@ -24,8 +25,8 @@ function worstErrors(curve: RippleCurve, sampled: SampledCurve): { position: num
   let rate = 0;
   for (let q = 0; q <= 20_000; q++) {
     const t = (2 * Math.PI * q) / 20_000;
-    curve.at(t, 1, exact);
-    sampled.at(t, 1, read);
+    curveAt(curve, t, 1, exact);
+    curveAt(sampled, t, 1, read);
     position = Math.max(position, Math.abs(read[0] - exact[0]), Math.abs(read[1] - exact[1]));
     rate = Math.max(rate, Math.abs(read[2] - exact[2]), Math.abs(read[3] - exact[3]));
   }
@@ -69,9 +70,9 @@ describe('a curve read between its samples', () => {
     const read = new Float64Array(8);
     for (let j = 0; j < 36; j++) {
       const t = (2 * Math.PI * j) / 36;
-      curve.at(t, 1, exact);
+      curveAt(curve, t, 1, exact);
       for (const turns of [-1, 0, 2]) {
-        sampled.at(t + 2 * Math.PI * turns, 1, read);
+        curveAt(sampled, t + 2 * Math.PI * turns, 1, read);
         for (let k = 0; k < 4; k++) expect(read[k]).toBeCloseTo(exact[k], 9);
       }
     }
@@ -86,13 +87,13 @@ describe('a curve read between its samples', () => {
     const between = (2 * Math.PI * 9.5) / 36;
     // Between samples 9 and 10 (10 did not assemble): one call of the curve, its answer.
     curve.calls = 0;
-    sampled.at(between, 1, read);
+    curveAt(sampled, between, 1, read);
     expect(curve.calls).toBe(1);
-    curve.at(between, 1, exact);
+    curveAt(curve, between, 1, exact);
     expect(Array.from(read.subarray(0, 4))).toEqual(Array.from(exact.subarray(0, 4)));
     // Between samples 12 and 13, both assembled: the cubic, no call.
     curve.calls = 0;
-    sampled.at((2 * Math.PI * 12.5) / 36, 1, read);
+    curveAt(sampled, (2 * Math.PI * 12.5) / 36, 1, read);
     expect(curve.calls).toBe(0);
   });
 
@@ -103,7 +104,7 @@ describe('a curve read between its samples', () => {
     const sampled = new SampledCurve(36);
     const buf = new Float64Array(8);
     for (let j = 0; j < 36; j++) {
-      curve.at((2 * Math.PI * j) / 36, 1, buf);
+      curveAt(curve, (2 * Math.PI * j) / 36, 1, buf);
       const speedUp = j === 5 ? 10 : 1;
       sampled.samples.set([buf[0], buf[1], speedUp * buf[2], speedUp * buf[3]], 4 * j);
       sampled.valid[j] = 1;
@@ -111,9 +112,9 @@ describe('a curve read between its samples', () => {
     sampled.sampledFrom(curve);
     const read = new Float64Array(8);
     curve.calls = 0;
-    for (const at of [4.5, 5.5]) sampled.at((2 * Math.PI * at) / 36, 1, read);
+    for (const at of [4.5, 5.5]) curveAt(sampled, (2 * Math.PI * at) / 36, 1, read);
     expect(curve.calls).toBe(2);
-    for (const at of [3.5, 6.5]) sampled.at((2 * Math.PI * at) / 36, 1, read);
+    for (const at of [3.5, 6.5]) curveAt(sampled, (2 * Math.PI * at) / 36, 1, read);
     expect(curve.calls).toBe(2);
   });
 });

@@ -15,14 +15,15 @@ const TAU = 2 * Math.PI;
 function circle(r: number): CurveEvaluator {
   return {
     secondDerivatives: true,
-    at(t, _order, out) {
+    atIo(_order, out) {
+      const t = out[6];
       out[0] = r * Math.cos(t);
       out[1] = r * Math.sin(t);
       out[2] = -r * Math.sin(t);
       out[3] = r * Math.cos(t);
       out[4] = -r * Math.cos(t);
       out[5] = -r * Math.sin(t);
-      return 1;
+      out[7] = 1;
     },
   };
 }
@@ -89,9 +90,8 @@ describe('refineDriverValue', () => {
   it('stops on a curve that returns NaN', () => {
     const broken: CurveEvaluator = {
       secondDerivatives: false,
-      at(_t, _o, out) {
+      atIo(_o, out) {
         out.fill(NaN);
-        return NaN;
       },
     };
     const io = Float64Array.from([1, 0, 0, 0, TAU, 0.5]);

@@ -9,7 +9,14 @@
  */
 import { fourBar } from '../../linkage';
 import { validateLeg, type Leg } from '../../gait';
-import { CURVE_DX as CURVE_DX_BINDING, CURVE_DY as CURVE_DY_BINDING, CURVE_OUT_LENGTH, CURVE_X as CURVE_X_BINDING, CURVE_Y as CURVE_Y_BINDING } from '../curve';
+import {
+  CURVE_DX as CURVE_DX_BINDING,
+  CURVE_DY as CURVE_DY_BINDING,
+  CURVE_OUT_LENGTH,
+  CURVE_T as CURVE_T_BINDING,
+  CURVE_X as CURVE_X_BINDING,
+  CURVE_Y as CURVE_Y_BINDING,
+} from '../curve';
 import { EXTENT_COS, EXTENT_LENGTH, EXTENT_MAX_X, EXTENT_MAX_Y, EXTENT_MIN_X, EXTENT_MIN_Y, V_BOUNDS, V_SLOTS, targetFrame } from '../encoding';
 import type { LegProblem } from '../legProblem';
 import type { PoseFamilyId } from '../poseFamilies';
@@ -22,6 +29,7 @@ const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
 const CURVE_DX = CURVE_DX_BINDING;
 const CURVE_DY = CURVE_DY_BINDING;
+const CURVE_T = CURVE_T_BINDING;
 const TAU = 2 * Math.PI;
 const DEG_PER_RAD = 180 / Math.PI;
 
@@ -142,7 +150,8 @@ export function createLegResponse(problem: LegProblem, family: PoseFamilyId): Le
     let lowest = Infinity;
     let highest = -Infinity;
     for (let k = 0; k < n; k++) {
-      curve.at((dir * TAU * k) / n, 1, buf);
+      buf[CURVE_T] = (dir * TAU * k) / n;
+      curve.atIo(1, buf);
       const px = buf[CURVE_X] - o.x;
       const py = buf[CURVE_Y] - o.y;
       const h = px * leg.up.x + py * leg.up.y;

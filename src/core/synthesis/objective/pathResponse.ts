@@ -17,7 +17,9 @@ import {
 import {
   CURVE_DX as CURVE_DX_BINDING,
   CURVE_DY as CURVE_DY_BINDING,
+  CURVE_MARGIN as CURVE_MARGIN_BINDING,
   CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING,
+  CURVE_T as CURVE_T_BINDING,
   CURVE_X as CURVE_X_BINDING,
   CURVE_Y as CURVE_Y_BINDING,
   type CurveEvaluator,
@@ -62,6 +64,8 @@ const CURVE_X = CURVE_X_BINDING;
 const CURVE_Y = CURVE_Y_BINDING;
 const CURVE_DX = CURVE_DX_BINDING;
 const CURVE_DY = CURVE_DY_BINDING;
+const CURVE_T = CURVE_T_BINDING;
+const CURVE_MARGIN = CURVE_MARGIN_BINDING;
 const V_ASSEMBLY = V_ASSEMBLY_BINDING;
 const V_BOUNDS = V_BOUNDS_BINDING;
 const V_ORDER = V_ORDER_BINDING;
@@ -183,7 +187,9 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     const withRates = sampled.samples;
     let any = false;
     for (let j = 0; j < sampleCount; j++) {
-      const margin = curve.at(j * step, order, buf);
+      buf[CURVE_T] = j * step;
+      curve.atIo(order, buf);
+      const margin = buf[CURVE_MARGIN];
       samples[2 * j] = buf[CURVE_X];
       samples[2 * j + 1] = buf[CURVE_Y];
       const ok = margin >= 0 && Number.isFinite(buf[CURVE_X] + buf[CURVE_Y]);
@@ -369,7 +375,9 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     // Output points at the driver values; assembly at each.
     let assembly = 0;
     for (let i = 0; i < n; i++) {
-      const margin = curve.at(times[o + i], 0, buf);
+      buf[CURVE_T] = times[o + i];
+      curve.atIo(0, buf);
+      const margin = buf[CURVE_MARGIN];
       if (!(margin >= 0)) assembly += margin < 0 ? Math.min(1, -margin) : 1;
       points[2 * i] = buf[CURVE_X];
       points[2 * i + 1] = buf[CURVE_Y];
