@@ -11,7 +11,7 @@ import { FOUR_BAR_FIXED_NAMES, FOUR_BAR_FREE_NAMES } from './familyVariables';
 import { fourBar } from '../linkage';
 import { classifyFourBar } from '../linkage/analysis';
 import { crankViolationInto, inputTurnsFully } from './grashofTurn';
-import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, checkCurveIo, type CurveEvaluator } from './curve';
+import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, type CurveEvaluator } from './curve';
 import {
   V_BRANCH as V_BRANCH_BINDING,
   V_CRANK as V_CRANK_BINDING,
@@ -91,7 +91,6 @@ class ClosedFormCurve implements CurveEvaluator {
   readonly p = new Float64Array(FOUR_BAR_LENGTH_VARIABLES);
   sign = 1;
   atIo(order: 0 | 1 | 2, io: Float64Array): void {
-    checkCurveIo(io);
     // The coupler point's layout is the curve's (fourBarClosedForm.ts).
     fourBarCouplerPointIo(this.p, 0, this.sign, order, io);
   }

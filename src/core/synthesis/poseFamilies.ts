@@ -50,7 +50,6 @@ import {
   CURVE_T as CURVE_T_BINDING,
   CURVE_X as CURVE_X_BINDING,
   CURVE_Y as CURVE_Y_BINDING,
-  checkCurveIo as checkCurveIoBinding,
   type CurveEvaluator,
 } from './curve';
 import {
@@ -96,7 +95,6 @@ const SWEEP_CORRECTION_MAX_SHARE = SWEEP_CORRECTION_MAX_SHARE_BINDING;
 const runWithRates = runWithRatesBinding;
 const runSized = runSizedBinding;
 const poseRatesInto = poseRatesIntoBinding;
-const checkCurveIo = checkCurveIoBinding;
 
 const TAU = 2 * Math.PI;
 /** One turn from the reference pose, as the sweeps take a span (from, to). */
@@ -906,7 +904,6 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     return out[CURVE_MARGIN];
   }
   atIo(order: 0 | 1 | 2, out: Float64Array): void {
-    checkCurveIo(out);
     const t = out[CURVE_T];
     const plan = this.plan;
     const value = plan.driverReferenceValue + t;
