@@ -33,6 +33,12 @@ export const LENGTH_DRIVER_DEFAULT_SHARE = 0.1;
 /** Samples per turn of the search for the range a rotation driver assembles in: 0.5° apart. */
 const ASSEMBLY_SEARCH_STEPS_PER_TURN = 720;
 /**
+ * Turns the search for the assembly range follows a motion that does not come back to its
+ * first pose in one turn (a Newton block's assembly that goes on to another), to find
+ * where it locks: a single-degree-of-freedom loop's motion closes or locks within a few.
+ */
+const ASSEMBLY_SEARCH_MAX_TURNS = 4;
+/**
  * The default range stops this far (rad) inside an assembly limit: at the limit itself a
  * dyad is at its toggle and rates are infinite; 1e-7 rad inside they are large but finite.
  */
@@ -311,10 +317,23 @@ function assemblyRangeRad(plan: Plan, reference: number):
   | { readonly ok: true; readonly fullTurn: true }
   | { readonly ok: true; readonly fullTurn: false; readonly from: SweepDeadCentre; readonly to: SweepDeadCentre }
   | { readonly ok: false; readonly message: string } {
-  const forward = sweep(plan, { from: reference, to: reference + 2 * Math.PI, steps: ASSEMBLY_SEARCH_STEPS_PER_TURN + 1 });
+  const turns = (count: number, direction: number) =>
+    sweep(plan, { from: reference, to: reference + direction * count * 2 * Math.PI, steps: count * ASSEMBLY_SEARCH_STEPS_PER_TURN + 1 });
+  let forward = turns(1, 1);
   if (forward.assembled[0] !== 1) return { ok: false, message: 'the linkage does not assemble at its own reference driver value' };
   if (forward.fullTurn) return { ok: true, fullTurn: true };
-  const backward = sweep(plan, { from: reference, to: reference - 2 * Math.PI, steps: ASSEMBLY_SEARCH_STEPS_PER_TURN + 1 });
+  // Through a turn without locking, yet not back at its first pose: the motion goes on into
+  // a second turn that differs from the first, and may lock there (either way round).
+  const further = forward.locks.length === 0 && forward.assembled.every((f) => f === 1);
+  if (further) forward = turns(ASSEMBLY_SEARCH_MAX_TURNS, 1);
+  const backward = turns(further ? ASSEMBLY_SEARCH_MAX_TURNS : 1, -1);
+  if (further && forward.locks.length === 0 && backward.locks.length === 0) {
+    return {
+      ok: false,
+      message: 'the linkage turns on without locking, but its motion does not repeat each turn (it is not back at its first pose a turn on): ' +
+        'give the driver range to analyse',
+    };
+  }
   const to = firstLimit(forward, reference);
   const from = firstLimit(backward, reference);
   if (to === null || from === null) {

@@ -26,6 +26,7 @@ import { poseRatesInto, runBatch, runPrefix, runSized, runWithRates } from './ru
 import {
   DEAD_CENTRE_SIN_TOL,
   FULL_TURN_TOL_RAD,
+  MOTION_CLOSURE_REL_TOL,
   SWEEP_CORRECTION_FLOOR_REL,
   SWEEP_CORRECTION_MAX_SHARE,
   SWEEP_MAX_STEP_RAD,
@@ -80,7 +81,7 @@ export interface SweepResult {
    * / (rA rB)) reaches DEAD_CENTRE_SIN_TOL and the motion goes on (`change point`).
    */
   readonly deadCentres: SweepDeadCentre[];
-  /** A rotation driver turned through 2π without locking. */
+  /** A rotation driver turned through 2π without locking, back to its first pose (closesInOneTurn). */
   readonly fullTurn: boolean;
 }
 
@@ -343,6 +344,25 @@ function reacquire(t: Tracker, track: Track, v: number, near: Track | null): boo
   return true;
 }
 
+/**
+ * The pose a turn on from `from` is the pose at `from` (MOTION_CLOSURE_REL_TOL): the
+ * motion repeats each turn. Where a Newton block's assembly does not close in a turn, the
+ * driver's second turn follows another motion, which may lock: turning through one turn
+ * is then no proof that the driven link turns fully. False where no sample lies a turn
+ * on (FULL_TURN_TOL_RAD), since nothing then shows the motion closes.
+ */
+function closesInOneTurn(p: PlanInternal, values: Float64Array, poses: Float64Array, from: number, direction: number): boolean {
+  const steps = values.length;
+  if (steps < 2) return false;
+  const spacing = (values[steps - 1] - from) / (steps - 1);
+  const k = Math.round((direction * 2 * Math.PI) / spacing);
+  if (!(k > 0 && k < steps && Math.abs(values[k] - (from + direction * 2 * Math.PI)) <= FULL_TURN_TOL_RAD)) return false;
+  const stride = 2 * p.slotCount;
+  const tol = MOTION_CLOSURE_REL_TOL * p.lengthScaleMm;
+  for (let i = 0; i < stride; i++) if (!(Math.abs(poses[k * stride + i] - poses[i]) <= tol)) return false;
+  return true;
+}
+
 /** `work`, when given, has the sweep's work (plan operations run, see SweepWork) added to it. */
 export function sweep(plan: Plan, range: SweepRange, work?: SweepWork): SweepResult {
   const p = plan as PlanInternal;
@@ -499,7 +519,7 @@ export function sweep(plan: Plan, range: SweepRange, work?: SweepWork): SweepRes
   deadCentres.sort((a, b) => order(a.value, b.value));
 
   const fullTurn = !p.driverIsLength && Math.abs(to - from) >= 2 * Math.PI - FULL_TURN_TOL_RAD &&
-    locks.length === 0 && assembled.every((f) => f === 1);
+    locks.length === 0 && assembled.every((f) => f === 1) && closesInOneTurn(p, values, poses, from, direction);
   return { values, poses, rates, assembled, locks, deadCentres, fullTurn };
 }
 

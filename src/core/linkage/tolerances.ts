@@ -74,6 +74,15 @@ export const SWEEP_REFINE_MAX_STEPS = 60;
 export const FULL_TURN_TOL_RAD = 1e-9;
 
 /**
+ * A motion closes in one turn where its pose a turn on is its first pose within this
+ * share of the linkage's size (the driven link's length, or the length scale): two
+ * solutions of the same closure equations that near each other are one (the solver's
+ * tolerance is 1e-13 of the size); another assembly, a motion that closes only after two
+ * turns, is a macroscopic distance away.
+ */
+export const MOTION_CLOSURE_REL_TOL = 1e-7;
+
+/**
  * Largest driver step (rad) a sweep takes when it tracks a Newton block: a predictor
  * step of 5° keeps the start of each solve well inside its branch's basin.
  */

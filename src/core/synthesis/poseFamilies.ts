@@ -37,6 +37,7 @@ import { blockJacobianSign as blockJacobianSignBinding, newtonUnknownSlots } fro
 import type { PlanInternal } from '../linkage/plan';
 import {
   COINCIDENT_JOINT_TOL_MM as COINCIDENT_JOINT_TOL_MM_BINDING,
+  MOTION_CLOSURE_REL_TOL,
   SWEEP_CORRECTION_FLOOR_REL as SWEEP_CORRECTION_FLOOR_REL_BINDING,
   SWEEP_CORRECTION_MAX_SHARE as SWEEP_CORRECTION_MAX_SHARE_BINDING,
 } from '../linkage/tolerances';
@@ -159,13 +160,8 @@ const SOLVED_WRAP_AGREE = 0.25;
 const SAME_DRIVER_VALUE_RAD = 1e-14;
 /** sweepReachable halves a step that fails down to this (rad) before it calls the value unreachable. */
 const REACH_MIN_STEP_RAD = SOLVED_BIN_RAD / 1024;
-/**
- * A motion closes in one turn where its pose a turn on is its first pose within this
- * share of the crank: two solutions of the same closure equations that near each other
- * are one (the solver's tolerance is 1e-13 of the linkage's size); another assembly, a
- * motion that closes only after two turns, is a macroscopic distance away.
- */
-const CLOSURE_REL_TOL = 1e-7;
+/** A motion closes in one turn where its pose a turn on is its first pose within this share of the crank (tolerances.ts). */
+const CLOSURE_REL_TOL = MOTION_CLOSURE_REL_TOL;
 
 class PlanCurve implements CurveEvaluator, MarginCurve {
   readonly secondDerivatives = false;
