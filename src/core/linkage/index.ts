@@ -1,6 +1,7 @@
 /** The kinematics core: model, compile, run, sweep, families and analysis. */
 export * from './model';
 export type { Plan, PlanBody } from './plan';
+export { linkJointPairs } from './plan';
 export { compile, setReferencePose } from './compile';
 export type { CompileResult } from './compile';
 export { closureResidualMm, run, runWithRates } from './run';

@@ -70,6 +70,21 @@ export function equationRows(type: number): number {
   return type === EQ_RIGID || type === EQ_FIXED ? 2 : 1;
 }
 
+/**
+ * Pairs of slots (pose offsets) that are the ends of a link: every pair of joints of one
+ * moving body (the pairs a linkage file's reference pose is checked on, validate.ts),
+ * flat (i0, j0, i1, j1, …).
+ */
+export function linkJointPairs(plan: Plan): Int32Array {
+  const pairs: number[] = [];
+  const jointCount = plan.jointIds.length;
+  for (let b = 1; b < plan.bodies.length; b++) {
+    const slots = Array.from(plan.bodies[b].slots).filter((s) => s < jointCount);
+    for (let i = 0; i < slots.length; i++) for (let j = i + 1; j < slots.length; j++) pairs.push(2 * slots[i], 2 * slots[j]);
+  }
+  return Int32Array.from(pairs);
+}
+
 /** The kernel's view of a plan: the public fields plus its arrays and scratch. */
 export interface PlanInternal extends Plan {
   driverReferenceValue: number;

@@ -27,6 +27,7 @@
  */
 import {
   compile,
+  linkJointPairs,
   run as runBinding,
   runWithRates as runWithRatesBinding,
   setReferencePose,
@@ -928,17 +929,6 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   }
 }
 
-/** Pairs of slots (pose offsets) that are the ends of a link: every pair of joints of one moving body (the pairs a linkage file's reference pose is checked on, validate.ts). */
-function linkPairs(plan: Plan): Int32Array {
-  const pairs: number[] = [];
-  const jointCount = plan.jointIds.length;
-  for (let b = 1; b < plan.bodies.length; b++) {
-    const slots = Array.from(plan.bodies[b].slots).filter((s) => s < jointCount);
-    for (let i = 0; i < slots.length; i++) for (let j = i + 1; j < slots.length; j++) pairs.push(2 * slots[i], 2 * slots[j]);
-  }
-  return Int32Array.from(pairs);
-}
-
 export function createPoseFamily(family: PoseFamilyId, constraints: Constraints, frame: TargetFrame): MechanismEncoding {
   const source = BUILDERS[family]();
   const compiled = compile(source);
@@ -960,7 +950,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   const groundSlots = Int32Array.from(
     source.joints.filter((j) => j.ground === true).map((j) => 2 * (plan.slotIndex.get(j.id) ?? 0)),
   );
-  const links = linkPairs(plan);
+  const links = linkJointPairs(plan);
   /** The least distance between two joints of one body in the loaded design's reference pose (mm, before placement). */
   const closestJoints = new Float64Array(1);
   const loops: FourBarLoop[] = fourBarLoops(plan);

@@ -7,7 +7,7 @@
  * stroke, an axle that does not rise, a cog that overlaps the chainring, a pivot or a
  * moving link inside a keep-out circle. Allocates nothing per design.
  */
-import { compile, runWithRates, setReferencePose, type Plan } from '../../linkage';
+import { compile, linkJointPairs, runWithRates, setReferencePose, type Plan } from '../../linkage';
 import {
   AXLE_POINT,
   SHOCK_EYE,
@@ -79,17 +79,6 @@ function scoredCogs(problem: SuspensionProblem): number[] {
   const t = problem.targets;
   const wanted = new Set<number>([...(t.antiSquatAtSag?.cogs ?? []), ...(t.chainGrowthMm?.cogs ?? []), ...(t.kickbackDeg?.cogs ?? [])]);
   return problem.bicycle.cogTeeth.filter((z, i) => wanted.has(z) && problem.bicycle.cogTeeth.indexOf(z) === i);
-}
-
-/** The slots (pose offsets) of every pair of joints of each moving body: the links drawn as segments. */
-function linkSegments(plan: Plan): Int32Array {
-  const pairs: number[] = [];
-  const jointCount = plan.jointIds.length;
-  for (let b = 1; b < plan.bodies.length; b++) {
-    const slots = Array.from(plan.bodies[b].slots).filter((s) => s < jointCount);
-    for (let i = 0; i < slots.length; i++) for (let j = i + 1; j < slots.length; j++) pairs.push(2 * slots[i], 2 * slots[j]);
-  }
-  return Int32Array.from(pairs);
 }
 
 /** Normalised depth of point (px, py) inside circle c: (r − d) / r, 0 outside; 1 for NaN. */
@@ -167,7 +156,8 @@ export function createSuspensionResponse(problem: SuspensionProblem, kind: Layou
   const rate = new Float64Array(stride);
   const parts = new Float64Array(S_SLOTS);
   const keepOut = problem.keepOut;
-  const segments = linkSegments(plan);
+  // The links drawn as segments.
+  const segments = linkJointPairs(plan);
   const jointCount = plan.jointIds.length;
   const moving = new Uint8Array(jointCount);
   for (let b = 1; b < plan.bodies.length; b++) for (const s of plan.bodies[b].slots) if (s < jointCount) moving[s] = 1;
