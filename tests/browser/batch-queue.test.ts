@@ -13,12 +13,14 @@ import { expect, it } from 'vitest';
 import { describeBrowser, saveScreenshot, useBrowser } from './harness';
 
 const LONG_MS = 240_000;
+/** The project's checkpoints every 2 s instead of 10, which the jobs keep: the test waits less for one. */
+const CHECKPOINT_EVERY_S = '2';
 /**
- * A time-budget job long enough to take a checkpoint after its first (every 10 s of a running
- * search) and still be running when the page reloads: before that reload the test opens a
- * second page of the app, which on a loaded machine can take many seconds of the job's time.
+ * A time-budget job long enough to take a checkpoint after its first and still be running
+ * when the page reloads: before that reload the test opens a second page of the app, which
+ * on a loaded machine can take many seconds of the job's time.
  */
-const TIMED_JOB_S = '40';
+const TIMED_JOB_S = '30';
 
 describeBrowser('batch queue', () => {
   const browser = useBrowser();
@@ -50,6 +52,10 @@ describeBrowser('batch queue', () => {
     await page.getByTestId('project-name').waitFor({ timeout: 30_000 });
     await expect.poll(() => queue(page).getAttribute('data-owner'), { timeout: 30_000 }).toBe('self');
     const form = queue(page).getByRole('form', { name: 'Add a job' });
+    const every = page.getByLabel('Checkpoint every', { exact: true });
+    await every.fill(CHECKPOINT_EVERY_S);
+    await every.press('Enter');
+    await expect.poll(() => every.inputValue()).toBe(CHECKPOINT_EVERY_S);
 
     // A budget out of range is refused beside its field, not clamped: nothing is added.
     await form.getByLabel('Job name').fill('too-small');
@@ -102,7 +108,7 @@ describeBrowser('batch queue', () => {
     await other.close();
 
     // Reload mid-job, once the time-budget job has a checkpoint: it goes on from it.
-    // A run checkpoints as it starts (round 0) and then every 10 s: wait for one after some rounds.
+    // A run checkpoints as it starts (round 0) and then every 2 s here: wait for one after some rounds.
     const checkpoint = job(page, 'night-b').getByTestId('job-checkpoint');
     await expect.poll(async () => Number((await checkpoint.count()) > 0 ? await checkpoint.textContent() : 0), { timeout: LONG_MS, interval: 250 }).toBeGreaterThan(0);
     const savedRound = Number(await checkpoint.textContent());
