@@ -5,9 +5,11 @@
  * for exact rates. Everything works in the plan's preallocated scratch.
  */
 import type { EQ_DIST, EQ_RIGID, EQ_SLIDER_BODY, EQ_SLIDER_GROUND, EQ_STRIDE, Plan, PlanInternal } from './plan';
+import { determinantSignInPlace as determinantSignInPlaceImport, pivotRow as pivotRowImport } from './determinantSign';
 import * as tolerances from './tolerances';
 import {
   solveTriad as solveTriadImport,
+  triadJacobianSign as triadJacobianSignImport,
   triadLayout,
   triadRates as triadRatesImport,
   type TRIAD_NO_START,
@@ -23,6 +25,9 @@ const SLIDER_GROUND = 2 satisfies typeof EQ_SLIDER_GROUND;
 const SLIDER_BODY = 3 satisfies typeof EQ_SLIDER_BODY;
 const solveTriad = solveTriadImport;
 const triadRates = triadRatesImport;
+const triadJacobianSign = triadJacobianSignImport;
+const determinantSignInPlace = determinantSignInPlaceImport;
+const pivotRow = pivotRowImport;
 const NO_START = -1 satisfies typeof TRIAD_NO_START;
 const SOLVED = 1 satisfies typeof TRIAD_SOLVED;
 const NEWTON_MAX_ITERATIONS = tolerances.NEWTON_MAX_ITERATIONS;
@@ -143,16 +148,8 @@ export function solveLinearInPlace(a: Float64Array, n: number, b: Float64Array, 
   if (!(largest > 0 && largest < Infinity)) return false;
   const tol = pivotRelTol * largest;
   for (let k = 0; k < n; k++) {
-    let p = k;
-    let best = Math.abs(a[k * n + k]);
-    for (let i = k + 1; i < n; i++) {
-      const v = Math.abs(a[i * n + k]);
-      if (v > best) {
-        best = v;
-        p = i;
-      }
-    }
-    if (!(best > tol)) return false;
+    const p = pivotRow(a, n, k);
+    if (!(Math.abs(a[p * n + k]) > tol)) return false;
     if (p !== k) {
       for (let j = k; j < n; j++) {
         const t = a[k * n + j];
@@ -319,46 +316,18 @@ export function blockRates(p: PlanInternal, block: number, pose: Float64Array, r
 }
 
 /**
- * Sign of det(J) of block `block` at pose (+1 or −1): which assembly branch of the block
- * the pose is on, since det(J) changes sign only where J is singular, at a fold of the
- * assembly where two branches meet. 0 when J is singular (a pivot below
- * SINGULAR_PIVOT_REL_TOL of its largest entry) or not finite. Works in the plan's scratch.
+ * Sign of det(J) of block `block` at pose (+1 or −1), times a factor fixed for the plan
+ * (±1; see triadJacobianSign): which assembly branch of the block the pose is on, since
+ * det(J) changes sign only where J is singular, at a fold of the assembly where two
+ * branches meet. Meant for comparison with the sign at another pose of the same plan
+ * (the reference pose's), which the factor does not change. 0 when J is singular (a pivot
+ * below SINGULAR_PIVOT_REL_TOL of its largest entry) or not finite. Works in the plan's
+ * scratch.
  */
 export function blockJacobianSign(p: PlanInternal, block: number, pose: Float64Array): number {
+  const triad = triadsOf(p)[block];
+  if (triad !== null) return triadJacobianSign(p, triad, pose, SINGULAR_PIVOT_REL_TOL);
   const n = 2 * p.blockUnknownCount[block];
   blockResidual(p, block, pose, true, null);
-  const a = p.jacobian;
-  let largest = 0;
-  for (let i = 0; i < n * n; i++) largest = Math.max(largest, Math.abs(a[i]));
-  if (!(largest > 0 && largest < Infinity)) return 0;
-  const tol = SINGULAR_PIVOT_REL_TOL * largest;
-  let sign = 1;
-  for (let k = 0; k < n; k++) {
-    let q = k;
-    let best = Math.abs(a[k * n + k]);
-    for (let i = k + 1; i < n; i++) {
-      const v = Math.abs(a[i * n + k]);
-      if (v > best) {
-        best = v;
-        q = i;
-      }
-    }
-    if (!(best > tol)) return 0;
-    if (q !== k) {
-      sign = -sign;
-      for (let j = k; j < n; j++) {
-        const t = a[k * n + j];
-        a[k * n + j] = a[q * n + j];
-        a[q * n + j] = t;
-      }
-    }
-    const pivot = a[k * n + k];
-    if (pivot < 0) sign = -sign;
-    const inv = 1 / pivot;
-    for (let i = k + 1; i < n; i++) {
-      const f = a[i * n + k] * inv;
-      if (f !== 0) for (let j = k + 1; j < n; j++) a[i * n + j] -= f * a[k * n + j];
-    }
-  }
-  return sign;
+  return determinantSignInPlace(p.jacobian, n, SINGULAR_PIVOT_REL_TOL);
 }

@@ -21,12 +21,14 @@
  * Assur, 1914: the triad as a structural group of a planar linkage.
  */
 import { circleCircleIntersectInto as circleCircleImport } from '../geometry/intersect';
+import { determinantSignInPlace as determinantSignInPlaceImport } from './determinantSign';
 import type { EQ_DIST, EQ_RIGID, EQ_STRIDE, PlanInternal } from './plan';
 import * as tolerances from './tolerances';
 
 // Imports bound to locals, literals checked against plan.ts by `satisfies`, and
 // tolerances read once: see the note in run.ts on dev-time module transforms.
 const circleCircleIntersectInto = circleCircleImport;
+const determinantSignInPlace = determinantSignInPlaceImport;
 const STRIDE = 5 satisfies typeof EQ_STRIDE;
 const DIST = 0 satisfies typeof EQ_DIST;
 const RIGID = 1 satisfies typeof EQ_RIGID;
@@ -329,6 +331,59 @@ function choosePair(t: Int32Array, pose: Float64Array): number {
   l = l12 * e1;
   if (n * den > num * l) pair = 5;
   return pair;
+}
+
+/**
+ * blockJacobianSign for a triad (+1 or −1; 0 where singular), times a factor fixed for the
+ * plan: the link's two equations set X3 from X1 and X2 with an identity block in X3's
+ * columns, so by block elimination det J is, up to the fixed sign of the plan's row and
+ * column order, the determinant of the 4 × 4 system in X1 and X2 left (the equations of
+ * X1's and X2's links and of their span; X3's link's gradient g3 carried through
+ * X3 = X1 + R (X2 − X1), R = [[u, −v], [v, u]], as g3ᵀ(I − R) and g3ᵀR). A comparison with
+ * the reference pose's sign, taken the same way, cancels the factor. A sixth of the 6 × 6
+ * elimination's work, with no equations evaluated. Same pivot test: a pivot below
+ * `pivotRelTol` of the largest entry is singular. Works in the plan's scratch.
+ */
+export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64Array, pivotRelTol: number): number {
+  const a = p.jacobian;
+  const prm = p.params;
+  const x0 = t[0];
+  const x1 = t[1];
+  const x2 = t[2];
+  const k0 = t[F_CENTRE];
+  const k1 = t[F_CENTRE + 1];
+  const k2 = t[F_CENTRE + 2];
+  const r0 = prm[t[F_RADIUS]];
+  const r1 = prm[t[F_RADIUS + 1]];
+  const r2 = prm[t[F_RADIUS + 2]];
+  const span = prm[t[F_SPAN]];
+  const u = prm[t[F_RIGID]];
+  const v = prm[t[F_RIGID] + 1];
+  const g0x = (pose[x0] - pose[k0]) / r0;
+  const g0y = (pose[x0 + 1] - pose[k0 + 1]) / r0;
+  const g1x = (pose[x1] - pose[k1]) / r1;
+  const g1y = (pose[x1 + 1] - pose[k1 + 1]) / r1;
+  const g2x = (pose[x2] - pose[k2]) / r2;
+  const g2y = (pose[x2 + 1] - pose[k2 + 1]) / r2;
+  const sx = (pose[x0] - pose[x1]) / span;
+  const sy = (pose[x0 + 1] - pose[x1 + 1]) / span;
+  a[0] = g0x;
+  a[1] = g0y;
+  a[2] = 0;
+  a[3] = 0;
+  a[4] = 0;
+  a[5] = 0;
+  a[6] = g1x;
+  a[7] = g1y;
+  a[8] = sx;
+  a[9] = sy;
+  a[10] = -sx;
+  a[11] = -sy;
+  a[12] = g2x * (1 - u) - g2y * v;
+  a[13] = g2x * v + g2y * (1 - u);
+  a[14] = g2x * u + g2y * v;
+  a[15] = g2y * u - g2x * v;
+  return determinantSignInPlace(a, 4, pivotRelTol);
 }
 
 /**
