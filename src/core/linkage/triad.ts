@@ -339,10 +339,10 @@ function choosePair(t: Int32Array, pose: Float64Array): number {
  * columns, so by block elimination det J is, up to the fixed sign of the plan's row and
  * column order, the determinant of the 4 × 4 system in X1 and X2 left (the equations of
  * X1's and X2's links and of their span; X3's link's gradient g3 carried through
- * X3 = X1 + R (X2 − X1), R = [[u, −v], [v, u]], as g3ᵀ(I − R) and g3ᵀR). A comparison with
- * the reference pose's sign, taken the same way, cancels the factor. A sixth of the 6 × 6
- * elimination's work, with no equations evaluated. Same pivot test: a pivot below
- * `pivotRelTol` of the largest entry is singular. Works in the plan's scratch.
+ * X3 = X1 + R (X2 − X1), R = [[u, −v], [v, u]], as g3ᵀ(I − R) and g3ᵀR). A comparison
+ * with the reference pose's sign, taken the same way, cancels the factor. Under a third
+ * of the 6 × 6 elimination's work, with no equations evaluated. Same pivot test: a pivot
+ * below `pivotRelTol` of the largest entry is singular. Works in the plan's scratch.
  */
 export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64Array, pivotRelTol: number): number {
   const a = p.jacobian;
