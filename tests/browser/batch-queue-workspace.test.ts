@@ -23,6 +23,10 @@ describeBrowser('batch queue with a rear-suspension job', () => {
     await expect.poll(() => queue(page).getAttribute('data-owner'), { timeout: 30_000 }).toBe('self');
 
     await page.getByRole('button', { name: 'Rear suspension demo' }).click();
+    // The workspace set up and its search ready (as the other suspension tests wait) before its queue form is opened.
+    await page.getByTestId('suspension-workspace').waitFor({ timeout: 30_000 });
+    const start = page.getByTestId('suspension-search').getByRole('button', { name: 'Start search' });
+    await expect.poll(() => start.isEnabled(), { timeout: 30_000 }).toBe(true);
     await page.getByTestId('add-to-queue-open').click();
     const form = page.getByRole('form', { name: 'Add this problem to the queue' });
     await form.getByLabel('Job name').fill('susp-night');
