@@ -19,7 +19,8 @@ import { createObjective, createProblem, type FamilyId } from '../../../src/core
  * assembly, 6 (Stephenson II) and 4 (III) of these disagreed on the closed path; on the
  * open one, before a gap's ends were the values reached, a collapsed placement counted
  * and the report drew the curve's own pose, 7 and 9 (on 3,000 designs, 3 and 2 still do:
- * see the closing note of issue 13).
+ * a narrow lock the analysis finds from the drawn pose and not from the reference, or a
+ * motion of more than a turn; README, accuracy table).
  */
 const DESIGNS = 400;
 
