@@ -2,8 +2,8 @@
  * The sign of a square matrix's determinant by Gaussian elimination with partial
  * pivoting: +1 or −1, 0 where a pivot falls below `pivotRelTol` of the largest entry (the
  * matrix is singular to that tolerance) or an entry is not finite. `a` is n × n, row-major,
- * and is destroyed. For a block's Jacobian (newton.ts) and a triad's reduced one (triad.ts);
- * the linear solve of newton.ts pivots by the same rule (pivotRow).
+ * and is destroyed. For a block's Jacobian (newton.ts), whose linear solve pivots by the
+ * same rule (pivotRow).
  */
 export function determinantSignInPlace(a: Float64Array, n: number, pivotRelTol: number): number {
   let largest = 0;

@@ -21,14 +21,12 @@
  * Assur, 1914: the triad as a structural group of a planar linkage.
  */
 import { circleCircleIntersectInto as circleCircleImport } from '../geometry/intersect';
-import { determinantSignInPlace as determinantSignInPlaceImport } from './determinantSign';
 import type { EQ_DIST, EQ_RIGID, EQ_STRIDE, PlanInternal } from './plan';
 import * as tolerances from './tolerances';
 
 // Imports bound to locals, literals checked against plan.ts by `satisfies`, and
 // tolerances read once: see the note in run.ts on dev-time module transforms.
 const circleCircleIntersectInto = circleCircleImport;
-const determinantSignInPlace = determinantSignInPlaceImport;
 const STRIDE = 5 satisfies typeof EQ_STRIDE;
 const DIST = 0 satisfies typeof EQ_DIST;
 const RIGID = 1 satisfies typeof EQ_RIGID;
@@ -335,17 +333,20 @@ function choosePair(t: Int32Array, pose: Float64Array): number {
 
 /**
  * blockJacobianSign for a triad (+1 or −1; 0 where singular), times a factor fixed for the
- * plan: the link's two equations set X3 from X1 and X2 with an identity block in X3's
+ * plan. The link's two equations set X3 from X1 and X2 with an identity block in X3's
  * columns, so by block elimination det J is, up to the fixed sign of the plan's row and
- * column order, the determinant of the 4 × 4 system in X1 and X2 left (the equations of
- * X1's and X2's links and of their span; X3's link's gradient g3 carried through
- * X3 = X1 + R (X2 − X1), R = [[u, −v], [v, u]], as g3ᵀ(I − R) and g3ᵀR). A comparison
- * with the reference pose's sign, taken the same way, cancels the factor. Under a third
- * of the 6 × 6 elimination's work, with no equations evaluated. Same pivot test: a pivot
- * below `pivotRelTol` of the largest entry is singular. Works in the plan's scratch.
+ * column order, the determinant of the 4 × 4 system in X1 and X2 left: the rows
+ * a = X1 − K1 (in X1's columns), c = X2 − K2 (in X2's), (s, −s) with s = X1 − X2, and
+ * X3's link's gradient g3 = X3 − K3 carried through X3 = X1 + R (X2 − X1),
+ * R = [[u, −v], [v, u]], as (g3ᵀ(I − R), g3ᵀR); each row over its length, a positive
+ * factor. The first three rows' cofactor vector is −n, n = ((c × s) a⊥, (a × s) c⊥)
+ * (it is orthogonal to the three rows, and det of the three rows with n is −|n|²), so
+ * det = −(g3ᵀ(I − R) n₁ + g3ᵀR n₂): the rate of X3's equation along the one motion the
+ * other three allow, no elimination. A comparison with the reference pose's sign, taken
+ * the same way, cancels the factor. Singular where |det| is within `pivotRelTol` of the
+ * fourth power of the rows' largest entry (the scale of a 4 × 4 determinant of them).
  */
 export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64Array, pivotRelTol: number): number {
-  const a = p.jacobian;
   const prm = p.params;
   const x0 = t[0];
   const x1 = t[1];
@@ -353,37 +354,32 @@ export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64A
   const k0 = t[F_CENTRE];
   const k1 = t[F_CENTRE + 1];
   const k2 = t[F_CENTRE + 2];
-  const r0 = prm[t[F_RADIUS]];
-  const r1 = prm[t[F_RADIUS + 1]];
-  const r2 = prm[t[F_RADIUS + 2]];
-  const span = prm[t[F_SPAN]];
   const u = prm[t[F_RIGID]];
   const v = prm[t[F_RIGID] + 1];
-  const g0x = (pose[x0] - pose[k0]) / r0;
-  const g0y = (pose[x0 + 1] - pose[k0 + 1]) / r0;
-  const g1x = (pose[x1] - pose[k1]) / r1;
-  const g1y = (pose[x1 + 1] - pose[k1 + 1]) / r1;
-  const g2x = (pose[x2] - pose[k2]) / r2;
-  const g2y = (pose[x2 + 1] - pose[k2 + 1]) / r2;
+  const ax = (pose[x0] - pose[k0]) / prm[t[F_RADIUS]];
+  const ay = (pose[x0 + 1] - pose[k0 + 1]) / prm[t[F_RADIUS]];
+  const cx = (pose[x1] - pose[k1]) / prm[t[F_RADIUS + 1]];
+  const cy = (pose[x1 + 1] - pose[k1 + 1]) / prm[t[F_RADIUS + 1]];
+  const gx = (pose[x2] - pose[k2]) / prm[t[F_RADIUS + 2]];
+  const gy = (pose[x2 + 1] - pose[k2 + 1]) / prm[t[F_RADIUS + 2]];
+  const span = prm[t[F_SPAN]];
   const sx = (pose[x0] - pose[x1]) / span;
   const sy = (pose[x0 + 1] - pose[x1 + 1]) / span;
-  a[0] = g0x;
-  a[1] = g0y;
-  a[2] = 0;
-  a[3] = 0;
-  a[4] = 0;
-  a[5] = 0;
-  a[6] = g1x;
-  a[7] = g1y;
-  a[8] = sx;
-  a[9] = sy;
-  a[10] = -sx;
-  a[11] = -sy;
-  a[12] = g2x * (1 - u) - g2y * v;
-  a[13] = g2x * v + g2y * (1 - u);
-  a[14] = g2x * u + g2y * v;
-  a[15] = g2y * u - g2x * v;
-  return determinantSignInPlace(a, 4, pivotRelTol);
+  // The fourth row: g3ᵀ(I − R) in X1's columns, g3ᵀR in X2's.
+  const d1x = gx * (1 - u) - gy * v;
+  const d1y = gx * v + gy * (1 - u);
+  const d2x = gx * u + gy * v;
+  const d2y = gy * u - gx * v;
+  // n₁ = (c × s) a⊥ and n₂ = (a × s) c⊥, a⊥ = (−a_y, a_x).
+  const cs = cx * sy - cy * sx;
+  const as = ax * sy - ay * sx;
+  const det = -(cs * (ay * -d1x + ax * d1y) + as * (cy * -d2x + cx * d2y));
+  let largest = Math.abs(ax);
+  largest = Math.max(largest, Math.abs(ay), Math.abs(cx), Math.abs(cy), Math.abs(sx), Math.abs(sy));
+  largest = Math.max(largest, Math.abs(d1x), Math.abs(d1y), Math.abs(d2x), Math.abs(d2y));
+  const square = largest * largest;
+  if (!(Math.abs(det) > pivotRelTol * square * square)) return 0;
+  return det > 0 ? 1 : -1;
 }
 
 /**
