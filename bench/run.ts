@@ -9,6 +9,7 @@
 import { performance } from 'node:perf_hooks';
 import { benchAnalyzeChain } from './analyzeChain';
 import { benchFamilies } from './families';
+import { benchFamilyRates } from './familyRates';
 import { benchKernel } from './kernel';
 import { benchMatching } from './matching';
 import { benchReach, benchReachQuick } from './reach';
@@ -37,6 +38,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'analyze-chain', run: benchAnalyzeChain },
   { name: 'matching', run: benchMatching },
   { name: 'families', run: benchFamilies },
+  { name: 'family-rates', run: benchFamilyRates },
   { name: 'reach', run: benchReach, onlyByName: true },
   { name: 'reach-quick', run: benchReachQuick },
   { name: 'soak', run: benchSoak, onlyByName: true },
