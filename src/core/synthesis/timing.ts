@@ -380,26 +380,43 @@ function boundedPass(
       let least = Infinity;
       let leastAt = from;
       let j = from < split ? first + from : from - split;
-      for (let u = from; u < to; u++, j++) {
-        if (!before) {
+      // Two loops, not one test per cell: a run the row before skipped holds no sums to read.
+      if (before) {
+        for (let u = from; u < to; u++, j++) {
+          arg[row + u] = bestU;
+          let c = Infinity;
+          if (valid[j] !== 0) {
+            const dx = samples[2 * j] - qx;
+            const dy = samples[2 * j + 1] - qy;
+            c = w * (dx * dx + dy * dy);
+          }
+          const v = best + c;
+          sums[u] = v;
+          if (v < least) {
+            least = v;
+            leastAt = u;
+          }
+        }
+      } else {
+        for (let u = from; u < to; u++, j++) {
           const here = sums[u];
           if (here < best) {
             best = here;
             bestU = u;
           }
-        }
-        arg[row + u] = bestU;
-        let c = Infinity;
-        if (valid[j] !== 0) {
-          const dx = samples[2 * j] - qx;
-          const dy = samples[2 * j + 1] - qy;
-          c = w * (dx * dx + dy * dy);
-        }
-        const v = best + c;
-        sums[u] = v;
-        if (v < least) {
-          least = v;
-          leastAt = u;
+          arg[row + u] = bestU;
+          let c = Infinity;
+          if (valid[j] !== 0) {
+            const dx = samples[2 * j] - qx;
+            const dy = samples[2 * j + 1] - qy;
+            c = w * (dx * dx + dy * dy);
+          }
+          const v = best + c;
+          sums[u] = v;
+          if (v < least) {
+            least = v;
+            leastAt = u;
+          }
         }
       }
       runLeast[q] = least;
