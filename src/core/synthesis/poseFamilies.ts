@@ -464,15 +464,19 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       // every joint (the driven link's too), so a block's joint momentarily at rest still
       // has a step of the linkage's size to be compared with.
       const expected = this.expected;
-      let motion = 0;
+      // The largest square, then its root: the root of the largest is the largest root
+      // (a correctly rounded root is monotone), at one root instead of one per joint.
+      let largest = 0;
       for (let i = 0; i < pose.length; i += 2) {
         const mx = rates[i] * dt;
         const my = rates[i + 1] * dt;
         expected[i] = pose[i] + mx;
         expected[i + 1] = pose[i + 1] + my;
-        if (Number.isFinite(mx) && Number.isFinite(my)) motion = Math.max(motion, Math.sqrt(mx * mx + my * my));
+        // x − x is 0 for a finite x, NaN otherwise: Number.isFinite without the call.
+        const square = mx * mx + my * my;
+        if (mx - mx === 0 && my - my === 0 && square > largest) largest = square;
       }
-      this.expectedMotion = motion;
+      this.expectedMotion = Math.sqrt(largest);
     }
     for (let k = 0; k < 2 * unknowns.length; k++) {
       const i = unknowns[k >> 1] + (k & 1);
@@ -824,13 +828,14 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const expected = this.expected;
     const stride = expected.length;
     const oLo = lo * stride;
-    let motion = 0;
+    // The largest square, then its root (as in predict).
+    let largest = 0;
     if (hi !== lo) {
       const oHi = hi * stride;
       for (let i = 0; i < stride; i += 2) {
         const dx = poses[oHi + i] - poses[oLo + i];
         const dy = poses[oHi + i + 1] - poses[oLo + i + 1];
-        motion = Math.max(motion, Math.sqrt(dx * dx + dy * dy));
+        largest = Math.max(largest, dx * dx + dy * dy);
       }
       expected.set(this.begin);
     } else {
@@ -842,10 +847,11 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
         const my = rates[oLo + i + 1] * du;
         expected[i] = poses[oLo + i] + mx;
         expected[i + 1] = poses[oLo + i + 1] + my;
-        if (Number.isFinite(mx) && Number.isFinite(my)) motion = Math.max(motion, Math.sqrt(mx * mx + my * my));
+        const square = mx * mx + my * my;
+        if (mx - mx === 0 && my - my === 0 && square > largest) largest = square;
       }
     }
-    this.expectedMotion = motion;
+    this.expectedMotion = Math.sqrt(largest);
   }
 
   /** No Newton block's joint moves faster than `fastest` (mm per radian) by the rates kept in bin a. */
