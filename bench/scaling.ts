@@ -1,8 +1,10 @@
 /**
  * Engine scaling, in one run: evaluations per second of the engine at 1 and 2 workers on
  * the three published four-bar problems (tests/reference/problems), beside the machine's
- * own two-thread ratio for plain arithmetic; then 16 islands on 16 workers against the
- * same 16 islands on 2 workers, both on this machine's cores.
+ * own two-thread ratios for plain arithmetic and for each problem's objective alone in
+ * bare threads (plainThreads.ts: the most two workers of that problem can give here);
+ * then 16 islands on 16 workers against the same 16 islands on 2 workers, both on this
+ * machine's cores.
  *
  * Each engine run is the synthesis bench's search (4 islands of the hybrid optimizer)
  * over 800,000 evaluations, deterministic (same seed and budget at every worker
@@ -13,7 +15,7 @@
  * other worker at 2 workers and an idle core at 1) and the final description fall
  * outside; the same figures from the first slice on (`…FromFirstSlice`) show what the
  * warm-up costs. Worker counts are interleaved over rounds and each keeps its best rate, as is
- * the plain-arithmetic control's. Beside each rate, where the time went: the share of the
+ * the controls'. Beside each rate, where the time went: the share of the
  * window each worker's event loop was busy (the rest it waited for a message), the
  * main thread's, messages per million evaluations, and CPU milliseconds per million
  * evaluations of the main thread and of the other threads (the workers; equal at 1 and
@@ -39,9 +41,11 @@ import { availableParallelism, loadavg } from 'node:os';
 import { performance, type EventLoopUtilization } from 'node:perf_hooks';
 import { createRun, type RunInput } from '../src/engine';
 import { nodeEnvironment, spawnNodeSearchWorker, type NodeWorkerHandle } from '../src/engine/node';
-import { spin } from './plainThreads';
+import { objectiveThreads, spin } from './plainThreads';
 
 const CASES = ['line6-untimed', 'timed5', 'closed18-untimed'] as const;
+/** The published problems' family. */
+const FAMILY = 'fourbar-lengths';
 const ISLANDS = 4;
 const EVALUATIONS = 800_000;
 /** Share of the budget done before the steady window opens: each worker's JIT warm-up runs past the first slice. */
@@ -64,7 +68,7 @@ function problemFile(caseId: string): unknown {
 
 function spec(caseId: string, islands: number, evaluations: number): RunInput {
   return {
-    jobs: [{ id: caseId, objective: { kind: 'synthesis', problem: problemFile(caseId), family: 'fourbar-lengths' }, seed: 1, islands, optimizer: { kind: 'hybrid' } }],
+    jobs: [{ id: caseId, objective: { kind: 'synthesis', problem: problemFile(caseId), family: FAMILY }, seed: 1, islands, optimizer: { kind: 'hybrid' } }],
     budget: { evaluations },
     deterministic: true,
   };
@@ -231,10 +235,14 @@ export async function benchScaling(): Promise<Row[]> {
   const timed = new Map<string, { one: Measured | null; two: Measured | null }>(CASES.map((c) => [c, { one: null, two: null }]));
   let spinOne = 0;
   let spinTwo = 0;
+  const objectiveControl = new Map(CASES.map((c) => [c, { one: 0, two: 0 }]));
   for (let round = 0; round < ROUNDS; round++) {
     spinOne = Math.max(spinOne, await spin(1));
     spinTwo = Math.max(spinTwo, await spin(2));
     for (const caseId of CASES) {
+      const bare = objectiveControl.get(caseId) as { one: number; two: number };
+      bare.one = Math.max(bare.one, await objectiveThreads(1, problemFile(caseId), FAMILY));
+      bare.two = Math.max(bare.two, await objectiveThreads(2, problemFile(caseId), FAMILY));
       const entry = best.get(caseId) as { one: Windows | null; two: Windows | null };
       for (const workers of [1, 2] as const) {
         const m = await measure(spec(caseId, ISLANDS, EVALUATIONS), workers);
@@ -266,12 +274,17 @@ export async function benchScaling(): Promise<Row[]> {
     const ratioFromFirstSlice = windows.two.fromFirstSlice.evalsPerS / windows.one.fromFirstSlice.evalsPerS;
     const byTime = timed.get(caseId) as { one: Measured; two: Measured };
     const timedRatio = byTime.two.evalsPerS / byTime.one.evalsPerS;
+    const bare = objectiveControl.get(caseId) as { one: number; two: number };
+    const objectiveRatio = bare.two / bare.one;
     rows.push({
       case: caseId,
       evalsPerS1Worker: one.evalsPerS,
       evalsPerS2Workers: two.evalsPerS,
       twoOverOneWorkerRatio: ratio,
       ratioOverControlRatio: ratio / control,
+      objectiveControlEvalsPerS1Thread: bare.one,
+      objectiveControlTwoOverOneThreadRatio: objectiveRatio,
+      ratioOverObjectiveControlRatio: ratio / objectiveRatio,
       workerBusyShare1Worker: one.workerBusyShare,
       workerBusyShare2Workers: two.workerBusyShare,
       mainBusyShare2Workers: two.mainBusyShare,
@@ -289,6 +302,7 @@ export async function benchScaling(): Promise<Row[]> {
       evalsPerS2WorkersTimeBudget: byTime.two.evalsPerS,
       twoOverOneWorkerRatioTimeBudget: timedRatio,
       ratioOverControlRatioTimeBudget: timedRatio / control,
+      ratioOverObjectiveControlRatioTimeBudget: timedRatio / objectiveRatio,
       workerBusyShare2WorkersTimeBudget: byTime.two.workerBusyShare,
       workerCpuMsPerMillionEvals1WorkerTimeBudget: byTime.one.otherCpuMsPerMillionEvals,
       workerCpuMsPerMillionEvals2WorkersTimeBudget: byTime.two.otherCpuMsPerMillionEvals,
