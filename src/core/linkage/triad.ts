@@ -338,8 +338,8 @@ function choosePair(t: Int32Array, pose: Float64Array): number {
  * column order, the determinant of the 4 × 4 system in X1 and X2 left: the rows
  * a = X1 − K1 (in X1's columns), c = X2 − K2 (in X2's), (s, −s) with s = X1 − X2, and
  * X3's link's gradient g3 = X3 − K3 carried through X3 = X1 + R (X2 − X1),
- * R = [[u, −v], [v, u]], as (g3ᵀ(I − R), g3ᵀR); each row over its length, a positive
- * factor. The first three rows' cofactor vector is −n, n = ((c × s) a⊥, (a × s) c⊥)
+ * R = [[u, −v], [v, u]], as (g3ᵀ(I − R), g3ᵀR); each row over its link's length (r1,
+ * r2, |X1 X2|, r3), a positive factor. The first three rows' cofactor vector is −n, n = ((c × s) a⊥, (a × s) c⊥)
  * (it is orthogonal to the three rows, and det of the three rows with n is −|n|²), so
  * det = −(g3ᵀ(I − R) n₁ + g3ᵀR n₂): the rate of X3's equation along the one motion the
  * other three allow, no elimination. A comparison with the reference pose's sign, taken
@@ -374,9 +374,10 @@ export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64A
   const cs = cx * sy - cy * sx;
   const as = ax * sy - ay * sx;
   const det = -(cs * (ay * -d1x + ax * d1y) + as * (cy * -d2x + cx * d2y));
-  let largest = Math.abs(ax);
-  largest = Math.max(largest, Math.abs(ay), Math.abs(cx), Math.abs(cy), Math.abs(sx), Math.abs(sy));
-  largest = Math.max(largest, Math.abs(d1x), Math.abs(d1y), Math.abs(d2x), Math.abs(d2y));
+  const largest = Math.max(
+    Math.abs(ax), Math.abs(ay), Math.abs(cx), Math.abs(cy), Math.abs(sx), Math.abs(sy),
+    Math.abs(d1x), Math.abs(d1y), Math.abs(d2x), Math.abs(d2y),
+  );
   const square = largest * largest;
   if (!(Math.abs(det) > pivotRelTol * square * square)) return 0;
   return det > 0 ? 1 : -1;
