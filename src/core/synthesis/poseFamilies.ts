@@ -221,8 +221,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   private gapFrom = NaN;
   private gapTo = NaN;
-  /** The last value `reach` solved on its way. */
+  /** The last value `reach` solved on its way, and its pose and rates there. */
   private reached = NaN;
+  private readonly reachedPose: Float64Array;
+  private readonly reachedRates: Float64Array;
   /** A continuation (reach) is under way: a failed solve is its to handle, not recover's. */
   private continuing = false;
   /**
@@ -248,6 +250,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.failedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
     this.begin = new Float64Array(2 * plan.slotCount);
     this.expected = new Float64Array(2 * plan.slotCount);
+    this.reachedPose = new Float64Array(2 * plan.slotCount);
+    this.reachedRates = new Float64Array(2 * plan.slotCount);
     this.referenceSigns = new Int8Array((plan as PlanInternal).blockCount);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
@@ -350,10 +354,15 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     // First the whole step from the pose at `from` (the try above started where `start` chose).
     let h = to - from;
     const least = Math.min(REACH_MIN_STEP_RAD, Math.abs(h));
-    // A failure leaves the reference pose: the next try starts from the pose at `at`, which its bin keeps.
+    // A failure leaves the reference pose: the next try starts from the pose at `at`, which
+    // its bin keeps for `from`; past `from`, the copy taken when it was reached (a value
+    // between bins has no bin to keep it in, and a solve there from another start may land
+    // on another part of the motion).
     let restore = true;
+    let kept = false;
     while (h !== 0 && Math.abs(h) >= least) {
-      if (restore && at !== TAU) {
+      if (restore && kept) this.restoreReached();
+      else if (restore && at !== TAU) {
         point[CURVE_T] = at;
         this.atIo(1, point);
       }
@@ -369,18 +378,53 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       if (next === to) return true;
       at = next;
       this.reached = at;
+      this.keepReached();
+      kept = true;
     }
     return false;
   }
+  /** Keeps the pose and rates just solved at `reached` for restoreReached. */
+  private keepReached(): void {
+    this.reachedPose.set(this.pose);
+    this.reachedRates.set(this.rates);
+  }
+  /** The curve back at `reached` with its pose and rates as solved there (keepReached), the history gone. */
+  private restoreReached(): void {
+    this.pose.set(this.reachedPose);
+    this.rates.set(this.reachedRates);
+    this.lastT = this.reached;
+    this.lastHasRates = true;
+    this.previousT = NaN;
+  }
   /**
-   * A solve at t in the first turn, outside the gap, failed, though the sweep reached every
-   * value there: near a fold a start between kept poses may lead Newton's method to the
-   * fold's other branch, which the sign rule refuses. The motion goes on to t from the kept
-   * pose nearest t on the side away from the gap, as the sweep went (reach). True when t
-   * is solved; the curve is then at t, with its rates.
+   * A solve at t outside the gap failed, though the sweep reached every value there: near a
+   * fold a start between kept poses may lead Newton's method to the fold's other branch,
+   * which the sign rule refuses, or land further from its start than the rule on kept
+   * poses allows (expectFromBins) where a joint turns fast between two bins. The motion
+   * goes on to t from the kept pose nearest t on the side away from the gap, as the sweep
+   * went (reach). Outside the first turn only where the motion closes in one turn: t's pose
+   * is then the first turn's at t's place in it. True when t is solved; the curve is then
+   * at t, with its rates.
    */
   private recover(t: number): boolean {
-    if (this.continuing || !this.predicts || !(t >= 0 && t < TAU)) return false;
+    if (this.continuing || !this.predicts) return false;
+    let u = t;
+    if (!(t >= 0 && t < TAU)) {
+      if (!(t === t) || !this.closesInOneTurn()) return false;
+      u = t - Math.floor(t / TAU) * TAU;
+      // Rounding may leave a value just below a whole number of turns at the turn's end.
+      if (!(u < TAU)) u = 0;
+    }
+    const ok = this.recoverInTurn(u);
+    if (ok && u !== t) {
+      // The pose at u is t's: the history goes on from t.
+      this.lastT = t;
+      this.previousT = NaN;
+    }
+    return ok;
+  }
+  /** recover for t in the first turn. */
+  private recoverInTurn(t: number): boolean {
     const times = this.solvedT;
     const upward = !(t >= this.gapTo);
     let from = upward ? 0 : TAU;

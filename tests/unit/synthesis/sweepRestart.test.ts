@@ -1,0 +1,119 @@
+/**
+ * The search's curve follows a six-bar's motion from its reference pose in steps of its
+ * 2° bins, halving a step that fails. After a failed step it starts again from the last
+ * value it reached; that value's pose must be the one it reached, not a new solve there:
+ * a value between two bins has no bin to keep its pose, and a solve from another start
+ * may land on another part of the motion. Near the end of a turn that other part can be
+ * the reference pose's own motion turning backward, and the curve then "closed" a motion
+ * that locks short of the turn. The design here (a random one of the Stephenson II pose
+ * family on the demo target) locks 0.26° short of a full turn; before, a search asked for
+ * a crank that turns fully ranked it feasible, while its report found the lock.
+ *
+ *
+ * The same restart, past the first turn: where a solve fails there (a probe of the lock
+ * search near a sharp minimum of the assembly margin), the curve goes on to it from its
+ * nearest kept pose as within the first turn, on the first turn's poses, where the motion
+ * closes in one turn. Before, it did not, and charged a lock the report does not find:
+ * the second design, whose closed target's last span runs into the second turn.
+ *
+ * Second methods: a plain continuation written here with the linkage solver alone
+ * (`run`, each solve started from the pose before, 0.25° steps halved down to 1/4096 of a
+ * step where a solve fails), as in sweep-closure.test.ts; and the report's analysis of
+ * the exported linkage (sweep.ts), as in searchReportAgreement.test.ts.
+ */
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { demoTargetPoints } from '../../../src/app/demo/transferDemo';
+import { compile, setReferencePose } from '../../../src/core/linkage';
+import { stephensonII } from '../../../src/core/linkage/families';
+import { run } from '../../../src/core/linkage/run';
+import { createObjective, createProblem } from '../../../src/core/synthesis';
+
+const DEG = Math.PI / 180;
+const STEP_RAD = 0.25 * DEG;
+const LEAST_STEP_RAD = STEP_RAD / 4096;
+
+interface DesignFixture {
+  readonly variables: Readonly<Record<string, number>>;
+}
+
+function designFixture(name: string): DesignFixture {
+  return JSON.parse(readFileSync(new URL(`../../fixtures/designs/${name}.json`, import.meta.url), 'utf8')) as DesignFixture;
+}
+
+const locksShort = designFixture('stephenson-ii-locks-just-short-of-a-turn');
+const recovers = designFixture('stephenson-ii-recovers-in-second-turn');
+
+/** The driver value (rad from the reference pose) where the motion turning forward from the reference pose locks; Infinity if it passes `limit`. */
+function forwardLock(fixture: DesignFixture, limit: number): number {
+  const compiled = compile(stephensonII());
+  if (!compiled.ok) throw new Error('the family does not compile');
+  const plan = compiled.plan;
+  const reference = new Float64Array(2 * plan.slotCount);
+  for (const [id, slot] of plan.slotIndex) {
+    reference[2 * slot] = fixture.variables[`${id}.x`];
+    reference[2 * slot + 1] = fixture.variables[`${id}.y`];
+  }
+  setReferencePose(plan, reference);
+  const pose = Float64Array.from(plan.reference);
+  const trial = new Float64Array(pose.length);
+  let t = 0;
+  let h = STEP_RAD;
+  while (t < limit) {
+    trial.set(pose);
+    const next = Math.min(limit, t + h);
+    if (run(plan, plan.driverReferenceValue + next, trial)) {
+      pose.set(trial);
+      t = next;
+      h = STEP_RAD;
+    } else if (h / 2 >= LEAST_STEP_RAD) {
+      h /= 2;
+    } else {
+      return t;
+    }
+  }
+  return Infinity;
+}
+
+function objective(fixture: DesignFixture, fullTurnCrank: boolean) {
+  const made = createProblem({
+    name: 'sweep restart',
+    target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed: true },
+    timing: { mode: 'unprescribed', samples: 180 },
+    placement: 'free',
+    families: ['stephenson-ii'],
+    measure: 'rms',
+    ...(fullTurnCrank ? { constraints: { fullTurnCrank: true } } : {}),
+  });
+  if (!made.ok) throw new Error(JSON.stringify(made.issues));
+  const searchObjective = createObjective(made.problem, 'stephenson-ii');
+  const x = Float64Array.from(searchObjective.variableNames.map((name) => fixture.variables[name]));
+  return { objective: searchObjective, x };
+}
+
+describe('a sweep step after a refused one goes on from the pose it reached', () => {
+  it('the design locks turning forward within the last degree of a turn (plain continuation)', () => {
+    const lock = forwardLock(locksShort, 2 * Math.PI);
+    expect(lock).toBeGreaterThan(359 * DEG);
+    expect(lock).toBeLessThan(360 * DEG);
+  });
+
+  it('a search asked for a crank that turns fully does not rank it feasible, and its report agrees', () => {
+    const { objective: o, x } = objective(locksShort, true);
+    const out = new Float64Array(2);
+    o.evaluate(Float64Array.from(x), out);
+    expect(out[1]).toBeGreaterThan(0);
+    const report = o.describe(Float64Array.from(x));
+    expect(report.feasible).toBe(false);
+    expect(report.defects.join('; ')).toMatch(/crank cannot turn fully/);
+  });
+
+  it('past the first turn a failed solve is recovered from the first turn\'s poses: no lock the report does not find', () => {
+    const { objective: o, x } = objective(recovers, false);
+    const report = o.describe(Float64Array.from(x));
+    expect(report.feasible).toBe(true);
+    const out = new Float64Array(2);
+    o.evaluate(Float64Array.from(x), out);
+    expect(out[1]).toBe(0);
+  });
+});
