@@ -4,8 +4,8 @@
  * problem's objective alone in worker threads (objectiveThread.ts), with no optimizer,
  * engine or messages, whose ratio is the most two workers of that problem can give on
  * this machine. The two differ where the cores do not serve memory alike: on a virtual
- * machine whose second core shares its caches with another guest, arithmetic runs as fast
- * on either core and the objective, which reads and writes arrays, does not.
+ * machine whose cores share their caches with other guests unevenly, arithmetic runs as
+ * fast on either core and the objective, which reads and writes arrays, does not.
  */
 import { performance } from 'node:perf_hooks';
 import { Worker } from 'node:worker_threads';
