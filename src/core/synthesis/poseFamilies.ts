@@ -451,6 +451,14 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     return ok;
   }
   /**
+   * The driver turns through a whole turn without a gap, and the turn does not bring the
+   * motion back to its first pose (sweepReachable): its poses outside the first turn are
+   * not the first turn's, which the curve's samples and the match take them to be.
+   */
+  get opensAfterATurn(): boolean {
+    return this.predicts && Number.isNaN(this.gapFrom) && this.closes === 0;
+  }
+  /**
    * The driver can turn on and on: nothing the reference pose cannot reach
    * (sweepReachable), and a turn brings the motion back to the pose it started from (a
    * motion that does not close in one turn may meet a lock in its second, beyond the
@@ -1178,6 +1186,9 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       const b = span[1];
       // A full turn was swept in load: it found every lock and every poor transmission angle.
       if (fullTurn || !(b > a)) return;
+      // Outside the first turn a motion that does not come back after a turn is another
+      // motion than the samples the target was matched on: as good as a lock on the way.
+      if (curve.opensAfterATurn && !(a >= 0 && b < TAU)) parts[V_BRANCH] += LOCK_SHARE;
       point[CURVE_T] = a;
       curve.atIo(0, point);
       motionFailures(span, parts, V_BRANCH);

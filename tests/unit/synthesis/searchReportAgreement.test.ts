@@ -19,9 +19,10 @@ import { createObjective, createProblem, type FamilyId } from '../../../src/core
  * assembly, 6 (Stephenson II) and 4 (III) of these disagreed on the closed path; on the
  * open one, before a gap's ends were the values reached, a collapsed placement counted
  * and the report drew the curve's own pose, 7 and 9. On 3,000 designs of each family,
- * path and seed (7 and 8), 8 of about 13,800 feasible ones still disagree (22 before a
- * sweep step after a refused one went on from the pose it reached: sweepRestart.test.ts;
- * README, accuracy table).
+ * path and seed (7 and 8), 4 of about 13,800 feasible ones still disagree, all on the
+ * open path (22 before a sweep step after a refused one went on from the pose it reached
+ * and a motion that does not come back after a turn was charged outside its first turn:
+ * sweepRestart.test.ts, opensAfterATurn.test.ts; README, accuracy table).
  */
 const DESIGNS = 400;
 
