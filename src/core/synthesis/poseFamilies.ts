@@ -451,9 +451,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     return ok;
   }
   /**
-   * The driver turns through a whole turn without a gap, and the turn does not bring the
-   * motion back to its first pose (sweepReachable): its poses outside the first turn are
-   * not the first turn's, which the curve's samples and the match take them to be.
+   * The sweep reached every bin of the first turn (no gap), and the turn's end does not
+   * bring the motion back to its first pose (sweepReachable): it goes on in another pose,
+   * or locks just short of the end. Either way its poses outside the first turn are not
+   * the first turn's, which the curve's samples and the match take them to be.
    */
   get opensAfterATurn(): boolean {
     return this.predicts && Number.isNaN(this.gapFrom) && this.closes === 0;
