@@ -8,65 +8,29 @@
  * a lock on the way. Now a span outside the first turn of such a motion counts as a lock.
  *
  * The design is a random one of the Stephenson II pose family on the demo target.
- * Second methods: a plain continuation written here with the linkage solver alone (`run`,
- * each solve started from the pose before, 0.25° steps halved down to 1/4096 of a step
- * where a solve fails), as in sweep-closure.test.ts; and the report's analysis of the
- * exported linkage (sweep.ts), as in searchReportAgreement.test.ts.
+ * Second methods: a plain continuation with the linkage solver alone (`run`, each solve
+ * started from the pose before, 0.25° steps halved down to 1/4096 of a step where a solve
+ * fails; tests/support/designFixture.ts), as in sweep-closure.test.ts; and the report's
+ * analysis of the exported linkage (sweep.ts), as in searchReportAgreement.test.ts.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { demoTargetPoints } from '../../../src/app/demo/transferDemo';
-import { compile, setReferencePose } from '../../../src/core/linkage';
-import { stephensonII } from '../../../src/core/linkage/families';
-import { run } from '../../../src/core/linkage/run';
 import { createObjective, createProblem } from '../../../src/core/synthesis';
+import { continueForward, readDesignFixture, stephensonIIPlan } from '../../support/designFixture';
 
-const STEP_RAD = (0.25 * Math.PI) / 180;
-const LEAST_STEP_RAD = STEP_RAD / 4096;
-
-const fixture = JSON.parse(readFileSync(new URL('../../fixtures/designs/stephenson-ii-opens-after-a-turn.json', import.meta.url), 'utf8')) as {
-  readonly variables: Readonly<Record<string, number>>;
-};
-
-/** The pose a plain continuation reaches a whole turn on from the reference pose (null where it locks first), and the reference pose. */
-function aTurnOn(): { readonly start: Float64Array; readonly end: Float64Array | null; readonly scaleMm: number } {
-  const compiled = compile(stephensonII());
-  if (!compiled.ok) throw new Error('the family does not compile');
-  const plan = compiled.plan;
-  const reference = new Float64Array(2 * plan.slotCount);
-  for (const [id, slot] of plan.slotIndex) {
-    reference[2 * slot] = fixture.variables[`${id}.x`];
-    reference[2 * slot + 1] = fixture.variables[`${id}.y`];
-  }
-  setReferencePose(plan, reference);
-  const pose = Float64Array.from(plan.reference);
-  const trial = new Float64Array(pose.length);
-  let t = 0;
-  let h = STEP_RAD;
-  while (t < 2 * Math.PI) {
-    trial.set(pose);
-    const next = Math.min(2 * Math.PI, t + h);
-    if (run(plan, plan.driverReferenceValue + next, trial)) {
-      pose.set(trial);
-      t = next;
-      h = STEP_RAD;
-    } else if (h / 2 >= LEAST_STEP_RAD) {
-      h /= 2;
-    } else {
-      return { start: Float64Array.from(plan.reference), end: null, scaleMm: 1 };
-    }
-  }
-  let scaleMm = 0;
-  for (let i = 0; i < pose.length; i++) scaleMm = Math.max(scaleMm, Math.abs(plan.reference[i]));
-  return { start: Float64Array.from(plan.reference), end: pose, scaleMm };
-}
+const fixture = readDesignFixture('stephenson-ii-opens-after-a-turn');
 
 describe('a motion that does not come back after a turn', () => {
   it('turns through a whole turn without locking and ends in another pose (plain continuation)', () => {
-    const { start, end, scaleMm } = aTurnOn();
-    expect(end).not.toBeNull();
+    const plan = stephensonIIPlan(fixture);
+    const { pose } = continueForward(plan, 2 * Math.PI);
+    expect(pose).not.toBeNull();
     let apart = 0;
-    for (let i = 0; i < start.length; i++) apart = Math.max(apart, Math.abs((end as Float64Array)[i] - start[i]));
+    let scaleMm = 0;
+    for (let i = 0; i < plan.reference.length; i++) {
+      apart = Math.max(apart, Math.abs((pose as Float64Array)[i] - plan.reference[i]));
+      scaleMm = Math.max(scaleMm, Math.abs(plan.reference[i]));
+    }
     expect(apart).toBeGreaterThan(1e-3 * scaleMm);
   });
 

@@ -16,64 +16,20 @@
  * closes in one turn. Before, it did not, and charged a lock the report does not find:
  * the second design, whose closed target's last span runs into the second turn.
  *
- * Second methods: a plain continuation written here with the linkage solver alone
- * (`run`, each solve started from the pose before, 0.25° steps halved down to 1/4096 of a
- * step where a solve fails), as in sweep-closure.test.ts; and the report's analysis of
- * the exported linkage (sweep.ts), as in searchReportAgreement.test.ts.
+ * Second methods: a plain continuation with the linkage solver alone (`run`, each solve
+ * started from the pose before, 0.25° steps halved down to 1/4096 of a step where a solve
+ * fails; tests/support/designFixture.ts), as in sweep-closure.test.ts; and the report's
+ * analysis of the exported linkage (sweep.ts), as in searchReportAgreement.test.ts.
  */
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { demoTargetPoints } from '../../../src/app/demo/transferDemo';
-import { compile, setReferencePose } from '../../../src/core/linkage';
-import { stephensonII } from '../../../src/core/linkage/families';
-import { run } from '../../../src/core/linkage/run';
 import { createObjective, createProblem } from '../../../src/core/synthesis';
+import { continueForward, readDesignFixture, stephensonIIPlan, type DesignFixture } from '../../support/designFixture';
 
 const DEG = Math.PI / 180;
-const STEP_RAD = 0.25 * DEG;
-const LEAST_STEP_RAD = STEP_RAD / 4096;
 
-interface DesignFixture {
-  readonly variables: Readonly<Record<string, number>>;
-}
-
-function designFixture(name: string): DesignFixture {
-  return JSON.parse(readFileSync(new URL(`../../fixtures/designs/${name}.json`, import.meta.url), 'utf8')) as DesignFixture;
-}
-
-const locksShort = designFixture('stephenson-ii-locks-just-short-of-a-turn');
-const recovers = designFixture('stephenson-ii-recovers-in-second-turn');
-
-/** The driver value (rad from the reference pose) where the motion turning forward from the reference pose locks; Infinity if it passes `limit`. */
-function forwardLock(fixture: DesignFixture, limit: number): number {
-  const compiled = compile(stephensonII());
-  if (!compiled.ok) throw new Error('the family does not compile');
-  const plan = compiled.plan;
-  const reference = new Float64Array(2 * plan.slotCount);
-  for (const [id, slot] of plan.slotIndex) {
-    reference[2 * slot] = fixture.variables[`${id}.x`];
-    reference[2 * slot + 1] = fixture.variables[`${id}.y`];
-  }
-  setReferencePose(plan, reference);
-  const pose = Float64Array.from(plan.reference);
-  const trial = new Float64Array(pose.length);
-  let t = 0;
-  let h = STEP_RAD;
-  while (t < limit) {
-    trial.set(pose);
-    const next = Math.min(limit, t + h);
-    if (run(plan, plan.driverReferenceValue + next, trial)) {
-      pose.set(trial);
-      t = next;
-      h = STEP_RAD;
-    } else if (h / 2 >= LEAST_STEP_RAD) {
-      h /= 2;
-    } else {
-      return t;
-    }
-  }
-  return Infinity;
-}
+const locksShort = readDesignFixture('stephenson-ii-locks-just-short-of-a-turn');
+const recovers = readDesignFixture('stephenson-ii-recovers-in-second-turn');
 
 function objective(fixture: DesignFixture, fullTurnCrank: boolean) {
   const made = createProblem({
@@ -93,7 +49,7 @@ function objective(fixture: DesignFixture, fullTurnCrank: boolean) {
 
 describe('a sweep step after a refused one goes on from the pose it reached', () => {
   it('the design locks turning forward within the last degree of a turn (plain continuation)', () => {
-    const lock = forwardLock(locksShort, 2 * Math.PI);
+    const lock = continueForward(stephensonIIPlan(locksShort), 2 * Math.PI).lockRad;
     expect(lock).toBeGreaterThan(359 * DEG);
     expect(lock).toBeLessThan(360 * DEG);
   });
