@@ -1,16 +1,10 @@
 import { configDefaults, defineConfig } from 'vitest/config';
 
-// Three projects: `unit` (unit, property and reference tests, fast, no build), then
-// `browser` and `browser-timed` (tests/browser: each one's globalSetup builds and serves
-// the app, and runs only when one of its files is selected). The browser groups run after
-// the unit group, so Chromium does not compete with the unit tests for the CPU.
-/**
- * Browser tests that compare rates measured in the page (a hidden page's evaluations per
- * second against a visible one's): they run last, one at a time, with nothing else on the
- * machine's cores. (Main-thread tasks are judged by their CPU time, which load does not
- * stretch: tests/browser/mainThreadTasks.ts.)
- */
-const TIMED_BROWSER_FILES = ['tests/browser/hidden-tab.test.ts'];
+// Two projects: `unit` (unit, property and reference tests, fast, no build), then
+// `browser` (tests/browser: its globalSetup builds and serves the app, and runs only when
+// one of its files is selected). The browser group runs after the unit group, so Chromium
+// does not compete with the unit tests for the CPU. No test asserts a speed: rates are
+// measured by `npm run bench`.
 
 export default defineConfig({
   test: {
@@ -29,7 +23,7 @@ export default defineConfig({
           // re-importing the core for every file was most of the group's time.
           pool: 'threads',
           isolate: false,
-          // Both cores (the default leaves one free): the group runs alone, before the browser groups.
+          // Both cores (the default leaves one free): the group runs alone, before the browser group.
           maxWorkers: 2,
           sequence: { groupOrder: 0 },
         },
@@ -39,22 +33,11 @@ export default defineConfig({
         test: {
           name: 'browser',
           include: ['tests/browser/**/*.test.ts'],
-          exclude: [...configDefaults.exclude, ...TIMED_BROWSER_FILES],
           globalSetup: ['tests/browser/global-setup.ts'],
           // Two files at a time: most of their time is waiting on the app (checkpoints,
           // reloads), not computing; three at a time starved a search's start on two cores.
           maxWorkers: 2,
           sequence: { groupOrder: 1 },
-        },
-      },
-      {
-        extends: true,
-        test: {
-          name: 'browser-timed',
-          include: [...TIMED_BROWSER_FILES],
-          globalSetup: ['tests/browser/global-setup.ts'],
-          fileParallelism: false,
-          sequence: { groupOrder: 2 },
         },
       },
     ],

@@ -10,6 +10,7 @@ import { performance } from 'node:perf_hooks';
 import { benchAnalyzeChain } from './analyzeChain';
 import { benchFamilies } from './families';
 import { benchFamilyRates } from './familyRates';
+import { benchHiddenTab } from './hiddenTab';
 import { benchKernel } from './kernel';
 import { benchMatching } from './matching';
 import { benchReach, benchReachQuick } from './reach';
@@ -39,6 +40,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'matching', run: benchMatching },
   { name: 'families', run: benchFamilies },
   { name: 'family-rates', run: benchFamilyRates },
+  { name: 'hidden-tab', run: benchHiddenTab },
   { name: 'reach', run: benchReach, onlyByName: true },
   { name: 'reach-quick', run: benchReachQuick },
   { name: 'soak', run: benchSoak, onlyByName: true },
