@@ -1,12 +1,12 @@
 /**
- * Designs of the Stephenson II pose family kept as fixtures (tests/fixtures/designs: the
+ * Designs of the Stephenson pose families kept as fixtures (tests/fixtures/designs: the
  * reference-pose joint positions by variable name), the family's plan set to one, and a
  * plain continuation of its motion written with the linkage solver alone: a second
  * method beside the search's curve and the analysis's sweep.
  */
 import { readFileSync } from 'node:fs';
-import { compile, setReferencePose, type Plan } from '../../src/core/linkage';
-import { stephensonII } from '../../src/core/linkage/families';
+import { compile, setReferencePose, type Linkage, type Plan } from '../../src/core/linkage';
+import { stephensonII, stephensonIII } from '../../src/core/linkage/families';
 import { run } from '../../src/core/linkage/run';
 
 export interface DesignFixture {
@@ -17,10 +17,15 @@ export function readDesignFixture(name: string): DesignFixture {
   return JSON.parse(readFileSync(new URL(`../fixtures/designs/${name}.json`, import.meta.url), 'utf8')) as DesignFixture;
 }
 
-/** The Stephenson II plan in the design's reference pose. */
-export function stephensonIIPlan(fixture: DesignFixture): Plan {
-  const compiled = compile(stephensonII());
-  if (!compiled.ok) throw new Error('the family does not compile');
+const BUILDERS: Readonly<Record<'stephenson-ii' | 'stephenson-iii', () => Linkage>> = {
+  'stephenson-ii': () => stephensonII(),
+  'stephenson-iii': () => stephensonIII(),
+};
+
+/** The family's plan in the design's reference pose. */
+export function designPlan(family: keyof typeof BUILDERS, fixture: DesignFixture): Plan {
+  const compiled = compile(BUILDERS[family]());
+  if (!compiled.ok) throw new Error(`${family} does not compile`);
   const plan = compiled.plan;
   const reference = new Float64Array(2 * plan.slotCount);
   for (const [id, slot] of plan.slotIndex) {
@@ -31,23 +36,29 @@ export function stephensonIIPlan(fixture: DesignFixture): Plan {
   return plan;
 }
 
+/** The Stephenson II plan in the design's reference pose. */
+export function stephensonIIPlan(fixture: DesignFixture): Plan {
+  return designPlan('stephenson-ii', fixture);
+}
+
 const STEP_RAD = (0.25 * Math.PI) / 180;
 const LEAST_STEP_RAD = STEP_RAD / 4096;
 
 /**
- * The motion turning forward from the reference pose to `to` (rad from it): each solve
- * started from the pose before, 0.25° steps halved down to 1/4096 of a step where a solve
- * fails. Where it locks first, `lockRad` (the last value solved) and no pose; else the
- * pose at `to`.
+ * The motion turning from the reference pose to `to` (rad from it; below 0 turning
+ * backward): each solve started from the pose before, 0.25° steps halved down to 1/4096
+ * of a step where a solve fails. Where it locks first, `lockRad` (the last value solved)
+ * and no pose; else the pose at `to`.
  */
-export function continueForward(plan: Plan, to: number): { readonly lockRad: number; readonly pose: Float64Array | null } {
+export function continueTo(plan: Plan, to: number): { readonly lockRad: number; readonly pose: Float64Array | null } {
+  const direction = to < 0 ? -1 : 1;
   const pose = Float64Array.from(plan.reference);
   const trial = new Float64Array(pose.length);
   let t = 0;
   let h = STEP_RAD;
-  while (t < to) {
+  while (direction * (to - t) > 0) {
     trial.set(pose);
-    const next = Math.min(to, t + h);
+    const next = direction > 0 ? Math.min(to, t + h) : Math.max(to, t - h);
     if (run(plan, plan.driverReferenceValue + next, trial)) {
       pose.set(trial);
       t = next;
@@ -58,5 +69,5 @@ export function continueForward(plan: Plan, to: number): { readonly lockRad: num
       return { lockRad: t, pose: null };
     }
   }
-  return { lockRad: Infinity, pose };
+  return { lockRad: direction * Infinity, pose };
 }

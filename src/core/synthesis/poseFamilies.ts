@@ -306,6 +306,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       // two poses), the bins keep the forward one's poses below `first` and the backward
       // one's above it, and the bin above `first` is the gap's far end.
       let backwardEnd = (first + 1) * SOLVED_BIN_RAD;
+      // The reference pose a turn on, with its rates: the first step back is then checked
+      // against its tangent as every later one is, and cannot land across a lock narrower
+      // than itself.
+      this.reach(TAU, TAU);
       for (let j = SOLVED_BINS - 1; j > first; j--) {
         if (!this.reach(j === SOLVED_BINS - 1 ? TAU : (j + 1) * SOLVED_BIN_RAD, j * SOLVED_BIN_RAD)) {
           backwardEnd = this.reached;
@@ -362,7 +366,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     let kept = false;
     while (h !== 0 && Math.abs(h) >= least) {
       if (restore && kept) this.restoreReached();
-      else if (restore && at !== TAU) {
+      else if (restore) {
         point[CURVE_T] = at;
         this.atIo(1, point);
       }
@@ -469,6 +473,15 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   get turnsOn(): boolean {
     if (!this.predicts) return true;
     return Number.isNaN(this.gapFrom) && this.closesInOneTurn();
+  }
+  /**
+   * A value a whole number of turns on has the pose of its place in the first turn: the
+   * motion closes in one turn, or the reference pose cannot reach some values (a gap), so
+   * the driver never turns through and reaches each value it reaches in one pose.
+   */
+  get repeatsEachTurn(): boolean {
+    if (!this.predicts) return true;
+    return !Number.isNaN(this.gapFrom) || this.closesInOneTurn();
   }
   /** t lies where the reference pose cannot reach (sweepReachable); the curve is then left as a failed solve leaves it. */
   private unreachable(t: number): boolean {
@@ -590,7 +603,9 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   /** Keeps the pose just solved at t (and its rates, when solved with them) in the bin nearest t, when t is in [0, 2π). */
   private keepSolved(t: number, withRates: boolean): void {
     const bin = Math.round(t / SOLVED_BIN_RAD);
-    if (!(bin >= 0 && bin < SOLVED_BINS)) return;
+    // t itself in the turn, not its bin: a value just below 0 rounds to bin 0, and its
+    // pose (the motion turning backward from the reference pose) is not the turn's.
+    if (!(t >= 0 && bin < SOLVED_BINS)) return;
     this.solvedT[bin] = t;
     const pose = this.pose;
     const o = bin * pose.length;
@@ -1277,12 +1292,14 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport {
       // The pose at t: in the first turn, the curve's own (its bins hold the motion the
       // driver reaches from the reference pose either way, sweepReachable), so the drawn
-      // pose is the fitted one; past it, reached in steps from the reference so a Newton
-      // block keeps its branch, and where a lock bars the way, the other way round.
+      // pose is the fitted one; past it, the first turn's where the motion repeats each
+      // turn (as the curve's samples take it), else reached in steps from the reference
+      // so a Newton block keeps its branch, and where a lock bars the way, the other way round.
       let assembles: boolean;
-      if (t >= 0 && t < TAU) {
+      const inTurn = t - Math.floor(t / TAU) * TAU;
+      if ((t >= 0 && t < TAU) || (curve.repeatsEachTurn && inTurn < TAU)) {
         curve.reset();
-        assembles = curve.pointAt(t, 0, point) >= 0;
+        assembles = curve.pointAt(t >= 0 && t < TAU ? t : inTurn, 0, point) >= 0;
       } else {
         assembles = stepTo(t);
         if (!assembles) assembles = stepTo(t > 0 ? t - TAU : t + TAU);

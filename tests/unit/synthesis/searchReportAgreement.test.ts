@@ -10,35 +10,27 @@
  * linkage at target point 1, so the figures are taken over the fitted motion.
  */
 import { describe, expect, it } from 'vitest';
-import { demoTargetPoints } from '../../../src/app/demo/transferDemo';
 import { Prng } from '../../../src/core/optimize/prng';
-import { createObjective, createProblem, type FamilyId } from '../../../src/core/synthesis';
+import type { FamilyId } from '../../../src/core/synthesis';
+import { demoPathObjective } from '../../support/demoObjective';
 
 /**
  * Random designs per family and path: before the curve kept to the reference pose's
  * assembly, 6 (Stephenson II) and 4 (III) of these disagreed on the closed path; on the
  * open one, before a gap's ends were the values reached, a collapsed placement counted
  * and the report drew the curve's own pose, 7 and 9. On 3,000 designs of each family,
- * path and seed (7 and 8), 4 of about 13,800 feasible ones still disagree, all on the
- * open path (22 before a sweep step after a refused one went on from the pose it reached
- * and a motion that does not come back after a turn was charged outside its first turn:
- * sweepRestart.test.ts, opensAfterATurn.test.ts; README, accuracy table).
+ * path and seed (7 and 8), none of about 13,850 feasible ones disagree (22 before a sweep
+ * step after a refused one went on from the pose it reached and a motion that does not
+ * come back after a turn was charged outside its first turn: sweepRestart.test.ts,
+ * opensAfterATurn.test.ts; 4, all on the open path, before the mends of
+ * drawnOnTheMotion.test.ts; README, accuracy table).
  */
 const DESIGNS = 400;
 
 describe('search and report agree on six-bar motions', () => {
   for (const [family, closed] of [['stephenson-ii', true], ['stephenson-iii', true], ['stephenson-ii', false], ['stephenson-iii', false]] as [FamilyId, boolean][]) {
     it(`${family}, ${closed ? 'closed' : 'open'} path: every random design the search calls feasible is feasible in its report`, () => {
-      const made = createProblem({
-        name: 'agreement',
-        target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed },
-        timing: { mode: 'unprescribed', samples: 180 },
-        placement: 'free',
-        families: [family],
-        measure: 'rms',
-      });
-      if (!made.ok) throw new Error(JSON.stringify(made.issues));
-      const objective = createObjective(made.problem, family);
+      const objective = demoPathObjective(family, closed);
       const prng = Prng.fromSeed(7);
       const u = new Float64Array(objective.dim);
       const x = new Float64Array(objective.dim);

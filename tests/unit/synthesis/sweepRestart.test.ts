@@ -22,9 +22,8 @@
  * analysis of the exported linkage (sweep.ts), as in searchReportAgreement.test.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { demoTargetPoints } from '../../../src/app/demo/transferDemo';
-import { createObjective, createProblem } from '../../../src/core/synthesis';
-import { continueForward, readDesignFixture, stephensonIIPlan, type DesignFixture } from '../../support/designFixture';
+import { demoPathObjective } from '../../support/demoObjective';
+import { continueTo, readDesignFixture, stephensonIIPlan, type DesignFixture } from '../../support/designFixture';
 
 const DEG = Math.PI / 180;
 
@@ -32,24 +31,14 @@ const locksShort = readDesignFixture('stephenson-ii-locks-just-short-of-a-turn')
 const recovers = readDesignFixture('stephenson-ii-recovers-in-second-turn');
 
 function objective(fixture: DesignFixture, fullTurnCrank: boolean) {
-  const made = createProblem({
-    name: 'sweep restart',
-    target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed: true },
-    timing: { mode: 'unprescribed', samples: 180 },
-    placement: 'free',
-    families: ['stephenson-ii'],
-    measure: 'rms',
-    ...(fullTurnCrank ? { constraints: { fullTurnCrank: true } } : {}),
-  });
-  if (!made.ok) throw new Error(JSON.stringify(made.issues));
-  const searchObjective = createObjective(made.problem, 'stephenson-ii');
+  const searchObjective = demoPathObjective('stephenson-ii', true, fullTurnCrank ? { fullTurnCrank: true } : undefined);
   const x = Float64Array.from(searchObjective.variableNames.map((name) => fixture.variables[name]));
   return { objective: searchObjective, x };
 }
 
 describe('a sweep step after a refused one goes on from the pose it reached', () => {
   it('the design locks turning forward within the last degree of a turn (plain continuation)', () => {
-    const lock = continueForward(stephensonIIPlan(locksShort), 2 * Math.PI).lockRad;
+    const lock = continueTo(stephensonIIPlan(locksShort), 2 * Math.PI).lockRad;
     expect(lock).toBeGreaterThan(359 * DEG);
     expect(lock).toBeLessThan(360 * DEG);
   });
