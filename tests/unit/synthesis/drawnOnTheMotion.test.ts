@@ -8,8 +8,8 @@
  *   the motion turning backward, in the bin of the turn's start (stephenson-ii-refined-
  *   just-before-its-start);
  * - the sweep back from a whole turn took its first step without its tangent, and landed
- *   on another assembly with the same sign of det J, one that folds a step back
- *   (stephenson-ii-narrow-fold-near-turn-end);
+ *   on another assembly with the same sign of det J, one whose motion folds within that
+ *   2° step (stephenson-ii-narrow-fold-near-turn-end);
  * - a design that cannot turn through (a gap) matched a whole turn on, which the search
  *   takes as the first turn's values and the report drew in the design's reference pose
  *   (stephenson-iii-gap-matched-past-the-turn).
