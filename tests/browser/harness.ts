@@ -15,10 +15,10 @@
  * The app is built and served once per run by global-setup.ts (the `browser` project in
  * vitest.config.ts); Chromium and its flags are in chromium.ts.
  */
-import { mkdir } from 'node:fs/promises';
+import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { BrowserContext, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, inject } from 'vitest';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, inject } from 'vitest';
 import { REPO_ROOT } from './app-server';
 import { launchChromium, type LaunchedChromium } from './chromium';
 import type { BrowserSetup } from './setup-state';
@@ -135,17 +135,51 @@ export interface BrowserHandle {
   openApp(path?: string, options?: OpenAppOptions): Promise<AppPage>;
 }
 
+/** Where a failed test's pages are kept: a full-page screenshot and the page's text. */
+const FAILURE_DIR = join(REPO_ROOT, 'tests', 'browser', '.artifacts', 'failures');
+/** Characters of a failed page's text printed with the failure: CI keeps only the log. */
+const FAILURE_TEXT_CHARS = 4000;
+/** A page that does not answer within this (a busy main thread) is reported as such. */
+const FAILURE_READ_MS = 10_000;
+
+function withinFailureRead<T>(work: Promise<T>, instead: T): Promise<T> {
+  return Promise.race([work.catch(() => instead), new Promise<T>((resolve) => setTimeout(() => resolve(instead), FAILURE_READ_MS))]);
+}
+
+/** What a page of a failed test showed, kept and printed: its screenshot, its text, what it recorded. */
+async function reportFailedPage(app: AppPage, name: string): Promise<void> {
+  await mkdir(FAILURE_DIR, { recursive: true });
+  const shot = join(FAILURE_DIR, `${name}.png`);
+  const [text, saved] = await Promise.all([
+    withinFailureRead(app.page.evaluate(() => document.body.innerText), '(the page did not give its text)'),
+    withinFailureRead(app.page.screenshot({ path: shot, fullPage: true, timeout: FAILURE_READ_MS }).then(() => true), false),
+  ]);
+  const lines = [`page ${app.page.url()}`, ...app.problems(), '--- the page\'s text ---', text.slice(0, FAILURE_TEXT_CHARS)];
+  await writeFile(join(FAILURE_DIR, `${name}.txt`), lines.join('\n'));
+  console.error(`[browser test failed] ${name}${saved ? `: screenshot ${shot}` : ''}\n${lines.join('\n')}`);
+}
+
 /**
  * Call inside a describeBrowser body: launches one Chromium before the file's tests and
- * closes it, and every page opened through the handle, after them.
+ * closes it, and every page opened through the handle, after them. When a test fails,
+ * each page it opened is reported (reportFailedPage) before it is closed.
  */
 export function useBrowser(): BrowserHandle {
   let launched: LaunchedChromium | undefined;
   const opened: AppPage[] = [];
+  let firstOfTest = 0;
   beforeAll(async () => {
     const setup = browserSetup();
     if (setup.status !== 'ready') throw new Error(`browser tests are skipped: ${setup.reason}`);
     launched = await launchChromium(setup.chromiumPath);
+  });
+  beforeEach(() => {
+    firstOfTest = opened.length;
+  });
+  afterEach(async ({ task }) => {
+    if (task.result?.state !== 'fail') return;
+    const slug = `${task.file.name.split('/').pop() ?? 'test'}-${task.name}`.toLowerCase().replace(/[^a-z0-9]+/g, '-').slice(0, 100);
+    for (let i = firstOfTest; i < opened.length; i++) await reportFailedPage(opened[i], `${slug}-${i - firstOfTest + 1}`);
   });
   afterAll(async () => {
     for (const app of opened) await app.close().catch(() => {});
