@@ -45,8 +45,12 @@ describeBrowser('suspension search over a reload', () => {
     await page.locator('[data-field="budget.seconds"] input').fill(BUDGET_S);
     await page.locator('[data-field="seed"] input').fill('5');
     await expect.poll(() => start.isEnabled()).toBe(true);
-    await start.click();
-    // The first start builds the run's workers: on two cores shared with another browser file it has taken over 30 s.
+    // Start is pressed from the keyboard, not clicked: while the workspace's deferred views
+    // redraw after a field changed, the page can move between Playwright's scroll to the
+    // button and its click, and the click then lands elsewhere (seen on 1 start in 20 to 40
+    // under load: the click hit the bicycle panel, and Start did nothing).
+    await start.press('Enter');
+    // The panel shows the run as it starts; the long wait is for a page slowed by another browser file on two cores.
     await progress.waitFor({ timeout: LONG_MS });
     await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
 
@@ -89,7 +93,7 @@ describeBrowser('suspension search over a reload', () => {
     // A second run, stopped: the designs it found are kept, and the resumed run is the previous one.
     await page.locator('[data-field="budget.seconds"] input').fill(LATER_BUDGET_S);
     await expect.poll(() => start.isEnabled()).toBe(true);
-    await start.click();
+    await start.press('Enter');
     await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
     expect(await notice.count()).toBe(0);
     await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
@@ -104,14 +108,14 @@ describeBrowser('suspension search over a reload', () => {
     await runShown.selectOption('latest');
 
     // A third run asks before it drops the oldest kept run; Cancel starts nothing.
-    await start.click();
+    await start.press('Enter');
     const drop = page.getByRole('alertdialog', { name: 'Drop the older run?' });
     await drop.waitFor();
     expect(await drop.textContent()).toMatch(/the older previous run \(.*ended by its time budget.*\) is dropped/);
     await drop.getByRole('button', { name: 'Cancel' }).click();
     await drop.waitFor({ state: 'detached' });
     expect(await progress.getAttribute('data-status')).toBe('finished');
-    await start.click();
+    await start.press('Enter');
     await drop.getByRole('button', { name: 'Start and drop the older run' }).click();
     await expect.poll(() => progress.getAttribute('data-status'), { timeout: LONG_MS }).toBe('running');
     await expect.poll(async () => counted(await storedCheckpoints(page, 'suspension')), { timeout: LONG_MS, interval: 250 }).toBeGreaterThanOrEqual(1);
