@@ -36,11 +36,6 @@ export function designPlan(family: keyof typeof BUILDERS, fixture: DesignFixture
   return plan;
 }
 
-/** The Stephenson II plan in the design's reference pose. */
-export function stephensonIIPlan(fixture: DesignFixture): Plan {
-  return designPlan('stephenson-ii', fixture);
-}
-
 const STEP_RAD = (0.25 * Math.PI) / 180;
 const LEAST_STEP_RAD = STEP_RAD / 4096;
 

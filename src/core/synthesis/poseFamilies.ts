@@ -1296,10 +1296,12 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       // turn (as the curve's samples take it), else reached in steps from the reference
       // so a Newton block keeps its branch, and where a lock bars the way, the other way round.
       let assembles: boolean;
+      // In the first turn inTurn is t itself; rounding may leave a value just below a whole
+      // number of turns at 2π, which no bin holds.
       const inTurn = t - Math.floor(t / TAU) * TAU;
-      if ((t >= 0 && t < TAU) || (curve.repeatsEachTurn && inTurn < TAU)) {
+      if (inTurn < TAU && (inTurn === t || curve.repeatsEachTurn)) {
         curve.reset();
-        assembles = curve.pointAt(t >= 0 && t < TAU ? t : inTurn, 0, point) >= 0;
+        assembles = curve.pointAt(inTurn, 0, point) >= 0;
       } else {
         assembles = stepTo(t);
         if (!assembles) assembles = stepTo(t > 0 ? t - TAU : t + TAU);

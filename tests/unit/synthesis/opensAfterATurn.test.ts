@@ -15,13 +15,13 @@
  */
 import { describe, expect, it } from 'vitest';
 import { demoPathObjective } from '../../support/demoObjective';
-import { continueTo, readDesignFixture, stephensonIIPlan } from '../../support/designFixture';
+import { continueTo, designPlan, readDesignFixture } from '../../support/designFixture';
 
 const fixture = readDesignFixture('stephenson-ii-opens-after-a-turn');
 
 describe('a motion that does not come back after a turn', () => {
   it('turns through a whole turn without locking and ends in another pose (plain continuation)', () => {
-    const plan = stephensonIIPlan(fixture);
+    const plan = designPlan('stephenson-ii', fixture);
     const { pose } = continueTo(plan, 2 * Math.PI);
     expect(pose).not.toBeNull();
     let apart = 0;

@@ -23,7 +23,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { demoPathObjective } from '../../support/demoObjective';
-import { continueTo, readDesignFixture, stephensonIIPlan, type DesignFixture } from '../../support/designFixture';
+import { continueTo, designPlan, readDesignFixture, type DesignFixture } from '../../support/designFixture';
 
 const DEG = Math.PI / 180;
 
@@ -38,7 +38,7 @@ function objective(fixture: DesignFixture, fullTurnCrank: boolean) {
 
 describe('a sweep step after a refused one goes on from the pose it reached', () => {
   it('the design locks turning forward within the last degree of a turn (plain continuation)', () => {
-    const lock = continueTo(stephensonIIPlan(locksShort), 2 * Math.PI).lockRad;
+    const lock = continueTo(designPlan('stephenson-ii', locksShort), 2 * Math.PI).lockRad;
     expect(lock).toBeGreaterThan(359 * DEG);
     expect(lock).toBeLessThan(360 * DEG);
   });
