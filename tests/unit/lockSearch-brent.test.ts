@@ -14,18 +14,22 @@ import { createPoseFamily, type PoseFamilyId } from '../../src/core/synthesis/po
 const GOLDEN_MAX_STEPS = 80;
 const STEP_RAD = (2 * Math.PI) / 72;
 
-// The previous search, as it was in src/core/synthesis/lockSearch.ts before Brent's method.
+// The previous search, as it was in src/core/synthesis/lockSearch.ts before Brent's method
+// (its probes started from a sample's pose as the curve's contract now has it: startFrom).
 class GoldenLockSearch {
   private readonly stride: number;
   private readonly maxSteps: number;
   private readonly margins: Float64Array;
   private readonly poses: Float64Array;
   private readonly start: Float64Array;
+  private readonly at: Float64Array;
+  private startT = NaN;
 
   constructor(stride: number, maxSteps: number) {
     this.stride = stride;
     this.maxSteps = maxSteps;
     this.margins = new Float64Array(maxSteps + 1);
+    this.at = new Float64Array(maxSteps + 1);
     this.poses = new Float64Array((maxSteps + 1) * stride);
     this.start = new Float64Array(stride);
   }
@@ -34,8 +38,8 @@ class GoldenLockSearch {
    * The number of locks met driving from `a` to `b` ≥ a, sampled at most `stepRad` apart
    * (capped at maxSteps samples): runs of samples that fail, plus refined minima of the
    * margin that fail or fall below DEAD_CENTRE_MARGIN. `cyclic`: b = a + 2π and the
-   * samples close up. The curve starts from the pose it holds and is left at the pose of
-   * the last sample.
+   * samples close up. The curve starts from the pose it holds and is left to start from the
+   * pose of the last sample.
    */
   count(curve: MarginCurve, a: number, b: number, stepRad: number, cyclic: boolean): number {
     if (!(b > a)) return 0;
@@ -46,7 +50,8 @@ class GoldenLockSearch {
     const m = this.margins;
     const stride = this.stride;
     for (let k = 0; k <= last; k++) {
-      const v = curve.marginAt(a + k * h);
+      this.at[k] = a + k * h;
+      const v = curve.marginAt(this.at[k]);
       m[k] = v >= 0 ? v : -1;
       this.poses.set(curve.pose, k * stride);
     }
@@ -67,13 +72,15 @@ class GoldenLockSearch {
     }
     // Every sample failed in a cyclic range: one lock, not a run without a start.
     if (cyclic && locks === 0 && m[0] < 0) locks = 1;
-    this.copyPose(last, curve.pose);
+    this.copyPose(last, this.start);
+    curve.startFrom(this.start, this.at[last]);
     return locks;
   }
 
   /** Golden-section search for the least margin on [lo, hi] from the pose of sample k; true when it finds a lock. */
   private refine(curve: MarginCurve, k: number, lo: number, hi: number): boolean {
     this.copyPose(k, this.start);
+    this.startT = this.at[k];
     const invPhi = (Math.sqrt(5) - 1) / 2;
     let a = lo;
     let b = hi;
@@ -107,7 +114,7 @@ class GoldenLockSearch {
   }
 
   private probe(curve: MarginCurve, t: number): number {
-    curve.pose.set(this.start);
+    curve.startFrom(this.start, this.startT);
     return curve.marginAt(t);
   }
 }
@@ -116,9 +123,14 @@ class GoldenLockSearch {
 class MadeUpMargin implements MarginCurve {
   readonly pose = new Float64Array(2);
   probes = 0;
+  // The margin does not depend on a start.
+  startFrom(): void {}
   constructor(private readonly features: readonly { at: number; half: number; touch: boolean }[], private readonly phase: number) {}
+  /** Every driver value asked, in order. */
+  readonly asked: number[] = [];
   marginAt(t: number): number {
     this.probes++;
+    this.asked.push(t);
     let m = 0.55 + 0.35 * Math.sin(3 * t + this.phase);
     for (const f of this.features) {
       const d = Math.abs(t - f.at);
@@ -138,6 +150,15 @@ function lcg(seed: number): () => number {
   };
 }
 
+/** `count` features well apart, each a dead centre or a failed stretch narrower than `stepRad`, between samples. */
+function madeUpFeatures(random: () => number, count: number, stepRad: number): { at: number; half: number; touch: boolean }[] {
+  return Array.from({ length: count }, (_, j) => {
+    const at = 0.3 + j * 2 + random() * 1.2;
+    const half = random() < 0.5 ? 0 : (0.02 + 0.3 * random()) * stepRad;
+    return { at, half, touch: half === 0 };
+  });
+}
+
 describe('lock search refinement', () => {
   it('counts the locks of made-up margins that are known in closed form, as the golden-section search did, in fewer probes', () => {
     const random = lcg(20261203);
@@ -146,12 +167,7 @@ describe('lock search refinement', () => {
     let locks = 0;
     for (let i = 0; i < 200; i++) {
       const count = Math.floor(random() * 3);
-      const features = Array.from({ length: count }, (_, j) => ({
-        // Well apart, narrower than the sample step, between samples.
-        at: 0.3 + j * 2 + random() * 1.2,
-        half: random() < 0.5 ? 0 : (0.02 + 0.3 * random()) * STEP_RAD,
-        touch: false,
-      })).map((f) => ({ ...f, touch: f.half === 0 }));
+      const features = madeUpFeatures(random, count, STEP_RAD);
       const phase = random() * 2 * Math.PI;
       const brent = new MadeUpMargin(features, phase);
       const golden = new MadeUpMargin(features, phase);
@@ -167,6 +183,28 @@ describe('lock search refinement', () => {
     }
     expect(locks).toBeGreaterThan(100);
     expect(brentProbes).toBeLessThan(goldenProbes);
+  });
+
+  it('on a grid, samples the range at its ends and at the multiples of the grid between them, and counts the same known locks', () => {
+    const random = lcg(20261205);
+    const gridRad = (2 * Math.PI) / 180;
+    let locks = 0;
+    for (let i = 0; i < 200; i++) {
+      const count = Math.floor(random() * 3);
+      const features = madeUpFeatures(random, count, gridRad);
+      const margin = new MadeUpMargin(features, random() * 2 * Math.PI);
+      const a = 0.1 * random();
+      const b = 6.1 + 0.1 * random();
+      const got = new LockSearch(2, 720).count(margin, a, b, STEP_RAD, false, gridRad);
+      // Source: theorem — each feature is one lock (a failed stretch, or a margin of 0 at a dead centre), the background none.
+      expect(got).toBe(count);
+      locks += count;
+      const first = Math.floor(a / gridRad) + 1;
+      const inside = Math.ceil(b / gridRad) - first;
+      const grid = [a, ...Array.from({ length: inside }, (_, k) => (first + k) * gridRad), b];
+      expect(margin.asked.slice(0, grid.length)).toEqual(grid);
+    }
+    expect(locks).toBeGreaterThan(100);
   });
 
   const cases: { family: PoseFamilyId; build: (at: never) => Linkage; defaults: Record<string, { x: number; y: number }> }[] = [

@@ -26,8 +26,14 @@ const GOLDEN_SHARE = 0.5 * (3 - Math.sqrt(5));
 export const DEAD_CENTRE_MARGIN = 1e-6;
 
 export interface MarginCurve {
-  /** Start pose of the next `marginAt`; it leaves the solved pose there. */
+  /** The pose `marginAt` left: the one it solved. */
   readonly pose: Float64Array;
+  /**
+   * The next `marginAt` starts from `pose`, the one solved at driver value t (a copy is
+   * taken): a curve that moves its start on from the value it solved last takes it
+   * from t, not from the value of the pose it held.
+   */
+  startFrom(pose: Float64Array, t: number): void;
   /**
    * The assembly margin at driver value `t`: < 0 (or NaN) where the linkage does not
    * assemble; in (0, 1] where it does, falling to 0 at a toggle (dead centre).
@@ -41,11 +47,20 @@ export class LockSearch {
   private readonly margins: Float64Array;
   private readonly poses: Float64Array;
   private readonly start: Float64Array;
+  /** The driver value of `start`'s pose. */
+  private startT = NaN;
+  /** Each sample's driver value, and the ends of the bracket a minimum there is refined in. */
+  private readonly at: Float64Array;
+  private readonly below: Float64Array;
+  private readonly above: Float64Array;
 
   constructor(stride: number, maxSteps: number) {
     this.stride = stride;
     this.maxSteps = maxSteps;
     this.margins = new Float64Array(maxSteps + 1);
+    this.at = new Float64Array(maxSteps + 1);
+    this.below = new Float64Array(maxSteps + 1);
+    this.above = new Float64Array(maxSteps + 1);
     this.poses = new Float64Array((maxSteps + 1) * stride);
     this.start = new Float64Array(stride);
   }
@@ -54,19 +69,17 @@ export class LockSearch {
    * The number of locks met driving from `a` to `b` ≥ a, sampled at most `stepRad` apart
    * (capped at maxSteps samples): runs of samples that fail, plus refined minima of the
    * margin that fail or fall below DEAD_CENTRE_MARGIN. `cyclic`: b = a + 2π and the
-   * samples close up. The curve starts from the pose it holds and is left at the pose of
-   * the last sample.
+   * samples close up. The curve starts from the pose it holds and is left to start from the
+   * pose of the last sample.
    */
-  count(curve: MarginCurve, a: number, b: number, stepRad: number, cyclic: boolean): number {
+  count(curve: MarginCurve, a: number, b: number, stepRad: number, cyclic: boolean, gridRad = 0): number {
     if (!(b > a)) return 0;
-    const steps = Math.min(this.maxSteps, Math.max(2, Math.ceil((b - a) / stepRad)));
-    const h = (b - a) / steps;
-    // Cyclic: samples 0 … steps − 1, the last neighbouring the first; else 0 … steps.
-    const last = cyclic ? steps - 1 : steps;
+    const last = this.place(a, b, stepRad, cyclic, gridRad);
+    const at = this.at;
     const m = this.margins;
     const stride = this.stride;
     for (let k = 0; k <= last; k++) {
-      const v = curve.marginAt(a + k * h);
+      const v = curve.marginAt(at[k]);
       m[k] = v >= 0 ? v : -1;
       this.poses.set(curve.pose, k * stride);
     }
@@ -81,14 +94,55 @@ export class LockSearch {
         continue;
       }
       if (!(here < before && here <= after)) continue;
-      const lo = k > 0 || cyclic ? a + (k - 1) * h : a;
-      const hi = k < last || cyclic ? a + (k + 1) * h : b;
-      if (this.refine(curve, k, lo, hi)) locks++;
+      if (this.refine(curve, k, this.below[k], this.above[k])) locks++;
     }
     // Every sample failed in a cyclic range: one lock, not a run without a start.
     if (cyclic && locks === 0 && m[0] < 0) locks = 1;
-    this.copyPose(last, curve.pose);
+    this.copyPose(last, this.start);
+    curve.startFrom(this.start, at[last]);
     return locks;
+  }
+
+  /**
+   * The samples' driver values into `at`, and each one's bracket (the samples on either
+   * side, the range's end where there is none) into `below` and `above`; returns the last
+   * sample's index. With `gridRad` > 0 the samples are a, the multiples of gridRad
+   * strictly inside the range, and b (cyclic: 0 and the multiples below 2π), where the
+   * caller's curve has its poses solved already; a range that would take more than
+   * maxSteps of them is sampled evenly instead, at most `stepRad` apart.
+   */
+  private place(a: number, b: number, stepRad: number, cyclic: boolean, gridRad: number): number {
+    const at = this.at;
+    const below = this.below;
+    const above = this.above;
+    if (gridRad > 0) {
+      at[0] = a;
+      let k = 1;
+      for (let multiple = Math.floor(a / gridRad) + 1; multiple * gridRad < b; multiple++) {
+        // One more than fits: the even samples below.
+        if (k > this.maxSteps) break;
+        at[k++] = multiple * gridRad;
+      }
+      const last = cyclic ? k - 1 : k;
+      if (k <= this.maxSteps && last >= 1) {
+        if (!cyclic) at[last] = b;
+        for (let j = 0; j <= last; j++) {
+          below[j] = j > 0 ? at[j - 1] : cyclic ? at[last] - (b - a) : a;
+          above[j] = j < last ? at[j + 1] : b;
+        }
+        return last;
+      }
+    }
+    const steps = Math.min(this.maxSteps, Math.max(2, Math.ceil((b - a) / stepRad)));
+    const h = (b - a) / steps;
+    // Cyclic: samples 0 … steps − 1, the last neighbouring the first; else 0 … steps.
+    const last = cyclic ? steps - 1 : steps;
+    for (let k = 0; k <= last; k++) {
+      at[k] = a + k * h;
+      below[k] = k > 0 || cyclic ? a + (k - 1) * h : a;
+      above[k] = k < last || cyclic ? a + (k + 1) * h : b;
+    }
+    return last;
   }
 
   /**
@@ -98,6 +152,7 @@ export class LockSearch {
    */
   private refine(curve: MarginCurve, k: number, lo: number, hi: number): boolean {
     this.copyPose(k, this.start);
+    this.startT = this.at[k];
     // The bracket ends within 4 tol of the least probe: below LOCK_BRACKET_TOL_RAD.
     const tol = 0.25 * LOCK_BRACKET_TOL_RAD;
     let a = lo;
@@ -174,7 +229,7 @@ export class LockSearch {
   }
 
   private probe(curve: MarginCurve, t: number): number {
-    curve.pose.set(this.start);
+    curve.startFrom(this.start, this.startT);
     return curve.marginAt(t);
   }
 }

@@ -21,7 +21,7 @@
  * feasible `verify` finds the locks between samples (for the four-bar in closed form:
  * Grashof's criterion for its full turn, the crank's limit angles for a motion; a margin
  * search in lockSearch.ts for the rest, over each run of spans that follow on from each
- * other at once). A report draws the design in its pose at the
+ * other at once, sampled on the bins' values where the curve keeps its poses). A report draws the design in its pose at the
  * driver value asked for (the objective asks for target point 1's), so an exported
  * linkage sits on its fitted motion.
  */
@@ -935,6 +935,16 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   }
 
   /**
+   * The next solve starts from `pose`, solved at t, as from the last pose solved, without
+   * its rates: Newton's method from the pose itself (where no kept poses bracket the value).
+   */
+  startFrom(pose: Float64Array, t: number): void {
+    this.pose.set(pose);
+    this.lastT = t;
+    this.lastHasRates = false;
+    this.previousT = NaN;
+  }
+  /**
    * Assembly margin c / (c + max |d(joint)/dt|), c the crank length: every joint's rate
    * grows without bound as a dyad or a Newton block nears its toggle, so the margin falls
    * to 0 at a lock's edge; −1 where the plan does not assemble.
@@ -1042,6 +1052,8 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   const reference = new Float64Array(2 * plan.slotCount);
   const point = new Float64Array(CURVE_OUT_LENGTH);
   const lockSearch = new LockSearch(2 * plan.slotCount, LOCK_SEARCH_MAX_STEPS);
+  // A curve that keeps its solved poses has its margins on the bins' values for the price of a lookup.
+  const lockGridRad = curve.keepsSolved ? SOLVED_BIN_RAD : 0;
   const solvedPose = new Float64Array(2 * plan.slotCount);
   /** A loop's four sides (loopLengthsInto), and the crank violation of the Grashof loop's. */
   const loopSides = new Float64Array(4);
@@ -1156,7 +1168,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   /** Locks met in a full turn from the reference pose, found exactly. */
   function fullTurnLocks(): number {
     curve.reset();
-    const locks = lockSearch.count(curve, 0, TAU, MOTION_CHECK_STEP_RAD, true);
+    const locks = lockSearch.count(curve, 0, TAU, MOTION_CHECK_STEP_RAD, true, lockGridRad);
     curve.reset();
     // A design whose reachable motion has a gap does not turn fully, even where the lock
     // search's grid steps over the gap (one bin wide where the motions forward and backward
@@ -1232,7 +1244,7 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
           b = spans[2 * i + 1];
           i++;
         }
-        parts[V_BRANCH] += LOCK_SHARE * lockSearch.count(curve, a, b, MOTION_CHECK_STEP_RAD, false);
+        parts[V_BRANCH] += LOCK_SHARE * lockSearch.count(curve, a, b, MOTION_CHECK_STEP_RAD, false, lockGridRad);
       }
       curve.reset();
     },
