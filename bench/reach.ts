@@ -22,7 +22,7 @@
  * change what `reach` runs; the rows then say so. LOCI_REACH_FREE_TIMING=matched poses each
  * free-timing case as an unprescribed one (the driver values taken from the in-order match
  * of the curve, refined, instead of searched; the problem's default samples), the
- * reformulation measured as the lead for free timing (README, Benchmarks).
+ * reformulation measured as the lead for free timing (bench/HISTORY.md, reach).
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
