@@ -123,11 +123,11 @@ class GoldenLockSearch {
 class MadeUpMargin implements MarginCurve {
   readonly pose = new Float64Array(2);
   probes = 0;
-  // The margin does not depend on a start.
-  startFrom(): void {}
-  constructor(private readonly features: readonly { at: number; half: number; touch: boolean }[], private readonly phase: number) {}
   /** Every driver value asked, in order. */
   readonly asked: number[] = [];
+  constructor(private readonly features: readonly { at: number; half: number; touch: boolean }[], private readonly phase: number) {}
+  // The margin does not depend on a start.
+  startFrom(): void {}
   marginAt(t: number): number {
     this.probes++;
     this.asked.push(t);

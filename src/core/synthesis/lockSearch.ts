@@ -119,7 +119,7 @@ export class LockSearch {
       at[0] = a;
       let k = 1;
       for (let multiple = Math.floor(a / gridRad) + 1; multiple * gridRad < b; multiple++) {
-        // One more than fits: the even samples below.
+        // More samples than fit: the range is sampled evenly instead (below).
         if (k > this.maxSteps) break;
         at[k++] = multiple * gridRad;
       }

@@ -21,9 +21,9 @@
  * feasible `verify` finds the locks between samples (for the four-bar in closed form:
  * Grashof's criterion for its full turn, the crank's limit angles for a motion; a margin
  * search in lockSearch.ts for the rest, over each run of spans that follow on from each
- * other at once, sampled on the bins' values where the curve keeps its poses). A report draws the design in its pose at the
- * driver value asked for (the objective asks for target point 1's), so an exported
- * linkage sits on its fitted motion.
+ * other at once, sampled on the bins' values where the curve keeps its poses). A report
+ * draws the design in its pose at the driver value asked for (the objective asks for
+ * target point 1's), so an exported linkage sits on its fitted motion.
  */
 import {
   compile,
