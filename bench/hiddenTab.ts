@@ -10,12 +10,8 @@
  * Needs Chromium (`LOCI_CHROMIUM`, or /usr/bin/chromium); builds the app as the browser
  * tests do.
  */
-import { mkdtemp, rm } from 'node:fs/promises';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { buildApp, serveApp } from '../tests/browser/app-server';
-import { chromiumExecutablePath, isExecutable } from '../tests/browser/chromium';
 import { launchPipedChromium, progressOver, showApp, startSearch } from '../tests/browser/devtoolsPipe';
+import { withServedApp } from './servedApp';
 
 const LONG_BUDGET = '5000000';
 /** Checkpoints every 2 s: each block holds one or two, about as many as the next. */
@@ -28,39 +24,28 @@ const HIDDEN_BLOCKS = [false, true, true, false, true, false, false, true, false
 const mean = (xs: readonly number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
 
 export async function benchHiddenTab(): Promise<Record<string, number>> {
-  const executable = chromiumExecutablePath();
-  if (!(await isExecutable(executable))) throw new Error(`Chromium not found at ${executable} (install Debian's chromium package, or set LOCI_CHROMIUM to its path)`);
-  const outDir = await mkdtemp(join(tmpdir(), 'loci-bench-build-'));
-  try {
-    await buildApp(outDir);
-    const served = await serveApp(outDir);
+  return withServedApp(async (baseUrl) => {
+    const chromium = await launchPipedChromium();
     try {
-      const chromium = await launchPipedChromium();
-      try {
-        const app = await chromium.openTab(served.baseUrl);
-        const other = await chromium.openTab('about:blank');
-        await chromium.front(app);
-        await startSearch(app, LONG_BUDGET, CHECKPOINT_EVERY_S);
-        const rates = { visible: [] as number[], hidden: [] as number[] };
-        for (const hidden of HIDDEN_BLOCKS) {
-          await showApp(chromium, app, other, hidden);
-          const { start, end } = await progressOver(app, BLOCK_MS);
-          if ((await app.evaluate<string>('document.visibilityState')) !== (hidden ? 'hidden' : 'visible')) throw new Error('the tab changed visibility within a block');
-          (hidden ? rates.hidden : rates.visible).push(((end.evaluations - start.evaluations) * 1000) / (end.elapsedMs - start.elapsedMs));
-        }
-        return {
-          visibleEvaluationsPerS: mean(rates.visible),
-          hiddenEvaluationsPerS: mean(rates.hidden),
-          hiddenOverVisibleRatio: mean(rates.hidden) / mean(rates.visible),
-          slowestHiddenOverMeanVisibleRatio: Math.min(...rates.hidden) / mean(rates.visible),
-        };
-      } finally {
-        await chromium.close();
+      const app = await chromium.openTab(baseUrl);
+      const other = await chromium.openTab('about:blank');
+      await chromium.front(app);
+      await startSearch(app, LONG_BUDGET, CHECKPOINT_EVERY_S);
+      const rates = { visible: [] as number[], hidden: [] as number[] };
+      for (const hidden of HIDDEN_BLOCKS) {
+        await showApp(chromium, app, other, hidden);
+        const { start, end } = await progressOver(app, BLOCK_MS);
+        if ((await app.evaluate<string>('document.visibilityState')) !== (hidden ? 'hidden' : 'visible')) throw new Error('the tab changed visibility within a block');
+        (hidden ? rates.hidden : rates.visible).push(((end.evaluations - start.evaluations) * 1000) / (end.elapsedMs - start.elapsedMs));
       }
+      return {
+        visibleEvaluationsPerS: mean(rates.visible),
+        hiddenEvaluationsPerS: mean(rates.hidden),
+        hiddenOverVisibleRatio: mean(rates.hidden) / mean(rates.visible),
+        slowestHiddenOverMeanVisibleRatio: Math.min(...rates.hidden) / mean(rates.visible),
+      };
     } finally {
-      await served.close();
+      await chromium.close();
     }
-  } finally {
-    await rm(outDir, { recursive: true, force: true });
-  }
+  });
 }

@@ -12,6 +12,7 @@ import { benchFamilies } from './families';
 import { benchFamilyRates } from './familyRates';
 import { benchHiddenTab } from './hiddenTab';
 import { benchKernel } from './kernel';
+import { benchMainThread } from './mainThread';
 import { benchMatching } from './matching';
 import { benchReach, benchReachQuick } from './reach';
 import { benchScaling } from './scaling';
@@ -41,6 +42,7 @@ const BENCHES: readonly Bench[] = [
   { name: 'families', run: benchFamilies },
   { name: 'family-rates', run: benchFamilyRates },
   { name: 'hidden-tab', run: benchHiddenTab },
+  { name: 'main-thread', run: benchMainThread },
   { name: 'reach', run: benchReach, onlyByName: true },
   { name: 'reach-quick', run: benchReachQuick },
   { name: 'soak', run: benchSoak, onlyByName: true },
