@@ -4,6 +4,7 @@
  * its cost table, abandoning and bounds, and the seeded cases both matcher tests draw.
  */
 import type { Prng } from '../../src/core/optimize/prng';
+import { CYCLIC_START_CANDIDATES } from '../../src/core/synthesis/timing';
 
 export interface Case {
   readonly samples: Float64Array;
@@ -69,10 +70,10 @@ export function plainDp(c: Case, n: number, m: number, cyclic: boolean, out: Int
     return total;
   }
   let starts = cyclicStarts(c, m);
-  // Keep the three cheapest, replacing the worst as they come (the documented rule).
+  // Keep the CYCLIC_START_CANDIDATES cheapest, replacing the worst as they come (the documented rule).
   const kept: { j: number; c: number }[] = [];
   for (const s of starts) {
-    if (kept.length < 3) kept.push(s);
+    if (kept.length < CYCLIC_START_CANDIDATES) kept.push(s);
     else {
       let worst = 0;
       for (let k = 1; k < kept.length; k++) if (kept[k].c > kept[worst].c) worst = k;

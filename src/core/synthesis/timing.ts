@@ -35,8 +35,15 @@ const CURVE_Y = CURVE_Y_BINDING;
 
 /** Below this step (rad or mm of driver value) Newton has converged. */
 export const DRIVER_STEP_TOLERANCE = 1e-13;
-/** Candidate starts tried for a cyclic match (local minima of the first point's distance). */
-export const CYCLIC_START_CANDIDATES = 3;
+/**
+ * Candidate starts tried for a cyclic match: the cheapest local minima of the first
+ * point's distance along the loop, up to this many. A six-bar's coupler curve can pass
+ * near one point several times; with 3, the match missed the best start often enough
+ * that the reach set's unprescribed Stephenson I (bench/reachCases.ts) reached its
+ * optimum on no seed of 10, with 8 on 2 (and 24 no more than 8: curves seldom have more
+ * minima); a start that cannot win is abandoned early by its bound, so 8 cost little.
+ */
+export const CYCLIC_START_CANDIDATES = 8;
 /**
  * Relative margin on the lower bound that abandons a pass: the bound adds the same
  * non-negative terms as the pass, in another order, so it may round up by a few ulps

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { createMatchScratch, matchInOrder } from '../../../src/core/synthesis';
+import { CYCLIC_START_CANDIDATES } from '../../../src/core/synthesis/timing';
 import { Prng } from '../../../src/core/optimize/prng';
 import { cost, cyclicStarts, plainDp, randomCase, type Case } from '../../support/matchReference';
 
@@ -61,7 +62,7 @@ describe('matchInOrder against references', () => {
           want = exhaustive(c, n, m, 0, m - 1);
         } else {
           const minima = cyclicStarts(c, m).sort((a, b) => a.c - b.c);
-          const starts = minima.length > 0 ? minima.slice(0, 3) : [{ j: 0, c: 0 }];
+          const starts = minima.length > 0 ? minima.slice(0, CYCLIC_START_CANDIDATES) : [{ j: 0, c: 0 }];
           const half = Math.max(1, Math.floor(m / 16));
           want = Math.min(...starts.map((s) => exhaustive(c, n, m, (s.j - half + m) % m, 2 * half)));
         }
