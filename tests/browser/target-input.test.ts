@@ -287,6 +287,8 @@ describeBrowser('target input', () => {
     expect(await pasteKeptText(box)).toBe(false);
     expect(await box.inputValue()).toBe('');
     await expect.poll(() => targetNotice(page)).toMatch(/read directly: too long to edit in the box\); the target is unchanged/);
+    // Read in a worker of its own: the page loaded the reader's worker script.
+    expect(app.requests.some((r) => /csvParseWorker.*\.js$/.test(new URL(r.url).pathname))).toBe(true);
     expect(await targetNotice(page)).toMatch(/rows of points; a target may have at most [\d,]+ \(resample it first\)/);
     // Then select all and replace.
     await box.focus();

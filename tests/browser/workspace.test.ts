@@ -1,8 +1,9 @@
 /**
  * The workspace as a user meets it, in headless Chromium: the demo on first start,
  * target entry (paste, a bad CSV, the drawing), a short search in workers with its
- * ranked candidates, work kept across a reload, a search a reload interrupted going on from its checkpoint (a damaged newest
- * checkpoint skipped for the one before), and no request to any other origin.
+ * ranked candidates, work kept across a reload, a search a reload interrupted going on
+ * from its checkpoint (a damaged newest checkpoint skipped for the one before), and no
+ * request to any other origin.
  */
 import { readFile } from 'node:fs/promises';
 import type { Page } from 'playwright-core';
