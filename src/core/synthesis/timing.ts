@@ -38,10 +38,9 @@ export const DRIVER_STEP_TOLERANCE = 1e-13;
 /**
  * Candidate starts tried for a cyclic match: the cheapest local minima of the first
  * point's distance along the loop, up to this many. A six-bar's coupler curve can pass
- * near one point several times; with 3, the match missed the best start often enough
- * that the reach set's unprescribed Stephenson I (bench/reachCases.ts) reached its
- * optimum on no seed of 10, with 8 on 2 (and 24 no more than 8: curves seldom have more
- * minima); a start that cannot win is abandoned early by its bound, so 8 cost little.
+ * near one point several times, and fewer starts missed the best one often enough to
+ * cost the closed unprescribed cases their reach (bench/README.md, Reach); a start that
+ * cannot win is abandoned early by its bound, so more starts cost little.
  */
 export const CYCLIC_START_CANDIDATES = 8;
 /**
