@@ -33,4 +33,11 @@ export interface CurveEvaluator {
    * on the hot path: one cost the six-bars 7 % of their rate).
    */
   atIo(order: 0 | 1 | 2, io: Float64Array): void;
+  /**
+   * Optional: what atIo(order, …) at t = j · 2π / count gives, for j = 0 … count − 1 in
+   * turn, into out[j · CURVE_OUT_LENGTH …] (CURVE_* layout, the driver value too), with
+   * the curve left as those calls would leave it; for a curve that holds those answers
+   * already and can read them without the calls.
+   */
+  atIoAround?(order: 0 | 1, count: number, out: Float64Array): void;
 }

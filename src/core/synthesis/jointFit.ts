@@ -10,7 +10,7 @@
  * Coarse to fine (refineOnSamples), the steps run on the curve's samples read as cubics
  * (SampledCurve, no solve of the linkage) and only the last on the curve itself.
  */
-import { CURVE_OUT_LENGTH, CURVE_T as CURVE_T_BINDING, type CurveEvaluator } from './curve';
+import { CURVE_MARGIN as CURVE_MARGIN_BINDING, CURVE_OUT_LENGTH, CURVE_T as CURVE_T_BINDING, type CurveEvaluator } from './curve';
 import type { SampledCurve } from './sampledCurve';
 
 /** Gauss–Newton steps at most. */
@@ -31,6 +31,7 @@ export const JOINT_FIT_REL_TOL = 1e-14;
 // An imported constant as a local: a module transform (tsx, vitest) may turn each read of
 // an imported binding into a getter call, which the sums below cannot afford.
 const CURVE_T = CURVE_T_BINDING;
+const CURVE_MARGIN = CURVE_MARGIN_BINDING;
 
 /** Placement layout shared with geometry's similarity fit: a = s cos θ, b = s sin θ, tx, ty. */
 const A = 0;
@@ -71,6 +72,12 @@ export interface JointFit {
     placement: Float64Array,
     limits: Float64Array,
   ): void;
+  /**
+   * The points of the curve the last refine ran on, at the driver values it left (as that
+   * curve gave them there: no evaluation again), x0, y0, … into `points`, and each one's
+   * assembly margin (CURVE_MARGIN) into `margins`.
+   */
+  pointsInto(points: Float64Array, margins: Float64Array): void;
 }
 
 export function createJointFit(n: number): JointFit {
@@ -79,11 +86,13 @@ export function createJointFit(n: number): JointFit {
   const py = new Float64Array(n);
   const dpx = new Float64Array(n);
   const dpy = new Float64Array(n);
+  const pm = new Float64Array(n);
   /** The same at the trial values; swapped with the above when a trial is accepted. */
   const tx = new Float64Array(n);
   const ty = new Float64Array(n);
   const tdx = new Float64Array(n);
   const tdy = new Float64Array(n);
+  const tm = new Float64Array(n);
   const dt = new Float64Array(n);
   const dInv = new Float64Array(n);
   const c = new Float64Array(4 * n);
@@ -114,6 +123,7 @@ export function createJointFit(n: number): JointFit {
     const oy = into === 0 ? py : ty;
     const odx = into === 0 ? dpx : tdx;
     const ody = into === 0 ? dpy : tdy;
+    const om = into === 0 ? pm : tm;
     let sum = 0;
     for (let i = 0; i < n; i++) {
       buf[CURVE_T] = ts[to + i];
@@ -122,6 +132,7 @@ export function createJointFit(n: number): JointFit {
       oy[i] = buf[1];
       odx[i] = buf[2];
       ody[i] = buf[3];
+      om[i] = buf[CURVE_MARGIN];
       const x = p[A] * buf[0] - p[B] * buf[1] + p[TX] - targets[2 * i];
       const y = p[B] * buf[0] + p[A] * buf[1] + p[TY] - targets[2 * i + 1];
       sum += (weights === undefined ? 1 : weights[i]) * (x * x + y * y);
@@ -288,6 +299,16 @@ export function createJointFit(n: number): JointFit {
     refineOnSamples(sampled, curve, targets, weights, t, o, placement, limits) {
       refine(sampled, targets, weights, t, o, placement, limits, JOINT_FIT_ITERATIONS, JOINT_FIT_HALVINGS);
       refine(curve, targets, weights, t, o, placement, limits, JOINT_FIT_CURVE_ITERATIONS, JOINT_FIT_CURVE_HALVINGS);
+    },
+    pointsInto(points, margins) {
+      const ox = current === 0 ? px : tx;
+      const oy = current === 0 ? py : ty;
+      const om = current === 0 ? pm : tm;
+      for (let i = 0; i < n; i++) {
+        points[2 * i] = ox[i];
+        points[2 * i + 1] = oy[i];
+        margins[i] = om[i];
+      }
     },
   };
 }

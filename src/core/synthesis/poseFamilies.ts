@@ -142,6 +142,14 @@ const PREDICT_MAX_SPEED = 8;
  */
 const SOLVED_BINS = 180;
 const SOLVED_BIN_RAD = TAU / SOLVED_BINS;
+/**
+ * Beside each bin's pose, the last pose solved between the bins' values nearest it (at
+ * index SOLVED_BINS + bin): the fit's driver values, which the target's points, the
+ * motion's ends and the lock search ask for again. Kept apart so that a solve between
+ * values does not take the place of a bin's pose at its own value (the sweep's), which
+ * the motion check and the lock search's grid ask for again too.
+ */
+const BETWEEN = SOLVED_BINS;
 /** Bins searched on each side for the poses solved around a driver value. */
 const SOLVED_REACH_BINS = 3;
 /** Most samples of one motion on the bins' driver values (four turns); a longer one is sampled every MOTION_CHECK_STEP_RAD. */
@@ -233,7 +241,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   private readonly expected: Float64Array;
   private expectedMotion = NaN;
-  /** The point of sweepReachable's solves. */
+  /** The point of sweepReachable's solves, and of atIoAround's calls. */
   private readonly sweepPoint = new Float64Array(CURVE_OUT_LENGTH);
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
     this.plan = plan;
@@ -243,10 +251,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.predicts = plan.newtonUnknowns > 0;
     this.ratesFromPose = !(plan as PlanInternal).driverIsLength;
     this.unknowns = newtonUnknownSlots(plan);
-    this.solvedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
-    this.solvedPoses = new Float64Array(this.predicts ? SOLVED_BINS * 2 * plan.slotCount : 0);
-    this.solvedRates = new Float64Array(this.predicts ? SOLVED_BINS * 2 * plan.slotCount : 0);
-    this.solvedHasRates = new Uint8Array(this.predicts ? SOLVED_BINS : 0);
+    this.solvedT = new Float64Array(this.predicts ? 2 * SOLVED_BINS : 0).fill(NaN);
+    this.solvedPoses = new Float64Array(this.predicts ? 2 * SOLVED_BINS * 2 * plan.slotCount : 0);
+    this.solvedRates = new Float64Array(this.predicts ? 2 * SOLVED_BINS * 2 * plan.slotCount : 0);
+    this.solvedHasRates = new Uint8Array(this.predicts ? 2 * SOLVED_BINS : 0);
     this.failedT = new Float64Array(this.predicts ? SOLVED_BINS : 0).fill(NaN);
     this.begin = new Float64Array(2 * plan.slotCount);
     this.expected = new Float64Array(2 * plan.slotCount);
@@ -514,16 +522,18 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const tangent = this.lastHasRates;
     // Per radian: the rates, or the secant's slope.
     const slope = tangent ? 1 : Math.abs(span) >= SECANT_MIN_SPAN_RAD ? 1 / span : 0;
-    let fastest = 0;
-    for (let k = 0; k < unknowns.length; k++) {
-      const i = unknowns[k];
-      const sx = Math.abs(tangent ? rates[i] : (pose[i] - previous[i]) * slope);
-      const sy = Math.abs(tangent ? rates[i + 1] : (pose[i + 1] - previous[i + 1]) * slope);
-      if (!(sx <= fastest)) fastest = sx;
-      if (!(sy <= fastest)) fastest = sy;
-    }
     // A continuation steps as the analysis does: always from the tangent (followsTangent checks where it lands).
     const checked = this.continuing && tangent && dt === dt;
+    let fastest = 0;
+    if (!checked) {
+      for (let k = 0; k < unknowns.length; k++) {
+        const i = unknowns[k];
+        const sx = Math.abs(tangent ? rates[i] : (pose[i] - previous[i]) * slope);
+        const sy = Math.abs(tangent ? rates[i + 1] : (pose[i + 1] - previous[i + 1]) * slope);
+        if (!(sx <= fastest)) fastest = sx;
+        if (!(sy <= fastest)) fastest = sy;
+      }
+    }
     const predict = slope !== 0 && (checked || (Math.abs(dt) <= PREDICT_MAX_STEP_RAD && fastest <= PREDICT_MAX_SPEED * this.crankMm));
     if (checked) {
       // What followsTangent checks the step against, as the analysis has it: the move of
@@ -600,21 +610,26 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const bin = Math.round(u / SOLVED_BIN_RAD);
     if (bin >= 0 && bin < SOLVED_BINS) this.failedT[bin] = u;
   }
-  /** Keeps the pose just solved at t (and its rates, when solved with them) in the bin nearest t, when t is in [0, 2π). */
+  /**
+   * Keeps the pose just solved at t (and its rates, when solved with them) in the bin
+   * nearest t, when t is in [0, 2π); beside it (BETWEEN) where t is not the bin's own
+   * value and the bin holds the pose at its own value.
+   */
   private keepSolved(t: number, withRates: boolean): void {
-    const bin = Math.round(t / SOLVED_BIN_RAD);
-    // t itself in the turn, not its bin: a value just below 0 rounds to bin 0, and its
+    // Past the first turn, where the motion is known to close in one turn, t's pose is
+    // the one at its place in the first.
+    const u = t >= TAU && this.closes === 1 ? t - Math.floor(t / TAU) * TAU : t;
+    let bin = Math.round(u / SOLVED_BIN_RAD);
+    // u itself in the turn, not its bin: a value just below 0 rounds to bin 0, and its
     // pose (the motion turning backward from the reference pose) is not the turn's.
-    if (!(t >= 0 && bin < SOLVED_BINS)) return;
-    this.solvedT[bin] = t;
-    const pose = this.pose;
-    const o = bin * pose.length;
-    for (let i = 0; i < pose.length; i++) this.solvedPoses[o + i] = pose[i];
+    if (!(u >= 0 && bin < SOLVED_BINS)) return;
+    const own = bin * SOLVED_BIN_RAD;
+    if (u !== own && this.solvedT[bin] === own) bin += BETWEEN;
+    this.solvedT[bin] = u;
+    const o = bin * this.pose.length;
+    this.solvedPoses.set(this.pose, o);
     this.solvedHasRates[bin] = withRates ? 1 : 0;
-    if (withRates) {
-      const rates = this.rates;
-      for (let i = 0; i < rates.length; i++) this.solvedRates[o + i] = rates[i];
-    }
+    if (withRates) this.solvedRates.set(this.rates, o);
   }
 
   /**
@@ -645,12 +660,21 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const u = t - turns * TAU;
     const bin = Math.round(u / SOLVED_BIN_RAD);
     if (!(bin < SOLVED_BINS)) return false;
-    if (turns === 0 ? this.solvedT[bin] !== t : !(Math.abs(this.solvedT[bin] - u) <= SAME_DRIVER_VALUE_RAD && this.closesInOneTurn())) return false;
+    const times = this.solvedT;
+    let kept: number;
+    if (turns === 0) kept = times[bin] === t ? bin : times[bin + BETWEEN] === t ? bin + BETWEEN : -1;
+    else kept = this.sameAs(u, bin) >= 0 ? bin : this.sameAs(u, bin + BETWEEN);
+    if (kept < 0 || (turns !== 0 && !this.closesInOneTurn())) return false;
     if (into !== null) {
-      const o = bin * into.length;
+      const o = kept * into.length;
       for (let i = 0; i < into.length; i++) into[i] = this.solvedPoses[o + i];
     }
     return true;
+  }
+
+  /** `slot` when it holds u (within SAME_DRIVER_VALUE_RAD), else −1. */
+  private sameAs(u: number, slot: number): number {
+    return Math.abs(this.solvedT[slot] - u) <= SAME_DRIVER_VALUE_RAD ? slot : -1;
   }
 
   /**
@@ -789,7 +813,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       this.previousT = this.lastT;
     }
     // t itself solved already: the pose there is its solution (SAME_DRIVER_VALUE_RAD).
-    const same = Math.abs(u - times[lo]) <= SAME_DRIVER_VALUE_RAD ? lo : Math.abs(times[hi] - u) <= SAME_DRIVER_VALUE_RAD ? hi : -1;
+    const same = Math.abs(u - times[lo]) <= SAME_DRIVER_VALUE_RAD ? lo : Math.abs(times[hi] - u) <= SAME_DRIVER_VALUE_RAD ? hi : bin < SOLVED_BINS ? this.sameAs(u, bin + BETWEEN) : -1;
     if (same >= 0) {
       lo = same;
       hi = same;
@@ -983,6 +1007,48 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     out[CURVE_T] = t;
     this.atIo(order, out);
     return out[CURVE_MARGIN];
+  }
+  /**
+   * The curve's samples (CurveEvaluator.atIoAround). Where they are the bins (count
+   * SOLVED_BINS), each bin that holds its own value's pose, with its rates where asked,
+   * and that the design reaches is read as a lookup there answers, without the call; the
+   * others are called. A lookup moves the curve's history on (its pose and the one before,
+   * see start), so the last two reads before a call, and at the end, are made as calls too
+   * (answering the same): the curve is then left as the calls in turn leave it.
+   */
+  atIoAround(order: 0 | 1, count: number, out: Float64Array): void {
+    const step = TAU / count;
+    const point = this.sweepPoint;
+    const stride = this.pose.length;
+    const s = this.pSlot;
+    const binned = this.predicts && count === SOLVED_BINS && !this.continuing;
+    /** Reads in a row, up to j, not made as calls. */
+    let read = 0;
+    for (let j = 0; j <= count; j++) {
+      const t = j * step;
+      if (j < count && binned && this.solvedT[j] === t && (order === 0 || this.solvedHasRates[j] === 1) && !(t > this.gapFrom && t < this.gapTo)) {
+        const o = j * CURVE_OUT_LENGTH;
+        out[o + CURVE_T] = t;
+        out[o + CURVE_X] = this.solvedPoses[j * stride + s];
+        out[o + CURVE_Y] = this.solvedPoses[j * stride + s + 1];
+        if (order > 0) {
+          out[o + CURVE_DX] = this.solvedRates[j * stride + s];
+          out[o + CURVE_DY] = this.solvedRates[j * stride + s + 1];
+        }
+        out[o + CURVE_MARGIN] = 1;
+        read++;
+        continue;
+      }
+      for (let k = j - Math.min(read, 2); k < j; k++) {
+        point[CURVE_T] = k * step;
+        this.atIo(order, point);
+      }
+      read = 0;
+      if (j === count) break;
+      point[CURVE_T] = t;
+      this.atIo(order, point);
+      out.set(point, j * CURVE_OUT_LENGTH);
+    }
   }
   atIo(order: 0 | 1 | 2, out: Float64Array): void {
     const t = out[CURVE_T];

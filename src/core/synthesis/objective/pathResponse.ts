@@ -123,6 +123,8 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const closed = problem.target.closed;
   const timing = problem.timing;
   const freePlacement = problem.placement === 'free';
+  /** Unprescribed timing with a free placement: matched, then driver values and placement fitted together (matchPlacedTiming). */
+  const fitsPlacement = timing.mode === 'unprescribed' && freePlacement;
   const measure = problem.measure;
 
   // Scratch, allocated once.
@@ -139,12 +141,16 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const times = new Float64Array(branchCount * n);
   const unwrapped = new Float64Array(n);
   const points = new Float64Array(2 * n);
+  /** Each point's assembly margin (CURVE_MARGIN). */
+  const margins = new Float64Array(n);
   const d2 = new Float64Array(n);
   const driverValues = timing.mode === 'prescribed' ? Float64Array.from(timing.driverValues) : new Float64Array(0);
   const wrap = timing.mode === 'free' ? timing.wrap : timing.mode === 'unprescribed' ? timing.wrap !== false : false;
   const refineFree = timing.mode === 'free' && timing.refine === true;
   const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : 0;
   const samples = new Float64Array(2 * sampleCount);
+  /** The curve's answers at the samples (CURVE_* layout, one after another). */
+  const around = new Float64Array(sampleCount * CURVE_OUT_LENGTH);
   // The samples with their rates serve the joint refinement of a free placement only.
   const sampled = new SampledCurve(freePlacement ? Math.max(sampleCount, 1) : 1);
   const placedSamples = new Float64Array(freePlacement ? 2 * sampleCount : 0);
@@ -183,24 +189,35 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
 
   /** The curve at the samples, with rates when `order` is 1 (into `sampled`, for the joint refinement). */
   function sampleCurve(order: 0 | 1): void {
-    const step = TAU / sampleCount;
+    if (curve.atIoAround !== undefined) {
+      curve.atIoAround(order, sampleCount, around);
+    } else {
+      const step = TAU / sampleCount;
+      for (let j = 0; j < sampleCount; j++) {
+        buf[CURVE_T] = j * step;
+        curve.atIo(order, buf);
+        around.set(buf, j * CURVE_OUT_LENGTH);
+      }
+    }
     const withRates = sampled.samples;
     let any = false;
     for (let j = 0; j < sampleCount; j++) {
-      buf[CURVE_T] = j * step;
-      curve.atIo(order, buf);
-      const margin = buf[CURVE_MARGIN];
-      samples[2 * j] = buf[CURVE_X];
-      samples[2 * j + 1] = buf[CURVE_Y];
-      const ok = margin >= 0 && Number.isFinite(buf[CURVE_X] + buf[CURVE_Y]);
+      const o = j * CURVE_OUT_LENGTH;
+      const x = around[o + CURVE_X];
+      const y = around[o + CURVE_Y];
+      samples[2 * j] = x;
+      samples[2 * j + 1] = y;
+      const ok = around[o + CURVE_MARGIN] >= 0 && Number.isFinite(x + y);
       valid[j] = ok ? 1 : 0;
       any = any || ok;
       if (order === 0) continue;
-      withRates[4 * j] = buf[CURVE_X];
-      withRates[4 * j + 1] = buf[CURVE_Y];
-      withRates[4 * j + 2] = buf[CURVE_DX];
-      withRates[4 * j + 3] = buf[CURVE_DY];
-      sampled.valid[j] = ok && Number.isFinite(buf[CURVE_DX] + buf[CURVE_DY]) ? 1 : 0;
+      const dx = around[o + CURVE_DX];
+      const dy = around[o + CURVE_DY];
+      withRates[4 * j] = x;
+      withRates[4 * j + 1] = y;
+      withRates[4 * j + 2] = dx;
+      withRates[4 * j + 3] = dy;
+      sampled.valid[j] = ok && Number.isFinite(dx + dy) ? 1 : 0;
     }
     if (order === 1) sampled.sampledFrom(curve);
     // Nothing assembles: match anyway on the stand-in curve, so the value still ranks.
@@ -366,21 +383,29 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       if (refineFree) refineFreeTiming(x, times, o);
       orderViolationInto(times, o, n, wrap, TAU, order, 0);
       parts[V_ORDER] += order[0];
-    } else if (freePlacement) {
+    } else if (fitsPlacement) {
       matchPlacedTiming(times, o);
     } else {
       matchTiming(times, o);
     }
 
-    // Output points at the driver values; assembly at each.
+    // Output points at the driver values; assembly at each. A free placement's fit
+    // evaluated the curve at them last, and has them.
+    if (fitsPlacement) {
+      jointFit.pointsInto(points, margins);
+    } else {
+      for (let i = 0; i < n; i++) {
+        buf[CURVE_T] = times[o + i];
+        curve.atIo(0, buf);
+        margins[i] = buf[CURVE_MARGIN];
+        points[2 * i] = buf[CURVE_X];
+        points[2 * i + 1] = buf[CURVE_Y];
+      }
+    }
     let assembly = 0;
     for (let i = 0; i < n; i++) {
-      buf[CURVE_T] = times[o + i];
-      curve.atIo(0, buf);
-      const margin = buf[CURVE_MARGIN];
+      const margin = margins[i];
       if (!(margin >= 0)) assembly += margin < 0 ? Math.min(1, -margin) : 1;
-      points[2 * i] = buf[CURVE_X];
-      points[2 * i + 1] = buf[CURVE_Y];
     }
     parts[V_ASSEMBLY] += assembly / n;
 
