@@ -208,7 +208,7 @@ export function solveBlock(p: PlanInternal, block: number, pose: Float64Array): 
   }
   const triad = triadsOf(p)[block];
   if (triad !== null) {
-    const outcome = solveTriad(p, triad, pose, p.newtonTolMm);
+    const outcome = solveTriad(p, triad, pose);
     if (outcome !== NO_START) return outcome === SOLVED;
   }
   return dampedNewton(p, block, pose);
@@ -326,7 +326,7 @@ export function blockRates(p: PlanInternal, block: number, pose: Float64Array, r
  */
 export function blockJacobianSign(p: PlanInternal, block: number, pose: Float64Array): number {
   const triad = triadsOf(p)[block];
-  if (triad !== null) return triadJacobianSign(p, triad, pose, SINGULAR_PIVOT_REL_TOL);
+  if (triad !== null) return triadJacobianSign(p, triad, pose);
   const n = 2 * p.blockUnknownCount[block];
   blockResidual(p, block, pose, true, null);
   return determinantSignInPlace(p.jacobian, n, SINGULAR_PIVOT_REL_TOL);

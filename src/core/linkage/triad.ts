@@ -32,6 +32,7 @@ const DIST = 0 satisfies typeof EQ_DIST;
 const RIGID = 1 satisfies typeof EQ_RIGID;
 const NEWTON_MAX_ITERATIONS = tolerances.NEWTON_MAX_ITERATIONS;
 const NEWTON_ROUNDING_FLOOR_FACTOR = tolerances.NEWTON_ROUNDING_FLOOR_FACTOR;
+const SINGULAR_PIVOT_REL_TOL = tolerances.SINGULAR_PIVOT_REL_TOL;
 
 /**
  * Largest change of φ in one Newton step (rad): where g′ is small far from a root, an
@@ -142,12 +143,25 @@ const RK = 24;
 const DIR = 25;
 /** Six scores, one per pair. */
 const SCORE = 27;
+/**
+ * place's direction in and g out. Numbers cross the calls here in the scratch, not as
+ * arguments and return values: V8 boxes a number passed to or returned from a call it
+ * does not inline (an allocation), and `place` is too long to be inlined everywhere.
+ */
+const G = 33;
+const PHI = 34;
 
-/** Places X_i at direction (c, sn) = (cos φ, sin φ), X_j by its dyad, X_k by the link into s[at .. at + 6); returns g(φ) (mm), NaN where the dyad does not assemble. */
-function place(s: Float64Array, c: number, sn: number, at: number): number {
-  const xi = s[KI] + s[RI] * c;
-  const yi = s[KI + 1] + s[RI] * sn;
-  if (!circleCircleIntersectInto(xi, yi, s[DIJ], s[KJ], s[KJ + 1], s[RJ], s[SIDE], s, at + 2)) return NaN;
+/**
+ * Places X_i at direction s[PHI ..] = (cos φ, sin φ), X_j by its dyad, X_k by the link
+ * into s[at .. at + 6), and g(φ) (mm) into s[G], NaN where the dyad does not assemble.
+ */
+function place(s: Float64Array, at: number): void {
+  const xi = s[KI] + s[RI] * s[PHI];
+  const yi = s[KI + 1] + s[RI] * s[PHI + 1];
+  if (!circleCircleIntersectInto(xi, yi, s[DIJ], s[KJ], s[KJ + 1], s[RJ], s[SIDE], s, at + 2)) {
+    s[G] = NaN;
+    return;
+  }
   s[at] = xi;
   s[at + 1] = yi;
   const wx = s[at + 2] - xi;
@@ -159,7 +173,7 @@ function place(s: Float64Array, c: number, sn: number, at: number): number {
   const dx = xk - s[KK];
   const dy = yk - s[KK + 1];
   const rk = s[RK];
-  return (dx * dx + dy * dy - rk * rk) / (2 * rk);
+  s[G] = (dx * dx + dy * dy - rk * rk) / (2 * rk);
 }
 
 /**
@@ -185,10 +199,10 @@ function slope(s: Float64Array): number {
 
 /**
  * Sets up the reduction on pair `pair` from the pose (s[NOW ..] the joints at the
- * start's angle, s[DIR ..] its direction); returns g there, NaN where the dyad does not
+ * start's angle, s[DIR ..] its direction); g there into s[G], NaN where the dyad does not
  * assemble or X_i sits on K_i.
  */
-function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number): number {
+function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number): void {
   const s = p.jacobian;
   const prm = p.params;
   const i = PAIR_I[pair];
@@ -228,10 +242,15 @@ function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number)
   const ux = pose[xi] - s[KI];
   const uy = pose[xi + 1] - s[KI + 1];
   const inv = 1 / Math.sqrt(ux * ux + uy * uy);
-  if (!(inv < Infinity)) return NaN;
+  if (!(inv < Infinity)) {
+    s[G] = NaN;
+    return;
+  }
   s[DIR] = ux * inv;
   s[DIR + 1] = uy * inv;
-  return place(s, s[DIR], s[DIR + 1], NOW);
+  s[PHI] = s[DIR];
+  s[PHI + 1] = s[DIR + 1];
+  place(s, NOW);
 }
 
 /** Pair c's dyad's squared sine at X_j: |(X_j − X_i) × (X_j − K_j)|² over both lengths squared (0 at its dead centre). */
@@ -343,10 +362,11 @@ function choosePair(t: Int32Array, pose: Float64Array): number {
  * (it is orthogonal to the three rows, and det of the three rows with n is −|n|²), so
  * det = −(g3ᵀ(I − R) n₁ + g3ᵀR n₂): the rate of X3's equation along the one motion the
  * other three allow, no elimination. A comparison with the reference pose's sign, taken
- * the same way, cancels the factor. Singular where |det| is within `pivotRelTol` of the
- * fourth power of the rows' largest entry (the scale of a 4 × 4 determinant of them).
+ * the same way, cancels the factor. Singular where |det| is within SINGULAR_PIVOT_REL_TOL
+ * of the fourth power of the rows' largest entry (the scale of a 4 × 4 determinant of
+ * them).
  */
-export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64Array, pivotRelTol: number): number {
+export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64Array): number {
   const prm = p.params;
   const x0 = t[0];
   const x1 = t[1];
@@ -379,22 +399,29 @@ export function triadJacobianSign(p: PlanInternal, t: Int32Array, pose: Float64A
     Math.abs(d1x), Math.abs(d1y), Math.abs(d2x), Math.abs(d2y),
   );
   const square = largest * largest;
-  if (!(Math.abs(det) > pivotRelTol * square * square)) return 0;
+  if (!(Math.abs(det) > SINGULAR_PIVOT_REL_TOL * square * square)) return 0;
   return det > 0 ? 1 : -1;
 }
 
 /**
  * Solves the triad in place in pose from its joints' current values (finite; the caller
- * sees to that). Returns TRIAD_SOLVED with every equation within tolMm (or at the
- * rounding floor just above), TRIAD_NO_ROOT when Newton's method on g finds no root near
- * the start, TRIAD_NO_START when no dyad of the triad assembles at the start's angle.
+ * sees to that). Returns TRIAD_SOLVED with every equation within the plan's newtonTolMm
+ * (or at the rounding floor just above), TRIAD_NO_ROOT when Newton's method on g finds no
+ * root near the start, TRIAD_NO_START when no dyad of the triad assembles at the start's
+ * angle.
  */
-export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, tolMm: number): number {
+export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array): number {
   const s = p.jacobian;
+  // Read here, not passed: a number passed to a call V8 does not inline is boxed.
+  const tolMm = p.newtonTolMm;
   // Start from the pair whose dyad's sine at X_j, |(X_j − X_i) × (X_j − K_j)|, is
   // largest, else the next that assembles at the start's angle.
   let pair = choosePair(t, pose);
-  let g = pair >= 0 ? setUp(p, t, pose, pair) : NaN;
+  let g = NaN;
+  if (pair >= 0) {
+    setUp(p, t, pose, pair);
+    g = s[G];
+  }
   if (Number.isNaN(g)) {
     const tried = pair >= 0 ? 1 : 0;
     for (let c = 0; c < 6; c++) {
@@ -412,7 +439,8 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
       }
       if (pair < 0) return TRIAD_NO_START;
       s[SCORE + pair] = -Infinity;
-      g = setUp(p, t, pose, pair);
+      setUp(p, t, pose, pair);
+      g = s[G];
     }
   }
   if (Number.isNaN(g)) return TRIAD_NO_START;
@@ -444,7 +472,10 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array, t
       const scale = 1 / Math.sqrt(1 + tau * tau);
       nextCos = (cosPhi - tau * sinPhi) * scale;
       nextSin = (sinPhi + tau * cosPhi) * scale;
-      next = place(s, nextCos, nextSin, TRIAL);
+      s[PHI] = nextCos;
+      s[PHI + 1] = nextSin;
+      place(s, TRIAL);
+      next = s[G];
       if (Math.abs(next) < norm) break;
       tau *= 0.5;
     }

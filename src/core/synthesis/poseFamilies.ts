@@ -133,6 +133,9 @@ const SECANT_MIN_SPAN_RAD = 1e-6;
  */
 const PREDICT_MAX_SPEED = 8;
 
+/** Layout of PlanCurve's `asked`. */
+const ASKED_T = 0;
+const ASKED_U = 1;
 /**
  * A Newton block's poses solved since the design was loaded, one per bin of this width
  * (rad) of driver values in [0, 2π), the bin nearest each (the curve's 180 samples fill
@@ -241,6 +244,12 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    */
   private readonly expected: Float64Array;
   private expectedMotion = NaN;
+  /**
+   * The driver value a solve is asked for (ASKED_T) and its place in the first turn
+   * (ASKED_U): start and the helpers it calls read them here, since V8 boxes a number
+   * passed to a call it does not inline (an allocation per solve).
+   */
+  private readonly asked = new Float64Array(2);
   /** The point of sweepReachable's solves, and of atIoAround's calls. */
   private readonly sweepPoint = new Float64Array(CURVE_OUT_LENGTH);
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
@@ -511,8 +520,9 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const cy = ref[this.tipSlot + 1] - ref[this.pivotSlot + 1];
     this.crankMm = Math.sqrt(cx * cx + cy * cy);
   }
-  /** Moves the Newton blocks' joints on to driver value t (see PREDICT_MAX_STEP_RAD), keeping the last pose solved in `previous`. */
-  private predict(t: number): void {
+  /** Moves the Newton blocks' joints on to the driver value asked (see PREDICT_MAX_STEP_RAD), keeping the last pose solved in `previous`. */
+  private predict(): void {
+    const t = this.asked[ASKED_T];
     const pose = this.pose;
     const previous = this.previous;
     const rates = this.rates;
@@ -771,17 +781,19 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   }
 
   /**
-   * The start of a Newton block's solve at t (see SOLVED_BINS): the line through the
-   * poses solved nearest t on each side (interpolate), else the last pose moved on
-   * (predict). Past the first turn, the poses a whole number of turns back: as they are
+   * The start of a Newton block's solve at t, the value asked (asked[ASKED_T]; see
+   * SOLVED_BINS): the line through the poses solved nearest t on each side
+   * (interpolate), else the last pose moved on (predict). Past the first turn, the poses a whole number of turns back: as they are
    * where the motion closes in one turn (closesInOneTurn), else only where they agree
    * with the last pose moved on (SOLVED_WRAP_AGREE): a motion that closes after two
    * turns has another pose there. True when t itself was solved: the pose is its solution.
    */
-  private start(t: number): boolean {
+  private start(): boolean {
+    const t = this.asked[ASKED_T];
     this.expectedMotion = NaN;
     let turns = Math.floor(t / TAU);
     const u = t - turns * TAU;
+    this.asked[ASKED_U] = u;
     // A motion that closes in one turn has a turn on the poses a turn back: t is u.
     if (turns !== 0 && this.closesInOneTurn()) turns = 0;
     const bin = Math.round(u / SOLVED_BIN_RAD);
@@ -798,7 +810,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const previous = this.previous;
     this.fromReference = false;
     if (hi < 0 || turns !== 0) {
-      this.predict(t);
+      this.predict();
       if (hi < 0) {
         this.fromReference = this.atReference();
         return false;
@@ -826,8 +838,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       this.knownBin = same;
       return true;
     }
-    this.interpolate(u, lo, hi);
-    if (turns === 0) this.expectFromBins(u, lo, hi);
+    this.interpolate(lo, hi);
+    if (turns === 0) this.expectFromBins(lo, hi);
     const begin = this.begin;
     if (turns !== 0) {
       // Past the first turn: only where the start a turn back agrees with the last pose moved on.
@@ -865,7 +877,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    * within the square. Only where no joint moves faster than PREDICT_MAX_SPEED: near a
    * lock's edge the motion turns like a square root, and a cubic overshoots it.
    */
-  private interpolate(u: number, lo: number, hi: number): void {
+  private interpolate(lo: number, hi: number): void {
+    const u = this.asked[ASKED_U];
     const times = this.solvedT;
     const poses = this.solvedPoses;
     const slopes = this.solvedRates;
@@ -915,7 +928,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
    * found another assembly and recover continues from the nearest kept pose instead. A
    * pose the curve keeps is then always one of the motion the sweep followed.
    */
-  private expectFromBins(u: number, lo: number, hi: number): void {
+  private expectFromBins(lo: number, hi: number): void {
+    const u = this.asked[ASKED_U];
     const poses = this.solvedPoses;
     const expected = this.expected;
     const stride = expected.length;
@@ -976,7 +990,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   marginAt(t: number): number {
     const plan = this.plan;
     if (this.unreachable(t)) return -1;
-    const known = this.predicts && this.start(t) && this.ratesFromPose;
+    this.asked[ASKED_T] = t;
+    const known = this.predicts && this.start() && this.ratesFromPose;
     const ok = known || (runWithRates(plan, plan.driverReferenceValue + t, this.pose, this.rates) && (!this.predicts || (this.onReferenceBranch() && this.followsTangent())));
     if (known) this.knownSolved(t, true);
     else this.solved(t, ok, true);
@@ -1059,7 +1074,8 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
       return;
     }
     // A pose solved at t already is its solution: no need to solve it again for the point.
-    const known = this.predicts && this.start(t) && (order === 0 || this.ratesFromPose);
+    this.asked[ASKED_T] = t;
+    const known = this.predicts && this.start() && (order === 0 || this.ratesFromPose);
     // this.pose is made for the plan (constructor): runSized skips the check of its length.
     const ok = known || ((order === 0 ? runSized(plan, value, this.pose) : runWithRates(plan, value, this.pose, this.rates)) && (!this.predicts || (this.onReferenceBranch() && this.followsTangent())));
     if (known) this.knownSolved(t, order > 0);
