@@ -205,7 +205,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private readonly tipSlot: number;
   /** Length of the driven link in the reference pose, mm: the scale of the margin. */
   private crankMm = 1;
-  /** Driver value of each bin's solved pose (NaN: none), and the poses (see SOLVED_BIN_RAD). */
+  /** Driver value of each bin's solved pose (NaN: none), and the poses (see SOLVED_BIN_RAD); from BETWEEN on, the same of the values between the bins. */
   private readonly solvedT: Float64Array;
   private readonly solvedPoses: Float64Array;
   /** Each bin's pose's rates, where solvedHasRates is 1 (the pose was solved with them). */
