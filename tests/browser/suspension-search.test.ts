@@ -73,7 +73,9 @@ describeBrowser('suspension search', () => {
     const row = await cells(page, 'best-per-layout', fourBarRank ?? '');
     await page.getByTestId('best-per-layout').getByRole('button', { name: `Open #${fourBarRank}` }).click();
     await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toBe('susp-view-title');
-    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Design file (JSON)' }).click()]);
+    // Downloads are asked for from the keyboard too (see Start above): the views redraw
+    // as a design opens or a comparison fills, and a click can land elsewhere.
+    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Design file (JSON)' }).press('Enter')]);
     const design = parseSuspensionFileText(await readFile(await (file as Download).path(), 'utf8'));
     if (!design.ok) throw new Error(JSON.stringify(design.issues));
     expect(design.design.layout.kind).toBe('fourBarSeatStayAxle');
@@ -118,7 +120,7 @@ describeBrowser('suspension search', () => {
     expect(await page.getByTestId('compare-anti-rise').getByTestId('target-band').count()).toBe(1);
     expect(await page.getByTestId('compare-side-views').locator('g[data-design]').count()).toBe(2);
     expect(await compare.textContent()).toContain(SUSPENSION_CAUTION);
-    const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download the compared curves (CSV)' }).click()]);
+    const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download the compared curves (CSV)' }).press('Enter')]);
     const csvLines = (await readFile(await (csv as Download).path(), 'utf8')).split('\r\n');
     expect(csvLines[1]).toBe(`# ${SUSPENSION_CAUTION}`);
     expect(csvLines[2]).toMatch(/^design,layout,step,travel_mm,/);
