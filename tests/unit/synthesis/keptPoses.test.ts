@@ -9,7 +9,7 @@
 import { describe, expect, it } from 'vitest';
 import { compile } from '../../../src/core/linkage';
 import * as families from '../../../src/core/linkage/families';
-import { CURVE_OUT_LENGTH } from '../../../src/core/synthesis/curve';
+import { CURVE_MARGIN, CURVE_OUT_LENGTH } from '../../../src/core/synthesis/curve';
 import { createPoseFamily, type PoseFamilyId } from '../../../src/core/synthesis/poseFamilies';
 import { curveAt } from '../../support/curveAt';
 
@@ -71,7 +71,7 @@ describe("a Stephenson curve's kept poses", () => {
       for (let k = 0; k < SAMPLES; k++) {
         curveAt(called, (k * TURN) / SAMPLES, 1, out);
         expect(Array.from(around.subarray(k * CURVE_OUT_LENGTH, k * CURVE_OUT_LENGTH + 4))).toEqual(Array.from(out.subarray(0, 4)));
-        expect(around[k * CURVE_OUT_LENGTH + 7]).toBe(out[7]);
+        expect(around[k * CURVE_OUT_LENGTH + CURVE_MARGIN]).toBe(out[CURVE_MARGIN]);
       }
       // Left where the calls leave it: the last sample's pose (the start of what follows
       // where no kept poses bracket a value), and the same answers after.
