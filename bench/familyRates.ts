@@ -27,7 +27,7 @@ const ROUNDS = 5;
 /** The ratio's denominator: the pose four-bar, whose encoding the six-bars share. */
 const REFERENCE_FAMILY: FamilyId = 'fourbar';
 
-interface DesignSet {
+export interface DesignSet {
   readonly family: FamilyId;
   readonly evaluate: (x: Float64Array, out: Float64Array) => void;
   readonly dim: number;
@@ -41,7 +41,8 @@ function cpuSeconds(): number {
   return (used.user + used.system) / 1e6;
 }
 
-function drawDesigns(family: FamilyId): DesignSet {
+/** The family's fixed designs: DESIGNS_PER_KIND the objective calls feasible and as many it does not. */
+export function drawDesigns(family: FamilyId): DesignSet {
   const parsed = parseProblemFile(demoProblemFile(family, SAMPLES));
   if (!parsed.ok) throw new Error(`bench: the demo problem does not parse for ${family}`);
   const objective = createObjective(parsed.problem, family);

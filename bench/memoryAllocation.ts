@@ -3,7 +3,8 @@
  * problems the scaling bench runs: of the objective's evaluate alone (the least of a few
  * windows), and of an island's whole step (optimizer ask/tell, evaluations, archive: the
  * mean over one window, restarts and recompilations included, and the least of a few
- * windows, the steady state) in this thread. Bytes, not time:
+ * windows, the steady state) in this thread; then of every family's objective on the
+ * family-rates bench's fixed designs (the demo target). Bytes, not time:
  * the figures do not depend on the machine's speed or load. Not part of `npm run bench`:
  *
  *   node --import tsx bench/memoryAllocation.ts [--evaluations 20000]
@@ -16,8 +17,9 @@ import { readFileSync } from 'node:fs';
 import v8 from 'node:v8';
 import { parseSynthesisProblemFile } from '../src/core/io/problem';
 import { Prng } from '../src/core/optimize';
-import { createObjective, type Problem } from '../src/core/synthesis';
+import { FAMILY_IDS, createObjective, type Problem } from '../src/core/synthesis';
 import { Island } from '../workers/island';
+import { drawDesigns, type DesignSet } from './familyRates';
 
 const CASES = ['line6-untimed', 'timed5', 'closed18-untimed'] as const;
 const WARM_UP_EVALUATIONS = 5_000;
@@ -115,6 +117,22 @@ function islandBytesPerEvaluation(caseId: string, evaluations: number): { bytes:
   return { bytes: measured.bytes / (end - start), least, collections: measured.collections };
 }
 
+/** Bytes per evaluation of a family's objective over its fixed designs: the least of a few windows, after a warm-up. */
+function familyBytesPerEvaluation(set: DesignSet): number {
+  const x = new Float64Array(set.dim);
+  const out = new Float64Array(2);
+  const pass = () => {
+    for (let d = 0; d < set.count; d++) {
+      for (let j = 0; j < set.dim; j++) x[j] = set.designs[d * set.dim + j];
+      set.evaluate(x, out);
+    }
+  };
+  for (let w = 0; w < 3; w++) pass();
+  let least = Infinity;
+  for (let w = 0; w < OBJECTIVE_WINDOWS; w++) least = Math.min(least, allocatedBytes(pass).bytes / set.count);
+  return least;
+}
+
 function main(): void {
   const at = process.argv.indexOf('--evaluations');
   const evaluations = at > 0 ? Number(process.argv[at + 1]) : 20_000;
@@ -131,7 +149,9 @@ function main(): void {
     };
   });
   console.table(rows);
-  console.log(JSON.stringify({ evaluations, rows }));
+  const families = FAMILY_IDS.map((family) => ({ family, objectiveBytesPerEval: Math.round(familyBytesPerEvaluation(drawDesigns(family))) }));
+  console.table(families);
+  console.log(JSON.stringify({ evaluations, rows, families }));
 }
 
 main();

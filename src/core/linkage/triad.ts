@@ -144,22 +144,24 @@ const DIR = 25;
 /** Six scores, one per pair. */
 const SCORE = 27;
 /**
- * place's direction in and g out. Numbers cross the calls here in the scratch, not as
- * arguments and return values: V8 boxes a number passed to or returned from a call it
- * does not inline (an allocation), and `place` is too long to be inlined everywhere.
+ * What place and slope give (g, or g′), and place's direction in. Numbers cross the
+ * calls here in the scratch, not as arguments and return values: V8 boxes a number
+ * passed to or returned from a call it does not inline (an allocation), and neither is
+ * inlined everywhere.
  */
-const G = 33;
+const OUT = 33;
 const PHI = 34;
 
 /**
  * Places X_i at direction s[PHI ..] = (cos φ, sin φ), X_j by its dyad, X_k by the link
- * into s[at .. at + 6), and g(φ) (mm) into s[G], NaN where the dyad does not assemble.
+ * into s[at .. at + 6), and g(φ) (mm) into s[OUT], NaN where the dyad does not
+ * assemble.
  */
 function place(s: Float64Array, at: number): void {
   const xi = s[KI] + s[RI] * s[PHI];
   const yi = s[KI + 1] + s[RI] * s[PHI + 1];
   if (!circleCircleIntersectInto(xi, yi, s[DIJ], s[KJ], s[KJ + 1], s[RJ], s[SIDE], s, at + 2)) {
-    s[G] = NaN;
+    s[OUT] = NaN;
     return;
   }
   s[at] = xi;
@@ -173,14 +175,14 @@ function place(s: Float64Array, at: number): void {
   const dx = xk - s[KK];
   const dy = yk - s[KK + 1];
   const rk = s[RK];
-  s[G] = (dx * dx + dy * dy - rk * rk) / (2 * rk);
+  s[OUT] = (dx * dx + dy * dy - rk * rk) / (2 * rk);
 }
 
 /**
- * dg/dφ at the joints in s[NOW ..]: X_i′ = perp(X_i − K_i); the dyad's X_j′ from
- * (X_j − X_i)·(X_j′ − X_i′) = 0 and (X_j − K_j)·X_j′ = 0; X_k′ by the link.
+ * dg/dφ at the joints in s[NOW ..] into s[OUT]: X_i′ = perp(X_i − K_i); the dyad's X_j′
+ * from (X_j − X_i)·(X_j′ − X_i′) = 0 and (X_j − K_j)·X_j′ = 0; X_k′ by the link.
  */
-function slope(s: Float64Array): number {
+function slope(s: Float64Array): void {
   const xi = s[NOW];
   const yi = s[NOW + 1];
   const dxi = -(yi - s[KI + 1]);
@@ -194,13 +196,13 @@ function slope(s: Float64Array): number {
   const wy = -along * cx - dyi;
   const dxk = dxi + s[Z] * wx - s[Z + 1] * wy;
   const dyk = dyi + s[Z] * wy + s[Z + 1] * wx;
-  return ((s[NOW + 4] - s[KK]) * dxk + (s[NOW + 5] - s[KK + 1]) * dyk) / s[RK];
+  s[OUT] = ((s[NOW + 4] - s[KK]) * dxk + (s[NOW + 5] - s[KK + 1]) * dyk) / s[RK];
 }
 
 /**
  * Sets up the reduction on pair `pair` from the pose (s[NOW ..] the joints at the
- * start's angle, s[DIR ..] its direction); g there into s[G], NaN where the dyad does not
- * assemble or X_i sits on K_i.
+ * start's angle, s[DIR ..] its direction); g there into s[OUT], NaN where the dyad does
+ * not assemble or X_i sits on K_i.
  */
 function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number): void {
   const s = p.jacobian;
@@ -243,7 +245,7 @@ function setUp(p: PlanInternal, t: Int32Array, pose: Float64Array, pair: number)
   const uy = pose[xi + 1] - s[KI + 1];
   const inv = 1 / Math.sqrt(ux * ux + uy * uy);
   if (!(inv < Infinity)) {
-    s[G] = NaN;
+    s[OUT] = NaN;
     return;
   }
   s[DIR] = ux * inv;
@@ -420,7 +422,7 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array): 
   let g = NaN;
   if (pair >= 0) {
     setUp(p, t, pose, pair);
-    g = s[G];
+    g = s[OUT];
   }
   if (Number.isNaN(g)) {
     const tried = pair >= 0 ? 1 : 0;
@@ -440,7 +442,7 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array): 
       if (pair < 0) return TRIAD_NO_START;
       s[SCORE + pair] = -Infinity;
       setUp(p, t, pose, pair);
-      g = s[G];
+      g = s[OUT];
     }
   }
   if (Number.isNaN(g)) return TRIAD_NO_START;
@@ -460,7 +462,8 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array): 
       break;
     }
     // The step in the tangent chart at the current direction: τ = tan Δφ.
-    let step = -g / slope(s);
+    slope(s);
+    let step = -g / s[OUT];
     if (!(Math.abs(step) < Infinity)) break;
     const bounded = !(Math.abs(step) <= TRIAD_MAX_STEP_TAN);
     if (bounded) step = step > 0 ? TRIAD_MAX_STEP_TAN : -TRIAD_MAX_STEP_TAN;
@@ -475,7 +478,7 @@ export function solveTriad(p: PlanInternal, t: Int32Array, pose: Float64Array): 
       s[PHI] = nextCos;
       s[PHI + 1] = nextSin;
       place(s, TRIAL);
-      next = s[G];
+      next = s[OUT];
       if (Math.abs(next) < norm) break;
       tau *= 0.5;
     }

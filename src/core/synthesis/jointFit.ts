@@ -102,6 +102,7 @@ export function createJointFit(n: number): JointFit {
   const dTheta = new Float64Array(4);
   const trialPlacement = new Float64Array(4);
   const buf = new Float64Array(CURVE_OUT_LENGTH);
+  const sums = new Float64Array(1);
   /** Which of the two sets of arrays holds the values in force (0: px…, 1: tx…). */
   let current = 0;
 
@@ -118,7 +119,7 @@ export function createJointFit(n: number): JointFit {
     to: number,
     p: Float64Array,
     into: number,
-  ): number {
+  ): void {
     const ox = into === 0 ? px : tx;
     const oy = into === 0 ? py : ty;
     const odx = into === 0 ? dpx : tdx;
@@ -137,7 +138,7 @@ export function createJointFit(n: number): JointFit {
       const y = p[B] * buf[0] + p[A] * buf[1] + p[TY] - targets[2 * i + 1];
       sum += (weights === undefined ? 1 : weights[i]) * (x * x + y * y);
     }
-    return sum;
+    sums[0] = sum;
   }
 
   /** Gaussian elimination with partial pivoting on the 4 × 5 system m; false when singular. */
@@ -170,7 +171,8 @@ export function createJointFit(n: number): JointFit {
   const refine: JointFit['refine'] = (curve, targets, weights, t, o, placement, limits, iterations, halvings) => {
     const maxStep = limits[2];
     current = 0;
-    let f = sumSquares(curve, targets, weights, t, o, placement, current);
+    sumSquares(curve, targets, weights, t, o, placement, current);
+    let f = sums[0];
     for (let it = 0; it < iterations; it++) {
       const a = placement[A];
       const b = placement[B];
@@ -277,7 +279,8 @@ export function createJointFit(n: number): JointFit {
         // path a value below the one before is read as most of a turn between them).
         for (let i = n - 2; i >= 0; i--) if (trial[i] > trial[i + 1]) trial[i] = trial[i + 1];
         for (let k = 0; k < 4; k++) trialPlacement[k] = placement[k] + scale * dTheta[k];
-        fNew = sumSquares(curve, targets, weights, trial, 0, trialPlacement, 1 - current);
+        sumSquares(curve, targets, weights, trial, 0, trialPlacement, 1 - current);
+        fNew = sums[0];
         if (fNew < f) {
           accepted = true;
           break;

@@ -783,10 +783,11 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   /**
    * The start of a Newton block's solve at t, the value asked (asked[ASKED_T]; see
    * SOLVED_BINS): the line through the poses solved nearest t on each side
-   * (interpolate), else the last pose moved on (predict). Past the first turn, the poses a whole number of turns back: as they are
-   * where the motion closes in one turn (closesInOneTurn), else only where they agree
-   * with the last pose moved on (SOLVED_WRAP_AGREE): a motion that closes after two
-   * turns has another pose there. True when t itself was solved: the pose is its solution.
+   * (interpolate), else the last pose moved on (predict). Past the first turn, the poses
+   * a whole number of turns back: as they are where the motion closes in one turn
+   * (closesInOneTurn), else only where they agree with the last pose moved on
+   * (SOLVED_WRAP_AGREE): a motion that closes after two turns has another pose there.
+   * True when t itself was solved: the pose is its solution.
    */
   private start(): boolean {
     const t = this.asked[ASKED_T];
@@ -1036,7 +1037,9 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const point = this.sweepPoint;
     const stride = this.pose.length;
     const s = this.pSlot;
-    const binned = this.predicts && count === SOLVED_BINS && !this.continuing;
+    // A bin is read where a call there would look it up (atIo; with rates, only where
+    // they follow from the pose).
+    const binned = this.predicts && count === SOLVED_BINS && !this.continuing && (order === 0 || this.ratesFromPose);
     /** Reads in a row, up to j, not made as calls. */
     let read = 0;
     for (let j = 0; j <= count; j++) {
