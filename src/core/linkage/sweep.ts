@@ -10,17 +10,10 @@
  * allow. Where halving cannot go on, the branch ends there: a lock, with a dead centre.
  * Dyads are placed on their reference side at every value; a window where a dyad cannot
  * assemble that falls between two samples is found from the dyad's own assembly
- * condition (its signed sine, below), not by finer sampling.
+ * condition (its signed sine, dyadSine.ts), not by finer sampling.
  */
-import {
-  OP_CIRCLE_BODY_LINE,
-  OP_CIRCLE_GROUND_LINE,
-  OP_DYAD,
-  OP_NEWTON,
-  OP_STRIDE,
-  type Plan,
-  type PlanInternal,
-} from './plan';
+import { OP_NEWTON, OP_STRIDE, type Plan, type PlanInternal } from './plan';
+import { isDyadOp, refinesDyadMinimum, signedDyadSine } from './dyadSine';
 import { blockJacobianSign } from './newton';
 import { poseRatesInto, runBatch, runPrefix, runSized, runWithRates } from './run';
 import {
@@ -86,23 +79,6 @@ export interface SweepResult {
 }
 
 /**
- * A sampled minimum s of a dyad's signed sine is refined only where
- * s − SWEEP_REFINE_RISE_FACTOR × r < DEAD_CENTRE_SIN_TOL (a pure number), r the largest
- * change of the sine between neighbour samples within two samples of it, or where
- * s < SWEEP_REFINE_NEAR_SINE. Near a dead centre the sine falls to zero about linearly
- * in the driver (V-shaped through a change point, the root of a quadratic about a narrow
- * window), so a sample next to a zero lies within about one step's change of it; the
- * factor leaves room for curvature. Like the sampling itself, this takes the sine to
- * change within a step by not much more than between steps. Refining every minimum would
- * run the plan up to the dyad for each probe: for all the dyads of a long chain, work
- * that grows as the square of its length.
- */
-const SWEEP_REFINE_RISE_FACTOR = 8;
-
-/** Sampled minima of a dyad's signed sine below this (about 3° from a toggle) are refined whatever their rise. */
-const SWEEP_REFINE_NEAR_SINE = 0.05;
-
-/**
  * Samples further apart than this many of the sweep's unit steps (SWEEP_MAX_STEP_RAD,
  * or SWEEP_MAX_STEP_REL of the length scale: 40° for a rotation driver) do not resolve
  * a dyad's sine well enough to judge a minimum by its neighbours: every minimum is
@@ -133,62 +109,6 @@ function opJoint(p: PlanInternal, op: number): number {
   const o = op * OP_STRIDE;
   if (p.ops[o] === OP_NEWTON) return p.blockUnknowns[p.blockUnknownStart[p.ops[o + 1]]] >> 1;
   return p.ops[o + 3] >> 1;
-}
-
-/**
- * A dyad's signed sine at the joint it places, from the positions of the joints it
- * places it from (so also where it fails): for two circles (radii rA, rB, centres d
- * apart) sign(h²) √|h²| d² / (rA rB), h² the kernel's own squared height share, which
- * is |(J − A) × (J − B)| / (rA rB) where J exists and negative where the circles miss;
- * for a circle and a line sign(r² − h²) √|r² − h²| / r, h the centre's distance from
- * the line. Zero at a dead centre; NaN where its centres are not placed. The pose is
- * read from `base`.
- */
-function signedDyadSine(p: PlanInternal, o: number, pose: Float64Array, base: number): number {
-  const a = base + p.ops[o + 1];
-  const q = p.ops[o + 5];
-  const prm = p.params;
-  if (p.ops[o] === OP_DYAD) {
-    const b = base + p.ops[o + 2];
-    const rA = prm[q];
-    const rB = prm[q + 1];
-    const dx = pose[b] - pose[a];
-    const dy = pose[b + 1] - pose[a + 1];
-    const d2 = dx * dx + dy * dy;
-    const inv = 1 / d2;
-    const k = 0.5 * (rA * rA - rB * rB) * inv + 0.5;
-    const h2 = rA * rA * inv - k * k;
-    return Math.sign(h2) * Math.sqrt(Math.abs(h2)) * d2 / (rA * rB);
-  }
-  const r = prm[q];
-  let px: number;
-  let py: number;
-  let dx: number;
-  let dy: number;
-  if (p.ops[o] === OP_CIRCLE_GROUND_LINE) {
-    px = prm[q + 2];
-    py = prm[q + 3];
-    dx = prm[q + 4];
-    dy = prm[q + 5];
-  } else {
-    const e = base + p.ops[o + 2];
-    const f = base + p.ops[o + 4];
-    const wx = pose[f] - pose[e];
-    const wy = pose[f + 1] - pose[e + 1];
-    const u = prm[q + 2];
-    const v = prm[q + 3];
-    px = pose[e] + u * wx - v * wy;
-    py = pose[e + 1] + u * wy + v * wx;
-    dx = prm[q + 4] * wx - prm[q + 5] * wy;
-    dy = prm[q + 4] * wy + prm[q + 5] * wx;
-  }
-  const h = (dx * (pose[a + 1] - py) - dy * (pose[a] - px)) / Math.sqrt(dx * dx + dy * dy);
-  const disc = r * r - h * h;
-  return Math.sign(disc) * Math.sqrt(Math.abs(disc)) / r;
-}
-
-function isDyadOp(code: number): boolean {
-  return code === OP_DYAD || code === OP_CIRCLE_GROUND_LINE || code === OP_CIRCLE_BODY_LINE;
 }
 
 /** A tracked state: the last pose accepted on the reference branch, its rates and driver value. */
@@ -560,7 +480,7 @@ function wholeByBatch(
 /**
  * Dyad dead centres between samples: a sampled local minimum of a dyad's signed sine
  * between assembled samples that comes near zero for its sampled change
- * (SWEEP_REFINE_RISE_FACTOR) is refined by golden-section search. A minimum within DEAD_CENTRE_SIN_TOL of zero is a
+ * (dyadSine.ts) is refined by golden-section search. A minimum within DEAD_CENTRE_SIN_TOL of zero is a
  * change point passed; one below it is a lock window, whose edges are bisected on the
  * assembly condition.
  */
@@ -589,7 +509,7 @@ function findDyadWindows(
       const after = k + 1 < steps ? sine[k + 1] : Infinity;
       if (!(sine[k] < before && sine[k] <= after)) continue;
       if (work !== undefined) work.minima++;
-      if (screen && !(sine[k] < SWEEP_REFINE_NEAR_SINE || sine[k] - SWEEP_REFINE_RISE_FACTOR * sampledChange(sine, k) < DEAD_CENTRE_SIN_TOL)) continue;
+      if (screen && !refinesDyadMinimum(sine, k, steps - 1, false)) continue;
       if (work !== undefined) work.refined++;
       const lo = values[k > 0 ? k - 1 : k];
       const hi = values[k + 1 < steps ? k + 1 : k];
@@ -616,20 +536,6 @@ function findDyadWindows(
       }
     }
   }
-}
-
-/**
- * The largest change of a sampled sine between neighbour samples from k − 2 to k + 2
- * (within the range): how much it can fall within a step next to sample k. Infinity
- * where one of them is not defined, so that the minimum is refined.
- */
-function sampledChange(sine: Float64Array, k: number): number {
-  let change = 0;
-  for (let j = Math.max(k - 2, 0), end = Math.min(k + 2, sine.length - 1); j < end; j++) {
-    const d = Math.abs(sine[j + 1] - sine[j]);
-    if (!(d <= change)) change = Number.isNaN(d) ? Infinity : d;
-  }
-  return change;
 }
 
 /**

@@ -6,8 +6,19 @@
  * parabolic ones through the three best probes where they are safe) until a probe fails
  * to assemble or the bracket is below LOCK_BRACKET_TOL_RAD: a smooth minimum well clear
  * of a lock takes a few parabolic steps where golden sections alone take thirty.
+ * The margin is every joint's at once, and next to a dyad's lock it can fall to zero
+ * within a fraction of a degree while its sampled minimum leads the refinement to a
+ * shallower dip beside it; so a range the margin finds free is searched again dyad by
+ * dyad, from each one's signed sine, as the analysis of an exported linkage searches it
+ * (linkage/dyadSine.ts): the search then meets every lock its report's analysis meets.
  * Allocates nothing after construction.
  */
+
+import { refinesDyadMinimum } from '../linkage/dyadSine';
+import { DEAD_CENTRE_SIN_TOL, SWEEP_REFINE_MAX_STEPS, SWEEP_REFINE_REL_TOL } from '../linkage/tolerances';
+
+/** 1 / φ, the golden section's ratio. */
+const INV_PHI = (Math.sqrt(5) - 1) / 2;
 
 /**
  * A refinement stops when its bracket is narrower than this (rad, 6e-6°): a lock narrower
@@ -39,6 +50,23 @@ export interface MarginCurve {
    * assemble; in (0, 1] where it does, falling to 0 at a toggle (dead centre).
    */
   marginAt(t: number): number;
+  /**
+   * The plan's dyads (linkage/dyadSine.ts), whose windows and dead centres between two
+   * samples that assemble the search finds from their signed sines, as the analysis does
+   * (sweep.ts); absent where the curve has none to show.
+   */
+  readonly dyadCount?: number;
+  /** Dyad d's signed sine in the pose at poses[base …]. */
+  dyadSineIn?(d: number, poses: Float64Array, base: number): number;
+  /** Dyad d's signed sine at driver value t, solved from `start` without moving the curve; −1 where it cannot be placed. */
+  dyadSineAt?(d: number, t: number, start: Float64Array): number;
+}
+
+/** A curve that shows its dyads to the search (MarginCurve's optional members). */
+type DyadCurve = MarginCurve & Required<Pick<MarginCurve, 'dyadCount' | 'dyadSineIn' | 'dyadSineAt'>>;
+
+function showsDyads(curve: MarginCurve): curve is DyadCurve {
+  return curve.dyadCount !== undefined && curve.dyadSineIn !== undefined && curve.dyadSineAt !== undefined;
 }
 
 export class LockSearch {
@@ -53,6 +81,9 @@ export class LockSearch {
   private readonly at: Float64Array;
   private readonly below: Float64Array;
   private readonly above: Float64Array;
+  /** A dyad's signed sine at each sample (dyadWindows), and where goldenSine found its least. */
+  private readonly sines: Float64Array;
+  private readonly found = new Float64Array(1);
 
   constructor(stride: number, maxSteps: number) {
     this.stride = stride;
@@ -61,6 +92,7 @@ export class LockSearch {
     this.at = new Float64Array(maxSteps + 1);
     this.below = new Float64Array(maxSteps + 1);
     this.above = new Float64Array(maxSteps + 1);
+    this.sines = new Float64Array(maxSteps + 1);
     this.poses = new Float64Array((maxSteps + 1) * stride);
     this.start = new Float64Array(stride);
   }
@@ -98,6 +130,10 @@ export class LockSearch {
     }
     // Every sample failed in a cyclic range: one lock, not a run without a start.
     if (cyclic && locks === 0 && m[0] < 0) locks = 1;
+    // A motion free of locks so far: a dyad may still fail, or pass its dead centre,
+    // between two samples, where the margin dips too narrowly for its minima to lead
+    // there. Each dyad's own assembly condition finds it, as the analysis finds it.
+    if (locks === 0) locks = this.dyadWindows(curve, last, cyclic);
     this.copyPose(last, this.start);
     curve.startFrom(this.start, at[last]);
     return locks;
@@ -220,6 +256,68 @@ export class LockSearch {
       }
     }
     return !(fx >= DEAD_CENTRE_MARGIN);
+  }
+
+  /**
+   * Windows where a dyad cannot assemble, and dead centres it passes, between samples
+   * 0 … last (all assembled): each dyad's sampled minima of its signed sine that
+   * refinesDyadMinimum lets through are refined by golden-section search (Kiefer, 1953)
+   * to SWEEP_REFINE_REL_TOL of a sample step, as the analysis refines them (sweep.ts);
+   * each least sine below DEAD_CENTRE_SIN_TOL inside the range counts as a lock.
+   */
+  private dyadWindows(curve: MarginCurve, last: number, cyclic: boolean): number {
+    if (!showsDyads(curve) || last < 1) return 0;
+    const at = this.at;
+    const sine = this.sines;
+    const stride = this.stride;
+    let locks = 0;
+    for (let d = 0; d < curve.dyadCount; d++) {
+      for (let k = 0; k <= last; k++) sine[k] = curve.dyadSineIn(d, this.poses, k * stride);
+      for (let k = 0; k <= last; k++) {
+        const before = k > 0 ? sine[k - 1] : cyclic ? sine[last] : Infinity;
+        const after = k < last ? sine[k + 1] : cyclic ? sine[0] : Infinity;
+        if (!(sine[k] < before && sine[k] <= after)) continue;
+        if (!refinesDyadMinimum(sine, k, last, cyclic)) continue;
+        const lo = this.below[k];
+        const hi = this.above[k];
+        const tol = SWEEP_REFINE_REL_TOL * Math.max(at[k] - lo, hi - at[k]);
+        this.copyPose(k, this.start);
+        const least = this.goldenSine(curve, d, lo, hi, tol);
+        // A minimum at an end of the range is not passed within it.
+        const where = this.found[0];
+        if (!cyclic && (Math.abs(where - at[0]) <= tol || Math.abs(where - at[last]) <= tol)) continue;
+        if (least < DEAD_CENTRE_SIN_TOL) locks++;
+      }
+    }
+    return locks;
+  }
+
+  /** The least signed sine of dyad d on [lo, hi], each probe solved from `start`; where it lies into found[0]. */
+  private goldenSine(curve: DyadCurve, d: number, lo: number, hi: number, tol: number): number {
+    const start = this.start;
+    let a = lo;
+    let b = hi;
+    let x1 = b - INV_PHI * (b - a);
+    let x2 = a + INV_PHI * (b - a);
+    let f1 = curve.dyadSineAt(d, x1, start);
+    let f2 = curve.dyadSineAt(d, x2, start);
+    for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(b - a) > tol; i++) {
+      if (f1 <= f2) {
+        b = x2;
+        x2 = x1;
+        f2 = f1;
+        x1 = b - INV_PHI * (b - a);
+        f1 = curve.dyadSineAt(d, x1, start);
+      } else {
+        a = x1;
+        x1 = x2;
+        f1 = f2;
+        x2 = a + INV_PHI * (b - a);
+        f2 = curve.dyadSineAt(d, x2, start);
+      }
+    }
+    this.found[0] = f1 <= f2 ? x1 : x2;
+    return f1 <= f2 ? f1 : f2;
   }
 
   /** Copies the pose of sample k into `out` (a loop: a subarray would allocate). */

@@ -20,8 +20,9 @@
  * mostly solved it already); for a design otherwise
  * feasible `verify` finds the locks between samples (for the four-bar in closed form:
  * Grashof's criterion for its full turn, the crank's limit angles for a motion; a margin
- * search in lockSearch.ts for the rest, over each run of spans that follow on from each
- * other at once, sampled on the bins' values where the curve keeps its poses). A report
+ * search in lockSearch.ts for the rest, then each dyad's signed sine as the analysis reads
+ * it, over each run of spans that follow on from each other at once, sampled on the bins'
+ * values where the curve keeps its poses). A report
  * draws the design in its pose at the driver value asked for (the objective asks for
  * target point 1's), so an exported linkage sits on its fitted motion.
  */
@@ -35,14 +36,15 @@ import {
   type Plan,
 } from '../linkage';
 import { blockJacobianSign as blockJacobianSignBinding, newtonUnknownSlots } from '../linkage/newton';
-import type { PlanInternal } from '../linkage/plan';
+import { isDyadOp, signedDyadSine } from '../linkage/dyadSine';
+import { OP_NEWTON, OP_STRIDE, type PlanInternal } from '../linkage/plan';
 import {
   COINCIDENT_JOINT_TOL_MM as COINCIDENT_JOINT_TOL_MM_BINDING,
   MOTION_CLOSURE_REL_TOL,
   SWEEP_CORRECTION_FLOOR_REL as SWEEP_CORRECTION_FLOOR_REL_BINDING,
   SWEEP_CORRECTION_MAX_SHARE as SWEEP_CORRECTION_MAX_SHARE_BINDING,
 } from '../linkage/tolerances';
-import { poseRatesInto as poseRatesIntoBinding, runSized as runSizedBinding } from '../linkage/run';
+import { poseRatesInto as poseRatesIntoBinding, runPrefix, runSized as runSizedBinding } from '../linkage/run';
 import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
 import {
   CURVE_DX as CURVE_DX_BINDING,
@@ -252,6 +254,11 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   private readonly asked = new Float64Array(2);
   /** The point of sweepReachable's solves, and of atIoAround's calls. */
   private readonly sweepPoint = new Float64Array(CURVE_OUT_LENGTH);
+  /** The plan's dyads (dyadSine.ts), as their operations' offsets in plan.ops; and each Newton block's operation index. */
+  private readonly dyadOps: Int32Array;
+  private readonly blockOps: Int32Array;
+  /** The pose of dyadSineAt's solves. */
+  private readonly dyadPose: Float64Array;
   constructor(plan: Plan, pivotSlot: number, tipSlot: number) {
     this.plan = plan;
     this.pose = new Float64Array(2 * plan.slotCount);
@@ -270,6 +277,16 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.reachedPose = new Float64Array(2 * plan.slotCount);
     this.reachedRates = new Float64Array(2 * plan.slotCount);
     this.referenceSigns = new Int8Array((plan as PlanInternal).blockCount);
+    const p = plan as PlanInternal;
+    const dyads: number[] = [];
+    this.blockOps = new Int32Array(p.blockCount);
+    for (let i = 0; i < p.opCount; i++) {
+      const o = i * OP_STRIDE;
+      if (isDyadOp(p.ops[o])) dyads.push(o);
+      else if (p.ops[o] === OP_NEWTON) this.blockOps[p.ops[o + 1]] = i;
+    }
+    this.dyadOps = Int32Array.from(dyads);
+    this.dyadPose = new Float64Array(2 * plan.slotCount);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
     this.tipSlot = tipSlot;
@@ -1005,6 +1022,33 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     }
     const margin = this.crankMm / (this.crankMm + fastest);
     return margin >= 0 ? margin : -1;
+  }
+  /** The plan's dyads, whose windows the lock search looks for between its samples. */
+  get dyadCount(): number {
+    return this.dyadOps.length;
+  }
+  /** Dyad d's signed sine (dyadSine.ts) in the pose at poses[base …]. */
+  dyadSineIn(d: number, poses: Float64Array, base: number): number {
+    return signedDyadSine(this.plan as PlanInternal, this.dyadOps[d], poses, base);
+  }
+  /**
+   * Dyad d's signed sine at driver value t, the operations before it run from `start` (a
+   * Newton block among them starts there): −1 where one of them fails or a block lands
+   * on another branch than the reference pose's, as the analysis counts it (sweep.ts).
+   * The curve does not move.
+   */
+  dyadSineAt(d: number, t: number, start: Float64Array): number {
+    const p = this.plan as PlanInternal;
+    const o = this.dyadOps[d];
+    const endOp = o / OP_STRIDE;
+    const pose = this.dyadPose;
+    for (let i = 0; i < pose.length; i++) pose[i] = start[i];
+    if (runPrefix(p, p.driverReferenceValue + t, pose, endOp) >= 0) return -1;
+    for (let b = 0; b < p.blockCount && this.blockOps[b] < endOp; b++) {
+      if (blockJacobianSign(p, b, pose) !== this.referenceSigns[b]) return -1;
+    }
+    const sine = signedDyadSine(p, o, pose, 0);
+    return sine === sine ? sine : -1;
   }
   /** Where the plan does not assemble: a finite stand-in, the reference point, and margin −1. */
   private standIn(out: Float64Array): void {
