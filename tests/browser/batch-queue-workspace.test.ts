@@ -8,7 +8,7 @@
 import { readFileSync } from 'node:fs';
 import type { Locator, Page } from 'playwright-core';
 import { expect, it } from 'vitest';
-import { describeBrowser, useBrowser } from './harness';
+import { describeBrowser, downloadFrom, useBrowser } from './harness';
 
 const LONG_MS = 180_000;
 
@@ -60,7 +60,7 @@ describeBrowser('batch queue with a rear-suspension job', () => {
     const heading = await queue(page).getByTestId('queue-summary').locator('th').allTextContents();
     expect(heading.join(' ')).toMatch(/search score/);
 
-    const [download] = await Promise.all([page.waitForEvent('download'), queue(page).getByRole('button', { name: 'Export summary (CSV)' }).click()]);
+    const download = await downloadFrom(page, queue(page).getByRole('button', { name: 'Export summary (CSV)' }));
     const lines = readFileSync(await download.path(), 'utf8').trim().split('\r\n');
     const header = lines[0].split(',');
     const kindCol = header.indexOf('kind');

@@ -10,7 +10,7 @@
 import { readFileSync } from 'node:fs';
 import type { Locator, Page } from 'playwright-core';
 import { expect, it } from 'vitest';
-import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser } from './harness';
 
 const LONG_MS = 240_000;
 /** The project's checkpoints every 2 s instead of 10, which the jobs keep: the test waits less for one. */
@@ -151,7 +151,7 @@ describeBrowser('batch queue', () => {
     await page.getByTestId('detail-view').waitFor();
 
     // The summary as CSV: a line per job (each searched one family), the header first.
-    const [download] = await Promise.all([page.waitForEvent('download'), summary.getByRole('button', { name: 'Export summary (CSV)' }).click()]);
+    const download = await downloadFrom(page, summary.getByRole('button', { name: 'Export summary (CSV)' }));
     const csv = readFileSync(await download.path(), 'utf8').trim().split('\r\n');
     expect(csv[0].split(',')[0]).toBe('job');
     expect(csv.slice(1).map((line) => line.split(',')[0])).toEqual(['night-a', 'night-b', 'night-c', 'night-d']);

@@ -6,9 +6,9 @@
  * a scale bar, in the drawing and in its SVG. Screenshots at 1280 × 800 and 1920 × 1080.
  */
 import { readFile } from 'node:fs/promises';
-import type { Download, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, it } from 'vitest';
-import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser, type AppPage } from './harness';
 import { resultsFixture } from './results-page/candidates';
 import { PAGE_BASE, buildResultsPage, type BuiltPage } from './results-page/serve';
 
@@ -138,8 +138,8 @@ describeBrowser('readable detail and compare views', () => {
     expect(await detail.getByTestId('scale-bar').count()).toBe(1);
     expect(await detail.getByTestId('axes').getAttribute('d')).toMatch(/^M/);
 
-    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Drawing (SVG)' }).click()]);
-    const text = await readFile(await (file as Download).path(), 'utf8');
+    const file = await downloadFrom(page, page.getByRole('button', { name: 'Drawing (SVG)' }));
+    const text = await readFile(await file.path(), 'utf8');
     const svg = await page.evaluate((t) => {
       const doc = new DOMParser().parseFromString(t, 'image/svg+xml');
       return {

@@ -16,10 +16,10 @@
  * before its first line.
  */
 import { readFile } from 'node:fs/promises';
-import type { Download, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { CONTENT_SECURITY_POLICY } from '../../csp';
-import { describeBrowser, useBrowser, type AppPage } from './harness';
+import { describeBrowser, downloadFrom, useBrowser, type AppPage } from './harness';
 
 const TAG = 'csp-violation ';
 /** Logged by the listener once installed, so a realm it never reached is seen. */
@@ -94,8 +94,8 @@ function unexpected(app: AppPage): string[] {
 }
 
 async function download(page: Page, button: string): Promise<{ name: string; text: string }> {
-  const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: button }).click()]);
-  return { name: (file as Download).suggestedFilename(), text: await readFile(await (file as Download).path(), 'utf8') };
+  const file = await downloadFrom(page, page.getByRole('button', { name: button }));
+  return { name: file.suggestedFilename(), text: await readFile(await file.path(), 'utf8') };
 }
 
 async function runStatus(page: Page): Promise<string | null> {

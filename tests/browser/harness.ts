@@ -17,7 +17,7 @@
  */
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import type { BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Download, Locator, Page } from 'playwright-core';
 import { afterAll, afterEach, beforeAll, beforeEach, describe, inject } from 'vitest';
 import { REPO_ROOT } from './app-server';
 import { launchChromium, type LaunchedChromium } from './chromium';
@@ -216,5 +216,17 @@ export async function saveScreenshot(page: Page, name: string, options: { fullPa
   await mkdir(dir, { recursive: true });
   const file = join(dir, `${name}.png`);
   await page.screenshot({ path: file, fullPage: options.fullPage ?? false, animations: 'disabled' });
+  return file;
+}
+
+/**
+ * The file a download button gives, asked for from the keyboard: the button is focused
+ * and Enter pressed. A click goes where the button was when Playwright scrolled to it, and
+ * a view that redraws in between (a design opening, a comparison filling) can move the
+ * page under it; seen with Start and a download on the suspension pages under the full
+ * suite's load.
+ */
+export async function downloadFrom(page: Page, button: Locator): Promise<Download> {
+  const [file] = await Promise.all([page.waitForEvent('download'), button.press('Enter')]);
   return file;
 }

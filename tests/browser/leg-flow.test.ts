@@ -7,11 +7,11 @@
  * the leg file: its gait figures, taken again in Node, are the row's.
  */
 import { readFile } from 'node:fs/promises';
-import type { Download, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { GAIT_CAUTION, gaitFigures } from '../../src/core/gait';
 import { parseLegFileText } from '../../src/core/io/legFile';
-import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser } from './harness';
 import { greyPng, screenOfPixel } from './legTraceImage';
 import { storedTextHas } from './storedProject';
 
@@ -128,8 +128,8 @@ describeBrowser('walking-leg workspace', () => {
     await saveScreenshot(page, 'leg-design');
 
     // The leg file: its gait figures, taken here in Node, are the row's.
-    const [file] = await Promise.all([page.waitForEvent('download'), opened.getByRole('button', { name: 'Leg file (JSON)' }).click()]);
-    const read = parseLegFileText(await readFile(await (file as Download).path(), 'utf8'));
+    const file = await downloadFrom(page, opened.getByRole('button', { name: 'Leg file (JSON)' }));
+    const read = parseLegFileText(await readFile(await file.path(), 'utf8'));
     if (!read.ok) throw new Error(JSON.stringify(read.issues));
     // Second, independent method: the core's gait figures of the downloaded leg file (what `loci analyze` prints of it).
     const g = gaitFigures(read.design.linkage, read.design.leg);

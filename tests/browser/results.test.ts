@@ -5,11 +5,11 @@
  */
 import Papa from 'papaparse';
 import { readFile } from 'node:fs/promises';
-import type { Download, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { familyName } from '../../src/app/results/format';
 import { parseLinkageFileText } from '../../src/core/io/linkageFile';
-import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser, type AppPage } from './harness';
 import { resultsFixture } from './results-page/candidates';
 import { PAGE_BASE, buildResultsPage, type BuiltPage } from './results-page/serve';
 
@@ -53,8 +53,8 @@ describeBrowser('results views', () => {
   }
 
   async function download(page: Page, button: string): Promise<{ name: string; text: string }> {
-    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: button }).click()]);
-    return { name: (file as Download).suggestedFilename(), text: await readFile(await (file as Download).path(), 'utf8') };
+    const file = await downloadFrom(page, page.getByRole('button', { name: button }));
+    return { name: file.suggestedFilename(), text: await readFile(await file.path(), 'utf8') };
   }
 
   it('ranks every candidate with its figures and draws each row', async () => {

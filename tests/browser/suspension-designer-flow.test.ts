@@ -11,13 +11,13 @@
  * plain geometry over a sweep ten times finer than the search's.
  */
 import { readFile } from 'node:fs/promises';
-import type { Download, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { parseSuspensionFileText } from '../../src/core/io/suspensionFile';
 import { compile, run } from '../../src/core/linkage';
 import { SUSPENSION_CAUTION, suspensionCurves, type Bicycle } from '../../src/core/suspension';
 import type { Linkage } from '../../src/core/linkage';
-import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser } from './harness';
 import { drawnScale } from './sideViewScale';
 
 const field = (page: Page, name: string) => page.locator(`[data-field="${name}"] input, [data-field="${name}"] textarea`).first();
@@ -182,8 +182,8 @@ describeBrowser('rear suspension: a frame designer’s flow', () => {
     for (const [layout, rank] of best) {
       const row = await rowCells(page, layout ?? '');
       await page.getByTestId('best-per-layout').getByRole('button', { name: `Open #${rank}` }).click();
-      const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Design file (JSON)' }).click()]);
-      const design = parseSuspensionFileText(await readFile(await (file as Download).path(), 'utf8'));
+      const file = await downloadFrom(page, page.getByRole('button', { name: 'Design file (JSON)' }));
+      const design = parseSuspensionFileText(await readFile(await file.path(), 'utf8'));
       if (!design.ok) throw new Error(JSON.stringify(design.issues));
       expect(design.design.layout.kind).toBe(layout);
       // The bicycle the designer typed is the one the design was searched and is analysed on.

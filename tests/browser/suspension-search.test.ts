@@ -5,11 +5,11 @@
  * compared on shared plots; the results kept over a reload.
  */
 import { readFile } from 'node:fs/promises';
-import type { Download, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { parseSuspensionFileText } from '../../src/core/io/suspensionFile';
 import { SUSPENSION_CAUTION, suspensionCurves } from '../../src/core/suspension';
-import { describeBrowser, saveScreenshot, useBrowser } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser } from './harness';
 import { storedTextHas } from './storedProject';
 
 /** The page shows figures to four significant figures (three for percentages and small movements). */
@@ -73,10 +73,9 @@ describeBrowser('suspension search', () => {
     const row = await cells(page, 'best-per-layout', fourBarRank ?? '');
     await page.getByTestId('best-per-layout').getByRole('button', { name: `Open #${fourBarRank}` }).click();
     await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toBe('susp-view-title');
-    // Downloads are asked for from the keyboard too (see Start above): the views redraw
-    // as a design opens or a comparison fills, and a click can land elsewhere.
-    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Design file (JSON)' }).press('Enter')]);
-    const design = parseSuspensionFileText(await readFile(await (file as Download).path(), 'utf8'));
+    // Downloads are asked for from the keyboard too (downloadFrom; see Start above).
+    const file = await downloadFrom(page, page.getByRole('button', { name: 'Design file (JSON)' }));
+    const design = parseSuspensionFileText(await readFile(await file.path(), 'utf8'));
     if (!design.ok) throw new Error(JSON.stringify(design.issues));
     expect(design.design.layout.kind).toBe('fourBarSeatStayAxle');
     // Source: the core's suspensionCurves run here in Node on the opened design's file, a route apart from the page's table.
@@ -120,8 +119,8 @@ describeBrowser('suspension search', () => {
     expect(await page.getByTestId('compare-anti-rise').getByTestId('target-band').count()).toBe(1);
     expect(await page.getByTestId('compare-side-views').locator('g[data-design]').count()).toBe(2);
     expect(await compare.textContent()).toContain(SUSPENSION_CAUTION);
-    const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download the compared curves (CSV)' }).press('Enter')]);
-    const csvLines = (await readFile(await (csv as Download).path(), 'utf8')).split('\r\n');
+    const csv = await downloadFrom(page, page.getByRole('button', { name: 'Download the compared curves (CSV)' }));
+    const csvLines = (await readFile(await csv.path(), 'utf8')).split('\r\n');
     expect(csvLines[1]).toBe(`# ${SUSPENSION_CAUTION}`);
     expect(csvLines[2]).toMatch(/^design,layout,step,travel_mm,/);
     // Two designs, one row per travel sample each, after the two notes and the header.

@@ -1,5 +1,5 @@
 import { readFile } from 'node:fs/promises';
-import type { Download, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
 import { parseSuspensionFileText } from '../../src/core/io/suspensionFile';
 import {
@@ -14,7 +14,7 @@ import {
   type LayoutKind,
   type SuspensionReport,
 } from '../../src/core/suspension';
-import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser, type AppPage } from './harness';
 import { storedTextHas } from './storedProject';
 
 /** The page shows figures to four significant figures. */
@@ -57,8 +57,8 @@ describeBrowser('rear suspension', () => {
   const figureCell = (page: Page, what: string) => page.locator(`[data-figure="${what}"]`);
 
   async function download(page: Page, button: string): Promise<{ name: string; text: string }> {
-    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: button }).click()]);
-    return { name: (file as Download).suggestedFilename(), text: await readFile(await (file as Download).path(), 'utf8') };
+    const file = await downloadFrom(page, page.getByRole('button', { name: button }));
+    return { name: file.suggestedFilename(), text: await readFile(await file.path(), 'utf8') };
   }
 
   it('opens the demo from the start page: the side view, every plot, the caution, figures equal to the core', async () => {

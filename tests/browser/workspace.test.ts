@@ -8,7 +8,7 @@
 import { readFile } from 'node:fs/promises';
 import type { Page } from 'playwright-core';
 import { expect, it } from 'vitest';
-import { describeBrowser, saveScreenshot, useBrowser, type AppPage } from './harness';
+import { describeBrowser, downloadFrom, saveScreenshot, useBrowser, type AppPage } from './harness';
 import { damageNewestCheckpointOfRunningSearch } from './storedCheckpoints';
 import { storedTextHas } from './storedProject';
 
@@ -299,7 +299,7 @@ describeBrowser('workspace', () => {
     await saveScreenshot(page, 'workspace-search-running');
     // The target is locked, but it can still be saved while the search runs on it.
     expect(await page.getByLabel('Closed path (a loop, once per crank turn)').isDisabled()).toBe(true);
-    const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export target as CSV' }).click()]);
+    const file = await downloadFrom(page, page.getByRole('button', { name: 'Export target as CSV' }));
     expect(file.suggestedFilename()).toBe('target.csv');
     const csvRows = (await readFile(await file.path(), 'utf8')).trim().split(/\r?\n/);
     // The header, the 24 points, and the first point again: a closed loop, as the CSV reader reads one.
