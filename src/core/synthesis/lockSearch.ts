@@ -9,8 +9,8 @@
  * The margin is every joint's at once, and next to a dyad's lock it can fall to zero
  * within a fraction of a degree while its sampled minimum leads the refinement to a
  * shallower dip beside it; so a range the margin finds free is searched again dyad by
- * dyad, from each one's signed sine, as the analysis of an exported linkage searches it
- * (linkage/dyadSine.ts): the search then meets every lock its report's analysis meets.
+ * dyad, from each one's signed sine, by the condition and the screen the analysis of an
+ * exported linkage reads (linkage/dyadSine.ts).
  * Allocates nothing after construction.
  */
 
