@@ -10,6 +10,7 @@
 import { FOUR_BAR_FIXED_NAMES, FOUR_BAR_FREE_NAMES } from './familyVariables';
 import { fourBar } from '../linkage';
 import { classifyFourBar } from '../linkage/analysis';
+import { COINCIDENT_JOINT_TOL_MM as COINCIDENT_JOINT_TOL_MM_BINDING } from '../linkage/tolerances';
 import { crankViolationInto, inputTurnsFully } from './grashofTurn';
 import { CURVE_OUT_LENGTH as CURVE_OUT_LENGTH_BINDING, type CurveEvaluator } from './curve';
 import {
@@ -52,6 +53,7 @@ const V_BRANCH = V_BRANCH_BINDING;
 const V_CRANK = V_CRANK_BINDING;
 const V_KEEP_OUT = V_KEEP_OUT_BINDING;
 const V_LINK_LENGTH = V_LINK_LENGTH_BINDING;
+const COINCIDENT_JOINT_TOL_MM = COINCIDENT_JOINT_TOL_MM_BINDING;
 const V_TRANSMISSION = V_TRANSMISSION_BINDING;
 const EXTENT_COS = EXTENT_COS_BINDING;
 const FOUR_BAR_LENGTH_VARIABLES = FOUR_BAR_LENGTH_VARIABLES_BINDING;
@@ -195,7 +197,13 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       transmissionOver(cmin, cmax, parts);
     },
     placed(placement: Float64Array, parts: Float64Array): void {
-      // Nothing is read unless a limit asks for it: without link-length limits and
+      // A link shorter than a linkage file allows once placed (a placement whose scale
+      // collapsed to nothing, as where every target point is matched to one driver value):
+      // no linkage to export or analyse, as infeasible as one that cannot be built (the
+      // pose families' rule, poseFamilies.ts).
+      const shortest = Math.min(p[R1], p[R2], p[R3], p[R4]);
+      if (!(Math.sqrt(placement[0] * placement[0] + placement[1] * placement[1]) * shortest >= COINCIDENT_JOINT_TOL_MM)) parts[V_LINK_LENGTH] += 1;
+      // Nothing else is read unless a limit asks for it: without link-length limits and
       // keep-outs (most problems) this allocates nothing, where Math.hypot allocates its
       // answer in V8, and so may a double in a local of code that is not optimised yet.
       if (linkLimits !== undefined) {

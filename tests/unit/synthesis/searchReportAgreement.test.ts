@@ -7,7 +7,8 @@
  * feasible in its report, or the table would rank a motion the linkage cannot make.
  * Stephenson II and III are the families with Newton blocks; the others place every
  * joint by dyads, the branch fixed by the reference pose's side. The report draws the
- * linkage at target point 1, so the figures are taken over the fitted motion.
+ * linkage at target point 1, so the figures are taken over the fitted motion. The lengths
+ * four-bar is checked too, for what its placement makes of its links.
  */
 import { describe, expect, it } from 'vitest';
 import { Prng } from '../../../src/core/optimize/prng';
@@ -27,8 +28,23 @@ import { demoPathObjective } from '../../support/demoObjective';
  */
 const DESIGNS = 400;
 
-describe('search and report agree on six-bar motions', () => {
-  for (const [family, closed] of [['stephenson-ii', true], ['stephenson-iii', true], ['stephenson-ii', false], ['stephenson-iii', false]] as [FamilyId, boolean][]) {
+/**
+ * Family, closed path, random designs. The lengths four-bar places its links by the
+ * similarity fit's scale: where the fit collapses (every target point matched to one
+ * driver value) its exported links have no length and the report cannot analyse it; 600
+ * designs take in design 575, feasible in the search before its placement was checked as
+ * the pose families' is.
+ */
+const CASES: readonly (readonly [FamilyId, boolean, number])[] = [
+  ['stephenson-ii', true, DESIGNS],
+  ['stephenson-iii', true, DESIGNS],
+  ['stephenson-ii', false, DESIGNS],
+  ['stephenson-iii', false, DESIGNS],
+  ['fourbar-lengths', false, 600],
+];
+
+describe('search and report agree on a design', () => {
+  for (const [family, closed, designs] of CASES) {
     it(`${family}, ${closed ? 'closed' : 'open'} path: every random design the search calls feasible is feasible in its report`, () => {
       const objective = demoPathObjective(family, closed);
       const prng = Prng.fromSeed(7);
@@ -37,7 +53,7 @@ describe('search and report agree on six-bar motions', () => {
       const out = new Float64Array(2);
       const disagree: string[] = [];
       let feasible = 0;
-      for (let k = 0; k < DESIGNS; k++) {
+      for (let k = 0; k < designs; k++) {
         prng.fillFloats(u, objective.dim);
         objective.fromSearchBoxInto(u, x);
         objective.evaluate(Float64Array.from(x), out);
@@ -50,7 +66,7 @@ describe('search and report agree on six-bar motions', () => {
         else if (report.referencePose !== 'target point 1') disagree.push(`design ${k}: drawn in its ${report.referencePose}`);
       }
       // Enough feasible designs for the check to mean something (about one in ten).
-      expect(feasible).toBeGreaterThan(DESIGNS / 20);
+      expect(feasible).toBeGreaterThan(designs / 20);
       expect(disagree).toEqual([]);
     });
   }
