@@ -19,6 +19,9 @@ import { DEAD_CENTRE_SIN_TOL, SWEEP_REFINE_MAX_STEPS, SWEEP_REFINE_REL_TOL } fro
 
 /** 1 / φ, the golden section's ratio. */
 const INV_PHI = (Math.sqrt(5) - 1) / 2;
+/** Layout of goldenSine's answer: where the least sine lies, and the sine. */
+const FOUND_AT = 0;
+const FOUND_SINE = 1;
 
 /**
  * A refinement stops when its bracket is narrower than this (rad, 6e-6°): a lock narrower
@@ -56,17 +59,21 @@ export interface MarginCurve {
    * (sweep.ts); absent where the curve has none to show.
    */
   readonly dyadCount?: number;
-  /** Dyad d's signed sine in the pose at poses[base …]. */
-  dyadSineIn?(d: number, poses: Float64Array, base: number): number;
-  /** Dyad d's signed sine at driver value t, solved from `start` without moving the curve; −1 where it cannot be placed. */
-  dyadSineAt?(d: number, t: number, start: Float64Array): number;
+  /** Dyad d's signed sine in each of `count` poses at poses[k · stride …], into out[k]. */
+  dyadSinesInto?(d: number, poses: Float64Array, stride: number, count: number, out: Float64Array): void;
+  /**
+   * Dyad d's signed sine at driver value io[0], solved from `start` without moving the
+   * curve, into io[1]; −1 where it cannot be placed. The numbers cross in `io`: V8 boxes a
+   * number passed to or returned from a call it does not inline.
+   */
+  dyadSineAt?(d: number, io: Float64Array, start: Float64Array): void;
 }
 
 /** A curve that shows its dyads to the search (MarginCurve's optional members). */
-type DyadCurve = MarginCurve & Required<Pick<MarginCurve, 'dyadCount' | 'dyadSineIn' | 'dyadSineAt'>>;
+type DyadCurve = MarginCurve & Required<Pick<MarginCurve, 'dyadCount' | 'dyadSinesInto' | 'dyadSineAt'>>;
 
 function showsDyads(curve: MarginCurve): curve is DyadCurve {
-  return curve.dyadCount !== undefined && curve.dyadSineIn !== undefined && curve.dyadSineAt !== undefined;
+  return curve.dyadCount !== undefined && curve.dyadSinesInto !== undefined && curve.dyadSineAt !== undefined;
 }
 
 export class LockSearch {
@@ -81,9 +88,10 @@ export class LockSearch {
   private readonly at: Float64Array;
   private readonly below: Float64Array;
   private readonly above: Float64Array;
-  /** A dyad's signed sine at each sample (dyadWindows), and where goldenSine found its least. */
+  /** A dyad's signed sine at each sample (dyadWindows); goldenSine's probe (value, sine) and its answer (FOUND_*). */
   private readonly sines: Float64Array;
-  private readonly found = new Float64Array(1);
+  private readonly probeIo = new Float64Array(2);
+  private readonly found = new Float64Array(2);
 
   constructor(stride: number, maxSteps: number) {
     this.stride = stride;
@@ -272,7 +280,7 @@ export class LockSearch {
     const stride = this.stride;
     let locks = 0;
     for (let d = 0; d < curve.dyadCount; d++) {
-      for (let k = 0; k <= last; k++) sine[k] = curve.dyadSineIn(d, this.poses, k * stride);
+      curve.dyadSinesInto(d, this.poses, stride, last + 1, sine);
       for (let k = 0; k <= last; k++) {
         const before = k > 0 ? sine[k - 1] : cyclic ? sine[last] : Infinity;
         const after = k < last ? sine[k + 1] : cyclic ? sine[0] : Infinity;
@@ -282,42 +290,51 @@ export class LockSearch {
         const hi = this.above[k];
         const tol = SWEEP_REFINE_REL_TOL * Math.max(at[k] - lo, hi - at[k]);
         this.copyPose(k, this.start);
-        const least = this.goldenSine(curve, d, lo, hi, tol);
+        this.goldenSine(curve, d, lo, hi, tol);
         // A minimum at an end of the range is not passed within it.
-        const where = this.found[0];
+        const where = this.found[FOUND_AT];
         if (!cyclic && (Math.abs(where - at[0]) <= tol || Math.abs(where - at[last]) <= tol)) continue;
-        if (least < DEAD_CENTRE_SIN_TOL) locks++;
+        if (this.found[FOUND_SINE] < DEAD_CENTRE_SIN_TOL) locks++;
       }
     }
     return locks;
   }
 
-  /** The least signed sine of dyad d on [lo, hi], each probe solved from `start`; where it lies into found[0]. */
-  private goldenSine(curve: DyadCurve, d: number, lo: number, hi: number, tol: number): number {
+  /** The least signed sine of dyad d on [lo, hi], each probe solved from `start`, and where it lies, into `found`. */
+  private goldenSine(curve: DyadCurve, d: number, lo: number, hi: number, tol: number): void {
     const start = this.start;
+    const io = this.probeIo;
     let a = lo;
     let b = hi;
     let x1 = b - INV_PHI * (b - a);
     let x2 = a + INV_PHI * (b - a);
-    let f1 = curve.dyadSineAt(d, x1, start);
-    let f2 = curve.dyadSineAt(d, x2, start);
+    io[0] = x1;
+    curve.dyadSineAt(d, io, start);
+    let f1 = io[1];
+    io[0] = x2;
+    curve.dyadSineAt(d, io, start);
+    let f2 = io[1];
     for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(b - a) > tol; i++) {
       if (f1 <= f2) {
         b = x2;
         x2 = x1;
         f2 = f1;
         x1 = b - INV_PHI * (b - a);
-        f1 = curve.dyadSineAt(d, x1, start);
+        io[0] = x1;
+        curve.dyadSineAt(d, io, start);
+        f1 = io[1];
       } else {
         a = x1;
         x1 = x2;
         f1 = f2;
         x2 = a + INV_PHI * (b - a);
-        f2 = curve.dyadSineAt(d, x2, start);
+        io[0] = x2;
+        curve.dyadSineAt(d, io, start);
+        f2 = io[1];
       }
     }
-    this.found[0] = f1 <= f2 ? x1 : x2;
-    return f1 <= f2 ? f1 : f2;
+    this.found[FOUND_AT] = f1 <= f2 ? x1 : x2;
+    this.found[FOUND_SINE] = f1 <= f2 ? f1 : f2;
   }
 
   /** Copies the pose of sample k into `out` (a loop: a subarray would allocate). */

@@ -1027,28 +1027,31 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   get dyadCount(): number {
     return this.dyadOps.length;
   }
-  /** Dyad d's signed sine (dyadSine.ts) in the pose at poses[base …]. */
-  dyadSineIn(d: number, poses: Float64Array, base: number): number {
-    return signedDyadSine(this.plan as PlanInternal, this.dyadOps[d], poses, base);
+  /** Dyad d's signed sine (dyadSine.ts) in each of `count` poses at poses[k · stride …], into out[k]. */
+  dyadSinesInto(d: number, poses: Float64Array, stride: number, count: number, out: Float64Array): void {
+    const p = this.plan as PlanInternal;
+    const o = this.dyadOps[d];
+    for (let k = 0; k < count; k++) out[k] = signedDyadSine(p, o, poses, k * stride);
   }
   /**
-   * Dyad d's signed sine at driver value t, the operations before it run from `start` (a
-   * Newton block among them starts there): −1 where one of them fails or a block lands
-   * on another branch than the reference pose's, as the analysis counts it (sweep.ts).
-   * The curve does not move.
+   * Dyad d's signed sine at driver value io[0], the operations before it run from `start`
+   * (a Newton block among them starts there), into io[1]: −1 where one of them fails or a
+   * block lands on another branch than the reference pose's, as the analysis counts it
+   * (sweep.ts). The curve does not move.
    */
-  dyadSineAt(d: number, t: number, start: Float64Array): number {
+  dyadSineAt(d: number, io: Float64Array, start: Float64Array): void {
     const p = this.plan as PlanInternal;
     const o = this.dyadOps[d];
     const endOp = o / OP_STRIDE;
     const pose = this.dyadPose;
     for (let i = 0; i < pose.length; i++) pose[i] = start[i];
-    if (runPrefix(p, p.driverReferenceValue + t, pose, endOp) >= 0) return -1;
+    io[1] = -1;
+    if (runPrefix(p, p.driverReferenceValue + io[0], pose, endOp) >= 0) return;
     for (let b = 0; b < p.blockCount && this.blockOps[b] < endOp; b++) {
-      if (blockJacobianSign(p, b, pose) !== this.referenceSigns[b]) return -1;
+      if (blockJacobianSign(p, b, pose) !== this.referenceSigns[b]) return;
     }
     const sine = signedDyadSine(p, o, pose, 0);
-    return sine === sine ? sine : -1;
+    if (sine === sine) io[1] = sine;
   }
   /** Where the plan does not assemble: a finite stand-in, the reference point, and margin −1. */
   private standIn(out: Float64Array): void {
