@@ -2,8 +2,8 @@
  * A dyad's assembly condition as one number, its signed sine: what the analysis of a
  * linkage (sweep.ts) and the synthesis' lock search (lockSearch.ts) both read to find a
  * window where a dyad cannot assemble, or a dead centre it passes, between two samples
- * that assemble. Shared so that both find the same windows: a candidate's lock search
- * must meet every lock its report's analysis meets.
+ * that assemble. One module, so that the search and its report's analysis read one
+ * condition through one screen.
  */
 import { DEAD_CENTRE_SIN_TOL } from './tolerances';
 import { OP_CIRCLE_BODY_LINE, OP_CIRCLE_GROUND_LINE, OP_DYAD, type PlanInternal } from './plan';
@@ -60,6 +60,7 @@ export function signedDyadSine(p: PlanInternal, o: number, pose: Float64Array, b
   return Math.sign(disc) * Math.sqrt(Math.abs(disc)) / r;
 }
 
+/** The operations whose joint signedDyadSine reads: two circles, or a circle and a line. */
 export function isDyadOp(code: number): boolean {
   return code === OP_DYAD || code === OP_CIRCLE_GROUND_LINE || code === OP_CIRCLE_BODY_LINE;
 }
@@ -76,10 +77,10 @@ export function isDyadOp(code: number): boolean {
  * run the plan up to the dyad for each probe: for all the dyads of a long chain, work
  * that grows as the square of its length.
  */
-export const DYAD_REFINE_RISE_FACTOR = 8;
+const DYAD_REFINE_RISE_FACTOR = 8;
 
 /** Sampled minima of a dyad's signed sine below this (about 3° from a toggle) are refined whatever their rise. */
-export const DYAD_REFINE_NEAR_SINE = 0.05;
+const DYAD_REFINE_NEAR_SINE = 0.05;
 
 /**
  * Whether the sampled minimum sine[k] of samples 0 … last is refined (see
