@@ -200,9 +200,9 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
       // A link shorter than a linkage file allows once placed (a placement whose scale
       // collapsed to nothing, as where every target point is matched to one driver value):
       // no linkage to export or analyse, as infeasible as one that cannot be built (the
-      // pose families' rule, poseFamilies.ts).
+      // pose families' rule, poseFamilies.ts). A link of no length load charged already.
       const shortest = Math.min(p[R1], p[R2], p[R3], p[R4]);
-      if (!(Math.sqrt(placement[0] * placement[0] + placement[1] * placement[1]) * shortest >= COINCIDENT_JOINT_TOL_MM)) parts[V_LINK_LENGTH] += 1;
+      if (shortest > 0 && !(Math.sqrt(placement[0] * placement[0] + placement[1] * placement[1]) * shortest >= COINCIDENT_JOINT_TOL_MM)) parts[V_LINK_LENGTH] += 1;
       // Nothing else is read unless a limit asks for it: without link-length limits and
       // keep-outs (most problems) this allocates nothing, where Math.hypot allocates its
       // answer in V8, and so may a double in a local of code that is not optimised yet.
