@@ -14,6 +14,7 @@
  */
 import { OP_NEWTON, OP_STRIDE, type Plan, type PlanInternal } from './plan';
 import { isDyadOp, refinesDyadMinimum, signedDyadSine } from './dyadSine';
+import { GOLDEN_PROBE_AT, GOLDEN_PROBE_VALUE, goldenSectionMinimum, type DriverProbe } from './goldenSection';
 import { blockJacobianSign } from './newton';
 import { poseRatesInto, runBatch, runPrefix, runSized, runWithRates } from './run';
 import {
@@ -495,6 +496,7 @@ function findDyadWindows(
   if (steps < 2) return;
   const stride = t.stride;
   const sine = new Float64Array(steps);
+  const found = new Float64Array(2);
   const written = prefixSlots(p);
   const unitStep = p.driverIsLength ? SWEEP_MAX_STEP_REL * p.lengthScaleMm : SWEEP_MAX_STEP_RAD;
   const screen = Math.abs(values[1] - values[0]) <= SWEEP_REFINE_SCREEN_MAX_UNIT_STEPS * unitStep;
@@ -514,20 +516,22 @@ function findDyadWindows(
       const lo = values[k > 0 ? k - 1 : k];
       const hi = values[k + 1 < steps ? k + 1 : k];
       const at = k * stride;
-      const found = goldenMinimum(p, t, written, o, lo, hi, values[k], poses.subarray(at, at + stride), rates.subarray(at, at + stride));
+      dyadSineMinimum(p, t, written, o, lo, hi, values[k], poses.subarray(at, at + stride), rates.subarray(at, at + stride), found);
+      const where = found[GOLDEN_PROBE_AT];
+      const least = found[GOLDEN_PROBE_VALUE];
       // A minimum at an end of the range is not passed within it.
-      if (Math.abs(found.value - values[0]) <= t.minStep || Math.abs(found.value - values[steps - 1]) <= t.minStep) continue;
+      if (Math.abs(where - values[0]) <= t.minStep || Math.abs(where - values[steps - 1]) <= t.minStep) continue;
       // A lock the tracking found already (a block's, or one its sub-steps met).
-      if (locks.some((l) => (found.value - l.from) * (found.value - l.to) <= 0)) continue;
+      if (locks.some((l) => (where - l.from) * (where - l.to) <= 0)) continue;
       const joint = p.jointIds[p.ops[o + 3] >> 1];
-      if (Math.abs(found.sine) < DEAD_CENTRE_SIN_TOL) {
-        deadCentres.push({ value: found.value, joint, kind: 'change point' });
-      } else if (found.sine < 0) {
+      if (Math.abs(least) < DEAD_CENTRE_SIN_TOL) {
+        deadCentres.push({ value: where, joint, kind: 'change point' });
+      } else if (least < 0) {
         // The samples on either side of the window that assemble.
-        const left = (values[k] - found.value) * (hi - lo) < 0 ? k : k - 1;
+        const left = (values[k] - where) * (hi - lo) < 0 ? k : k - 1;
         const right = left + 1;
-        const lockFrom = bisectEdge(p, t, values[left], found.value, poses.subarray(left * stride, (left + 1) * stride), rates.subarray(left * stride, (left + 1) * stride));
-        const lockTo = bisectEdge(p, t, values[right], found.value, poses.subarray(right * stride, (right + 1) * stride), rates.subarray(right * stride, (right + 1) * stride));
+        const lockFrom = bisectEdge(p, t, values[left], where, poses.subarray(left * stride, (left + 1) * stride), rates.subarray(left * stride, (left + 1) * stride));
+        const lockTo = bisectEdge(p, t, values[right], where, poses.subarray(right * stride, (right + 1) * stride), rates.subarray(right * stride, (right + 1) * stride));
         locks.push({ from: lockFrom.value, to: lockTo.value });
         for (const edge of [lockFrom, lockTo]) {
           const j = opJoint(p, edge.op);
@@ -618,45 +622,27 @@ function solvePrefixNear(
 }
 
 /**
- * Golden-section search (Kiefer, 1953) for the least signed sine of dyad `o` on [lo, hi].
- * The sine depends only on the operations before the dyad, so each probe runs only those.
+ * The least signed sine of dyad `o` on [lo, hi] and where it lies, into `found`
+ * (goldenSection.ts layout). The sine depends only on the operations before the dyad,
+ * so each probe runs only those.
  */
-function goldenMinimum(
+function dyadSineMinimum(
   p: PlanInternal, t: Tracker, written: PrefixSlots, o: number, lo: number, hi: number, at: number,
-  pose: Float64Array, rates: Float64Array,
-): { value: number; sine: number } {
+  pose: Float64Array, rates: Float64Array, found: Float64Array,
+): void {
   const work = t.work;
   const endOp = o / OP_STRIDE;
-  const sineAt = (v: number) => {
-    if (work !== undefined) work.probeOps += endOp;
-    // Where the linkage fails (or leaves the branch) before this dyad, its sine is not defined: count it as a lock.
-    if (!solvePrefixNear(p, t, written, endOp, v, at, pose, rates)) return -1;
-    const s = signedDyadSine(p, o, t.pose, 0);
-    return Number.isNaN(s) ? -1 : s;
+  const sine: DriverProbe = {
+    probe(io) {
+      if (work !== undefined) work.probeOps += endOp;
+      // Where the linkage fails (or leaves the branch) before this dyad, its sine is not defined: count it as a lock.
+      io[GOLDEN_PROBE_VALUE] = -1;
+      if (!solvePrefixNear(p, t, written, endOp, io[GOLDEN_PROBE_AT], at, pose, rates)) return;
+      const s = signedDyadSine(p, o, t.pose, 0);
+      if (!Number.isNaN(s)) io[GOLDEN_PROBE_VALUE] = s;
+    },
   };
-  const invPhi = (Math.sqrt(5) - 1) / 2;
-  let a = lo;
-  let b = hi;
-  let x1 = b - invPhi * (b - a);
-  let x2 = a + invPhi * (b - a);
-  let f1 = sineAt(x1);
-  let f2 = sineAt(x2);
-  for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(b - a) > t.minStep; i++) {
-    if (f1 <= f2) {
-      b = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = b - invPhi * (b - a);
-      f1 = sineAt(x1);
-    } else {
-      a = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = a + invPhi * (b - a);
-      f2 = sineAt(x2);
-    }
-  }
-  return f1 <= f2 ? { value: x1, sine: f1 } : { value: x2, sine: f2 };
+  goldenSectionMinimum(sine, lo, hi, t.minStep, new Float64Array(2), found);
 }
 
 /** Bisects between `good` (a sample that assembles, pose and rates given) and `bad`; returns the last value that assembles and the operation that fails past it. */

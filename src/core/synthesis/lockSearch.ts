@@ -15,13 +15,9 @@
  */
 
 import { refinesDyadMinimum } from '../linkage/dyadSine';
-import { DEAD_CENTRE_SIN_TOL, SWEEP_REFINE_MAX_STEPS, SWEEP_REFINE_REL_TOL } from '../linkage/tolerances';
+import { GOLDEN_PROBE_AT, GOLDEN_PROBE_VALUE, goldenSectionMinimum, type DriverProbe } from '../linkage/goldenSection';
+import { DEAD_CENTRE_SIN_TOL, SWEEP_REFINE_REL_TOL } from '../linkage/tolerances';
 
-/** 1 / φ, the golden section's ratio. */
-const INV_PHI = (Math.sqrt(5) - 1) / 2;
-/** Layout of goldenSine's answer: where the least sine lies, and the sine. */
-const FOUND_AT = 0;
-const FOUND_SINE = 1;
 
 /**
  * A refinement stops when its bracket is narrower than this (rad, 6e-6°): a lock narrower
@@ -76,6 +72,24 @@ function showsDyads(curve: MarginCurve): curve is DyadCurve {
   return curve.dyadCount !== undefined && curve.dyadSinesInto !== undefined && curve.dyadSineAt !== undefined;
 }
 
+/** A dyad's signed sine along a curve, each probe solved from one start pose: reused, so a search allocates nothing. */
+class DyadSineProbe implements DriverProbe {
+  private curve: DyadCurve | undefined;
+  private dyad = 0;
+  private start: Float64Array = new Float64Array(0);
+
+  aim(curve: DyadCurve, dyad: number, start: Float64Array): void {
+    this.curve = curve;
+    this.dyad = dyad;
+    this.start = start;
+  }
+
+  probe(io: Float64Array): void {
+    if (this.curve === undefined) throw new Error('a dyad sine probe must be aimed at a curve first');
+    this.curve.dyadSineAt(this.dyad, io, this.start);
+  }
+}
+
 export class LockSearch {
   private readonly stride: number;
   private readonly maxSteps: number;
@@ -88,8 +102,9 @@ export class LockSearch {
   private readonly at: Float64Array;
   private readonly below: Float64Array;
   private readonly above: Float64Array;
-  /** A dyad's signed sine at each sample (dyadWindows); goldenSine's probe (value, sine) and its answer (FOUND_*). */
+  /** A dyad's signed sine at each sample (dyadWindows); its golden-section search's probe, and its answer (goldenSection.ts). */
   private readonly sines: Float64Array;
+  private readonly dyadSine = new DyadSineProbe();
   private readonly probeIo = new Float64Array(2);
   private readonly found = new Float64Array(2);
 
@@ -269,8 +284,8 @@ export class LockSearch {
   /**
    * Windows where a dyad cannot assemble, and dead centres it passes, between samples
    * 0 … last (all assembled): each dyad's sampled minima of its signed sine that
-   * refinesDyadMinimum lets through are refined by golden-section search (Kiefer, 1953)
-   * to SWEEP_REFINE_REL_TOL of a sample step, as the analysis refines them (sweep.ts);
+   * refinesDyadMinimum lets through are refined by the analysis' golden-section search
+   * (goldenSection.ts) to SWEEP_REFINE_REL_TOL of a sample step, as it refines them (sweep.ts);
    * each least sine below DEAD_CENTRE_SIN_TOL inside the range counts as a lock.
    */
   private dyadWindows(curve: MarginCurve, last: number, cyclic: boolean): number {
@@ -290,51 +305,15 @@ export class LockSearch {
         const hi = this.above[k];
         const tol = SWEEP_REFINE_REL_TOL * Math.max(at[k] - lo, hi - at[k]);
         this.copyPose(k, this.start);
-        this.goldenSine(curve, d, lo, hi, tol);
+        this.dyadSine.aim(curve, d, this.start);
+        goldenSectionMinimum(this.dyadSine, lo, hi, tol, this.probeIo, this.found);
         // A minimum at an end of the range is not passed within it.
-        const where = this.found[FOUND_AT];
+        const where = this.found[GOLDEN_PROBE_AT];
         if (!cyclic && (Math.abs(where - at[0]) <= tol || Math.abs(where - at[last]) <= tol)) continue;
-        if (this.found[FOUND_SINE] < DEAD_CENTRE_SIN_TOL) locks++;
+        if (this.found[GOLDEN_PROBE_VALUE] < DEAD_CENTRE_SIN_TOL) locks++;
       }
     }
     return locks;
-  }
-
-  /** The least signed sine of dyad d on [lo, hi], each probe solved from `start`, and where it lies, into `found`. */
-  private goldenSine(curve: DyadCurve, d: number, lo: number, hi: number, tol: number): void {
-    const start = this.start;
-    const io = this.probeIo;
-    let a = lo;
-    let b = hi;
-    let x1 = b - INV_PHI * (b - a);
-    let x2 = a + INV_PHI * (b - a);
-    io[0] = x1;
-    curve.dyadSineAt(d, io, start);
-    let f1 = io[1];
-    io[0] = x2;
-    curve.dyadSineAt(d, io, start);
-    let f2 = io[1];
-    for (let i = 0; i < SWEEP_REFINE_MAX_STEPS && Math.abs(b - a) > tol; i++) {
-      if (f1 <= f2) {
-        b = x2;
-        x2 = x1;
-        f2 = f1;
-        x1 = b - INV_PHI * (b - a);
-        io[0] = x1;
-        curve.dyadSineAt(d, io, start);
-        f1 = io[1];
-      } else {
-        a = x1;
-        x1 = x2;
-        f1 = f2;
-        x2 = a + INV_PHI * (b - a);
-        io[0] = x2;
-        curve.dyadSineAt(d, io, start);
-        f2 = io[1];
-      }
-    }
-    this.found[FOUND_AT] = f1 <= f2 ? x1 : x2;
-    this.found[FOUND_SINE] = f1 <= f2 ? f1 : f2;
   }
 
   /** Copies the pose of sample k into `out` (a loop: a subarray would allocate). */
