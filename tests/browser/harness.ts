@@ -161,7 +161,8 @@ async function reportFailedPage(app: AppPage, name: string): Promise<void> {
 
 /**
  * Call inside a describeBrowser body: launches one Chromium before the file's tests and
- * closes it, and every page opened through the handle, after them. When a test fails,
+ * closes it after them. A page opened through the handle inside a test is closed when
+ * the test ends (one opened in a beforeAll, after the file's tests); when a test fails,
  * each page it opened is reported (reportFailedPage) before it is closed.
  */
 export function useBrowser(): BrowserHandle {
@@ -177,9 +178,13 @@ export function useBrowser(): BrowserHandle {
     firstOfTest = opened.length;
   });
   afterEach(async ({ task }) => {
-    if (task.result?.state !== 'fail') return;
-    const slug = `${task.file.name.split('/').pop() ?? 'test'}-${task.name}`.toLowerCase().replace(/[^a-z0-9]+/g, '-').slice(0, 100);
-    for (let i = firstOfTest; i < opened.length; i++) await reportFailedPage(opened[i], `${slug}-${i - firstOfTest + 1}`);
+    if (task.result?.state === 'fail') {
+      const slug = `${task.file.name.split('/').pop() ?? 'test'}-${task.name}`.toLowerCase().replace(/[^a-z0-9]+/g, '-').slice(0, 100);
+      for (let i = firstOfTest; i < opened.length; i++) await reportFailedPage(opened[i], `${slug}-${i - firstOfTest + 1}`);
+    }
+    // A page left open goes on drawing and searching while the file's later tests run,
+    // on the same two cores: the pages a test opened end with it.
+    for (const app of opened.splice(firstOfTest)) await app.close().catch(() => {});
   });
   afterAll(async () => {
     for (const app of opened) await app.close().catch(() => {});
