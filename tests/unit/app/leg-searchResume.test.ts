@@ -132,6 +132,10 @@ describe('resuming a leg search after a reload', () => {
     return texts;
   }
 
+  /** One interrupted run for the tests that resume it: each reads its checkpoints, none changes them. */
+  let interruptedRun: Promise<readonly string[]> | undefined;
+  const interruptedOnce = (): Promise<readonly string[]> => (interruptedRun ??= interrupted());
+
   async function resumeFrom(texts: readonly string[], stopPast?: number): Promise<{ runs: LegSearchRun[]; firstMessage: string | null; firstEvaluations: number; ended: number; c: LegSearchController }> {
     const runs: LegSearchRun[] = [];
     let ended = 0;
@@ -157,7 +161,7 @@ describe('resuming a leg search after a reload', () => {
   }
 
   it('goes on from the newest checkpoint, and a stop then keeps the designs of every family', async () => {
-    const texts = await interrupted();
+    const texts = await interruptedOnce();
     const newest = decodeCheckpoint(texts[0]);
     if (!newest.ok) throw new Error(newest.reason);
     const r = await resumeFrom(texts, newest.payload.evaluations);
@@ -175,7 +179,7 @@ describe('resuming a leg search after a reload', () => {
   }, 120_000);
 
   it('skips a corrupt newest checkpoint for the one before it, and says so', async () => {
-    const texts = await interrupted();
+    const texts = await interruptedOnce();
     // A changed count under an unchanged checksum: what a torn or altered write leaves.
     const doc = JSON.parse(texts[0]) as { payload: { evaluations: number } };
     doc.payload.evaluations += 1;
