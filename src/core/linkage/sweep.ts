@@ -496,6 +496,8 @@ function findDyadWindows(
   if (steps < 2) return;
   const stride = t.stride;
   const sine = new Float64Array(steps);
+  // goldenSection.ts's probe and answer.
+  const probeIo = new Float64Array(2);
   const found = new Float64Array(2);
   const written = prefixSlots(p);
   const unitStep = p.driverIsLength ? SWEEP_MAX_STEP_REL * p.lengthScaleMm : SWEEP_MAX_STEP_RAD;
@@ -516,7 +518,7 @@ function findDyadWindows(
       const lo = values[k > 0 ? k - 1 : k];
       const hi = values[k + 1 < steps ? k + 1 : k];
       const at = k * stride;
-      dyadSineMinimum(p, t, written, o, lo, hi, values[k], poses.subarray(at, at + stride), rates.subarray(at, at + stride), found);
+      dyadSineMinimum(p, t, written, o, lo, hi, values[k], poses.subarray(at, at + stride), rates.subarray(at, at + stride), probeIo, found);
       const where = found[GOLDEN_PROBE_AT];
       const least = found[GOLDEN_PROBE_VALUE];
       // A minimum at an end of the range is not passed within it.
@@ -628,7 +630,7 @@ function solvePrefixNear(
  */
 function dyadSineMinimum(
   p: PlanInternal, t: Tracker, written: PrefixSlots, o: number, lo: number, hi: number, at: number,
-  pose: Float64Array, rates: Float64Array, found: Float64Array,
+  pose: Float64Array, rates: Float64Array, probeIo: Float64Array, found: Float64Array,
 ): void {
   const work = t.work;
   const endOp = o / OP_STRIDE;
@@ -642,7 +644,7 @@ function dyadSineMinimum(
       if (!Number.isNaN(s)) io[GOLDEN_PROBE_VALUE] = s;
     },
   };
-  goldenSectionMinimum(sine, lo, hi, t.minStep, new Float64Array(2), found);
+  goldenSectionMinimum(sine, lo, hi, t.minStep, probeIo, found);
 }
 
 /** Bisects between `good` (a sample that assembles, pose and rates given) and `bad`; returns the last value that assembles and the operation that fails past it. */
