@@ -34,6 +34,11 @@ export default defineConfig({
           name: 'browser',
           include: ['tests/browser/**/*.test.ts'],
           globalSetup: ['tests/browser/global-setup.ts'],
+          // Threads, and modules kept across a worker's files, as in the unit group: each
+          // file launches its own Chromium and closes its pages, and a fresh process per
+          // file spent its first seconds importing playwright-core on a busy CPU.
+          pool: 'threads',
+          isolate: false,
           // Two files at a time: most of their time is waiting on the app (checkpoints,
           // reloads), not computing; three at a time starved a search's start on two cores.
           maxWorkers: 2,
