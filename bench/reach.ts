@@ -13,8 +13,8 @@
  * The seeds run in worker threads, one per core (at most two), each the search alone in
  * its thread (an island without the engine's rounds); the figures other than seconds do
  * not depend on the machine: the same code and seeds give the same evaluations and RMS.
- * `reach-quick` runs REACH_QUICK_IDS with QUICK_SEEDS seeds at the same budget; `npm run bench`
- * alone runs it and leaves `reach` out (tens of minutes on two cores).
+ * `npm run bench` alone runs the whole set (minutes on two idle cores, bench/README.md);
+ * `reach-quick`, run only by name, REACH_QUICK_IDS with QUICK_SEEDS seeds at the same budget.
  *
  * To measure a change on part of the set: LOCI_REACH_CASES (case ids, comma-separated),
  * LOCI_REACH_SEEDS (seeds 1 … n) and LOCI_REACH_OPTIMIZER (a job's optimizer as JSON; a
