@@ -18,7 +18,6 @@ import { refinesDyadMinimum } from '../linkage/dyadSine';
 import { GOLDEN_PROBE_AT, GOLDEN_PROBE_VALUE, goldenSectionMinimum, type DriverProbe } from '../linkage/goldenSection';
 import { DEAD_CENTRE_SIN_TOL, SWEEP_REFINE_REL_TOL } from '../linkage/tolerances';
 
-
 /**
  * A refinement stops when its bracket is narrower than this (rad, 6e-6°): a lock narrower
  * still is below any drive's resolution; at most 31 golden-section steps from a 10° bracket.
