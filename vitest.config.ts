@@ -39,8 +39,8 @@ export default defineConfig({
           // file spent its first seconds importing playwright-core on a busy CPU.
           pool: 'threads',
           isolate: false,
-          // Two files at a time: most of their time is waiting on the app (checkpoints,
-          // reloads), not computing; three at a time starved a search's start on two cores.
+          // Two files at a time: together they keep both cores busy (the app's searches and
+          // drawing); three at a time starved a search's start.
           maxWorkers: 2,
           sequence: { groupOrder: 1 },
         },
