@@ -57,9 +57,10 @@ export interface MarginCurve {
   /** Dyad d's signed sine in each of `count` poses at poses[k · stride …], into out[k]. */
   dyadSinesInto?(d: number, poses: Float64Array, stride: number, count: number, out: Float64Array): void;
   /**
-   * Dyad d's signed sine at driver value io[0], solved from `start` without moving the
-   * curve, into io[1]; −1 where it cannot be placed. The numbers cross in `io`: V8 boxes a
-   * number passed to or returned from a call it does not inline.
+   * Dyad d's signed sine at the driver value io[GOLDEN_PROBE_AT], solved from `start`
+   * without moving the curve, into io[GOLDEN_PROBE_VALUE] (the golden-section search's
+   * probe, goldenSection.ts); −1 where it cannot be placed. The numbers cross in `io`: V8
+   * boxes a number passed to or returned from a call it does not inline.
    */
   dyadSineAt?(d: number, io: Float64Array, start: Float64Array): void;
 }

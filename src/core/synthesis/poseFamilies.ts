@@ -37,6 +37,7 @@ import {
 } from '../linkage';
 import { blockJacobianSign as blockJacobianSignBinding, newtonUnknownSlots } from '../linkage/newton';
 import { isDyadOp, signedDyadSine } from '../linkage/dyadSine';
+import { GOLDEN_PROBE_AT as GOLDEN_PROBE_AT_BINDING, GOLDEN_PROBE_VALUE as GOLDEN_PROBE_VALUE_BINDING } from '../linkage/goldenSection';
 import { OP_NEWTON, OP_STRIDE, type PlanInternal } from '../linkage/plan';
 import {
   COINCIDENT_JOINT_TOL_MM as COINCIDENT_JOINT_TOL_MM_BINDING,
@@ -80,6 +81,8 @@ import type { Constraints, FamilyId } from './problem';
 // turn each read of an imported binding into a getter call, which the hot loops below
 // cannot afford.
 const CURVE_DX = CURVE_DX_BINDING;
+const GOLDEN_PROBE_AT = GOLDEN_PROBE_AT_BINDING;
+const GOLDEN_PROBE_VALUE = GOLDEN_PROBE_VALUE_BINDING;
 const CURVE_DY = CURVE_DY_BINDING;
 const CURVE_MARGIN = CURVE_MARGIN_BINDING;
 const CURVE_T = CURVE_T_BINDING;
@@ -1034,10 +1037,10 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     for (let k = 0; k < count; k++) out[k] = signedDyadSine(p, o, poses, k * stride);
   }
   /**
-   * Dyad d's signed sine at driver value io[0], the operations before it run from `start`
-   * (a Newton block among them starts there), into io[1]: −1 where one of them fails or a
-   * block lands on another branch than the reference pose's, as the analysis counts it
-   * (sweep.ts). The curve does not move.
+   * Dyad d's signed sine at the driver value in io (goldenSection.ts's probe layout), the
+   * operations before it run from `start` (a Newton block among them starts there), into
+   * io: −1 where one of them fails or a block lands on another branch than the reference
+   * pose's, as the analysis counts it (sweep.ts). The curve does not move.
    */
   dyadSineAt(d: number, io: Float64Array, start: Float64Array): void {
     const p = this.plan as PlanInternal;
@@ -1045,13 +1048,13 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const endOp = o / OP_STRIDE;
     const pose = this.dyadPose;
     for (let i = 0; i < pose.length; i++) pose[i] = start[i];
-    io[1] = -1;
-    if (runPrefix(p, p.driverReferenceValue + io[0], pose, endOp) >= 0) return;
+    io[GOLDEN_PROBE_VALUE] = -1;
+    if (runPrefix(p, p.driverReferenceValue + io[GOLDEN_PROBE_AT], pose, endOp) >= 0) return;
     for (let b = 0; b < p.blockCount && this.blockOps[b] < endOp; b++) {
       if (blockJacobianSign(p, b, pose) !== this.referenceSigns[b]) return;
     }
     const sine = signedDyadSine(p, o, pose, 0);
-    if (sine === sine) io[1] = sine;
+    if (sine === sine) io[GOLDEN_PROBE_VALUE] = sine;
   }
   /** Where the plan does not assemble: a finite stand-in, the reference point, and margin −1. */
   private standIn(out: Float64Array): void {
