@@ -3,10 +3,13 @@
  * linkage (sweep.ts) and the synthesis' lock search (lockSearch.ts) both read to find a
  * window where a dyad cannot assemble, or a dead centre it passes, between two samples
  * that assemble. One module, so that the search and its report's analysis read one
- * condition through one screen.
+ * condition through one screen, each probe placing the joints the sine reads by one rule
+ * (placesBeforeOnBranch).
  */
 import { DEAD_CENTRE_SIN_TOL } from './tolerances';
-import { OP_CIRCLE_BODY_LINE, OP_CIRCLE_GROUND_LINE, OP_DYAD, type PlanInternal } from './plan';
+import { blockJacobianSign } from './newton';
+import { OP_CIRCLE_BODY_LINE, OP_CIRCLE_GROUND_LINE, OP_DYAD, OP_NEWTON, OP_STRIDE, type PlanInternal } from './plan';
+import { runPrefix } from './run';
 
 /**
  * A dyad's signed sine at the joint it places, from the positions of the joints it
@@ -58,6 +61,29 @@ export function signedDyadSine(p: PlanInternal, o: number, pose: Float64Array, b
   const h = (dx * (pose[a + 1] - py) - dy * (pose[a] - px)) / Math.sqrt(dx * dx + dy * dy);
   const disc = r * r - h * h;
   return Math.sign(disc) * Math.sqrt(Math.abs(disc)) / r;
+}
+
+/** Each Newton block's operation index in the plan, by block number (blocks are numbered in plan order). */
+export function blockOperations(p: PlanInternal): Int32Array {
+  const ops = new Int32Array(p.blockCount);
+  for (let i = 0; i < p.opCount; i++) if (p.ops[i * OP_STRIDE] === OP_NEWTON) ops[p.ops[i * OP_STRIDE + 1]] = i;
+  return ops;
+}
+
+/**
+ * Runs the operations before `endOp` (those a dyad's signed sine reads, where endOp is
+ * the dyad's) at driver value `value` on `pose`, from what it holds: true when they all
+ * place and every Newton block among them keeps its reference pose's Jacobian sign
+ * (`referenceSigns`, by block; `blockOps`: blockOperations), the branch rule of a sweep.
+ */
+export function placesBeforeOnBranch(
+  p: PlanInternal, value: number, pose: Float64Array, endOp: number, blockOps: Int32Array, referenceSigns: Int8Array,
+): boolean {
+  if (runPrefix(p, value, pose, endOp) >= 0) return false;
+  for (let b = 0; b < p.blockCount && blockOps[b] < endOp; b++) {
+    if (blockJacobianSign(p, b, pose) !== referenceSigns[b]) return false;
+  }
+  return true;
 }
 
 /** The operations whose joint signedDyadSine reads: two circles, or a circle and a line. */

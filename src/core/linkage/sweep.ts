@@ -13,10 +13,10 @@
  * condition (its signed sine, dyadSine.ts), not by finer sampling.
  */
 import { OP_NEWTON, OP_STRIDE, type Plan, type PlanInternal } from './plan';
-import { isDyadOp, refinesDyadMinimum, signedDyadSine } from './dyadSine';
+import { blockOperations, isDyadOp, placesBeforeOnBranch, refinesDyadMinimum, signedDyadSine } from './dyadSine';
 import { GOLDEN_PROBE_AT, GOLDEN_PROBE_VALUE, goldenSectionMinimum, type DriverProbe } from './goldenSection';
 import { blockJacobianSign } from './newton';
-import { poseRatesInto, runBatch, runPrefix, runSized, runWithRates } from './run';
+import { poseRatesInto, runBatch, runSized, runWithRates } from './run';
 import {
   DEAD_CENTRE_SIN_TOL,
   FULL_TURN_TOL_RAD,
@@ -301,8 +301,7 @@ export function sweep(plan: Plan, range: SweepRange, work?: SweepWork): SweepRes
   const direction = to >= from ? 1 : -1;
 
   const unitStep = p.driverIsLength ? SWEEP_MAX_STEP_REL * p.lengthScaleMm : SWEEP_MAX_STEP_RAD;
-  const blockOps = new Int32Array(p.blockCount);
-  for (let o = 0; o < p.opCount; o++) if (p.ops[o * OP_STRIDE] === OP_NEWTON) blockOps[p.ops[o * OP_STRIDE + 1]] = o;
+  const blockOps = blockOperations(p);
   const referenceSigns = new Int8Array(p.blockCount);
   for (let b = 0; b < p.blockCount; b++) referenceSigns[b] = blockJacobianSign(p, b, p.reference);
   const t: Tracker = {
@@ -616,11 +615,7 @@ function solvePrefixNear(
   p: PlanInternal, t: Tracker, written: PrefixSlots, endOp: number, v: number, at: number, pose: Float64Array, rates: Float64Array,
 ): boolean {
   predictInto(t, v, at, pose, rates, written.slots, written.start[endOp]);
-  if (runPrefix(p, v, t.pose, endOp) >= 0) return false;
-  for (let b = 0; b < p.blockCount && t.blockOps[b] < endOp; b++) {
-    if (blockJacobianSign(p, b, t.pose) !== t.referenceSigns[b]) return false;
-  }
-  return true;
+  return placesBeforeOnBranch(p, v, t.pose, endOp, t.blockOps, t.referenceSigns);
 }
 
 /**

@@ -36,16 +36,16 @@ import {
   type Plan,
 } from '../linkage';
 import { blockJacobianSign as blockJacobianSignBinding, newtonUnknownSlots } from '../linkage/newton';
-import { isDyadOp, signedDyadSine } from '../linkage/dyadSine';
+import { blockOperations, isDyadOp, placesBeforeOnBranch, signedDyadSine } from '../linkage/dyadSine';
 import { GOLDEN_PROBE_AT as GOLDEN_PROBE_AT_BINDING, GOLDEN_PROBE_VALUE as GOLDEN_PROBE_VALUE_BINDING } from '../linkage/goldenSection';
-import { OP_NEWTON, OP_STRIDE, type PlanInternal } from '../linkage/plan';
+import { OP_STRIDE, type PlanInternal } from '../linkage/plan';
 import {
   COINCIDENT_JOINT_TOL_MM as COINCIDENT_JOINT_TOL_MM_BINDING,
   MOTION_CLOSURE_REL_TOL,
   SWEEP_CORRECTION_FLOOR_REL as SWEEP_CORRECTION_FLOOR_REL_BINDING,
   SWEEP_CORRECTION_MAX_SHARE as SWEEP_CORRECTION_MAX_SHARE_BINDING,
 } from '../linkage/tolerances';
-import { poseRatesInto as poseRatesIntoBinding, runPrefix, runSized as runSizedBinding } from '../linkage/run';
+import { poseRatesInto as poseRatesIntoBinding, runSized as runSizedBinding } from '../linkage/run';
 import { classifyFourBar, fourBarLoops, transmissionAngleRad, type FourBarLoop } from '../linkage/analysis';
 import {
   CURVE_DX as CURVE_DX_BINDING,
@@ -282,13 +282,9 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     this.referenceSigns = new Int8Array((plan as PlanInternal).blockCount);
     const p = plan as PlanInternal;
     const dyads: number[] = [];
-    this.blockOps = new Int32Array(p.blockCount);
-    for (let i = 0; i < p.opCount; i++) {
-      const o = i * OP_STRIDE;
-      if (isDyadOp(p.ops[o])) dyads.push(o);
-      else if (p.ops[o] === OP_NEWTON) this.blockOps[p.ops[o + 1]] = i;
-    }
+    for (let o = 0; o < p.opCount * OP_STRIDE; o += OP_STRIDE) if (isDyadOp(p.ops[o])) dyads.push(o);
     this.dyadOps = Int32Array.from(dyads);
+    this.blockOps = blockOperations(p);
     this.dyadPose = new Float64Array(2 * plan.slotCount);
     this.pSlot = 2 * (plan.slotIndex.get('P') ?? 0);
     this.pivotSlot = pivotSlot;
@@ -1049,10 +1045,7 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
     const pose = this.dyadPose;
     for (let i = 0; i < pose.length; i++) pose[i] = start[i];
     io[GOLDEN_PROBE_VALUE] = -1;
-    if (runPrefix(p, p.driverReferenceValue + io[GOLDEN_PROBE_AT], pose, endOp) >= 0) return;
-    for (let b = 0; b < p.blockCount && this.blockOps[b] < endOp; b++) {
-      if (blockJacobianSign(p, b, pose) !== this.referenceSigns[b]) return;
-    }
+    if (!placesBeforeOnBranch(p, p.driverReferenceValue + io[GOLDEN_PROBE_AT], pose, endOp, this.blockOps, this.referenceSigns)) return;
     const sine = signedDyadSine(p, o, pose, 0);
     if (sine === sine) io[GOLDEN_PROBE_VALUE] = sine;
   }
