@@ -23,6 +23,12 @@
  * free-timing case as an unprescribed one (the driver values taken from the in-order match
  * of the curve, refined, instead of searched; the problem's default samples), the
  * reformulation measured as the lead for free timing (bench/HISTORY.md, reach).
+ * LOCI_REACH_PLACEMENT=free poses each fixed-placement case with a free placement (its
+ * placement fitted, not searched): the measurement behind the search's placeBetter
+ * (bench/README.md, Reach).
+ *
+ * Each design is evaluated as the island evaluates it: with a fixed placement, placeBetter
+ * then scores the design moved onto its fitted placement too.
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
@@ -83,7 +89,9 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
       violations = new Float64Array(n);
     }
     for (let k = 0; k < n; k++) {
+      // As the island evaluates (workers/island.ts): a fixed placement's design moved onto its fitted placement where that ranks better.
       objective.evaluate(objective.fromSearchBoxInto(points[k], x), out);
+      objective.placeBetter?.(x, out);
       values[k] = out[0];
       violations[k] = out[1];
     }
@@ -102,7 +110,10 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
 }
 
 /** How a free-timing case is searched: its driver values as variables (the problem as set), or matched as unprescribed timing matches them. */
-type FreeTiming = 'searched' | 'matched';
+export type FreeTiming = 'searched' | 'matched';
+
+/** How a fixed-placement case is searched: as set, or posed with a free placement (its placement fitted to the target, not searched). */
+export type Placement = 'as-set' | 'free';
 
 interface Task {
   readonly caseId: string;
@@ -110,6 +121,7 @@ interface Task {
   readonly budget: number;
   readonly optimizer: Record<string, unknown>;
   readonly freeTiming: FreeTiming;
+  readonly placement: Placement;
 }
 
 /** `c`, or for a free-timing case with `freeTiming` 'matched', the same target and family posed with unprescribed timing. */
@@ -127,6 +139,35 @@ function withFreeTiming(c: ReachCase, freeTiming: FreeTiming): ReachCase {
   };
 }
 
+/** The literature four-bar's fixed-placement variables, in order: the free placement's five are r2 … rcy in units of r1. */
+const LENGTHS_FIXED_SHAPE = ['r2', 'r3', 'r4', 'rcx', 'rcy'] as const;
+
+/**
+ * `c`, or for a fixed-placement case with `placement` 'free', the same target and family
+ * posed with a free placement: the similarity that places the curve is then fitted to
+ * the target (closed form), not searched. The optimum stays RMS 0 (the generating design
+ * placed by the identity). The pose families search the same variables either way; the
+ * literature four-bar's free placement has its shape alone, in ground-link units.
+ */
+function withPlacement(c: ReachCase, placement: Placement): ReachCase {
+  if (placement === 'as-set' || c.placement === 'free') return c;
+  let design = c.design;
+  let designNames = c.designNames;
+  if (c.family === 'fourbar-lengths') {
+    const r1 = c.design[0];
+    const shape = LENGTHS_FIXED_SHAPE.map((name) => c.design[c.designNames.indexOf(name)] / r1);
+    // Free timing's driver values (θ2 from the ground line) follow the mechanism's nine variables unchanged.
+    design = [...shape, ...c.design.slice(9)];
+    designNames = [...LENGTHS_FIXED_SHAPE, ...c.designNames.slice(9)];
+  }
+  return { ...c, placement: 'free', problem: { ...c.problem, placement: 'free' }, design, designNames };
+}
+
+/** The case as the task poses it. */
+export function posed(c: ReachCase, freeTiming: FreeTiming, placement: Placement): ReachCase {
+  return withPlacement(withFreeTiming(c, freeTiming), placement);
+}
+
 // A worker thread of this bench: started through the engine's bootstrap (which registers
 // tsx in the thread), it runs the tasks it is sent, one at a time.
 if (!isMainThread && parentPort !== null && (workerData as { reachWorker?: boolean } | null)?.reachWorker === true) {
@@ -138,7 +179,7 @@ if (!isMainThread && parentPort !== null && (workerData as { reachWorker?: boole
       c = reachCases([task.caseId])[0];
       cache.set(task.caseId, c);
     }
-    port.postMessage(runReachSeed(withFreeTiming(c, task.freeTiming), task.seed, task.budget, task.optimizer));
+    port.postMessage(runReachSeed(posed(c, task.freeTiming, task.placement), task.seed, task.budget, task.optimizer));
   });
 }
 
@@ -220,13 +261,14 @@ export async function reachRows(
   budget: number,
   optimizer: Record<string, unknown> = DEFAULT_JOB_OPTIMIZER,
   freeTiming: FreeTiming = 'searched',
+  placement: Placement = 'as-set',
 ): Promise<ReachRow[]> {
   // Seed-major order: every case's first seeds run before any case's last, so a long case does not come last alone.
   const tasks: Task[] = [];
-  for (let seed = 1; seed <= seeds; seed++) for (const c of cases) tasks.push({ caseId: c.id, seed, budget, optimizer, freeTiming });
+  for (let seed = 1; seed <= seeds; seed++) for (const c of cases) tasks.push({ caseId: c.id, seed, budget, optimizer, freeTiming, placement });
   const threads = Math.min(MAX_THREADS, availableParallelism());
   const runs = await runTasks(tasks, threads);
-  const rows = cases.map((c) => reachRow(withFreeTiming(c, freeTiming), runs.filter((r) => r.caseId === c.id), budget));
+  const rows = cases.map((c) => reachRow(posed(c, freeTiming, placement), runs.filter((r) => r.caseId === c.id), budget));
   const load = loadavg()[0];
   return rows.map((row) => ({ ...row, threads, loadAverage: load }));
 }
@@ -246,11 +288,14 @@ export async function benchReach(): Promise<ReachRow[]> {
   }
   const freeTimingText = process.env.LOCI_REACH_FREE_TIMING ?? 'searched';
   if (freeTimingText !== 'searched' && freeTimingText !== 'matched') throw new Error(`LOCI_REACH_FREE_TIMING is ${JSON.stringify(freeTimingText)}; expected searched or matched`);
-  const rows = await reachRows(reachCases(ids === undefined || ids.length === 0 ? undefined : ids), seeds, BUDGET, optimizer, freeTimingText);
+  const placementText = process.env.LOCI_REACH_PLACEMENT ?? 'as-set';
+  if (placementText !== 'as-set' && placementText !== 'free') throw new Error(`LOCI_REACH_PLACEMENT is ${JSON.stringify(placementText)}; expected as-set or free`);
+  const rows = await reachRows(reachCases(ids === undefined || ids.length === 0 ? undefined : ids), seeds, BUDGET, optimizer, freeTimingText, placementText);
   return rows.map((row) => ({
     ...row,
     ...(optimizerText === undefined ? {} : { optimizer: optimizerText }),
     ...(freeTimingText === 'matched' ? { freeTiming: 'matched as unprescribed' } : {}),
+    ...(placementText === 'free' ? { placementRun: 'fixed posed as free' } : {}),
   }));
 }
 

@@ -32,6 +32,9 @@ export const SIM_LENGTH = 5;
  * [s cos θ, s sin θ, tx, ty, sse] to out (length ≥ SIM_LENGTH); allocation-free.
  * `weights` (optional, length ≥ count) must be non-negative.
  *
+ * `turns` false: no rotation but by π (s R = a real number), for a mechanism that cannot
+ * turn in the plane.
+ *
  * Returns true when the fit is unique. Returns false when it is not:
  * - no points, weights summing to ≤ 0, or a non-finite input: out is all NaN;
  * - the source has no spread (all points coincide): out holds the least-squares
@@ -45,6 +48,7 @@ export function similarityFitInto(
   count: number,
   out: Float64Array,
   weights: Float64Array | null = null,
+  turns = true,
 ): boolean {
   let sumW = 0;
   let sx = 0;
@@ -85,8 +89,9 @@ export function similarityFitInto(
     b += w * (dx * ey - dy * ex);
   }
   const unique = spread > SIMILARITY_SPREAD_REL_TOL * moment;
+  // Without turns (b = 0) the least-squares a is the same quotient: s R restricted to ±s.
   const c = unique ? a / spread : 0;
-  const s = unique ? b / spread : 0;
+  const s = unique && turns ? b / spread : 0;
   const offX = mxt - (c * mxs - s * mys);
   const offY = myt - (s * mxs + c * mys);
   // The residual from a second pass: the closed form Σ|y'|² − |Σ conj(x') y'|² / Σ|x'|²

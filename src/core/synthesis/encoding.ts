@@ -115,6 +115,19 @@ export interface MechanismEncoding {
   /** Adds the violations that depend on placement: p ↦ (a −b; b a) p + (tx, ty), `placement` = [a, b, tx, ty]. */
   placed(placement: Float64Array, parts: Float64Array): void;
   /**
+   * False where the family cannot take a turn of the plane (its slide's direction is
+   * not a variable): placeDesignInto then takes only placements with b = 0.
+   */
+  readonly placementTurns: boolean;
+  /**
+   * The mechanism variables of design x moved by `placement` = [a, b, tx, ty], into
+   * `into`: the design whose output point at every driver value is x's there, so placed
+   * (driver values are measured from the design's own ground line or reference pose, so
+   * they do not move). An angle variable is taken to its turn in [lower, upper] where
+   * one is. Allocates nothing.
+   */
+  placeDesignInto(x: Float64Array, placement: Float64Array, lower: Float64Array, upper: Float64Array, into: Float64Array): void;
+  /**
    * The exact lock search behind `load` (a full turn) and `motion` (the spans
    * spans[2i] … spans[2i + 1], i < count), where those only sampled: locks narrower than
    * the sample spacing. Adds to the same slots. Costly, so the objective calls it only

@@ -34,6 +34,7 @@ import {
   R2 as R2_BINDING,
   R3 as R3_BINDING,
   R4 as R4_BINDING,
+  RCY as RCY_BINDING,
   THETA0 as THETA0_BINDING,
   X0 as X0_BINDING,
   Y0 as Y0_BINDING,
@@ -61,6 +62,7 @@ const R1 = R1_BINDING;
 const R2 = R2_BINDING;
 const R3 = R3_BINDING;
 const R4 = R4_BINDING;
+const RCY = RCY_BINDING;
 const THETA0 = THETA0_BINDING;
 const X0 = X0_BINDING;
 const Y0 = Y0_BINDING;
@@ -152,6 +154,25 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
     driverName: 'theta2',
     branchCount: branch === 'either' ? 2 : 1,
     curve,
+    placementTurns: true,
+    placeDesignInto(x: Float64Array, placement: Float64Array, lower: Float64Array, upper: Float64Array, into: Float64Array): void {
+      // A free placement's variables are the shape alone, which a placement keeps.
+      if (free) {
+        for (let i = 0; i < names.length; i++) into[i] = x[i];
+        return;
+      }
+      const a = placement[0];
+      const b = placement[1];
+      const scale = Math.sqrt(a * a + b * b);
+      // Lengths and the coupler point (in the coupler's own frame) scale; the ground line turns.
+      for (let i = R1; i <= RCY; i++) into[i] = scale * x[i];
+      let theta = x[THETA0] + Math.atan2(b, a);
+      if (theta > upper[THETA0]) theta -= TAU * Math.ceil((theta - upper[THETA0]) / TAU);
+      if (theta < lower[THETA0]) theta += TAU * Math.ceil((lower[THETA0] - theta) / TAU);
+      into[THETA0] = theta;
+      into[X0] = a * x[X0] - b * x[Y0] + placement[2];
+      into[Y0] = b * x[X0] + a * x[Y0] + placement[3];
+    },
     load(x: Float64Array, k: number, parts: Float64Array): void {
       if (free) {
         p[R1] = 1;

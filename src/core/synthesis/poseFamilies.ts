@@ -1311,6 +1311,19 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     driverName: 'driver',
     branchCount: 1,
     curve,
+    // A slide keeps its direction whatever its joints' positions.
+    placementTurns: source.sliders === undefined || source.sliders.length === 0,
+    placeDesignInto(x: Float64Array, placement: Float64Array, _lower: Float64Array, _upper: Float64Array, into: Float64Array): void {
+      const a = placement[0];
+      const b = placement[1];
+      // Every variable is a joint's or point's (x, y) in the reference pose.
+      for (let k = 0; k < names.length; k += 2) {
+        const px = x[k];
+        const py = x[k + 1];
+        into[k] = a * px - b * py + placement[2];
+        into[k + 1] = b * px + a * py + placement[3];
+      }
+    },
     load(x: Float64Array, _branch: number, parts: Float64Array): void {
       for (let k = 0; k < reference.length; k++) reference[k] = x[k];
       setReferencePose(plan, reference);

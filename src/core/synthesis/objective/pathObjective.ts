@@ -2,7 +2,16 @@
  * The objective of a path problem: design space → path response → score (the problem's
  * measure, violations feasibility first) → report. With both assembly branches asked
  * for, both are evaluated and the better kept, all within one evaluation.
+ *
+ * With a fixed placement it also offers a search `placeBetter`: the design it has just
+ * evaluated, moved onto the placement that fits its output points to the target best
+ * (the similarity a free placement fits, taken by the design's own variables:
+ * placeDesignInto), kept where it lies in the box and ranks better. A search that calls
+ * it finds the shape of a mechanism and need not also hit its placement by sampling,
+ * four more variables (the reach set's fixed-placement cases, bench/README.md).
  */
+import { SIM_A, SIM_B, SIM_LENGTH, SIM_TX, SIM_TY } from '../../geometry/similarity';
+import { canonicalInto, precedesAt } from '../../optimize';
 import type { FamilyId, Problem } from '../problem';
 import { createPathDesignSpace, objectiveSpace } from './designSpace';
 import { describePathDesign } from './pathReport';
@@ -13,19 +22,62 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
   const space = createPathDesignSpace(problem, family);
   const response = createPathResponse(problem, space);
   const { n, times, evaluation, refineFree } = response;
+  const { encoding, lower, upper, dim } = space;
   const m = space.mechanismDim;
+  /** The placement fitted to the evaluated design, the design so moved and its evaluation. */
+  const fitted = new Float64Array(SIM_LENGTH);
+  const moved = new Float64Array(dim);
+  const movedOut = new Float64Array(2);
+  /** The moved design's value and violation, then the design's, as ranked. */
+  const ranked = new Float64Array(2);
+  const rankedViolation = new Float64Array(2);
 
-  function evaluate(x: Float64Array, out: Float64Array): void {
+  /** Evaluates x as it is; returns the better branch. */
+  function evaluateAsIs(x: Float64Array, out: Float64Array): number {
     const best = response.evaluateAll(x);
     if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
     out[0] = evaluation[2 * best];
     out[1] = evaluation[2 * best + 1];
+    return best;
+  }
+
+  /** The better branch of the design evaluate saw last. */
+  let lastBest = 0;
+
+  function evaluate(x: Float64Array, out: Float64Array): void {
+    lastBest = evaluateAsIs(x, out);
+  }
+
+  /** See the header; called right after evaluate(x, out), with the same x and out. */
+  function placeBetter(x: Float64Array, out: Float64Array): boolean {
+    if (!response.fitPlacement(x, lastBest, encoding.placementTurns, fitted)) return false;
+    const a = fitted[SIM_A];
+    const b = fitted[SIM_B];
+    // A scale of 0 is no mechanism; the identity moves nothing.
+    if (!(a * a + b * b > 0) || (a === 1 && b === 0 && fitted[SIM_TX] === 0 && fitted[SIM_TY] === 0)) return false;
+    encoding.placeDesignInto(x, fitted, lower, upper, moved);
+    for (let j = 0; j < m; j++) if (!(moved[j] >= lower[j] && moved[j] <= upper[j])) return false;
+    for (let j = m; j < dim; j++) moved[j] = x[j];
+    evaluateAsIs(moved, movedOut);
+    // Ranked in arrays: a double passed to a call the compiler does not inline is boxed.
+    ranked[0] = movedOut[0];
+    rankedViolation[0] = movedOut[1];
+    ranked[1] = out[0];
+    rankedViolation[1] = out[1];
+    canonicalInto(ranked, rankedViolation, 0, ranked, rankedViolation, 0);
+    canonicalInto(ranked, rankedViolation, 1, ranked, rankedViolation, 1);
+    if (!precedesAt(ranked, rankedViolation, 0, ranked, rankedViolation, 1)) return false;
+    x.set(moved);
+    out[0] = movedOut[0];
+    out[1] = movedOut[1];
+    return true;
   }
 
   return {
     family,
     ...objectiveSpace(space),
     evaluate,
+    ...(problem.placement === 'fixed' ? { placeBetter } : {}),
     describe: (x: Float64Array): CandidateReport => describePathDesign(problem, family, space, response, x),
   };
 }

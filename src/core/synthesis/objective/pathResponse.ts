@@ -102,6 +102,8 @@ export interface PathResponse {
   readonly unwrapped: Float64Array;
   /** The placed output points and their squared distances to the targets. */
   readonly points: Float64Array;
+  /** With a fixed placement, each branch's output points (branch k at [2n·k …]), as `points` holds the last one's. */
+  readonly branchPoints: Float64Array;
   readonly d2: Float64Array;
   /** The fitted similarity of a free placement (SIM_A … SIM_TY). */
   readonly sim: Float64Array;
@@ -113,6 +115,8 @@ export interface PathResponse {
   evaluateBranch(x: Float64Array, k: number): void;
   /** Evaluates every branch; returns the best one's index. */
   evaluateAll(x: Float64Array): number;
+  /** The placement that fits x's branch k to the target (see the function), right after evaluateAll(x). */
+  fitPlacement(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean;
 }
 
 export function createPathResponse(problem: Problem, space: PathDesignSpace): PathResponse {
@@ -125,6 +129,8 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const freePlacement = problem.placement === 'free';
   /** Unprescribed timing with a free placement: matched, then driver values and placement fitted together (matchPlacedTiming). */
   const fitsPlacement = timing.mode === 'unprescribed' && freePlacement;
+  /** The scratch of matchPlacedTiming: a free placement's evaluation, or a fixed one's fitPlacement. */
+  const matchesPlaced = timing.mode === 'unprescribed';
   const measure = problem.measure;
 
   // Scratch, allocated once.
@@ -141,6 +147,9 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const times = new Float64Array(branchCount * n);
   const unwrapped = new Float64Array(n);
   const points = new Float64Array(2 * n);
+  const branchPoints = new Float64Array(freePlacement ? 0 : branchCount * 2 * n);
+  /** The points fitPlacement fits a placement to. */
+  const fitSource = new Float64Array(freePlacement ? 0 : 2 * n);
   /** Each point's assembly margin (CURVE_MARGIN). */
   const margins = new Float64Array(n);
   const d2 = new Float64Array(n);
@@ -151,11 +160,11 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const samples = new Float64Array(2 * sampleCount);
   /** The curve's answers at the samples (CURVE_* layout, one after another). */
   const around = new Float64Array(sampleCount * CURVE_OUT_LENGTH);
-  // The samples with their rates serve the joint refinement of a free placement only.
-  const sampled = new SampledCurve(freePlacement ? Math.max(sampleCount, 1) : 1);
-  const placedSamples = new Float64Array(freePlacement ? 2 * sampleCount : 0);
+  // The samples with their rates serve the joint refinement of driver values and placement only.
+  const sampled = new SampledCurve(matchesPlaced ? Math.max(sampleCount, 1) : 1);
+  const placedSamples = new Float64Array(matchesPlaced ? 2 * sampleCount : 0);
   const valid = new Uint8Array(sampleCount);
-  const arc = new Float64Array(freePlacement ? sampleCount + 1 : 0);
+  const arc = new Float64Array(matchesPlaced ? sampleCount + 1 : 0);
   const targetArc = new Float64Array(n);
   const matchScratch = createMatchScratch(n, Math.max(sampleCount, 1));
   const matched = new Int32Array(n);
@@ -174,7 +183,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   }
   const extent = createPathExtent(problem, encoding, weightSum);
 
-  if (freePlacement) {
+  if (freePlacement || matchesPlaced) {
     // Arc-length share of each target point along the path (closed: with the closing segment).
     let total = 0;
     for (let i = 1; i <= n; i++) {
@@ -456,6 +465,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       }
     }
     encoding.placed(placement, parts);
+    if (!freePlacement) for (let i = 0; i < 2 * n; i++) branchPoints[2 * n * k + i] = points[i];
 
     for (let i = 0; i < n; i++) {
       const ex = points[2 * i] - targets[2 * i];
@@ -484,5 +494,27 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     return bestRanked(evaluation, branchCount);
   }
 
-  return { n, branchCount, evaluation, parts, times, unwrapped, points, d2, sim, weights, refineFree, extent, evaluateBranch, evaluateAll };
+  /**
+   * The placement that fits design x's branch k to the target, into out (SIM_* layout),
+   * as a free placement's evaluation fits it: unprescribed timing matched and refined
+   * together with the placement (matchPlacedTiming); else the least-squares similarity of
+   * the branch's points at its driver values. evaluateAll must have run on x last.
+   * `turns` false: no rotation but by π (similarityFitInto). False where no fit is found.
+   */
+  function fitPlacement(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean {
+    if (matchesPlaced) {
+      // evaluateAll loads the branches in turn: the last is loaded still.
+      if (k !== branchCount - 1) {
+        parts.fill(0);
+        encoding.load(x, k, parts);
+      }
+      matchPlacedTiming(times, k * n);
+      jointFit.pointsInto(fitSource, margins);
+    } else {
+      for (let i = 0; i < 2 * n; i++) fitSource[i] = branchPoints[2 * n * k + i];
+    }
+    return similarityFitInto(fitSource, targets, n, out, weights ?? null, turns);
+  }
+
+  return { n, branchCount, evaluation, parts, times, unwrapped, points, branchPoints, d2, sim, weights, refineFree, extent, evaluateBranch, evaluateAll, fitPlacement };
 }
