@@ -24,11 +24,11 @@
  * of the curve, refined, instead of searched; the problem's default samples), the
  * reformulation measured as the lead for free timing (bench/HISTORY.md, reach).
  * LOCI_REACH_PLACEMENT=free poses each fixed-placement case with a free placement (its
- * placement fitted, not searched): with the matched free timing, the measurements behind
- * the search's fitBetter (bench/README.md, Reach).
+ * placement fitted, not searched): the measurement behind the search's placeBetter
+ * (bench/README.md, Reach).
  *
- * Each design is evaluated as the island evaluates it: with a fixed placement or free
- * timing, fitBetter then scores the design refitted to its placement and timing too.
+ * Each design is evaluated as the island evaluates it: with a fixed placement, placeBetter
+ * then scores the design moved onto its fitted placement too.
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
@@ -89,9 +89,9 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
       violations = new Float64Array(n);
     }
     for (let k = 0; k < n; k++) {
-      // As the island evaluates (workers/island.ts): a fixed placement's or free timing's design refitted where that ranks better.
+      // As the island evaluates (workers/island.ts): a fixed placement's design moved onto its fitted placement where that ranks better.
       objective.evaluate(objective.fromSearchBoxInto(points[k], x), out);
-      objective.fitBetter?.(x, out);
+      objective.placeBetter?.(x, out);
       values[k] = out[0];
       violations[k] = out[1];
     }

@@ -14,8 +14,8 @@ export interface SearchObjective {
   toSearchBoxInto(x: ArrayLike<number>, u: Float64Array): Float64Array;
   /** out[0] = value, out[1] = violation (0 feasible). May write a repaired x back. No allocation. */
   evaluate(x: Float64Array, out: Float64Array): void;
-  /** Right after evaluate(x, out): x refitted to a better placement and timing, where the objective has them (the synthesis Objective's fitBetter). */
-  readonly fitBetter?: (x: Float64Array, out: Float64Array) => boolean;
+  /** Right after evaluate(x, out): x moved onto a better placement, where the objective has one (the synthesis Objective's placeBetter). */
+  readonly placeBetter?: (x: Float64Array, out: Float64Array) => boolean;
   /** A full report of one design (allocates). */
   describe(x: Float64Array): CandidateDetail;
 }

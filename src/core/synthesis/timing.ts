@@ -90,12 +90,6 @@ export interface MatchScratch {
   /** Per run of the row in force: its least partial sum and the first index holding it. */
   readonly runLeast: Float64Array;
   readonly runLeastAt: Int32Array;
-  /**
-   * A pass's total (or the hint's cost), as the pass leaves it, and matchInOrderInto's
-   * answer: a double returned from a call the compiler does not inline is boxed.
-   */
-  readonly passCost: Float64Array;
-  readonly total: Float64Array;
 }
 
 export function createMatchScratch(pointCount: number, sampleCount: number): MatchScratch {
@@ -117,8 +111,6 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
     skipped: new Uint8Array(blockCount(sampleCount) + 2),
     runLeast: new Float64Array(blockCount(sampleCount) + 2),
     runLeastAt: new Int32Array(blockCount(sampleCount) + 2),
-    passCost: new Float64Array(1),
-    total: new Float64Array(1),
   };
 }
 
@@ -157,12 +149,12 @@ function fillCosts(samples: Float64Array, valid: Uint8Array, targets: Float64Arr
 /**
  * One monotone pass over the costs: sample index `first + u` (mod M) for u in 0..M-1,
  * point 0 limited to u ≤ firstSpan. Writes the chosen u per point into
- * scratch.unrolled and the cost into scratch.passCost[0]: Infinity, the points not
- * written, when no sum is finite, and as soon as a lower bound on every completion (the least partial sum
+ * scratch.unrolled and returns the cost. Returns Infinity without writing when no sum
+ * is finite, and as soon as a lower bound on every completion (the least partial sum
  * plus each remaining point's least cost) shows the pass cannot beat `bound`: cannot
  * reach it when `tieWins`, cannot go below it otherwise.
  */
-function monotonePass(first: number, firstSpan: number, bound: number, tieWins: boolean, s: MatchScratch): void {
+function monotonePass(first: number, firstSpan: number, bound: number, tieWins: boolean, s: MatchScratch): number {
   const m = s.sampleCount;
   const n = s.pointCount;
   const cost = s.cost;
@@ -202,10 +194,7 @@ function monotonePass(first: number, firstSpan: number, bound: number, tieWins: 
     }
     // best: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
     const lower = (best + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
-    if (tieWins ? lower > bound : lower >= bound) {
-      s.passCost[0] = Infinity;
-      return;
-    }
+    if (tieWins ? lower > bound : lower >= bound) return Infinity;
   }
   let best = Infinity;
   let bestU = 0;
@@ -215,7 +204,7 @@ function monotonePass(first: number, firstSpan: number, bound: number, tieWins: 
       bestU = u;
     }
   }
-  unrollBest(s, best, bestU, bound, tieWins);
+  return unrollBest(s, best, bestU, bound, tieWins);
 }
 
 /**
@@ -320,7 +309,7 @@ function boundedPass(
   tieWins: boolean,
   threshold: number,
   s: MatchScratch,
-): void {
+): number {
   const m = s.sampleCount;
   const n = s.pointCount;
   const blocks = blockCount(m);
@@ -441,10 +430,8 @@ function boundedPass(
     }
     // best: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
     const lower = (best + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
-    if ((tieWins ? lower > bound : lower >= bound) || lower > threshold) {
-      s.passCost[0] = Infinity;
-      return;
-    }
+    if (tieWins ? lower > bound : lower >= bound) return Infinity;
+    if (lower > threshold) return Infinity;
   }
   let best = Infinity;
   let bestU = 0;
@@ -454,32 +441,29 @@ function boundedPass(
       bestU = runLeastAt[q];
     }
   }
-  unrollBest(s, best, bestU, bound, tieWins);
+  return unrollBest(s, best, bestU, bound, tieWins);
 }
 
 /**
  * A pass's end: its least total `best` (ending at unrolled sample `bestU`) if it beats
  * `bound` (or ties it when `tieWins`), the match unrolled into `s.unrolled` from the
- * pass's back-pointers; Infinity otherwise. Into s.passCost[0].
+ * pass's back-pointers; Infinity otherwise.
  */
-function unrollBest(s: MatchScratch, best: number, bestU: number, bound: number, tieWins: boolean): void {
-  if (!(best < Infinity) || (tieWins ? best > bound : best >= bound)) {
-    s.passCost[0] = Infinity;
-    return;
-  }
+function unrollBest(s: MatchScratch, best: number, bestU: number, bound: number, tieWins: boolean): number {
+  if (!(best < Infinity) || (tieWins ? best > bound : best >= bound)) return Infinity;
   const n = s.pointCount;
   const m = s.sampleCount;
   const arg = s.argPrevious;
   const unrolled = s.unrolled;
   unrolled[n - 1] = bestU;
   for (let i = n - 1; i > 0; i--) unrolled[i - 1] = arg[i * m + unrolled[i]];
-  s.passCost[0] = best;
+  return best;
 }
 
 /**
  * The cost of `hint` (unrolled indices) when it is a match some pass may find: non-
  * decreasing, its first index within a start's window, its last at most M − 1 past the
- * window's start; Infinity otherwise. Into s.passCost[0].
+ * window's start; Infinity otherwise.
  */
 function hintCost(
   samples: Float64Array,
@@ -490,27 +474,26 @@ function hintCost(
   found: number,
   half: number,
   s: MatchScratch,
-): void {
+): number {
   const m = s.sampleCount;
   const n = s.pointCount;
-  s.passCost[0] = Infinity;
-  for (let i = 1; i < n; i++) if (!(hint[i] >= hint[i - 1])) return;
+  for (let i = 1; i < n; i++) if (!(hint[i] >= hint[i - 1])) return Infinity;
   const span = hint[n - 1] - hint[0];
   let admissible = false;
   for (let k = 0; k < found; k++) {
     const offset = (((hint[0] - (s.starts[k] - half)) % m) + m) % m;
     if (offset <= 2 * half && offset + span <= m - 1) admissible = true;
   }
-  if (!admissible) return;
+  if (!admissible) return Infinity;
   let sum = 0;
   for (let i = 0; i < n; i++) {
     const j = ((hint[i] % m) + m) % m;
-    if (valid[j] === 0) return;
+    if (valid[j] === 0) return Infinity;
     const dx = samples[2 * j] - targets[2 * i];
     const dy = samples[2 * j + 1] - targets[2 * i + 1];
     sum += (weights === undefined ? 1 : weights[i]) * (dx * dx + dy * dy);
   }
-  s.passCost[0] = sum;
+  return sum;
 }
 
 /**
@@ -540,30 +523,13 @@ export function matchInOrder(
   outIndex: Int32Array,
   hint?: Int32Array,
 ): number {
-  matchInOrderInto(samples, valid, targets, weights, cyclic, scratch, outIndex, hint);
-  return scratch.total[0];
-}
-
-/** matchInOrder with its answer in scratch.total[0], for the objective's hot paths (see MatchScratch.total). */
-export function matchInOrderInto(
-  samples: Float64Array,
-  valid: Uint8Array,
-  targets: Float64Array,
-  weights: Float64Array | undefined,
-  cyclic: boolean,
-  scratch: MatchScratch,
-  outIndex: Int32Array,
-  hint?: Int32Array,
-): void {
   const m = scratch.sampleCount;
   const n = scratch.pointCount;
   if (!cyclic) {
     fillCosts(samples, valid, targets, weights, scratch);
-    monotonePass(0, m - 1, Infinity, true, scratch);
-    const total = scratch.passCost[0];
+    const total = monotonePass(0, m - 1, Infinity, true, scratch);
     for (let i = 0; i < n; i++) outIndex[i] = total < Infinity ? scratch.unrolled[i] : 0;
-    scratch.total[0] = total;
-    return;
+    return total;
   }
   fillBounds(samples, valid, targets, weights, scratch);
   const cost = scratch.cost;
@@ -608,18 +574,13 @@ export function matchInOrderInto(
     }
     order[q] = k;
   }
-  let ceiling = Infinity;
-  if (hint !== undefined) {
-    hintCost(samples, valid, targets, weights, hint, found, half, scratch);
-    ceiling = scratch.passCost[0];
-  }
+  const ceiling = hint === undefined ? Infinity : hintCost(samples, valid, targets, weights, hint, found, half, scratch);
   let best = Infinity;
   let chosen = found;
   for (let r = 0; r < found; r++) {
     const k = order[r];
     const first = (starts[k] - half + m) % m;
-    boundedPass(samples, valid, targets, weights, first, 2 * half, best, k < chosen, Math.min(best, ceiling), scratch);
-    const total = scratch.passCost[0];
+    const total = boundedPass(samples, valid, targets, weights, first, 2 * half, best, k < chosen, Math.min(best, ceiling), scratch);
     if (total < best || (total === best && k < chosen)) {
       best = total;
       chosen = k;
@@ -628,7 +589,7 @@ export function matchInOrderInto(
       for (let i = 0; i < n; i++) outIndex[i] = base + (total < Infinity ? scratch.unrolled[i] : 0);
     }
   }
-  scratch.total[0] = best;
+  return best;
 }
 
 /** Layout of the `io` array of refineDriverValue. */

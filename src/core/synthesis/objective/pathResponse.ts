@@ -46,7 +46,7 @@ import {
   REFINE_QY as REFINE_QY_BINDING,
   REFINE_T as REFINE_T_BINDING,
   createMatchScratch,
-  matchInOrderInto,
+  matchInOrder,
   orderViolationInto,
   refineDriverValue,
 } from '../timing';
@@ -115,8 +115,8 @@ export interface PathResponse {
   evaluateBranch(x: Float64Array, k: number): void;
   /** Evaluates every branch; returns the best one's index. */
   evaluateAll(x: Float64Array): number;
-  /** The placement (and timing) that fit x's branch k to the target (see the function), right after evaluateAll(x). */
-  fitDesign(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean;
+  /** The placement that fits x's branch k to the target (see the function), right after evaluateAll(x). */
+  fitPlacement(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean;
 }
 
 export function createPathResponse(problem: Problem, space: PathDesignSpace): PathResponse {
@@ -129,8 +129,8 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const freePlacement = problem.placement === 'free';
   /** Unprescribed timing with a free placement: matched, then driver values and placement fitted together (matchPlacedTiming). */
   const fitsPlacement = timing.mode === 'unprescribed' && freePlacement;
-  /** The scratch of matchPlacedTiming: an unprescribed free placement's evaluation, or fitDesign's with unprescribed or free timing. */
-  const matchesPlaced = timing.mode === 'unprescribed' || timing.mode === 'free';
+  /** The scratch of matchPlacedTiming: a free placement's evaluation, or a fixed one's fitPlacement. */
+  const matchesPlaced = timing.mode === 'unprescribed';
   const measure = problem.measure;
 
   // Scratch, allocated once.
@@ -148,15 +148,15 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const unwrapped = new Float64Array(n);
   const points = new Float64Array(2 * n);
   const branchPoints = new Float64Array(freePlacement ? 0 : branchCount * 2 * n);
-  /** The points fitDesign fits a placement to. */
-  const fitSource = new Float64Array(2 * n);
+  /** The points fitPlacement fits a placement to. */
+  const fitSource = new Float64Array(freePlacement ? 0 : 2 * n);
   /** Each point's assembly margin (CURVE_MARGIN). */
   const margins = new Float64Array(n);
   const d2 = new Float64Array(n);
   const driverValues = timing.mode === 'prescribed' ? Float64Array.from(timing.driverValues) : new Float64Array(0);
   const wrap = timing.mode === 'free' ? timing.wrap : timing.mode === 'unprescribed' ? timing.wrap !== false : false;
   const refineFree = timing.mode === 'free' && timing.refine === true;
-  const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : timing.mode === 'free' ? DEFAULT_MATCH_SAMPLES : 0;
+  const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : 0;
   const samples = new Float64Array(2 * sampleCount);
   /** The curve's answers at the samples (CURVE_* layout, one after another). */
   const around = new Float64Array(sampleCount * CURVE_OUT_LENGTH);
@@ -259,7 +259,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   /** Unprescribed timing with a fixed placement: match in order on the samples, refine. */
   function matchTiming(t: Float64Array, o: number): void {
     sampleCurve(0);
-    matchInOrderInto(samples, valid, targets, weights, wrap, matchScratch, matched);
+    matchInOrder(samples, valid, targets, weights, wrap, matchScratch, matched);
     const step = TAU / sampleCount;
     for (let i = 0; i < n; i++) t[o + i] = matched[i] * step;
     refineMatched(curve, t, o, step);
@@ -330,7 +330,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     for (let it = 0; it < ALIGNMENT_ITERATIONS; it++) {
       placeSamples();
       // The last match (first: the alignment's), near this one once the fit settles, bounds it and speeds it up.
-      matchInOrderInto(placedSamples, valid, targets, weights, wrap, matchScratch, matched, previousMatched);
+      matchInOrder(placedSamples, valid, targets, weights, wrap, matchScratch, matched, previousMatched);
       // The match repeats the last one: the fit below would repeat too, and so would every
       // later iteration (a fixed point), so stop with the same answer.
       let same = it > 0;
@@ -496,14 +496,12 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
 
   /**
    * The placement that fits design x's branch k to the target, into out (SIM_* layout),
-   * as an unprescribed free placement's evaluation fits it: with unprescribed or free
-   * timing, the target matched in order on the curve's samples and the driver values
-   * refined together with the placement (matchPlacedTiming), the driver values left in
-   * times[k·n …]; with prescribed timing, the least-squares similarity of the branch's
-   * points at its driver values. evaluateAll must have run on x last. `turns` false: no
-   * rotation but by π (similarityFitInto). False where no fit is found.
+   * as a free placement's evaluation fits it: unprescribed timing matched and refined
+   * together with the placement (matchPlacedTiming); else the least-squares similarity of
+   * the branch's points at its driver values. evaluateAll must have run on x last.
+   * `turns` false: no rotation but by π (similarityFitInto). False where no fit is found.
    */
-  function fitDesign(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean {
+  function fitPlacement(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean {
     if (matchesPlaced) {
       // evaluateAll loads the branches in turn: the last is loaded still.
       if (k !== branchCount - 1) {
@@ -518,5 +516,5 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     return similarityFitInto(fitSource, targets, n, out, weights ?? null, turns);
   }
 
-  return { n, branchCount, evaluation, parts, times, unwrapped, points, branchPoints, d2, sim, weights, refineFree, extent, evaluateBranch, evaluateAll, fitDesign };
+  return { n, branchCount, evaluation, parts, times, unwrapped, points, branchPoints, d2, sim, weights, refineFree, extent, evaluateBranch, evaluateAll, fitPlacement };
 }

@@ -76,13 +76,13 @@ export interface SearchObjectiveOf<Family extends string, Report> {
    */
   evaluate(x: Float64Array, out: Float64Array): void;
   /**
-   * A path problem with a fixed placement or free timing: right after evaluate(x, out),
-   * tries the design moved onto the placement and given the driver values that fit it to
-   * the target (pathObjective.ts); where that design lies in the box and ranks better,
-   * writes it into x and its evaluation into out and returns true. A search calls it on
-   * the designs it evaluates. No allocation.
+   * A path problem with a fixed placement: right after evaluate(x, out), tries the design
+   * moved onto the placement that fits it to the target best (pathObjective.ts); where the
+   * moved design lies in the box and ranks better, writes it into x and its evaluation
+   * into out and returns true. A search calls it on the designs it evaluates. No
+   * allocation.
    */
-  readonly fitBetter?: (x: Float64Array, out: Float64Array) => boolean;
+  readonly placeBetter?: (x: Float64Array, out: Float64Array) => boolean;
   /** Which map takes the search box to designs: the problem's for this family (searchMap.ts). */
   readonly searchMap: SearchMapKind;
   /**
