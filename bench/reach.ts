@@ -110,10 +110,10 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
 }
 
 /** How a free-timing case is searched: its driver values as variables (the problem as set), or matched as unprescribed timing matches them. */
-export type FreeTiming = 'searched' | 'matched';
+type FreeTiming = 'searched' | 'matched';
 
 /** How a fixed-placement case is searched: as set, or posed with a free placement (its placement fitted to the target, not searched). */
-export type Placement = 'as-set' | 'free';
+type PlacementPosing = 'as-set' | 'free';
 
 interface Task {
   readonly caseId: string;
@@ -121,7 +121,7 @@ interface Task {
   readonly budget: number;
   readonly optimizer: Record<string, unknown>;
   readonly freeTiming: FreeTiming;
-  readonly placement: Placement;
+  readonly placement: PlacementPosing;
 }
 
 /** `c`, or for a free-timing case with `freeTiming` 'matched', the same target and family posed with unprescribed timing. */
@@ -149,12 +149,12 @@ const LENGTHS_FIXED_SHAPE = ['r2', 'r3', 'r4', 'rcx', 'rcy'] as const;
  * placed by the identity). The pose families search the same variables either way; the
  * literature four-bar's free placement has its shape alone, in ground-link units.
  */
-function withPlacement(c: ReachCase, placement: Placement): ReachCase {
+function withPlacement(c: ReachCase, placement: PlacementPosing): ReachCase {
   if (placement === 'as-set' || c.placement === 'free') return c;
   let design = c.design;
   let designNames = c.designNames;
   if (c.family === 'fourbar-lengths') {
-    const r1 = c.design[0];
+    const r1 = c.design[c.designNames.indexOf('r1')];
     const shape = LENGTHS_FIXED_SHAPE.map((name) => c.design[c.designNames.indexOf(name)] / r1);
     // Free timing's driver values (θ2 from the ground line) follow the mechanism's nine variables unchanged.
     design = [...shape, ...c.design.slice(9)];
@@ -164,7 +164,7 @@ function withPlacement(c: ReachCase, placement: Placement): ReachCase {
 }
 
 /** The case as the task poses it. */
-export function posed(c: ReachCase, freeTiming: FreeTiming, placement: Placement): ReachCase {
+function posed(c: ReachCase, freeTiming: FreeTiming, placement: PlacementPosing): ReachCase {
   return withPlacement(withFreeTiming(c, freeTiming), placement);
 }
 
@@ -261,7 +261,7 @@ export async function reachRows(
   budget: number,
   optimizer: Record<string, unknown> = DEFAULT_JOB_OPTIMIZER,
   freeTiming: FreeTiming = 'searched',
-  placement: Placement = 'as-set',
+  placement: PlacementPosing = 'as-set',
 ): Promise<ReachRow[]> {
   // Seed-major order: every case's first seeds run before any case's last, so a long case does not come last alone.
   const tasks: Task[] = [];
