@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { canonicalValue, canonicalViolation, precedes } from '../../src/core/optimize';
+import { canonicalValue, canonicalViolation, precedes, precedesRawAt } from '../../src/core/optimize';
 import { rankInto } from '../../src/core/optimize/ranking';
 
 /** Canonical (value, violation) of a raw pair, as the optimizers store it. */
@@ -48,6 +48,21 @@ describe("Deb's feasibility rules (Deb, 2000, 'An efficient constraint handling 
         if (before(a, b) && before(b, c)) expect(before(a, c)).toBe(true); // transitive
       }),
       { numRuns: 2000 },
+    );
+  });
+});
+
+describe('precedesRawAt', () => {
+  it('ranks two raw pairs as canonicalValue, canonicalViolation and precedes do (property test)', () => {
+    const raw = fc.oneof(fc.double(), fc.constantFrom(Number.NaN, Infinity, -Infinity, 0, -0));
+    fc.assert(
+      fc.property(raw, raw, raw, raw, (va, wa, vb, wb) => {
+        const values = Float64Array.of(va, vb);
+        const violations = Float64Array.of(wa, wb);
+        expect(precedesRawAt(values, violations, 0, 1)).toBe(before(ranked(va, wa), ranked(vb, wb)));
+        expect(precedesRawAt(values, violations, 1, 0)).toBe(before(ranked(vb, wb), ranked(va, wa)));
+      }),
+      { numRuns: 2000, seed: 20261205 },
     );
   });
 });

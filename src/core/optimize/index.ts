@@ -39,7 +39,7 @@ export { createOptimizer, restoreOptimizer } from './factory';
 export { Restart } from './restart';
 export { PrefixViews } from './prefixViews';
 export { Prng, MAX_INT_RANGE, MAX_STREAM, type PrngState } from './prng';
-export { canonicalInto, canonicalValue, canonicalViolation, precedes, precedesAt } from './ranking';
+export { canonicalInto, canonicalValue, canonicalViolation, precedes, precedesAt, precedesRawAt } from './ranking';
 export { gaoHanCoefficients, type NelderMeadCoefficients } from './nelder-mead';
 export { DistinctElite, rmsDistance } from './elite';
 export { fromUnitBoxInto, toUnitBoxInto } from './box';

@@ -65,6 +65,24 @@ export function precedesAt(
 }
 
 /**
+ * `precedesAt` of two raw entries (values and violations as an objective gives them),
+ * each ranked as canonicalValue and canonicalViolation rank it, written out here: a
+ * double passed to or returned from a call the compiler does not inline is boxed, and
+ * the objective's own paths compare candidates this way without allocating.
+ */
+export function precedesRawAt(values: Float64Array, violations: Float64Array, a: number, b: number): boolean {
+  const rawA = values[a];
+  const rawB = values[b];
+  const valueA = rawA > -Infinity && rawA < Infinity ? rawA + 0 : Infinity;
+  const valueB = rawB > -Infinity && rawB < Infinity ? rawB + 0 : Infinity;
+  const va = violations[a];
+  const vb = violations[b];
+  const violationA = !(valueA < Infinity) ? Infinity : va > 0 ? va : va <= 0 ? 0 : Infinity;
+  const violationB = !(valueB < Infinity) ? Infinity : vb > 0 ? vb : vb <= 0 ? 0 : Infinity;
+  return violationA < violationB || (violationA <= violationB && valueA < valueB);
+}
+
+/**
  * Writes into `order[0..n)` the indices 0..n−1 sorted best first by `precedes`, ties
  * kept in index order. A bottom-up merge sort, so the result does not depend on the
  * engine's sort; `scratch` holds at least n entries.

@@ -11,7 +11,7 @@
  * four more variables (the reach set's fixed-placement cases, bench/README.md).
  */
 import { SIM_A, SIM_B, SIM_LENGTH, SIM_TX, SIM_TY } from '../../geometry/similarity';
-import { canonicalInto, precedesAt } from '../../optimize';
+import { precedesRawAt } from '../../optimize';
 import type { FamilyId, Problem } from '../problem';
 import { createPathDesignSpace, objectiveSpace } from './designSpace';
 import { describePathDesign } from './pathReport';
@@ -28,7 +28,7 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
   const fitted = new Float64Array(SIM_LENGTH);
   const moved = new Float64Array(dim);
   const movedOut = new Float64Array(2);
-  /** The moved design's value and violation, then the design's, as ranked. */
+  /** The moved design's value and violation, then the design's, as the objective gives them. */
   const ranked = new Float64Array(2);
   const rankedViolation = new Float64Array(2);
 
@@ -59,14 +59,14 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
     for (let j = 0; j < m; j++) if (!(moved[j] >= lower[j] && moved[j] <= upper[j])) return false;
     for (let j = m; j < dim; j++) moved[j] = x[j];
     evaluateAsIs(moved, movedOut);
-    // Ranked in arrays: a double passed to a call the compiler does not inline is boxed.
+    // Compared in arrays, ranked where they are compared: a double passed to or returned
+    // from a call the compiler does not inline is boxed (canonicalInto's calls were not
+    // always inlined here, three boxed numbers per evaluation).
     ranked[0] = movedOut[0];
     rankedViolation[0] = movedOut[1];
     ranked[1] = out[0];
     rankedViolation[1] = out[1];
-    canonicalInto(ranked, rankedViolation, 0, ranked, rankedViolation, 0);
-    canonicalInto(ranked, rankedViolation, 1, ranked, rankedViolation, 1);
-    if (!precedesAt(ranked, rankedViolation, 0, ranked, rankedViolation, 1)) return false;
+    if (!precedesRawAt(ranked, rankedViolation, 0, 1)) return false;
     x.set(moved);
     out[0] = movedOut[0];
     out[1] = movedOut[1];
