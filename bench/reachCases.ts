@@ -125,7 +125,7 @@ function loop(n: number, start: number): number[] {
 }
 
 /** n values from `start` over `span` rad, unevenly spaced. */
-function arc(n: number, start: number, span: number): number[] {
+export function arc(n: number, start: number, span: number): number[] {
   return Array.from({ length: n }, (_, i) => start + (span * (i + 0.2 * Math.sin(2.3 * i))) / (n - 1 + 0.2 * Math.sin(2.3 * (n - 1))));
 }
 

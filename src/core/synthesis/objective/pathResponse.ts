@@ -86,6 +86,16 @@ export const FREE_REFINE_MAX_STEP_RAD = 0.25;
 export const ALIGNMENT_OFFSETS = 12;
 /** Alternations of matching and fitting in a free placement with matched timing. */
 export const ALIGNMENT_ITERATIONS = 3;
+/**
+ * Shares of the curve's arc length an open target's points are spread along when it is
+ * aligned (matchPlacedTiming): the whole curve, and parts of it, since an open target
+ * may follow any stretch of the curve. Aligned with the whole curve only, the generating
+ * designs of open arcs over a sixth to three quarters of a turn scored up to a tenth of
+ * the target's size (bench/README.md, Reach).
+ */
+export const OPEN_SPAN_SHARES: readonly number[] = [1, 0.6, 0.35, 0.2];
+/** Alignments along parts of the curve, the best by their first fit, each alternated once before the best of them goes on. */
+export const OPEN_PART_STARTS = 2;
 
 
 /** The scratch a path response leaves describing the branch it evaluated last. */
@@ -166,6 +176,27 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const valid = new Uint8Array(sampleCount);
   const arc = new Float64Array(matchesPlaced ? sampleCount + 1 : 0);
   const targetArc = new Float64Array(n);
+  /** The alignments' shares of the curve, and how many of the best are alternated (matchPlacedTiming). */
+  const spanShares = Float64Array.from(closed ? [1] : OPEN_SPAN_SHARES);
+  const startSlots = closed ? 1 : 1 + OPEN_PART_STARTS;
+  /** The alignments kept (alignAlong): the whole curve's best, then partCount along parts of it, best first; their first fits' SSE, similarities and hints. */
+  let partCount = 0;
+  const startSse = new Float64Array(startSlots);
+  const startSims = new Float64Array(startSlots * SIM_LENGTH);
+  const startMatches = new Int32Array(startSlots * n);
+  /** The part's alternation that ends best so far: its placement and match. */
+  const bestSim = new Float64Array(SIM_LENGTH);
+  const bestMatched = new Int32Array(n);
+  /** The curve's points at the fitted driver values, and their margins (refineMatch). */
+  const placedPoints = new Float64Array(matchesPlaced ? 2 * n : 0);
+  const placedMargins = new Float64Array(matchesPlaced ? n : 0);
+  /** The part's refined fit, kept aside while the whole curve's is made: driver values, placement, points, margins. */
+  const partTimes = new Float64Array(n);
+  const partSim = new Float64Array(SIM_LENGTH);
+  const partPoints = new Float64Array(2 * n);
+  const partMargins = new Float64Array(n);
+  /** An alternation's last fit's SSE, and the whole curve's and the part's refined fits' (alternate, placedSseInto). */
+  const fitSse = new Float64Array(2);
   const matchScratch = createMatchScratch(n, Math.max(sampleCount, 1));
   const matched = new Int32Array(n);
   const previousMatched = new Int32Array(n);
@@ -277,57 +308,69 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   }
 
   /**
-   * Unprescribed timing with a free placement: align by arc length from a few starting
-   * offsets (the curve unknown in size and pose, the target's points spread along it
-   * as along the target), then alternate matching in order and refitting (an iterative
-   * closest point scheme, Besl and McKay, 1992), then refine driver values and placement
-   * together: on the samples read as cubics, then a last step on the curve (jointFit.ts).
+   * The target's points spread along `share` of the curve's arc length from `offset` of
+   * it, each at the sample there; the similarity that fits them to the target kept as a
+   * start of the alternation where it is among the best (keepStart).
    */
-  function matchPlacedTiming(t: Float64Array, o: number): void {
-    sampleCurve(1);
-    arc[0] = 0;
-    for (let j = 1; j <= sampleCount; j++) {
-      const a = j - 1;
-      const b = j % sampleCount;
-      // Math.sqrt, not Math.hypot: hypot allocates its answer in V8, and the sides here are
-      // mm, far from overflow.
-      const dx = samples[2 * b] - samples[2 * a];
-      const dy = samples[2 * b + 1] - samples[2 * a + 1];
-      arc[j] = arc[j - 1] + (valid[a] === 1 && valid[b] === 1 ? Math.sqrt(dx * dx + dy * dy) : 0);
-    }
-    const total = arc[sampleCount];
-    const step = TAU / sampleCount;
-    let bestSse = Infinity;
-    for (let k = 0; k < ALIGNMENT_OFFSETS; k++) {
-      const offset = k / ALIGNMENT_OFFSETS;
-      let j = 0;
-      for (let i = 0; i < n; i++) {
-        let share = offset + targetArc[i];
-        if (share >= 1) share -= 1;
-        // targetArc increases, so j only moves forward, once around the loop at most: the
-        // first j from here with arc[j + 1] past the share (arc never decreases, and once
-        // NaN stays NaN), found by bisection.
-        if (i === 0 || share < offset) j = 0;
-        const at = share * total;
-        let hi = sampleCount - 1;
-        while (j < hi) {
-          const mid = (j + hi) >> 1;
-          if (arc[mid + 1] <= at) j = mid + 1;
-          else hi = mid;
-        }
-        points[2 * i] = samples[2 * j];
-        points[2 * i + 1] = samples[2 * j + 1];
-        matched[i] = j;
+  function alignAlong(offset: number, share: number, total: number): void {
+    let j = 0;
+    for (let i = 0; i < n; i++) {
+      let at = offset + share * targetArc[i];
+      if (at >= 1) at -= 1;
+      // The shares increase, so j only moves forward, once around the loop at most: the
+      // first j from here with arc[j + 1] past the share (arc never decreases, and once
+      // NaN stays NaN), found by bisection.
+      if (i === 0 || at < offset) j = 0;
+      const length = at * total;
+      let hi = sampleCount - 1;
+      while (j < hi) {
+        const mid = (j + hi) >> 1;
+        if (arc[mid + 1] <= length) j = mid + 1;
+        else hi = mid;
       }
-      similarityFitInto(points, targets, n, buf, weights ?? null);
-      if (buf[SIM_SSE] < bestSse || k === 0) {
-        bestSse = buf[SIM_SSE];
-        for (let q = 0; q < SIM_LENGTH; q++) sim[q] = buf[q];
-        // Unrolled (once round the loop at most), the first match's hint.
-        for (let i = 0; i < n; i++) previousMatched[i] = matched[i] + (i > 0 && matched[i] < matched[0] ? sampleCount : 0);
-      }
+      points[2 * i] = samples[2 * j];
+      points[2 * i + 1] = samples[2 * j + 1];
+      matched[i] = j;
     }
-    for (let it = 0; it < ALIGNMENT_ITERATIONS; it++) {
+    similarityFitInto(points, targets, n, buf, weights ?? null);
+    const sse = buf[SIM_SSE];
+    if (share === 1) {
+      // Slot 0: the whole curve's best (the first offered, then any with a lower SSE).
+      if (offset === 0 || sse < startSse[0]) keepStart(0);
+      return;
+    }
+    // Slots 1 …: the best along parts of the curve, in order, an earlier one first where two tie.
+    let at = 1 + partCount;
+    while (at > 1 && sse < startSse[at - 1]) at--;
+    if (at >= startSlots) return;
+    for (let c = Math.min(partCount, startSlots - 2) + 1; c > at; c--) copyStart(c - 1, c);
+    keepStart(at);
+    if (1 + partCount < startSlots) partCount++;
+  }
+
+  /** The alignment in buf (its similarity and SSE) and matched as start `slot`. */
+  function keepStart(slot: number): void {
+    startSse[slot] = buf[SIM_SSE];
+    for (let q = 0; q < SIM_LENGTH; q++) startSims[slot * SIM_LENGTH + q] = buf[q];
+    // Unrolled (once round the loop at most), the first match's hint.
+    for (let i = 0; i < n; i++) startMatches[slot * n + i] = matched[i] + (i > 0 && matched[i] < matched[0] ? sampleCount : 0);
+  }
+
+  function copyStart(from: number, to: number): void {
+    startSse[to] = startSse[from];
+    for (let q = 0; q < SIM_LENGTH; q++) startSims[to * SIM_LENGTH + q] = startSims[from * SIM_LENGTH + q];
+    for (let i = 0; i < n; i++) startMatches[to * n + i] = startMatches[from * n + i];
+  }
+
+  /**
+   * Iterations first … last − 1 of the alternation from the placement in sim and the hint
+   * in previousMatched: matched and sim left at its answer, and the SSE of the last fit
+   * made into fitSse[0] (Infinity: none). Numbers cross in arrays, not as arguments or
+   * return values: V8 boxes a double passed to or returned from a call it does not inline.
+   */
+  function alternate(first: number, last: number): void {
+    fitSse[0] = Infinity;
+    for (let it = first; it < last; it++) {
       placeSamples();
       // The last match (first: the alignment's), near this one once the fit settles, bounds it and speeds it up.
       matchInOrder(placedSamples, valid, targets, weights, wrap, matchScratch, matched, previousMatched);
@@ -345,9 +388,90 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       similarityFitInto(points, targets, n, buf, weights ?? null);
       if (!Number.isFinite(buf[SIM_A] + buf[SIM_B] + buf[SIM_TX] + buf[SIM_TY])) break;
       for (let q = 0; q < SIM_LENGTH; q++) sim[q] = buf[q];
+      fitSse[0] = buf[SIM_SSE];
     }
+  }
+
+  /**
+   * Unprescribed timing with a free placement: align by arc length from a few starting
+   * offsets (the curve unknown in size and pose, the target's points spread along it
+   * as along the target), then alternate matching in order and refitting (an iterative
+   * closest point scheme, Besl and McKay, 1992), then refine driver values and placement
+   * together: on the samples read as cubics, then a last step on the curve (jointFit.ts).
+   * A closed target goes round the whole curve: its best alignment is the start. An open
+   * one may follow any stretch of the curve, so its points are also spread along parts
+   * of it (OPEN_SPAN_SHARES); the best OPEN_PART_STARTS of those are each alternated
+   * once, the best of them on and refined, and its fit replaces the whole curve's where
+   * it ends nearer the target (so it is never worse than the whole curve's alone).
+   */
+  function matchPlacedTiming(t: Float64Array, o: number): void {
+    sampleCurve(1);
+    arc[0] = 0;
+    for (let j = 1; j <= sampleCount; j++) {
+      const a = j - 1;
+      const b = j % sampleCount;
+      // Math.sqrt, not Math.hypot: hypot allocates its answer in V8, and the sides here are
+      // mm, far from overflow.
+      const dx = samples[2 * b] - samples[2 * a];
+      const dy = samples[2 * b + 1] - samples[2 * a + 1];
+      arc[j] = arc[j - 1] + (valid[a] === 1 && valid[b] === 1 ? Math.sqrt(dx * dx + dy * dy) : 0);
+    }
+    const total = arc[sampleCount];
+    partCount = 0;
+    for (let s = 0; s < spanShares.length; s++) {
+      for (let k = 0; k < ALIGNMENT_OFFSETS; k++) alignAlong(k / ALIGNMENT_OFFSETS, spanShares[s], total);
+    }
+    if (partCount > 0) {
+      // Along a part of the curve: each start alternated once, the best of them on, then
+      // refined, and kept aside.
+      let bestSse = Infinity;
+      for (let c = 1; c <= partCount; c++) {
+        startFrom(c);
+        alternate(0, 1);
+        if (c === 1 || fitSse[0] < bestSse) {
+          bestSse = fitSse[0];
+          for (let q = 0; q < SIM_LENGTH; q++) bestSim[q] = sim[q];
+          for (let i = 0; i < n; i++) bestMatched[i] = matched[i];
+        }
+      }
+      for (let q = 0; q < SIM_LENGTH; q++) sim[q] = bestSim[q];
+      for (let i = 0; i < n; i++) previousMatched[i] = bestMatched[i];
+      alternate(1, ALIGNMENT_ITERATIONS);
+      refineMatch(t, o);
+      placedSseInto(1);
+      for (let i = 0; i < n; i++) partTimes[i] = t[o + i];
+      for (let q = 0; q < SIM_LENGTH; q++) partSim[q] = sim[q];
+      for (let i = 0; i < 2 * n; i++) partPoints[i] = placedPoints[i];
+      for (let i = 0; i < n; i++) partMargins[i] = placedMargins[i];
+    }
+    // Along the whole curve, kept unless the part's fit ends nearer the target.
+    startFrom(0);
+    alternate(0, ALIGNMENT_ITERATIONS);
+    refineMatch(t, o);
+    if (partCount === 0) return;
+    placedSseInto(0);
+    if (fitSse[1] < fitSse[0]) {
+      for (let i = 0; i < n; i++) t[o + i] = partTimes[i];
+      for (let q = 0; q < SIM_LENGTH; q++) sim[q] = partSim[q];
+      for (let i = 0; i < 2 * n; i++) placedPoints[i] = partPoints[i];
+      for (let i = 0; i < n; i++) placedMargins[i] = partMargins[i];
+    }
+  }
+
+  /** Start `slot` (alignAlong) as the placement in force and the first match's hint. */
+  function startFrom(slot: number): void {
+    for (let q = 0; q < SIM_LENGTH; q++) sim[q] = startSims[slot * SIM_LENGTH + q];
+    for (let i = 0; i < n; i++) previousMatched[i] = startMatches[slot * n + i];
+  }
+
+  /**
+   * The driver values of the match, then driver values and placement refined together
+   * (jointFit.ts), the curve's points there and their margins into placedPoints and
+   * placedMargins.
+   */
+  function refineMatch(t: Float64Array, o: number): void {
+    const step = TAU / sampleCount;
     for (let i = 0; i < n; i++) t[o + i] = matched[i] * step;
-    // Then driver values and placement together, from the samples' answer.
     if (wrap) {
       limits[0] = t[o + n - 1] - TAU;
       limits[1] = t[o] + TAU;
@@ -357,6 +481,26 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     }
     limits[2] = step;
     jointFit.refineOnSamples(sampled, curve, targets, weights, t, o, sim, limits);
+    jointFit.pointsInto(placedPoints, placedMargins);
+  }
+
+  /** The points of the last matchPlacedTiming (x0, y0, …) and their margins, into `into` and `intoMargins`. */
+  function placedPointsInto(into: Float64Array, intoMargins: Float64Array): void {
+    for (let i = 0; i < 2 * n; i++) into[i] = placedPoints[i];
+    for (let i = 0; i < n; i++) intoMargins[i] = placedMargins[i];
+  }
+
+  /** Σ wᵢ |S pᵢ + T − Qᵢ|² of placedPoints under the placement in force, into fitSse[slot]. */
+  function placedSseInto(slot: number): void {
+    let sum = 0;
+    for (let i = 0; i < n; i++) {
+      const x = placedPoints[2 * i];
+      const y = placedPoints[2 * i + 1];
+      const dx = sim[SIM_A] * x - sim[SIM_B] * y + sim[SIM_TX] - targets[2 * i];
+      const dy = sim[SIM_B] * x + sim[SIM_A] * y + sim[SIM_TY] - targets[2 * i + 1];
+      sum += (weights === undefined ? 1 : weights[i]) * (dx * dx + dy * dy);
+    }
+    fitSse[slot] = sum;
   }
 
   function refineFreeTiming(x: Float64Array, t: Float64Array, o: number): void {
@@ -401,7 +545,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     // Output points at the driver values; assembly at each. A free placement's fit
     // evaluated the curve at them last, and has them.
     if (fitsPlacement) {
-      jointFit.pointsInto(points, margins);
+      placedPointsInto(points, margins);
     } else {
       for (let i = 0; i < n; i++) {
         buf[CURVE_T] = times[o + i];
@@ -509,7 +653,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
         encoding.load(x, k, parts);
       }
       matchPlacedTiming(times, k * n);
-      jointFit.pointsInto(fitSource, margins);
+      placedPointsInto(fitSource, margins);
     } else {
       for (let i = 0; i < 2 * n; i++) fitSource[i] = branchPoints[2 * n * k + i];
     }
