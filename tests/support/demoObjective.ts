@@ -1,21 +1,15 @@
 /**
  * The objective the six-bar trust tests judge designs by: the demo target (closed or
- * open), unprescribed timing on 180 curve samples (or the driver values given,
- * prescribed), free placement, RMS.
+ * open), unprescribed timing on 180 curve samples, free placement, RMS.
  */
 import { demoTargetPoints } from '../../src/app/demo/transferDemo';
 import { createObjective, createProblem, type Constraints, type FamilyId } from '../../src/core/synthesis';
 
-export function demoPathObjective(
-  family: FamilyId,
-  closed: boolean,
-  constraints?: Constraints,
-  driverValues?: readonly number[],
-): ReturnType<typeof createObjective> {
+export function demoPathObjective(family: FamilyId, closed: boolean, constraints?: Constraints): ReturnType<typeof createObjective> {
   const made = createProblem({
     name: `demo ${closed ? 'closed' : 'open'} path`,
     target: { points: demoTargetPoints().map((p) => [p.x, p.y]), closed },
-    timing: driverValues === undefined ? { mode: 'unprescribed', samples: 180 } : { mode: 'prescribed', driverValues: [...driverValues] },
+    timing: { mode: 'unprescribed', samples: 180 },
     placement: 'free',
     families: [family],
     measure: 'rms',

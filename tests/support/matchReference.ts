@@ -1,7 +1,9 @@
 /**
  * The in-order matcher's reference for tests: the plain dynamic programme (one pass per
  * start, every cost computed, nothing skipped; Bellman 1957), as timing.ts had it before
- * its cost table, abandoning and bounds, and the seeded cases both matcher tests draw.
+ * its cost table, abandoning and bounds (with its barriers: no two consecutive points on
+ * either side of a sample that does not assemble), and the seeded cases both matcher
+ * tests draw.
  */
 import type { Prng } from '../../src/core/optimize/prng';
 import { CYCLIC_START_CANDIDATES } from '../../src/core/synthesis/timing';
@@ -31,8 +33,8 @@ export function cyclicStarts(c: Case, m: number): { j: number; c: number }[] {
   return minima;
 }
 
-/** The plain dynamic programme, as timing.ts had it before its cost table and abandoning. */
-export function plainDp(c: Case, n: number, m: number, cyclic: boolean, out: Int32Array): number {
+/** The plain dynamic programme, as timing.ts had it before its cost table and abandoning; `barriers` false: points may be matched on either side of a sample that does not assemble, as before its barriers. */
+export function plainDp(c: Case, n: number, m: number, cyclic: boolean, out: Int32Array, barriers = true): number {
   const pass = (first: number, span: number, unrolled: Int32Array): number => {
     let prev = new Float64Array(m);
     const arg = new Int32Array(n * m);
@@ -42,7 +44,9 @@ export function plainDp(c: Case, n: number, m: number, cyclic: boolean, out: Int
       let best = Infinity;
       let bestU = 0;
       for (let u = 0; u < m; u++) {
-        if (prev[u] < best) {
+        // A sample that does not assemble: no point before it is followed by one after it.
+        if (barriers && c.valid[(first + u) % m] === 0) best = Infinity;
+        else if (prev[u] < best) {
           best = prev[u];
           bestU = u;
         }

@@ -8,7 +8,8 @@ import { plainDp, randomCase } from '../support/matchReference';
  * blocks of samples are skipped unevaluated) against the plain dynamic programme written
  * here, one pass per start, every cost computed, nothing skipped: the same indices and
  * the same total to the bit, whatever the hint (the optimum itself, a near one, a poor
- * one, one no pass could find), with weights, unassembled samples and ties.
+ * one, one no pass could find, one across samples that do not assemble), with weights,
+ * unassembled samples and ties.
  */
 
 
@@ -31,10 +32,16 @@ describe('matchInOrder with a hint', () => {
     for (let trial = 0; trial < 240; trial++) {
       const [n, m] = sizes[trial % sizes.length];
       const c = randomCase(prng, n, m, { weights: trial % 2 === 1, invalid: trial % 3 === 0, ties: trial % 5 === 0 });
+      // Barriers honoured on odd trials (a sample that does not assemble parts the points on either side).
+      const barriers = trial % 2 === 1;
       const want = new Int32Array(n);
-      const ref = plainDp(c, n, m, true, want);
+      const ref = plainDp(c, n, m, true, want, barriers);
       const scratch = createMatchScratch(n, m);
+      // Across samples that do not assemble, a match can cost less than any the matcher may take.
+      const acrossBarriers = new Int32Array(n);
+      plainDp(c, n, m, true, acrossBarriers, false);
       const hints = [
+        acrossBarriers,
         Int32Array.from(want),
         nearSequence(prng, want, 2),
         nearSequence(prng, want, m / 8),
@@ -46,7 +53,7 @@ describe('matchInOrder with a hint', () => {
       ];
       for (const [h, hint] of hints.entries()) {
         const index = new Int32Array(n);
-        const got = matchInOrder(c.samples, c.valid, c.targets, c.weights, true, scratch, index, hint);
+        const got = matchInOrder(c.samples, c.valid, c.targets, c.weights, true, barriers, scratch, index, hint);
         expect(Object.is(got, ref), `trial ${trial} hint ${h}: ${got} vs ${ref}`).toBe(true);
         expect(Array.from(index), `trial ${trial} hint ${h}`).toEqual(Array.from(want));
       }

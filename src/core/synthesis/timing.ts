@@ -6,7 +6,8 @@
  *   order (cyclically when the curve is a closed loop); O(n·M) per start, cyclic starts
  *   abandoned by a lower bound once they cannot win, and blocks of samples a point
  *   cannot take on a winning match skipped unevaluated (branch and bound, Land and
- *   Doig, 1960) — the answer, ties included, that of the plain programme;
+ *   Doig, 1960) — the answer, ties included, that of the plain programme; optionally no
+ *   two consecutive points on either side of a sample where the mechanism does not assemble;
  * - `refineDriverValue`: safeguarded Newton steps on the continuous curve, so the
  *   reported error is the error at a genuine driver value, not at a sample;
  * - `orderViolation`: how far a list of driver values is from increasing.
@@ -90,6 +91,8 @@ export interface MatchScratch {
   /** Per run of the row in force: its least partial sum and the first index holding it. */
   readonly runLeast: Float64Array;
   readonly runLeastAt: Int32Array;
+  /** Per sample block, 1 where a sample of it does not assemble (a barrier, see matchInOrder). */
+  readonly blockBarrier: Uint8Array;
 }
 
 export function createMatchScratch(pointCount: number, sampleCount: number): MatchScratch {
@@ -111,6 +114,7 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
     skipped: new Uint8Array(blockCount(sampleCount) + 2),
     runLeast: new Float64Array(blockCount(sampleCount) + 2),
     runLeastAt: new Int32Array(blockCount(sampleCount) + 2),
+    blockBarrier: new Uint8Array(blockCount(sampleCount)),
   };
 }
 
@@ -152,9 +156,11 @@ function fillCosts(samples: Float64Array, valid: Uint8Array, targets: Float64Arr
  * scratch.unrolled and returns the cost. Returns Infinity without writing when no sum
  * is finite, and as soon as a lower bound on every completion (the least partial sum
  * plus each remaining point's least cost) shows the pass cannot beat `bound`: cannot
- * reach it when `tieWins`, cannot go below it otherwise.
+ * reach it when `tieWins`, cannot go below it otherwise. `barriers` (the samples' valid
+ * flags, or null for none): a sample that does not assemble parts the points on either
+ * side of it (matchInOrder).
  */
-function monotonePass(first: number, firstSpan: number, bound: number, tieWins: boolean, s: MatchScratch): number {
+function monotonePass(first: number, firstSpan: number, bound: number, tieWins: boolean, s: MatchScratch, barriers: Uint8Array | null): number {
   const m = s.sampleCount;
   const n = s.pointCount;
   const cost = s.cost;
@@ -174,26 +180,46 @@ function monotonePass(first: number, firstSpan: number, bound: number, tieWins: 
     const wrapShift = row - split;
     let best = Infinity;
     let bestU = 0;
-    for (let u = 0; u < split; u++) {
-      const here = sums[u];
-      if (here < best) {
-        best = here;
-        bestU = u;
+    // The least sum over points 0 … i − 1 wherever it lies: best itself without barriers.
+    let least = Infinity;
+    if (barriers === null) {
+      for (let u = 0; u < split; u++) {
+        const here = sums[u];
+        if (here < best) {
+          best = here;
+          bestU = u;
+        }
+        arg[row + u] = bestU;
+        sums[u] = best + cost[shift + u];
       }
-      arg[row + u] = bestU;
-      sums[u] = best + cost[shift + u];
-    }
-    for (let u = split; u < m; u++) {
-      const here = sums[u];
-      if (here < best) {
-        best = here;
-        bestU = u;
+      for (let u = split; u < m; u++) {
+        const here = sums[u];
+        if (here < best) {
+          best = here;
+          bestU = u;
+        }
+        arg[row + u] = bestU;
+        sums[u] = best + cost[wrapShift + u];
       }
-      arg[row + u] = bestU;
-      sums[u] = best + cost[wrapShift + u];
+      least = best;
+    } else {
+      for (let u = 0; u < m; u++) {
+        const j = u < split ? first + u : u - split;
+        const here = sums[u];
+        // A sample that does not assemble: the motion cannot pass it, so no point before
+        // it is followed by one after it.
+        if (barriers[j] === 0) best = Infinity;
+        else if (here < best) {
+          best = here;
+          bestU = u;
+        }
+        if (here < least) least = here;
+        arg[row + u] = bestU;
+        sums[u] = best + cost[row + j];
+      }
     }
-    // best: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
-    const lower = (best + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
+    // least: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
+    const lower = (least + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
     if (tieWins ? lower > bound : lower >= bound) return Infinity;
   }
   let best = Infinity;
@@ -296,7 +322,9 @@ function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Ar
  * of total ≤ `threshold` (the least partial sum before it plus the block's bound plus
  * the rest is above it) is skipped unevaluated. A cell that can is computed as in the
  * plain pass, from the same partial sums, so the answer is the same whenever it is
- * ≤ threshold; otherwise the pass loses anyway. `bound` and `tieWins` as monotonePass.
+ * ≤ threshold; otherwise the pass loses anyway. `bound` and `tieWins` as monotonePass;
+ * `barriers`: the samples that do not assemble part the points (blockBarrier marks
+ * their blocks).
  */
 function boundedPass(
   samples: Float64Array,
@@ -309,10 +337,12 @@ function boundedPass(
   tieWins: boolean,
   threshold: number,
   s: MatchScratch,
+  barriers: boolean,
 ): number {
   const m = s.sampleCount;
   const n = s.pointCount;
   const blocks = blockCount(m);
+  const blockBarrier = s.blockBarrier;
   const cost = s.cost;
   const rest = s.rest;
   const bounds = s.blockBound;
@@ -362,10 +392,16 @@ function boundedPass(
     const w = weights === undefined ? 1 : weights[i];
     let best = Infinity;
     let bestU = 0;
+    // The least sum over points 0 … i − 1 wherever it lies (with barriers; else best).
+    let rowLeast = Infinity;
     for (let q = 0; q < runs; q++) {
       const from = runStart[q];
       const to = runStart[q + 1];
       const before = skipped[q] === 1;
+      // A run with a barrier (see matchInOrder) is never skipped: past its barrier the
+      // least partial sum is not the run's least.
+      const barrierRun = barriers && blockBarrier[runBlock[q]] === 1;
+      if (!before && runLeast[q] < rowLeast) rowLeast = runLeast[q];
       // The least partial sum up to the run's end: the run's own least, kept when it was
       // written (its first index, as a scan keeping strict improvements would find).
       let runBest = best;
@@ -376,7 +412,7 @@ function boundedPass(
       }
       // Every cell of the run: at least the least partial sum up to its end, plus the block's bound.
       const lower = (runBest + bounds[boundRow + runBlock[q]] + restNext) * (1 - BOUND_ROUNDING_MARGIN);
-      if (lower > threshold) {
+      if (lower > threshold && !barrierRun) {
         skipped[q] = 1;
         best = runBest;
         bestU = runBestU;
@@ -389,6 +425,7 @@ function boundedPass(
       // Two loops, not one test per cell: a run the row before skipped holds no sums to read.
       if (before) {
         for (let u = from; u < to; u++, j++) {
+          if (barrierRun && valid[j] === 0) best = Infinity;
           arg[row + u] = bestU;
           let c = Infinity;
           if (valid[j] !== 0) {
@@ -406,7 +443,8 @@ function boundedPass(
       } else {
         for (let u = from; u < to; u++, j++) {
           const here = sums[u];
-          if (here < best) {
+          if (barrierRun && valid[j] === 0) best = Infinity;
+          else if (here < best) {
             best = here;
             bestU = u;
           }
@@ -428,8 +466,8 @@ function boundedPass(
       runLeast[q] = least;
       runLeastAt[q] = leastAt;
     }
-    // best: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
-    const lower = (best + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
+    // The least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
+    const lower = ((barriers ? rowLeast : best) + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
     if (tieWins ? lower > bound : lower >= bound) return Infinity;
     if (lower > threshold) return Infinity;
   }
@@ -474,10 +512,17 @@ function hintCost(
   found: number,
   half: number,
   s: MatchScratch,
+  barriers: boolean,
 ): number {
   const m = s.sampleCount;
   const n = s.pointCount;
   for (let i = 1; i < n; i++) if (!(hint[i] >= hint[i - 1])) return Infinity;
+  // No sample that does not assemble between two points (see matchInOrder).
+  if (barriers) {
+    for (let i = 1; i < n; i++) {
+      for (let u = hint[i - 1] + 1; u < hint[i]; u++) if (valid[((u % m) + m) % m] === 0) return Infinity;
+    }
+  }
   const span = hint[n - 1] - hint[0];
   let admissible = false;
   for (let k = 0; k < found; k++) {
@@ -502,7 +547,11 @@ function hintCost(
  * mechanism assembles. Non-cyclic: the indices are non-decreasing in 0..M-1. Cyclic:
  * the samples form a closed loop and the indices may pass once through M − 1 → 0;
  * tried from the few best local minima of the first point's distance, each start
- * abandoned once it cannot beat the best before it.
+ * abandoned once it cannot beat the best before it. With `barriers`, a sample that does
+ * not assemble is a barrier: no point is matched before it and the next after it, since
+ * the driver cannot turn through a value where the mechanism does not assemble (the
+ * motion between the two would lock there). An open path's match honours them; a closed
+ * path's need not (its motion is a whole turn, which any such sample locks).
  *
  * Writes into `outIndex` an unrolled index per point (non-decreasing; in a cyclic
  * match it may be negative or ≥ M: the driver value is start + index · step either
@@ -519,19 +568,28 @@ export function matchInOrder(
   targets: Float64Array,
   weights: Float64Array | undefined,
   cyclic: boolean,
+  barriers: boolean,
   scratch: MatchScratch,
   outIndex: Int32Array,
   hint?: Int32Array,
 ): number {
   const m = scratch.sampleCount;
   const n = scratch.pointCount;
+  // Barriers to honour: some sample does not assemble.
+  let barred = false;
+  for (let j = 0; barriers && j < m && !barred; j++) barred = valid[j] === 0;
   if (!cyclic) {
     fillCosts(samples, valid, targets, weights, scratch);
-    const total = monotonePass(0, m - 1, Infinity, true, scratch);
+    const total = monotonePass(0, m - 1, Infinity, true, scratch, barred ? valid : null);
     for (let i = 0; i < n; i++) outIndex[i] = total < Infinity ? scratch.unrolled[i] : 0;
     return total;
   }
   fillBounds(samples, valid, targets, weights, scratch);
+  if (barred) {
+    const blockBarrier = scratch.blockBarrier;
+    blockBarrier.fill(0);
+    for (let j = 0; j < m; j++) if (valid[j] === 0) blockBarrier[Math.floor(j / MATCH_BLOCK)] = 1;
+  }
   const cost = scratch.cost;
   // Local minima of the first point's distance along the loop: where the match starts.
   const starts = scratch.starts;
@@ -574,13 +632,13 @@ export function matchInOrder(
     }
     order[q] = k;
   }
-  const ceiling = hint === undefined ? Infinity : hintCost(samples, valid, targets, weights, hint, found, half, scratch);
+  const ceiling = hint === undefined ? Infinity : hintCost(samples, valid, targets, weights, hint, found, half, scratch, barred);
   let best = Infinity;
   let chosen = found;
   for (let r = 0; r < found; r++) {
     const k = order[r];
     const first = (starts[k] - half + m) % m;
-    const total = boundedPass(samples, valid, targets, weights, first, 2 * half, best, k < chosen, Math.min(best, ceiling), scratch);
+    const total = boundedPass(samples, valid, targets, weights, first, 2 * half, best, k < chosen, Math.min(best, ceiling), scratch, barred);
     if (total < best || (total === best && k < chosen)) {
       best = total;
       chosen = k;

@@ -13,9 +13,11 @@ import { cost, cyclicStarts, plainDp, randomCase, type Case } from '../../suppor
 
 /**
  * Exhaustive: every non-decreasing u₀ ≤ u₁ ≤ … ≤ uₙ₋₁ in 0..m−1 with u₀ ≤ firstSpan,
- * sample (first + u) mod m; the least total (Infinity when none is finite).
+ * sample (first + u) mod m (with `barriers`, no sample that does not assemble strictly
+ * between two consecutive ones: the driver cannot turn through it); the least total
+ * (Infinity when none is finite).
  */
-function exhaustive(c: Case, n: number, m: number, first: number, firstSpan: number): number {
+function exhaustive(c: Case, n: number, m: number, first: number, firstSpan: number, barriers: boolean): number {
   let best = Infinity;
   const u = new Array<number>(n).fill(0);
   const visit = (i: number, from: number, sum: number): void => {
@@ -25,6 +27,7 @@ function exhaustive(c: Case, n: number, m: number, first: number, firstSpan: num
     }
     const to = i === 0 ? Math.min(firstSpan, m - 1) : m - 1;
     for (let v = from; v <= to; v++) {
+      if (barriers && i > 0 && v - 1 > from && c.valid[(first + v - 1) % m] === 0) break;
       u[i] = v;
       visit(i + 1, v, sum + cost(c, i, (first + v) % m));
     }
@@ -54,19 +57,19 @@ describe('matchInOrder against references', () => {
       const n = 1 + Math.floor(prng.float() * 4);
       const m = 5 + Math.floor(prng.float() * 14);
       const c = randomCase(prng, n, m, { weights: trial % 2 === 0, invalid: trial % 3 === 0, ties: trial % 7 === 0 });
-      for (const cyclic of [false, true]) {
+      for (const [cyclic, barriers] of [[false, false], [true, false], [false, true], [true, true]]) {
         const index = new Int32Array(n);
-        const got = matchInOrder(c.samples, c.valid, c.targets, c.weights, cyclic, createMatchScratch(n, m), index);
+        const got = matchInOrder(c.samples, c.valid, c.targets, c.weights, cyclic, barriers, createMatchScratch(n, m), index);
         let want: number;
         if (!cyclic) {
-          want = exhaustive(c, n, m, 0, m - 1);
+          want = exhaustive(c, n, m, 0, m - 1, barriers);
         } else {
           const minima = cyclicStarts(c, m).sort((a, b) => a.c - b.c);
           const starts = minima.length > 0 ? minima.slice(0, CYCLIC_START_CANDIDATES) : [{ j: 0, c: 0 }];
           const half = Math.max(1, Math.floor(m / 16));
-          want = Math.min(...starts.map((s) => exhaustive(c, n, m, (s.j - half + m) % m, 2 * half)));
+          want = Math.min(...starts.map((s) => exhaustive(c, n, m, (s.j - half + m) % m, 2 * half, barriers)));
         }
-        expect(relClose(got, want), `trial ${trial} cyclic ${cyclic}: ${got} vs ${want}`).toBe(true);
+        expect(relClose(got, want), `trial ${trial} cyclic ${cyclic} barriers ${barriers}: ${got} vs ${want}`).toBe(true);
         if (got < Infinity) {
           for (let i = 1; i < n; i++) expect(index[i]).toBeGreaterThanOrEqual(index[i - 1]);
           if (cyclic) expect(index[n - 1] - index[0]).toBeLessThan(m);
@@ -75,7 +78,7 @@ describe('matchInOrder against references', () => {
         checked++;
       }
     }
-    expect(checked).toBe(600);
+    expect(checked).toBe(1200);
   });
 
   it('gives the plain dynamic programme its exact indices and cost, ties included, at the sizes the objective uses', () => {
@@ -84,13 +87,13 @@ describe('matchInOrder against references', () => {
     const scratch = createMatchScratch(24, 180);
     for (let trial = 0; trial < 200; trial++) {
       const c = randomCase(prng, 24, 180, { weights: trial % 2 === 1, invalid: trial % 4 === 0, ties: trial % 5 === 0 });
-      for (const cyclic of [false, true]) {
+      for (const [cyclic, barriers] of [[false, false], [true, false], [false, true], [true, true]]) {
         const index = new Int32Array(24);
         const want = new Int32Array(24);
         // The same scratch every time: nothing may leak from one call to the next.
-        const got = matchInOrder(c.samples, c.valid, c.targets, c.weights, cyclic, scratch, index);
-        const ref = plainDp(c, 24, 180, cyclic, want);
-        expect(relClose(got, ref), `trial ${trial} cyclic ${cyclic}`).toBe(true);
+        const got = matchInOrder(c.samples, c.valid, c.targets, c.weights, cyclic, barriers, scratch, index);
+        const ref = plainDp(c, 24, 180, cyclic, want, barriers);
+        expect(relClose(got, ref), `trial ${trial} cyclic ${cyclic} barriers ${barriers}`).toBe(true);
         expect(Array.from(index)).toEqual(Array.from(want));
       }
     }
@@ -104,7 +107,7 @@ describe('matchInOrder against references', () => {
     for (const cyclic of [false, true]) {
       const index = new Int32Array(4).fill(99);
       const want = new Int32Array(4);
-      expect(matchInOrder(c.samples, none, c.targets, undefined, cyclic, createMatchScratch(4, m), index)).toBe(Infinity);
+      expect(matchInOrder(c.samples, none, c.targets, undefined, cyclic, true, createMatchScratch(4, m), index)).toBe(Infinity);
       plainDp({ ...c, valid: none }, 4, m, cyclic, want);
       expect(Array.from(index)).toEqual(Array.from(want));
     }
@@ -121,7 +124,7 @@ describe('matchInOrder against references', () => {
     const c: Case = { samples, valid: new Uint8Array(m).fill(1), targets: new Float64Array(6), weights: undefined };
     const index = new Int32Array(3);
     const want = new Int32Array(3);
-    const got = matchInOrder(c.samples, c.valid, c.targets, undefined, true, createMatchScratch(3, m), index);
+    const got = matchInOrder(c.samples, c.valid, c.targets, undefined, true, false, createMatchScratch(3, m), index);
     expect(got).toBe(plainDp(c, 3, m, true, want));
     expect(Array.from(index)).toEqual(Array.from(want));
     expect(((index[0] % m) + m) % m).toBe(9);

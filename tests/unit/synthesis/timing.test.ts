@@ -44,7 +44,7 @@ describe('matchInOrder', () => {
     const targets = Float64Array.from(angles.flatMap((a) => [1.1 * Math.cos(a), 1.1 * Math.sin(a)]));
     const valid = new Uint8Array(m).fill(1);
     const index = new Int32Array(4);
-    matchInOrder(sampled(1, m), valid, targets, undefined, true, createMatchScratch(4, m), index);
+    matchInOrder(sampled(1, m), valid, targets, undefined, true, false, createMatchScratch(4, m), index);
     for (let i = 1; i < 4; i++) expect(index[i]).toBeGreaterThanOrEqual(index[i - 1]);
     index.forEach((u, i) => {
       const t = (u * TAU) / m;
@@ -58,7 +58,7 @@ describe('matchInOrder', () => {
     // Point 2 lies nearest sample 0 but must come after point 1 (near sample 18).
     const targets = Float64Array.from([Math.cos(1), Math.sin(1), -1, 0, 1, 0.01]);
     const index = new Int32Array(3);
-    matchInOrder(sampled(1, m), new Uint8Array(m).fill(1), targets, undefined, false, createMatchScratch(3, m), index);
+    matchInOrder(sampled(1, m), new Uint8Array(m).fill(1), targets, undefined, false, false, createMatchScratch(3, m), index);
     expect(index[0]).toBeLessThanOrEqual(index[1]);
     expect(index[1]).toBeLessThanOrEqual(index[2]);
     expect(index[1]).toBe(18);
@@ -70,7 +70,7 @@ describe('matchInOrder', () => {
     valid[9] = 0;
     const targets = Float64Array.from([1, 0, 0, 1, -1, 0]);
     const index = new Int32Array(3);
-    matchInOrder(sampled(1, m), valid, targets, undefined, false, createMatchScratch(3, m), index);
+    matchInOrder(sampled(1, m), valid, targets, undefined, false, false, createMatchScratch(3, m), index);
     expect(index[1]).not.toBe(9);
   });
 });

@@ -290,7 +290,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   /** Unprescribed timing with a fixed placement: match in order on the samples, refine. */
   function matchTiming(t: Float64Array, o: number): void {
     sampleCurve(0);
-    matchInOrder(samples, valid, targets, weights, wrap, matchScratch, matched);
+    matchInOrder(samples, valid, targets, weights, wrap, !closed, matchScratch, matched);
     const step = TAU / sampleCount;
     for (let i = 0; i < n; i++) t[o + i] = matched[i] * step;
     refineMatched(curve, t, o, step);
@@ -373,7 +373,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     for (let it = first; it < last; it++) {
       placeSamples();
       // The last match (first: the alignment's), near this one once the fit settles, bounds it and speeds it up.
-      matchInOrder(placedSamples, valid, targets, weights, wrap, matchScratch, matched, previousMatched);
+      matchInOrder(placedSamples, valid, targets, weights, wrap, !closed, matchScratch, matched, previousMatched);
       // The match repeats the last one: the fit below would repeat too, and so would every
       // later iteration (a fixed point), so stop with the same answer.
       let same = it > 0;
