@@ -29,8 +29,8 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
   const moved = new Float64Array(dim);
   const movedOut = new Float64Array(2);
   /** The moved design's value and violation, then the design's, as the objective gives them. */
-  const ranked = new Float64Array(2);
-  const rankedViolation = new Float64Array(2);
+  const compared = new Float64Array(2);
+  const comparedViolation = new Float64Array(2);
 
   /** Evaluates x as it is; returns the better branch. */
   function evaluateAsIs(x: Float64Array, out: Float64Array): number {
@@ -62,11 +62,11 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
     // Compared in arrays, ranked where they are compared: a double passed to or returned
     // from a call the compiler does not inline is boxed (canonicalInto's calls were not
     // always inlined here, three boxed numbers per evaluation).
-    ranked[0] = movedOut[0];
-    rankedViolation[0] = movedOut[1];
-    ranked[1] = out[0];
-    rankedViolation[1] = out[1];
-    if (!precedesRawAt(ranked, rankedViolation, 0, 1)) return false;
+    compared[0] = movedOut[0];
+    comparedViolation[0] = movedOut[1];
+    compared[1] = out[0];
+    comparedViolation[1] = out[1];
+    if (!precedesRawAt(compared, comparedViolation, 0, 1)) return false;
     x.set(moved);
     out[0] = movedOut[0];
     out[1] = movedOut[1];
