@@ -401,7 +401,7 @@ function boundedPass(
       // A run with a barrier (see matchInOrder) is never skipped: past its barrier the
       // least partial sum is not the run's least.
       const barrierRun = barriers && blockBarrier[runBlock[q]] === 1;
-      if (!before && runLeast[q] < rowLeast) rowLeast = runLeast[q];
+      if (barriers && !before && runLeast[q] < rowLeast) rowLeast = runLeast[q];
       // The least partial sum up to the run's end: the run's own least, kept when it was
       // written (its first index, as a scan keeping strict improvements would find).
       let runBest = best;

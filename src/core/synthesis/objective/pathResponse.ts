@@ -90,7 +90,7 @@ export const ALIGNMENT_ITERATIONS = 3;
  * Shares of the curve's arc length an open target's points are spread along when it is
  * aligned (matchPlacedTiming): the whole curve, and parts of it, since an open target
  * may follow any stretch of the curve. Aligned with the whole curve only, the generating
- * designs of open arcs over a sixth to three quarters of a turn scored up to a tenth of
+ * designs of open arcs over a sixth to three quarters of a turn scored up to 0.13 of
  * the target's size (bench/README.md, Reach).
  */
 export const OPEN_SPAN_SHARES: readonly number[] = [1, 0.6, 0.35, 0.2];
@@ -340,11 +340,11 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       return;
     }
     // Slots 1 …: the best along parts of the curve, in order, an earlier one first where two tie.
-    let at = 1 + partCount;
-    while (at > 1 && sse < startSse[at - 1]) at--;
-    if (at >= startSlots) return;
-    for (let c = Math.min(partCount, startSlots - 2) + 1; c > at; c--) copyStart(c - 1, c);
-    keepStart(at);
+    let slot = 1 + partCount;
+    while (slot > 1 && sse < startSse[slot - 1]) slot--;
+    if (slot >= startSlots) return;
+    for (let c = Math.min(partCount, startSlots - 2) + 1; c > slot; c--) copyStart(c - 1, c);
+    keepStart(slot);
     if (1 + partCount < startSlots) partCount++;
   }
 
