@@ -18,12 +18,18 @@ export const JOINT_FIT_ITERATIONS = 20;
 /** Halvings of a step at most, until the sum falls. */
 export const JOINT_FIT_HALVINGS = 4;
 /**
- * Gauss–Newton steps on the curve itself after the refinement has converged on the
- * samples' cubic (refineOnSamples): that answer is within the cubic's error of the
- * curve's, where one step converges.
+ * Gauss–Newton steps on the curve itself after the refinement on the samples' cubic
+ * (refineOnSamples). Where that refinement converged, its answer is within the cubic's
+ * error of the curve's and one step finishes it; mostly it stops first, at its step cap
+ * or a refused step, and this step goes on from there (it lowers one design in seven
+ * to ten by more than 0.4 % of its value: bench/README.md, Family rates).
  */
 export const JOINT_FIT_CURVE_ITERATIONS = 1;
-/** Halvings of that step: from the cubic's answer a full step fails to lower the sum only at rounding, where halving gains nothing. */
+/**
+ * Halvings of that step: from the cubic's answer a full step mostly lowers the sum or fails
+ * only at rounding, but on a few designs in a hundred only the halved step lowers it, by up
+ * to a few per cent of the value (bench/README.md, Family rates).
+ */
 export const JOINT_FIT_CURVE_HALVINGS = 1;
 /** Stop when a step lowers the sum by less than this share of it. */
 export const JOINT_FIT_REL_TOL = 1e-14;
