@@ -26,9 +26,9 @@ export const JOINT_FIT_HALVINGS = 4;
  */
 export const JOINT_FIT_CURVE_ITERATIONS = 1;
 /**
- * Halvings of that step: from the cubic's answer a full step mostly lowers the sum or fails
- * only at rounding, but on a few designs in a hundred only the halved step lowers it, by up
- * to a few per cent of the value (bench/README.md, Family rates).
+ * Halvings of that step: from the cubic's answer the full step lowers the sum on about two
+ * designs in five; of the others, the halved step lowers it on a few in a hundred, by up to
+ * a few per cent of the value (bench/README.md, Family rates).
  */
 export const JOINT_FIT_CURVE_HALVINGS = 1;
 /** Stop when a step lowers the sum by less than this share of it. */
