@@ -21,14 +21,13 @@ export const JOINT_FIT_HALVINGS = 4;
  * Gauss–Newton steps on the curve itself after the refinement on the samples' cubic
  * (refineOnSamples). Where that refinement converged, its answer is within the cubic's
  * error of the curve's and one step finishes it; mostly it stops first, at its step cap
- * or a refused step, and this step goes on from there (it lowers one design in seven
- * to ten by more than 0.4 % of its value: bench/README.md, Family rates).
+ * or a refused step, and this step goes on from there, lowering some designs' values by
+ * far more than rounding (bench/README.md, Family rates).
  */
 export const JOINT_FIT_CURVE_ITERATIONS = 1;
 /**
- * Halvings of that step: from the cubic's answer the full step lowers the sum on about two
- * designs in five; of the others, the halved step lowers it on a few in a hundred, by up to
- * a few per cent of the value (bench/README.md, Family rates).
+ * Halvings of that step: where the full step does not lower the sum, the halved one does
+ * on a few designs, by more than rounding (bench/README.md, Family rates).
  */
 export const JOINT_FIT_CURVE_HALVINGS = 1;
 /** Stop when a step lowers the sum by less than this share of it. */
