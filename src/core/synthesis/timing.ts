@@ -68,8 +68,8 @@ export interface MatchScratch {
    */
   readonly cost: Float64Array;
   /**
-   * rest[i]: Σ over points k ≥ i of point k's least cost anywhere on the curve (cyclic:
-   * of a lower bound on it, from the sample blocks; point 0's exact); rest[n] = 0.
+   * rest[i] (a cyclic match): Σ over points k ≥ i of a lower bound on point k's least
+   * cost anywhere on the curve, from the sample blocks (point 0's exact); rest[n] = 0.
    */
   readonly rest: Float64Array;
   readonly previous: Float64Array;
@@ -122,105 +122,72 @@ function blockCount(sampleCount: number): number {
   return Math.ceil(sampleCount / MATCH_BLOCK);
 }
 
-/** Fills scratch.cost once per match: every pass below reads it instead of recomputing. */
+/** A non-cyclic match's costs, every point against every sample, into scratch.cost. */
 function fillCosts(samples: Float64Array, valid: Uint8Array, targets: Float64Array, weights: Float64Array | undefined, s: MatchScratch): void {
   const m = s.sampleCount;
   const n = s.pointCount;
   const cost = s.cost;
-  const rest = s.rest;
-  rest[n] = 0;
-  for (let i = n - 1; i >= 0; i--) {
+  for (let i = 0; i < n; i++) {
     const qx = targets[2 * i];
     const qy = targets[2 * i + 1];
     const w = weights === undefined ? 1 : weights[i];
     const row = i * m;
-    let least = Infinity;
     for (let j = 0; j < m; j++) {
       if (valid[j] === 0) {
         cost[row + j] = Infinity;
       } else {
         const dx = samples[2 * j] - qx;
         const dy = samples[2 * j + 1] - qy;
-        const c = w * (dx * dx + dy * dy);
-        cost[row + j] = c;
-        if (c < least) least = c;
+        cost[row + j] = w * (dx * dx + dy * dy);
       }
     }
-    rest[i] = least + rest[i + 1];
   }
 }
 
 /**
- * One monotone pass over the costs: sample index `first + u` (mod M) for u in 0..M-1,
- * point 0 limited to u ≤ firstSpan. Writes the chosen u per point into
- * scratch.unrolled and returns the cost. Returns Infinity without writing when no sum
- * is finite, and as soon as a lower bound on every completion (the least partial sum
- * plus each remaining point's least cost) shows the pass cannot beat `bound`: cannot
- * reach it when `tieWins`, cannot go below it otherwise. `barriers` (the samples' valid
- * flags, or null for none): a sample that does not assemble parts the points on either
- * side of it (matchInOrder).
+ * The in-order programme of a non-cyclic match over scratch.cost: each point's sample
+ * index at least the one before. Writes the chosen index per point into
+ * scratch.unrolled and returns the cost; Infinity without writing when no sum is finite.
+ * `barriers` (the samples' valid flags, or null for none): a sample that does not
+ * assemble parts the points on either side of it (matchInOrder).
  */
-function monotonePass(first: number, firstSpan: number, bound: number, tieWins: boolean, s: MatchScratch, barriers: Uint8Array | null): number {
+function monotonePass(s: MatchScratch, barriers: Uint8Array | null): number {
   const m = s.sampleCount;
   const n = s.pointCount;
   const cost = s.cost;
-  const rest = s.rest;
   // The row of partial sums, updated in place: cell u reads its old value before writing.
   const sums = s.previous;
   const arg = s.argPrevious;
-  // u < split reads sample first + u; u ≥ split reads u − split (past the end of the loop).
-  const split = m - first;
-  for (let u = 0; u < m; u++) {
-    const j = u < split ? first + u : u - split;
-    sums[u] = u <= firstSpan ? cost[j] : Infinity;
-  }
+  for (let u = 0; u < m; u++) sums[u] = cost[u];
   for (let i = 1; i < n; i++) {
     const row = i * m;
-    const shift = row + first;
-    const wrapShift = row - split;
     let best = Infinity;
     let bestU = 0;
-    // The least sum over points 0 … i − 1 wherever it lies: best itself without barriers.
-    let least = Infinity;
+    // Two loops, not one test per cell: without barriers the common case tests nothing.
     if (barriers === null) {
-      for (let u = 0; u < split; u++) {
+      for (let u = 0; u < m; u++) {
         const here = sums[u];
         if (here < best) {
           best = here;
           bestU = u;
         }
         arg[row + u] = bestU;
-        sums[u] = best + cost[shift + u];
+        sums[u] = best + cost[row + u];
       }
-      for (let u = split; u < m; u++) {
-        const here = sums[u];
-        if (here < best) {
-          best = here;
-          bestU = u;
-        }
-        arg[row + u] = bestU;
-        sums[u] = best + cost[wrapShift + u];
-      }
-      least = best;
     } else {
       for (let u = 0; u < m; u++) {
-        const j = u < split ? first + u : u - split;
         const here = sums[u];
         // A sample that does not assemble: the motion cannot pass it, so no point before
         // it is followed by one after it.
-        if (barriers[j] === 0) best = Infinity;
+        if (barriers[u] === 0) best = Infinity;
         else if (here < best) {
           best = here;
           bestU = u;
         }
-        if (here < least) least = here;
         arg[row + u] = bestU;
-        sums[u] = best + cost[row + j];
+        sums[u] = best + cost[row + u];
       }
     }
-    // least: the least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
-    const lower = (least + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
-    if (tieWins ? lower > bound : lower >= bound) return Infinity;
   }
   let best = Infinity;
   let bestU = 0;
@@ -230,7 +197,7 @@ function monotonePass(first: number, firstSpan: number, bound: number, tieWins: 
       bestU = u;
     }
   }
-  return unrollBest(s, best, bestU, bound, tieWins);
+  return unrollBest(s, best, bestU, Infinity, true);
 }
 
 /**
@@ -580,7 +547,7 @@ export function matchInOrder(
   for (let j = 0; barriers && j < m && !barred; j++) barred = valid[j] === 0;
   if (!cyclic) {
     fillCosts(samples, valid, targets, weights, scratch);
-    const total = monotonePass(0, m - 1, Infinity, true, scratch, barred ? valid : null);
+    const total = monotonePass(scratch, barred ? valid : null);
     for (let i = 0; i < n; i++) outIndex[i] = total < Infinity ? scratch.unrolled[i] : 0;
     return total;
   }
