@@ -79,6 +79,7 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
   const out = new Float64Array(2);
   let values = new Float64Array(0);
   let violations = new Float64Array(0);
+  let dropped = new Uint8Array(0);
   const t0 = performance.now();
   for (let round = 0; round < MAX_ROUNDS && !opt.done(); round++) {
     const points = opt.ask();
@@ -87,10 +88,14 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
     if (values.length !== n) {
       values = new Float64Array(n);
       violations = new Float64Array(n);
+      dropped = new Uint8Array(n);
     }
+    opt.infeasibleDroppedInto(dropped);
     for (let k = 0; k < n; k++) {
-      // As the island evaluates (workers/island.ts): a fixed placement's design moved onto its fitted placement where that ranks better.
-      objective.evaluate(objective.fromSearchBoxInto(points[k], x), out);
+      // As the island evaluates (workers/island.ts; it keeps no archive here): stopped early where
+      // the search drops the design if infeasible, and a fixed placement's design moved onto its
+      // fitted placement where that ranks better.
+      objective.evaluate(objective.fromSearchBoxInto(points[k], x), out, dropped[k] === 1);
       objective.placeBetter?.(x, out);
       values[k] = out[0];
       violations[k] = out[1];

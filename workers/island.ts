@@ -110,6 +110,8 @@ export class Island {
   /** A batch's values and violations, one view per batch size (a shrinking population changes it every generation). */
   private readonly values = new PrefixViews();
   private readonly violations = new PrefixViews();
+  /** Per point of a batch, 1 where the search drops it if it is infeasible (evaluateInto); grown to the largest batch. */
+  private dropped = new Uint8Array(0);
 
   private constructor(config: IslandConfig, objective: SearchObjective, optimizer: Optimizer, archive: CandidateArchive) {
     this.config = config;
@@ -205,8 +207,10 @@ export class Island {
       if (n === 0) break;
       const values = this.values.get(n);
       const violations = this.violations.get(n);
+      const dropped = this.droppedFor(n);
       try {
-        for (let k = 0; k < n; k++) this.evaluateInto(points[k], k, values, violations);
+        // The archive, offered each design as it is evaluated, must refuse an infeasible one too.
+        for (let k = 0; k < n; k++) this.evaluateInto(points[k], k, values, violations, dropped[k] === 1 && !this.archive.takesInfeasible());
       } catch (error) {
         // this.real holds the design being evaluated when it threw.
         throw objectiveError(this.config.islandId, this.real, error);
@@ -268,10 +272,17 @@ export class Island {
     };
   }
 
-  private evaluateInto(u: Float64Array, k: number, values: Float64Array, violations: Float64Array): void {
+  /** For the batch just asked: 1 where the search drops point k if it is infeasible (Optimizer.infeasibleDroppedInto). */
+  private droppedFor(n: number): Uint8Array {
+    if (this.dropped.length < n) this.dropped = new Uint8Array(n);
+    this.optimizer.infeasibleDroppedInto(this.dropped);
+    return this.dropped;
+  }
+
+  private evaluateInto(u: Float64Array, k: number, values: Float64Array, violations: Float64Array, droppedIfInfeasible: boolean): void {
     const o = this.objective;
     const x = o.fromSearchBoxInto(u, this.real);
-    o.evaluate(x, this.out);
+    o.evaluate(x, this.out, droppedIfInfeasible);
     // A fixed placement's design moved onto the placement that fits it, where that ranks better.
     o.placeBetter?.(x, this.out);
     canonicalInto(this.out, this.outViolation, 0, values, violations, k);

@@ -12,8 +12,12 @@ export interface SearchObjective {
   fromSearchBoxInto(u: ArrayLike<number>, x: Float64Array): Float64Array;
   /** A box point standing for design x: how immigrants re-enter the search. */
   toSearchBoxInto(x: ArrayLike<number>, u: Float64Array): Float64Array;
-  /** out[0] = value, out[1] = violation (0 feasible). May write a repaired x back. No allocation. */
-  evaluate(x: Float64Array, out: Float64Array): void;
+  /**
+   * out[0] = value, out[1] = violation (0 feasible). May write a repaired x back. No
+   * allocation. `droppedIfInfeasible`: the search drops x if it is infeasible, so the
+   * objective may stop once it knows that (Infinity for both).
+   */
+  evaluate(x: Float64Array, out: Float64Array, droppedIfInfeasible?: boolean): void;
   /** Right after evaluate(x, out): x moved onto a better placement, where the objective has one (the synthesis Objective's placeBetter). */
   readonly placeBetter?: (x: Float64Array, out: Float64Array) => boolean;
   /** A full report of one design (allocates). */

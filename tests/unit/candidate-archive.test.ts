@@ -106,6 +106,28 @@ describe('the archive of distinct designs', () => {
     }
   });
 
+  it('says it takes no infeasible design only where the model refuses every one (an island then stops such evaluations early)', () => {
+    let refusing = 0;
+    for (const [seed, capacity, distance] of [[6, 8, 0.05], [7, 3, 0.2], [8, 64, 0.01]] as const) {
+      const archive = new CandidateArchive(capacity, distance, LOWER, UPPER);
+      const model = new ModelArchive(capacity, distance, LOWER, UPPER);
+      for (const d of designs(seed, 600, distance)) {
+        if (!archive.takesInfeasible()) {
+          refusing++;
+          // The least violation there is, at the design's own place and at a fresh one.
+          for (const x of [d.x, LOWER.map((lo, j) => (lo + UPPER[j]) / 2)]) {
+            const probe = new ModelArchive(capacity, distance, LOWER, UPPER);
+            probe.list = [...model.list];
+            expect(probe.offer({ x, value: -1e300, violation: Number.MIN_VALUE })).toBe(false);
+          }
+        }
+        archive.offer(d.x, d.value, d.violation);
+        model.offer(d);
+      }
+    }
+    expect(refusing).toBeGreaterThan(100);
+  });
+
   it('holds at most its capacity, pairwise distinct, ranked, with the best offered design first', () => {
     const capacity = 12;
     const distance = 0.05;

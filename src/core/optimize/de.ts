@@ -210,6 +210,14 @@ export class DifferentialEvolution extends BatchOptimizerBase implements Optimiz
     else batch.clear();
   }
 
+  /** A trial meets its parent one to one: an infeasible trial is dropped wherever its parent is feasible (the initial population keeps every point). */
+  infeasibleDroppedInto(out: Uint8Array): void {
+    const count = this.batch.count;
+    const parents = this.violations;
+    const evolving = this.phase === 'evolve';
+    for (let k = 0; k < count; k++) out[k] = evolving && parents[k] <= 0 ? 1 : 0;
+  }
+
   takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
     checkImmigrants(immigrants, this.dim);
     if (this.stop !== null) return IMMIGRATION_NEVER;

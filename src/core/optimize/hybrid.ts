@@ -149,6 +149,18 @@ export class Hybrid extends OptimizerBase implements Optimizer {
     this.nextPolish();
   }
 
+  /** The running part's, where the candidates to polish take no infeasible point of the batch (a polish drops none anyway). */
+  infeasibleDroppedInto(out: Uint8Array): void {
+    const part = this.stop === null ? this.part() : null;
+    if (part === null) return;
+    const points = part.ask();
+    if (this.phase === 'global' && !this.candidates.refusesInfeasibleThrough(points)) {
+      out.fill(0, 0, points.length);
+      return;
+    }
+    part.infeasibleDroppedInto(out);
+  }
+
   /** Into the global search's population while it runs (not the candidates: they are points this search evaluated); never into a polish. */
   takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
     checkImmigrants(immigrants, this.dim);

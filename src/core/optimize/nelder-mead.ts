@@ -253,6 +253,11 @@ export class NelderMead extends BatchOptimizerBase implements Optimizer {
     }
   }
 
+  /** Every point asked is compared by its value: none is dropped whatever its value. */
+  infeasibleDroppedInto(out: Uint8Array): void {
+    out.fill(0, 0, this.batch.count);
+  }
+
   /** Never: an outside point would break the simplex's geometry. */
   takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
     checkImmigrants(immigrants, this.dim);

@@ -220,6 +220,11 @@ export class Restart implements Optimizer {
     return this.pastEvaluations + this.inner.evaluations();
   }
 
+  /** The current run's: the basins' penalty only adds to a violation, and every best kept is a run's. */
+  infeasibleDroppedInto(out: Uint8Array): void {
+    if (this.stop === null) this.inner.infeasibleDroppedInto(out);
+  }
+
   /** Into the current run. The run's stagnation clock is left alone: it sees an immigrant as an improvement at the next tell, as it sees any. */
   takeImmigrants(immigrants: readonly Immigrant[]): Immigration {
     checkImmigrants(immigrants, this.dim);

@@ -39,6 +39,15 @@ export interface Optimizer {
    * switches on feasibility-first ranking (Deb, 2000). Throws if `points` is not that batch.
    */
   tell(points: readonly Float64Array[], values: Float64Array, violations?: Float64Array): void;
+  /**
+   * For the batch of the last `ask()`: out[k] = 1 where point k, if it is infeasible, is
+   * dropped whatever its value and violation (it must rank before a feasible point to be
+   * kept, and nothing else this search keeps takes an infeasible point now), else 0. An
+   * evaluation may then stop as soon as it knows point k infeasible and tell it with any
+   * violation > 0: the search goes on as if it had been evaluated in full. This is the
+   * early abandoning of a design that cannot beat the population (issue #13).
+   */
+  infeasibleDroppedInto(out: Uint8Array): void;
   best(): BestPoint;
   done(): boolean;
   /** Why the search stopped, or null while it runs. */

@@ -157,6 +157,13 @@ export class CandidateArchive {
     return true;
   }
 
+  /** Whether an infeasible design may enter now: not when the archive is full and its worst entry is feasible. */
+  takesInfeasible(): boolean {
+    const n = this.count;
+    if (n < this.capacity) return true;
+    return !(this.violations[n - 1] <= 0);
+  }
+
   /** Whether `x` lies inside the bounds given at construction (to validate restored designs). */
   fits(x: ArrayLike<number>): boolean {
     if (x.length !== this.dim) return false;

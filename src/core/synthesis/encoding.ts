@@ -135,6 +135,12 @@ export interface MechanismEncoding {
    */
   verify(spans: Float64Array, count: number, parts: Float64Array): void;
   /**
+   * The loaded design certainly cannot turn its driver through a whole turn (false where
+   * that is not known): then any motion over a whole turn, as a closed path's is, makes
+   * the design infeasible, whatever its timing and placement. Cheap; allocates nothing.
+   */
+  cannotTurn(): boolean;
+  /**
    * Runs the loaded design from driver value `from` to `to` in `steps` equal steps (both
    * ends taken), placed by `placement` ([a, b, tx, ty]), and writes into `out` (EXTENT_*)
    * the bounding box of every joint and point and the largest |cos μ| of its four-bar

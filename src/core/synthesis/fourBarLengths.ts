@@ -282,6 +282,18 @@ export function createFourBarLengths(placement: Placement, constraints: Constrai
     verify(): void {
       // Everything above is exact already: Grashof's sum and the loop's closure condition.
     },
+    cannotTurn(): boolean {
+      // The closure condition of motion over the whole range of cos θ2, as motion reads it:
+      // spans that cover a turn reach cos θ2 = −1 and 1 exactly (cosRangeInto).
+      const r1 = p[R1];
+      const r2 = p[R2];
+      const r3 = p[R3];
+      const r4 = p[R4];
+      const k = 2 * r1 * r2;
+      const cLo = (r1 * r1 + r2 * r2 - (r3 + r4) * (r3 + r4)) / k;
+      const cHi = (r1 * r1 + r2 * r2 - (r3 - r4) * (r3 - r4)) / k;
+      return !(cLo <= -1 && cHi >= 1);
+    },
     report(t: number, sa: number, sb: number, tx: number, ty: number): EncodingReport {
       fourBarJointsInto(p, 0, t, curve.sign, joints);
       const point = new Float64Array(CURVE_OUT_LENGTH);

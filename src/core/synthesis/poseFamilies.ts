@@ -74,7 +74,7 @@ import {
 } from './encoding';
 import { POSE_FAMILY_BUILDERS, poseVariableNames } from './familyVariables';
 import { crankViolationInto, inputTurnsFully } from './grashofTurn';
-import { LOCK_ARC_LENGTH, LockSearch, fourBarLockArcs, fourBarLockCount, type MarginCurve } from './lockSearch';
+import { LOCK_ARC_HALF_FAR, LOCK_ARC_HALF_NEAR, LOCK_ARC_LENGTH, LockSearch, fourBarLockArcs, fourBarLockCount, type MarginCurve } from './lockSearch';
 import type { Constraints, FamilyId } from './problem';
 
 // Imported constants and kernel entries as locals: a module transform (tsx, vitest) may
@@ -1141,6 +1141,21 @@ class PlanCurve implements CurveEvaluator, MarginCurve {
   }
 }
 
+/**
+ * The motion over spans (from, to) spans[2i], spans[2i + 1] reaches a whole turn: the
+ * spans of a path's motion (pathResponse.ts) each start or end where the one before ends
+ * or starts, so together they cover their least start to their greatest end.
+ */
+function spansCoverTurn(spans: Float64Array, count: number): boolean {
+  let from = Infinity;
+  let to = -Infinity;
+  for (let i = 0; i < count; i++) {
+    if (spans[2 * i] < from) from = spans[2 * i];
+    if (spans[2 * i + 1] > to) to = spans[2 * i + 1];
+  }
+  return to - from >= TAU;
+}
+
 export function createPoseFamily(family: PoseFamilyId, constraints: Constraints, frame: TargetFrame): MechanismEncoding {
   const source = BUILDERS[family]();
   const compiled = compile(source);
@@ -1173,6 +1188,11 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
   // The four-bar's locks along a motion: its crank's limit angles, in closed form.
   const lockArcs = new Float64Array(LOCK_ARC_LENGTH);
   const fourBarSlots = family === 'fourbar' ? Int32Array.from(['A0', 'A', 'B', 'B0'].map(slotOfJoint)) : undefined;
+  // The slider-crank's crank pivot, crank pin and slider pin, and its slide's direction (cannotTurn).
+  const slideSlots = family === 'slider-crank' ? Int32Array.from(['A0', 'A', 'B'].map(slotOfJoint)) : undefined;
+  const slideAngle = source.sliders?.[0]?.angle ?? 0;
+  const slideCos = Math.cos(slideAngle);
+  const slideSin = Math.sin(slideAngle);
   const fullTurn = constraints.fullTurnCrank === true;
   const cosLimit = transmissionCosLimit(constraints.minTransmissionRad);
   const linkLimits = constraints.linkLengthMm;
@@ -1293,6 +1313,63 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
     return true;
   }
 
+  /**
+   * The loaded design certainly cannot turn its driver through a whole turn: the four-bar
+   * loop that holds the driven link has a lock arc (closed form), the slider-crank's rod
+   * cannot reach its slide at every crank angle, or, with a Newton block, the sweep from
+   * the reference pose found values it cannot reach or a motion that does not close after
+   * a turn (turnsOn). False says nothing: a six-bar may lock elsewhere.
+   */
+  function cannotTurn(): boolean {
+    if (driven !== undefined) {
+      const j = driven.joints;
+      fourBarLockArcs(plan.reference, 2 * j[0], 2 * j[1], 2 * j[2], 2 * j[3], lockArcs);
+      return lockArcs[LOCK_ARC_HALF_NEAR] >= 0 || lockArcs[LOCK_ARC_HALF_FAR] >= 0;
+    }
+    if (slideSlots !== undefined) {
+      // The crank pin comes as far from the slide as the pivot's offset from it plus the
+      // crank: the rod reaches the slide all round only while that is less than its length.
+      const ref = plan.reference;
+      const a0 = slideSlots[0];
+      const a = slideSlots[1];
+      const b = slideSlots[2];
+      const crank = Math.sqrt((ref[a] - ref[a0]) ** 2 + (ref[a + 1] - ref[a0 + 1]) ** 2);
+      const rod = Math.sqrt((ref[b] - ref[a]) ** 2 + (ref[b + 1] - ref[a + 1]) ** 2);
+      const offset = Math.abs((ref[a0] - ref[b]) * slideSin - (ref[a0 + 1] - ref[b + 1]) * slideCos);
+      return !(crank + offset < rod);
+    }
+    return !curve.turnsOn;
+  }
+
+  /** The locks `verify` looks for: the full turn's, the four-bar's in closed form, or an exact search of each run of spans. */
+  function verifyLocks(spans: Float64Array, count: number, parts: Float64Array): void {
+    if (fullTurn) {
+      // Grashof's criterion in load was exact already.
+      if (grashofLoop === undefined) parts[V_CRANK] += LOCK_SHARE * fullTurnLocks();
+      return;
+    }
+    if (fourBarSlots !== undefined) {
+      fourBarLockArcs(plan.reference, fourBarSlots[0], fourBarSlots[1], fourBarSlots[2], fourBarSlots[3], lockArcs);
+      parts[V_BRANCH] += LOCK_SHARE * fourBarLockCount(lockArcs, spans, count);
+      return;
+    }
+    // Spans that follow on from each other (the motion from point to point) searched as
+    // one range: a span's end is no minimum of the margin the motion goes on past.
+    curve.reset();
+    let i = 0;
+    while (i < count) {
+      const a = spans[2 * i];
+      let b = spans[2 * i + 1];
+      i++;
+      while (i < count && spans[2 * i] === b && spans[2 * i + 1] >= b) {
+        b = spans[2 * i + 1];
+        i++;
+      }
+      parts[V_BRANCH] += LOCK_SHARE * lockSearch.count(curve, a, b, MOTION_CHECK_STEP_RAD, false, lockGridRad);
+    }
+    curve.reset();
+  }
+
   /** Locks met in a full turn from the reference pose, found exactly. */
   function fullTurnLocks(): number {
     curve.reset();
@@ -1362,32 +1439,14 @@ export function createPoseFamily(family: PoseFamilyId, constraints: Constraints,
       curve.atIo(0, point);
       motionFailures(span, parts, V_BRANCH);
     },
+    cannotTurn,
     verify(spans: Float64Array, count: number, parts: Float64Array): void {
-      if (fullTurn) {
-        // Grashof's criterion in load was exact already.
-        if (grashofLoop === undefined) parts[V_CRANK] += LOCK_SHARE * fullTurnLocks();
-        return;
-      }
-      if (fourBarSlots !== undefined) {
-        fourBarLockArcs(plan.reference, fourBarSlots[0], fourBarSlots[1], fourBarSlots[2], fourBarSlots[3], lockArcs);
-        parts[V_BRANCH] += LOCK_SHARE * fourBarLockCount(lockArcs, spans, count);
-        return;
-      }
-      // Spans that follow on from each other (the motion from point to point) searched as
-      // one range: a span's end is no minimum of the margin the motion goes on past.
-      curve.reset();
-      let i = 0;
-      while (i < count) {
-        const a = spans[2 * i];
-        let b = spans[2 * i + 1];
-        i++;
-        while (i < count && spans[2 * i] === b && spans[2 * i + 1] >= b) {
-          b = spans[2 * i + 1];
-          i++;
-        }
-        parts[V_BRANCH] += LOCK_SHARE * lockSearch.count(curve, a, b, MOTION_CHECK_STEP_RAD, false, lockGridRad);
-      }
-      curve.reset();
+      verifyLocks(spans, count, parts);
+      // A motion over a whole turn by a design that cannot make one meets a lock, though
+      // the samples and the search may step over a narrow one: charged as one, so that
+      // cannotTurn never names a design feasible (the objective stops early on it).
+      const slot = fullTurn ? V_CRANK : V_BRANCH;
+      if (parts[V_CRANK] + parts[V_BRANCH] <= 0 && (fullTurn || spansCoverTurn(spans, count)) && cannotTurn()) parts[slot] += LOCK_SHARE;
     },
     sweepExtent(from: number, to: number, steps: number, placement: Float64Array, out: Float64Array): number {
       resetExtent(out);

@@ -32,10 +32,10 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
   const compared = new Float64Array(2);
   const comparedViolation = new Float64Array(2);
 
-  /** Evaluates x as it is; returns the better branch. */
-  function evaluateAsIs(x: Float64Array, out: Float64Array): number {
-    const best = response.evaluateAll(x);
-    if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
+  /** Evaluates x as it is (see evaluate); returns the better branch. */
+  function evaluateAsIs(x: Float64Array, out: Float64Array, droppedIfInfeasible: boolean): number {
+    const best = response.evaluateAll(x, droppedIfInfeasible);
+    if (refineFree && !response.stoppedEarly()) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
     out[0] = evaluation[2 * best];
     out[1] = evaluation[2 * best + 1];
     return best;
@@ -44,12 +44,17 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
   /** The better branch of the design evaluate saw last. */
   let lastBest = 0;
 
-  function evaluate(x: Float64Array, out: Float64Array): void {
-    lastBest = evaluateAsIs(x, out);
+  function evaluate(x: Float64Array, out: Float64Array, droppedIfInfeasible = false): void {
+    lastBest = evaluateAsIs(x, out, droppedIfInfeasible);
   }
 
-  /** See the header; called right after evaluate(x, out), with the same x and out. */
+  /**
+   * See the header; called right after evaluate(x, out), with the same x and out. Not
+   * where that evaluation stopped early: the design cannot turn, nor can any placement of
+   * it, and the search drops both.
+   */
   function placeBetter(x: Float64Array, out: Float64Array): boolean {
+    if (response.stoppedEarly()) return false;
     if (!response.fitPlacement(x, lastBest, encoding.placementTurns, fitted)) return false;
     const a = fitted[SIM_A];
     const b = fitted[SIM_B];
@@ -58,7 +63,7 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
     encoding.placeDesignInto(x, fitted, lower, upper, moved);
     for (let j = 0; j < m; j++) if (!(moved[j] >= lower[j] && moved[j] <= upper[j])) return false;
     for (let j = m; j < dim; j++) moved[j] = x[j];
-    evaluateAsIs(moved, movedOut);
+    evaluateAsIs(moved, movedOut, false);
     // Compared in arrays, ranked where they are compared: a double passed to or returned
     // from a call the compiler does not inline is boxed (canonicalInto's calls were not
     // always inlined here, three boxed numbers per evaluation).

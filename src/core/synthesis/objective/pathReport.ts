@@ -49,7 +49,7 @@ export function describePathDesign(problem: Problem, family: FamilyId, space: Pa
   const best = response.evaluateAll(x);
   if (refineFree) for (let i = 0; i < n; i++) x[m + i] = times[best * n + i];
   // Leave the scratch (points, parts, sim, unwrapped) describing the kept branch.
-  response.evaluateBranch(x, best);
+  response.evaluateBranch(x, best, false);
   const value = evaluation[2 * best];
   let violation = evaluation[2 * best + 1];
   const defects = violatedSlotNames(parts, V_SLOTS, DEFECT_NAMES);

@@ -121,10 +121,17 @@ export interface PathResponse {
   readonly refineFree: boolean;
   /** The size limit and terms (pathExtent.ts) of the branch evaluated last; null when the problem has none. */
   readonly extent: PathExtent | null;
-  /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
-  evaluateBranch(x: Float64Array, k: number): void;
-  /** Evaluates every branch; returns the best one's index. */
-  evaluateAll(x: Float64Array): number;
+  /**
+   * Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …].
+   * With `droppedIfInfeasible` (the search drops the design if it is infeasible, see
+   * Optimizer.infeasibleDroppedInto) it may stop as soon as it knows the design
+   * infeasible, writing Infinity for both and returning false; true when evaluated in full.
+   */
+  evaluateBranch(x: Float64Array, k: number, droppedIfInfeasible: boolean): boolean;
+  /** Evaluates every branch (evaluateBranch); returns the best one's index. */
+  evaluateAll(x: Float64Array, droppedIfInfeasible?: boolean): number;
+  /** Whether evaluateAll stopped early on some branch of the design it evaluated last: its outputs are not that design's. */
+  stoppedEarly(): boolean;
   /** The placement that fits x's branch k to the target (see the function), right after evaluateAll(x). */
   fitPlacement(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean;
 }
@@ -524,10 +531,17 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   }
 
   /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
-  function evaluateBranch(x: Float64Array, k: number): void {
+  function evaluateBranch(x: Float64Array, k: number, droppedIfInfeasible: boolean): boolean {
     parts.fill(0);
     boxViolationInto(x, lower, upper, dim, parts, V_BOUNDS);
     encoding.load(x, k, parts);
+    // A closed path's motion is a whole turn (the spans below cover one whatever the
+    // timing), which a design that cannot turn does not make: infeasible before its fit.
+    if (droppedIfInfeasible && closed && encoding.cannotTurn()) {
+      evaluation[2 * k] = Infinity;
+      evaluation[2 * k + 1] = Infinity;
+      return false;
+    }
     const o = k * n;
     if (timing.mode === 'prescribed') {
       for (let i = 0; i < n; i++) times[o + i] = driverValues[i];
@@ -630,11 +644,16 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       evaluation[slot + 1] += extent.figures[PE_SIZE_VIOLATION] + extent.figures[PE_TRANSMISSION_VIOLATION];
       evaluation[slot] += extent.figures[PE_PENALTY];
     }
+    return true;
   }
 
+  /** Whether evaluateAll stopped early on the design it evaluated last. */
+  let stopped = false;
+
   /** Evaluates every branch; returns the best one's index. */
-  function evaluateAll(x: Float64Array): number {
-    for (let k = 0; k < branchCount; k++) evaluateBranch(x, k);
+  function evaluateAll(x: Float64Array, droppedIfInfeasible = false): number {
+    stopped = false;
+    for (let k = 0; k < branchCount; k++) if (!evaluateBranch(x, k, droppedIfInfeasible)) stopped = true;
     return bestRanked(evaluation, branchCount);
   }
 
@@ -660,5 +679,23 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     return similarityFitInto(fitSource, targets, n, out, weights ?? null, turns);
   }
 
-  return { n, branchCount, evaluation, parts, times, unwrapped, points, branchPoints, d2, sim, weights, refineFree, extent, evaluateBranch, evaluateAll, fitPlacement };
+  return {
+    n,
+    branchCount,
+    evaluation,
+    parts,
+    times,
+    unwrapped,
+    points,
+    branchPoints,
+    d2,
+    sim,
+    weights,
+    refineFree,
+    extent,
+    evaluateBranch,
+    evaluateAll,
+    stoppedEarly: () => stopped,
+    fitPlacement,
+  };
 }

@@ -72,9 +72,12 @@ export interface SearchObjectiveOf<Family extends string, Report> {
    * One evaluation: out[0] = value of the problem's measure, out[1] = constraint
    * violation (0 feasible, > 0 otherwise). No allocation. With free timing and
    * `refine`, the refined driver values are written back into x (Lamarckian), so the
-   * value is that of the x the caller then holds.
+   * value is that of the x the caller then holds. `droppedIfInfeasible`: the search drops
+   * this design if it is infeasible, whatever its value (Optimizer.infeasibleDroppedInto);
+   * the objective may then stop as soon as it knows the design infeasible and write
+   * Infinity for both.
    */
-  evaluate(x: Float64Array, out: Float64Array): void;
+  evaluate(x: Float64Array, out: Float64Array, droppedIfInfeasible?: boolean): void;
   /**
    * A path problem with a fixed placement: right after evaluate(x, out), tries the design
    * moved onto the placement that fits it to the target best (pathObjective.ts); where the
