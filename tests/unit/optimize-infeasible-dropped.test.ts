@@ -105,35 +105,44 @@ describe('points marked as dropped if infeasible: told anything infeasible, the 
   });
 });
 
-describe('a list of distinct points refuses an infeasible point of a batch only when certain to', () => {
-  const at = (...u: number[]) => Float64Array.from(u);
-
-  it('not while it has room, or while its worst entry is infeasible', () => {
+describe('a list of distinct points takes an infeasible point while it has room or holds one', () => {
+  it('not once it is full of feasible points, nor with no room at all', () => {
     const elite = new DistinctElite(1, 2, 0.01);
-    expect(elite.refusesInfeasibleThrough([at(0.5)])).toBe(false);
+    expect(elite.takesInfeasible()).toBe(true);
     elite.offer([0.1], 1, 0);
-    expect(elite.refusesInfeasibleThrough([at(0.5)])).toBe(false);
+    expect(elite.takesInfeasible()).toBe(true);
     elite.offer([0.9], 5, 0.1);
-    expect(elite.refusesInfeasibleThrough([at(0.5)])).toBe(false);
+    expect(elite.takesInfeasible()).toBe(true);
     expect(elite.offer([0.7], 9, 0)).toBe(true);
-    expect(elite.refusesInfeasibleThrough([at(0.5)])).toBe(true);
+    expect(elite.takesInfeasible()).toBe(false);
     expect(elite.offer([0.5], 0, 1e-9)).toBe(false);
+    expect(new DistinctElite(3, 0, 0.01).takesInfeasible()).toBe(false);
   });
+});
 
-  it('not where a point of the batch lies near two entries, or near an entry and a point before it: that offer may free a place', () => {
-    const elite = new DistinctElite(1, 2, 0.1);
-    elite.offer([0.3], 1, 0);
-    elite.offer([0.45], 2, 0);
-    expect(elite.refusesInfeasibleThrough([at(0.9), at(0.1)])).toBe(true);
-    expect(elite.refusesInfeasibleThrough([at(0.38)])).toBe(false);
-    expect(elite.refusesInfeasibleThrough([at(0.2), at(0.25)])).toBe(false);
-    // What such a batch can do: the first point takes both places, and an infeasible one then enters.
-    expect(elite.offer([0.38], 0.5, 0)).toBe(true);
-    expect(elite.count).toBe(1);
-    expect(elite.offer([0.9], 3, 0.2)).toBe(true);
-  });
-
-  it('with no room at all, always', () => {
-    expect(new DistinctElite(3, 0, 0.01).refusesInfeasibleThrough([at(0.5, 0.5, 0.5)])).toBe(true);
+describe("the hybrid's candidates to polish, full of feasible points when a batch is asked", () => {
+  it('take none of its infeasible points, though an offer of the batch frees a place', () => {
+    // Two candidates 0.08 apart (radius 0.05 in one variable), then a batch whose first
+    // point, better than both and near both, takes both places; the second is infeasible.
+    const hybrid = make({ kind: 'hybrid', dim: 1, maxEvaluations: 400, seed: 2, polishCount: 2, distinctDistance: 0.05, global: { kind: 'de-rand-1-bin', population: 4 } });
+    const candidates = (hybrid as unknown as { candidates: DistinctElite }).candidates;
+    candidates.offer([0.4], 2, 0);
+    candidates.offer([0.48], 3, 0);
+    const points = hybrid.ask();
+    const n = points.length;
+    const values = new Float64Array(n).fill(50);
+    const violations = new Float64Array(n);
+    // Told in the batch's order: a point at 0.44 (near both) ranks first; infeasible ones after it.
+    // (The batch's points are rewritten in place, which a caller must not do, to set the scene.)
+    points[0][0] = 0.44;
+    values[0] = 1;
+    points[1][0] = 0.9;
+    violations[1] = 0.3;
+    for (let k = 2; k < n; k++) {
+      points[k][0] = 0.1 + 0.01 * k;
+      violations[k] = 0.5;
+    }
+    hybrid.tell(points, values, violations);
+    expect(Array.from(candidates.x.subarray(0, candidates.count))).toEqual([0.44]);
   });
 });

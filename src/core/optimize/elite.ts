@@ -107,24 +107,11 @@ export class DistinctElite {
     return Math.sqrt(sum / p.length) <= this.radius;
   }
 
-  /**
-   * Whether offering `points` in order leaves no room for an infeasible one at any of the
-   * offers: the list is full, its worst entry feasible, and no point lies near two of the
-   * entries or of the points before it (only such an offer can shrink the list, by taking
-   * the place of several near it). False where that is not certain.
-   */
-  refusesInfeasibleThrough(points: readonly Float64Array[]): boolean {
+  /** Whether an infeasible point may enter now: not when the list is full and its worst entry feasible, nor when it has no room at all. */
+  takesInfeasible(): boolean {
     const n = this.count;
-    if (this.capacity === 0) return true;
-    if (n < this.capacity || !(this.violations[n - 1] <= 0)) return false;
-    for (let k = 0; k < points.length; k++) {
-      const p = points[k];
-      let near = 0;
-      for (let i = 0; i < n && near < 2; i++) if (this.near(i, p)) near++;
-      for (let q = 0; q < k && near < 2; q++) if (rmsDistance(points[q], p) <= this.radius) near++;
-      if (near >= 2) return false;
-    }
-    return true;
+    if (n < this.capacity) return true;
+    return n > 0 && !(this.violations[n - 1] <= 0);
   }
 
   /** A copy of entry k. */

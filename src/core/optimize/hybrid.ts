@@ -126,10 +126,15 @@ export class Hybrid extends OptimizerBase implements Optimizer {
     const n = points.length;
     const toldValues = this.toldValues.get(n);
     const toldViolations = this.toldViolations.get(n);
+    // Candidates full of feasible points when the batch was asked take none of its
+    // infeasible points, though an offer may free a place on the way (by taking the places
+    // of several near it): so the batch's infeasible points are dropped whatever they
+    // score, and infeasibleDroppedInto can say so.
+    const refusing = global && !this.candidates.takesInfeasible();
     for (let k = 0; k < n; k++) {
       canonicalInto(values, violations, k, toldValues, toldViolations, k);
       this.bestPoint.offerAt(points[k], 0, toldValues, toldViolations, k);
-      if (global) this.candidates.offerAt(points[k], toldValues, toldViolations, k);
+      if (global && !(refusing && toldViolations[k] > 0)) this.candidates.offerAt(points[k], toldValues, toldViolations, k);
     }
     this.evaluationsTold += points.length;
     const { targetValue, maxEvaluations } = this.config;
@@ -149,13 +154,12 @@ export class Hybrid extends OptimizerBase implements Optimizer {
     this.nextPolish();
   }
 
-  /** The running part's, where the candidates to polish take no infeasible point of the batch (a polish drops none anyway). */
+  /** The running part's, where the candidates to polish refuse the batch's infeasible points (see tell; a polish drops none anyway). */
   infeasibleDroppedInto(out: Uint8Array): void {
     const part = this.stop === null ? this.part() : null;
     if (part === null) return;
-    const points = part.ask();
-    if (this.phase === 'global' && !this.candidates.refusesInfeasibleThrough(points)) {
-      out.fill(0, 0, points.length);
+    if (this.phase === 'global' && this.candidates.takesInfeasible()) {
+      out.fill(0, 0, part.ask().length);
       return;
     }
     part.infeasibleDroppedInto(out);
