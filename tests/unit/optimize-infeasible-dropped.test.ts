@@ -33,8 +33,8 @@ function make(config: OptimizerConfig): Optimizer {
   return built.optimizer;
 }
 
-/** Runs both copies to the end; returns how many points the abridged copy was told Infinity for. */
-function runBoth(config: OptimizerConfig): { abridged: number; marked: number } {
+/** Runs both copies to the end; returns how many points the abridged copy was told Infinity for, how many were marked, and the last state. */
+function runBoth(config: OptimizerConfig): { abridged: number; marked: number; state: object } {
   const full = make(config);
   const abridged = make(config);
   const out = new Float64Array(2);
@@ -66,7 +66,7 @@ function runBoth(config: OptimizerConfig): { abridged: number; marked: number } 
     expect(JSON.stringify(abridged.exportState())).toBe(JSON.stringify(full.exportState()));
   }
   expect(abridged.done()).toBe(true);
-  return { abridged: told, marked };
+  return { abridged: told, marked, state: full.exportState() };
 }
 
 const COMMON = { dim: 4, maxEvaluations: 6000, seed: 17 } as const;
@@ -88,8 +88,9 @@ describe('points marked as dropped if infeasible: told anything infeasible, the 
   });
 
   it('the restart scheme marks as its current run does, basins and all', () => {
-    const { abridged } = runBoth({ kind: 'restart', inner: { kind: 'hybrid' }, ...COMMON, maxEvaluations: 20_000, runEvaluations: 4000 });
+    const { abridged, state } = runBoth({ kind: 'restart', inner: { kind: 'hybrid' }, ...COMMON, maxEvaluations: 8000, runEvaluations: 2000 });
     expect(abridged).toBeGreaterThan(20);
+    expect((state as { restarts: number }).restarts).toBeGreaterThan(1);
   });
 
   it('Nelder–Mead marks none: it compares every point it asks for by its value', () => {

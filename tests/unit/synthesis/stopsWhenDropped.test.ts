@@ -16,7 +16,7 @@ import { reachCases } from '../../../bench/reachCases';
 import { createObjective, createProblem } from '../../../src/core/synthesis';
 import { demoPathObjective } from '../../support/demoObjective';
 
-const DESIGNS = 250;
+const DESIGNS = 160;
 /** Designs per family whose exported linkage is analysed (each allocates a report). */
 const ANALYSED = 12;
 
