@@ -43,6 +43,10 @@ export default defineConfig({
           // drawing); three at a time starved a search's start.
           maxWorkers: 2,
           sequence: { groupOrder: 1 },
+          // A poll for the page to follow an edit: vitest's default gives up after 1 s,
+          // which a full run on a loaded machine overran (a layout switch's figures, drawn
+          // in 0.1 s alone); a poll that succeeds returns as soon as it does.
+          expect: { poll: { timeout: 10_000 } },
         },
       },
     ],

@@ -19,11 +19,6 @@ import { storedTextHas } from './storedProject';
 
 /** The page shows figures to four significant figures. */
 const shown = (x: number) => String(Number(x.toPrecision(4)));
-/**
- * How long a plot or figure may take to follow an edit: the default poll gives up after
- * 1 s, which a loaded machine overran in a full run (the layout switch's figures).
- */
-const FOLLOWS = { timeout: 10_000 } as const;
 
 function demoReport(kind: LayoutKind): SuspensionReport {
   const linkage = buildLayout(kind, demoPivots(kind), DEMO_TRAIL_BIKE.rearAxleMm, demoAxleBody(kind));
@@ -85,7 +80,7 @@ describeBrowser('rear suspension', () => {
     expect(await view.getByTestId('ic-path').getAttribute('d')).toMatch(/^M/);
     for (const id of PLOTS) {
       const plot = page.getByTestId(id);
-      await expect.poll(() => plot.locator('path.susp-plot-line:not(.susp-plot-target)').count(), FOLLOWS).toBeGreaterThan(0);
+      await expect.poll(() => plot.locator('path.susp-plot-line:not(.susp-plot-target)').count()).toBeGreaterThan(0);
       expect(await plot.locator('path.susp-plot-line:not(.susp-plot-target)').first().getAttribute('d')).toMatch(/^M[^N]*$/);
       expect(await plot.getByTestId('sag-marker').count()).toBe(1);
     }
@@ -141,7 +136,7 @@ describeBrowser('rear suspension', () => {
 
     // No spring: no wheel rate. An air spring states its gas law and gives one again.
     await page.getByRole('radio', { name: 'none' }).check();
-    await expect.poll(() => page.getByTestId('plot-wheel-rate').count(), FOLLOWS).toBe(0);
+    await expect.poll(() => page.getByTestId('plot-wheel-rate').count()).toBe(0);
     await page.getByRole('radio', { name: 'air' }).check();
     expect(await page.getByRole('radio', { name: /adiabatic, p·V\^γ constant \(γ = 1\.4\)/ }).count()).toBe(1);
     await page.locator('[data-field="airPressure"] input').fill('900');
@@ -161,7 +156,7 @@ describeBrowser('rear suspension', () => {
     const before = await page.getByTestId('plot-leverage').locator('path.susp-plot-line:not(.susp-plot-target)').getAttribute('d');
     await page.getByLabel('Layout kind').selectOption({ label: LAYOUT_NAMES.singlePivot });
     const single = demoReport('singlePivot');
-    await expect.poll(() => figureCell(page, 'Leverage ratio at full extension').textContent(), FOLLOWS).toBe(shown(single.leverageRatioStart));
+    await expect.poll(() => figureCell(page, 'Leverage ratio at full extension').textContent()).toBe(shown(single.leverageRatioStart));
     expect(await figureCell(page, 'Leverage ratio at sag').textContent()).toBe(shown(single.sagPoint.leverageRatio));
     const after = await page.getByTestId('plot-leverage').locator('path.susp-plot-line:not(.susp-plot-target)').getAttribute('d');
     expect(after).not.toBe(before);
@@ -171,7 +166,7 @@ describeBrowser('rear suspension', () => {
     // A floating brake on the four-bar's chain stay adds its own anti-rise line.
     await page.getByLabel('Layout kind').selectOption({ label: LAYOUT_NAMES.fourBarSeatStayAxle });
     await page.getByLabel('Brake caliper on').selectOption('chainStay');
-    await expect.poll(() => page.getByTestId('plot-anti-rise').locator('path.susp-plot-line:not(.susp-plot-target)').count(), FOLLOWS).toBe(2);
+    await expect.poll(() => page.getByTestId('plot-anti-rise').locator('path.susp-plot-line:not(.susp-plot-target)').count()).toBe(2);
 
     // A shock longer than the layout allows is explained in words.
     await page.locator('[data-field="eyeToEye"] input').fill('300');
@@ -196,7 +191,7 @@ describeBrowser('rear suspension', () => {
     await page.mouse.down();
     await page.mouse.move(box.x + box.width / 2 + 15, box.y + box.height / 2, { steps: 3 });
     await page.mouse.up();
-    await expect.poll(async () => Number(await xCell.inputValue()), FOLLOWS).toBeGreaterThan(before);
+    await expect.poll(async () => Number(await xCell.inputValue())).toBeGreaterThan(before);
     expect(app.problems()).toEqual([]);
     await app.close();
   });
@@ -242,7 +237,7 @@ describeBrowser('rear suspension', () => {
 
     // The good file opens: the name it carries is shown.
     await page.getByTestId('design-file-input').setInputFiles({ name: 'good.json', mimeType: 'application/json', buffer: Buffer.from(design.text) });
-    await expect.poll(() => issues.count(), FOLLOWS).toBe(0);
+    await expect.poll(() => issues.count()).toBe(0);
     expect(await figureCell(page, 'Leverage ratio at sag').textContent()).toBe(shown(report.sagPoint.leverageRatio));
     expect(app.problems()).toEqual([]);
     await app.close();
@@ -255,7 +250,7 @@ describeBrowser('rear suspension', () => {
     await page.locator('[data-field="sagPct"] input').fill('25');
     await page.getByRole('button', { name: 'Back to path synthesis' }).click();
     // The project is written to IndexedDB a moment after the change (the saver's delay); wait for the record, then reload.
-    await expect.poll(() => storedTextHas(page, 'Kept design'), FOLLOWS).toBe(true);
+    await expect.poll(() => storedTextHas(page, 'Kept design'), { timeout: 10_000 }).toBe(true);
     await page.reload();
     await page.getByRole('button', { name: 'Rear suspension: Kept design' }).click();
     await page.getByTestId('suspension-workspace').waitFor();
