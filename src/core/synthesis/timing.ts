@@ -67,11 +67,6 @@ export interface MatchScratch {
    * not assemble. A cyclic match fills row 0 only and computes the rest as it needs them.
    */
   readonly cost: Float64Array;
-  /**
-   * rest[i] (a cyclic match): Σ over points k ≥ i of a lower bound on point k's least
-   * cost anywhere on the curve, from the sample blocks (point 0's exact); rest[n] = 0.
-   */
-  readonly rest: Float64Array;
   readonly previous: Float64Array;
   readonly argPrevious: Int32Array;
   readonly unrolled: Int32Array;
@@ -93,6 +88,12 @@ export interface MatchScratch {
   readonly runLeastAt: Int32Array;
   /** Per sample block, 1 where a sample of it does not assemble (a barrier, see matchInOrder). */
   readonly blockBarrier: Uint8Array;
+  /**
+   * A pass's lower bound on the cost of points i … n − 1 matched in order at or after
+   * its run q (boundedPass), at [i·(runs + 1) + q]: the least sum of their block bounds
+   * over every in-order assignment of them to runs q, q + 1, …; Infinity past the last.
+   */
+  readonly after: Float64Array;
 }
 
 export function createMatchScratch(pointCount: number, sampleCount: number): MatchScratch {
@@ -100,7 +101,6 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
     pointCount,
     sampleCount,
     cost: new Float64Array(pointCount * sampleCount),
-    rest: new Float64Array(pointCount + 1),
     previous: new Float64Array(sampleCount),
     argPrevious: new Int32Array(pointCount * sampleCount),
     unrolled: new Int32Array(pointCount),
@@ -115,6 +115,7 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
     runLeast: new Float64Array(blockCount(sampleCount) + 2),
     runLeastAt: new Int32Array(blockCount(sampleCount) + 2),
     blockBarrier: new Uint8Array(blockCount(sampleCount)),
+    after: new Float64Array((pointCount + 1) * (blockCount(sampleCount) + 3)),
   };
 }
 
@@ -202,30 +203,26 @@ function monotonePass(s: MatchScratch, barriers: Uint8Array | null): number {
 
 /**
  * For a cyclic match: cost row 0 exactly (the starts read it), each sample block's
- * bounding circle, each later point's least cost in each block from below (the
- * distance to the circle), and rest[i] from those bounds (point 0's exact least cost).
+ * bounding circle, and each later point's least cost in each block from below (the
+ * distance to the circle).
  */
 function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Array, weights: Float64Array | undefined, s: MatchScratch): void {
   const m = s.sampleCount;
   const n = s.pointCount;
   const blocks = blockCount(m);
   const cost = s.cost;
-  const rest = s.rest;
   const circle = s.blockCircle;
   const bounds = s.blockBound;
   const qx0 = targets[0];
   const qy0 = targets[1];
   const w0 = weights === undefined ? 1 : weights[0];
-  let least0 = Infinity;
   for (let j = 0; j < m; j++) {
     if (valid[j] === 0) {
       cost[j] = Infinity;
     } else {
       const dx = samples[2 * j] - qx0;
       const dy = samples[2 * j + 1] - qy0;
-      const c = w0 * (dx * dx + dy * dy);
-      cost[j] = c;
-      if (c < least0) least0 = c;
+      cost[j] = w0 * (dx * dx + dy * dy);
     }
   }
   for (let b = 0; b < blocks; b++) {
@@ -259,13 +256,11 @@ function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Ar
     // No sample assembles (or none is finite): NaN, no bound but Infinity.
     circle[3 * b + 2] = r2 >= 0 ? Math.sqrt(r2) * (1 + BLOCK_RADIUS_SHARE) + BLOCK_RADIUS_MM : NaN;
   }
-  rest[n] = 0;
-  for (let i = n - 1; i >= 1; i--) {
+  for (let i = 1; i < n; i++) {
     const qx = targets[2 * i];
     const qy = targets[2 * i + 1];
     const w = weights === undefined ? 1 : weights[i];
     const row = i * blocks;
-    let least = Infinity;
     for (let b = 0; b < blocks; b++) {
       const r = circle[3 * b + 2];
       let bound = Infinity;
@@ -276,20 +271,19 @@ function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Ar
         bound = gap > 0 ? w * gap * gap : 0;
       }
       bounds[row + b] = bound;
-      if (bound < least) least = bound;
     }
-    rest[i] = least + rest[i + 1];
   }
-  rest[0] = least0 + (n > 1 ? rest[1] : 0);
 }
 
 /**
  * monotonePass for a cyclic match, costs computed as needed: the indices are taken in
  * runs that each lie in one sample block, and a run whose cells cannot lie on a match
  * of total ≤ `threshold` (the least partial sum before it plus the block's bound plus
- * the rest is above it) is skipped unevaluated. A cell that can is computed as in the
- * plain pass, from the same partial sums, so the answer is the same whenever it is
- * ≤ threshold; otherwise the pass loses anyway. `bound` and `tieWins` as monotonePass;
+ * the bound on the later points matched in order after it, MatchScratch.after, is above
+ * it) is skipped unevaluated, and the pass is abandoned once every match through a row
+ * is bounded above it. A cell that can is computed as in the plain pass, from the same
+ * partial sums, so the answer is the same whenever it is ≤ threshold; otherwise the
+ * pass loses anyway. `bound` and `tieWins` as monotonePass;
  * `barriers`: the samples that do not assemble part the points (blockBarrier marks
  * their blocks).
  */
@@ -311,7 +305,6 @@ function boundedPass(
   const blocks = blockCount(m);
   const blockBarrier = s.blockBarrier;
   const cost = s.cost;
-  const rest = s.rest;
   const bounds = s.blockBound;
   const sums = s.previous;
   const arg = s.argPrevious;
@@ -331,7 +324,23 @@ function boundedPass(
     }
   }
   runStart[runs] = m;
+  // The in-order bound on the points after each row (MatchScratch.after), for this pass's runs.
+  const width = runs + 1;
+  const after = s.after;
+  for (let q = 0; q <= runs; q++) after[n * width + q] = 0;
+  for (let i = n - 1; i >= 1; i--) {
+    const row = i * width;
+    const boundRow = i * blocks;
+    after[row + runs] = Infinity;
+    for (let q = runs - 1; q >= 0; q--) {
+      const here = bounds[boundRow + runBlock[q]] + after[row + width + q];
+      const later = after[row + q + 1];
+      after[row + q] = here < later ? here : later;
+    }
+  }
   const split = m - first;
+  // The least total of a match through each row's cells: its least partial sum in a run plus the bound after it.
+  let rowLower = Infinity;
   for (let q = 0; q < runs; q++) {
     const from = runStart[q];
     const to = runStart[q + 1];
@@ -349,18 +358,23 @@ function boundedPass(
     }
     runLeast[q] = least;
     runLeastAt[q] = leastAt;
+    const total = least + after[width + q];
+    if (total < rowLower) rowLower = total;
   }
   for (let i = 1; i < n; i++) {
+    // Every match of this pass adds at least rowLower (its rounding aside).
+    const lower = rowLower * (1 - BOUND_ROUNDING_MARGIN);
+    if (tieWins ? lower > bound : lower >= bound) return Infinity;
+    if (lower > threshold) return Infinity;
+    rowLower = Infinity;
     const row = i * m;
     const boundRow = i * blocks;
-    const restNext = rest[i + 1];
+    const afterNext = (i + 1) * width;
     const qx = targets[2 * i];
     const qy = targets[2 * i + 1];
     const w = weights === undefined ? 1 : weights[i];
     let best = Infinity;
     let bestU = 0;
-    // The least sum over points 0 … i − 1 wherever it lies (with barriers; else best).
-    let rowLeast = Infinity;
     for (let q = 0; q < runs; q++) {
       const from = runStart[q];
       const to = runStart[q + 1];
@@ -368,7 +382,6 @@ function boundedPass(
       // A run with a barrier (see matchInOrder) is never skipped: past its barrier the
       // least partial sum is not the run's least.
       const barrierRun = barriers && blockBarrier[runBlock[q]] === 1;
-      if (barriers && !before && runLeast[q] < rowLeast) rowLeast = runLeast[q];
       // The least partial sum up to the run's end: the run's own least, kept when it was
       // written (its first index, as a scan keeping strict improvements would find).
       let runBest = best;
@@ -377,8 +390,9 @@ function boundedPass(
         runBest = runLeast[q];
         runBestU = runLeastAt[q];
       }
-      // Every cell of the run: at least the least partial sum up to its end, plus the block's bound.
-      const lower = (runBest + bounds[boundRow + runBlock[q]] + restNext) * (1 - BOUND_ROUNDING_MARGIN);
+      // A match through a cell of the run: at least the least partial sum up to the run's
+      // end, plus the block's bound, plus the bound on the later points in order after it.
+      const lower = (runBest + bounds[boundRow + runBlock[q]] + after[afterNext + q]) * (1 - BOUND_ROUNDING_MARGIN);
       if (lower > threshold && !barrierRun) {
         skipped[q] = 1;
         best = runBest;
@@ -432,11 +446,9 @@ function boundedPass(
       }
       runLeast[q] = least;
       runLeastAt[q] = leastAt;
+      const total = least + after[afterNext + q];
+      if (total < rowLower) rowLower = total;
     }
-    // The least sum over points 0 … i − 1; points i … n − 1 add at least rest[i].
-    const lower = ((barriers ? rowLeast : best) + rest[i]) * (1 - BOUND_ROUNDING_MARGIN);
-    if (tieWins ? lower > bound : lower >= bound) return Infinity;
-    if (lower > threshold) return Infinity;
   }
   let best = Infinity;
   let bestU = 0;
