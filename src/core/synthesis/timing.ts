@@ -76,6 +76,11 @@ export interface MatchScratch {
   readonly order: Int32Array;
   /** Sample blocks (MATCH_BLOCK samples each): centre x, y and radius; NaN radius when none assembles. */
   readonly blockCircle: Float64Array;
+  /**
+   * Per sample block (a cyclic match's, fillBounds), 1 where a sample of it does not
+   * assemble: a barrier where the match honours them (matchInOrder).
+   */
+  readonly blockBroken: Uint8Array;
   /** Lower bound on point i's cost in block b at [i·blocks + b]. */
   readonly blockBound: Float64Array;
   /** A pass's runs of indices within one block: first index of each run, and its block. */
@@ -86,8 +91,6 @@ export interface MatchScratch {
   /** Per run of the row in force: its least partial sum and the first index holding it. */
   readonly runLeast: Float64Array;
   readonly runLeastAt: Int32Array;
-  /** Per sample block, 1 where a sample of it does not assemble (a barrier, see matchInOrder). */
-  readonly blockBarrier: Uint8Array;
   /**
    * A pass's lower bound on the cost of points i … n − 1 matched in order at or after
    * its run q (boundedPass), at [i·(runs + 1) + q]: the least sum of their block bounds
@@ -108,13 +111,13 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
     startCost: new Float64Array(CYCLIC_START_CANDIDATES),
     order: new Int32Array(CYCLIC_START_CANDIDATES),
     blockCircle: new Float64Array(3 * blockCount(sampleCount)),
+    blockBroken: new Uint8Array(blockCount(sampleCount)),
     blockBound: new Float64Array(pointCount * blockCount(sampleCount)),
     runStart: new Int32Array(blockCount(sampleCount) + 2),
     runBlock: new Int32Array(blockCount(sampleCount) + 2),
     skipped: new Uint8Array(blockCount(sampleCount) + 2),
     runLeast: new Float64Array(blockCount(sampleCount) + 2),
     runLeastAt: new Int32Array(blockCount(sampleCount) + 2),
-    blockBarrier: new Uint8Array(blockCount(sampleCount)),
     after: new Float64Array((pointCount + 1) * (blockCount(sampleCount) + 3)),
   };
 }
@@ -203,8 +206,8 @@ function monotonePass(s: MatchScratch, barriers: Uint8Array | null): number {
 
 /**
  * For a cyclic match: cost row 0 exactly (the starts read it), each sample block's
- * bounding circle, and each later point's least cost in each block from below (the
- * distance to the circle).
+ * bounding circle and whether a sample of it does not assemble, and each later point's
+ * least cost in each block from below (the distance to the circle).
  */
 function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Array, weights: Float64Array | undefined, s: MatchScratch): void {
   const m = s.sampleCount;
@@ -212,6 +215,7 @@ function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Ar
   const blocks = blockCount(m);
   const cost = s.cost;
   const circle = s.blockCircle;
+  const broken = s.blockBroken;
   const bounds = s.blockBound;
   const qx0 = targets[0];
   const qy0 = targets[1];
@@ -232,8 +236,12 @@ function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Ar
     let xHi = -Infinity;
     let yLo = Infinity;
     let yHi = -Infinity;
+    broken[b] = 0;
     for (let j = from; j < to; j++) {
-      if (valid[j] === 0) continue;
+      if (valid[j] === 0) {
+        broken[b] = 1;
+        continue;
+      }
       const x = samples[2 * j];
       const y = samples[2 * j + 1];
       if (x < xLo) xLo = x;
@@ -284,7 +292,7 @@ function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Ar
  * is bounded above it. A cell that can is computed as in the plain pass, from the same
  * partial sums, so the answer is the same whenever it is ≤ threshold; otherwise the
  * pass loses anyway. `bound` and `tieWins` as monotonePass;
- * `barriers`: the samples that do not assemble part the points (blockBarrier marks
+ * `barriers`: the samples that do not assemble part the points (blockBroken marks
  * their blocks).
  */
 function boundedPass(
@@ -303,7 +311,7 @@ function boundedPass(
   const m = s.sampleCount;
   const n = s.pointCount;
   const blocks = blockCount(m);
-  const blockBarrier = s.blockBarrier;
+  const blockBroken = s.blockBroken;
   const cost = s.cost;
   const bounds = s.blockBound;
   const sums = s.previous;
@@ -381,7 +389,7 @@ function boundedPass(
       const before = skipped[q] === 1;
       // A run with a barrier (see matchInOrder) is never skipped: past its barrier the
       // least partial sum is not the run's least.
-      const barrierRun = barriers && blockBarrier[runBlock[q]] === 1;
+      const barrierRun = barriers && blockBroken[runBlock[q]] === 1;
       // The least partial sum up to the run's end: the run's own least, kept when it was
       // written (its first index, as a scan keeping strict improvements would find).
       let runBest = best;
@@ -403,8 +411,41 @@ function boundedPass(
       let least = Infinity;
       let leastAt = from;
       let j = from < split ? first + from : from - split;
-      // Two loops, not one test per cell: a run the row before skipped holds no sums to read.
-      if (before) {
+      // Four loops, not tests per cell: a run the row before skipped holds no sums to
+      // read, and a run whose samples all assemble (the common case) needs no test of
+      // them; the same arithmetic in each.
+      if (blockBroken[runBlock[q]] === 0) {
+        if (before) {
+          for (let u = from; u < to; u++, j++) {
+            arg[row + u] = bestU;
+            const dx = samples[2 * j] - qx;
+            const dy = samples[2 * j + 1] - qy;
+            const v = best + w * (dx * dx + dy * dy);
+            sums[u] = v;
+            if (v < least) {
+              least = v;
+              leastAt = u;
+            }
+          }
+        } else {
+          for (let u = from; u < to; u++, j++) {
+            const here = sums[u];
+            if (here < best) {
+              best = here;
+              bestU = u;
+            }
+            arg[row + u] = bestU;
+            const dx = samples[2 * j] - qx;
+            const dy = samples[2 * j + 1] - qy;
+            const v = best + w * (dx * dx + dy * dy);
+            sums[u] = v;
+            if (v < least) {
+              least = v;
+              leastAt = u;
+            }
+          }
+        }
+      } else if (before) {
         for (let u = from; u < to; u++, j++) {
           if (barrierRun && valid[j] === 0) best = Infinity;
           arg[row + u] = bestU;
@@ -564,11 +605,6 @@ export function matchInOrder(
     return total;
   }
   fillBounds(samples, valid, targets, weights, scratch);
-  if (barred) {
-    const blockBarrier = scratch.blockBarrier;
-    blockBarrier.fill(0);
-    for (let j = 0; j < m; j++) if (valid[j] === 0) blockBarrier[Math.floor(j / MATCH_BLOCK)] = 1;
-  }
   const cost = scratch.cost;
   // Local minima of the first point's distance along the loop: where the match starts.
   const starts = scratch.starts;
