@@ -332,23 +332,9 @@ function boundedPass(
     }
   }
   runStart[runs] = m;
-  // The in-order bound on the points after each row (MatchScratch.after), for this pass's runs.
-  const width = runs + 1;
-  const after = s.after;
-  for (let q = 0; q <= runs; q++) after[n * width + q] = 0;
-  for (let i = n - 1; i >= 1; i--) {
-    const row = i * width;
-    const boundRow = i * blocks;
-    after[row + runs] = Infinity;
-    for (let q = runs - 1; q >= 0; q--) {
-      const here = bounds[boundRow + runBlock[q]] + after[row + width + q];
-      const later = after[row + q + 1];
-      after[row + q] = here < later ? here : later;
-    }
-  }
   const split = m - first;
-  // The least total of a match through each row's cells: its least partial sum in a run plus the bound after it.
-  let rowLower = Infinity;
+  // Point 0's costs in the pass's first window.
+  let least0 = Infinity;
   for (let q = 0; q < runs; q++) {
     const from = runStart[q];
     const to = runStart[q + 1];
@@ -366,8 +352,34 @@ function boundedPass(
     }
     runLeast[q] = least;
     runLeastAt[q] = leastAt;
-    const total = least + after[width + q];
-    if (total < rowLower) rowLower = total;
+    if (least < least0) least0 = least;
+  }
+  // Every match of the pass costs at least point 0's least: a start that cannot win on
+  // that alone (most, once a good match bounds the rest) is abandoned before the bound below.
+  const lower0 = least0 * (1 - BOUND_ROUNDING_MARGIN);
+  if (tieWins ? lower0 > bound : lower0 >= bound) return Infinity;
+  if (lower0 > threshold) return Infinity;
+  // The in-order bound on the points after each row (MatchScratch.after), for this pass's runs.
+  const width = runs + 1;
+  const after = s.after;
+  for (let q = 0; q <= runs; q++) after[n * width + q] = 0;
+  for (let i = n - 1; i >= 1; i--) {
+    const row = i * width;
+    const boundRow = i * blocks;
+    after[row + runs] = Infinity;
+    for (let q = runs - 1; q >= 0; q--) {
+      const here = bounds[boundRow + runBlock[q]] + after[row + width + q];
+      const later = after[row + q + 1];
+      after[row + q] = here < later ? here : later;
+    }
+  }
+  // The least total of a match through each row's cells: its least partial sum in a run plus the bound after it.
+  let rowLower = Infinity;
+  for (let q = 0; q < runs; q++) {
+    if (skipped[q] === 0) {
+      const total = runLeast[q] + after[width + q];
+      if (total < rowLower) rowLower = total;
+    }
   }
   for (let i = 1; i < n; i++) {
     // Every match of this pass adds at least rowLower (its rounding aside).
