@@ -531,11 +531,17 @@ function unrollBest(s: MatchScratch, best: number, bestU: number, bound: number,
 }
 
 /**
- * The cost of `hint` (unrolled indices) when it is a match some pass may find: non-
- * decreasing, its first index within a start's window, its last at most M − 1 past the
- * window's start; Infinity otherwise.
+ * An upper bound on the answer from `hint` (unrolled indices): for each start, the hint
+ * moved into what that start's pass can find (its first index into the pass's window,
+ * every index at most M − 1 past the window's start, in order) and costed, the least of
+ * them; Infinity where the hint is not in order, or where each start's version meets a
+ * sample that does not assemble (or, with barriers, passes one). Each version is a match
+ * its pass may find, so the answer is at most this. A closed target's match spans nearly
+ * the whole loop, so the hint itself fits a pass only where its first point sits early in
+ * the window: the first match of an alternation, from an alignment, mostly did not, and
+ * its passes ran without a bound until a pass had ended.
  */
-function hintCost(
+function hintCeiling(
   samples: Float64Array,
   valid: Uint8Array,
   targets: Float64Array,
@@ -549,28 +555,34 @@ function hintCost(
   const m = s.sampleCount;
   const n = s.pointCount;
   for (let i = 1; i < n; i++) if (!(hint[i] >= hint[i - 1])) return Infinity;
-  // No sample that does not assemble between two points (see matchInOrder).
-  if (barriers) {
-    for (let i = 1; i < n; i++) {
-      for (let u = hint[i - 1] + 1; u < hint[i]; u++) if (valid[((u % m) + m) % m] === 0) return Infinity;
-    }
-  }
-  const span = hint[n - 1] - hint[0];
-  let admissible = false;
+  let ceiling = Infinity;
   for (let k = 0; k < found; k++) {
-    const offset = (((hint[0] - (s.starts[k] - half)) % m) + m) % m;
-    if (offset <= 2 * half && offset + span <= m - 1) admissible = true;
+    const first = (s.starts[k] - half + m) % m;
+    // The hint's first index in the pass's frame (pass index 0 at `first`), the nearer way round.
+    let v0 = (((hint[0] - first) % m) + m) % m;
+    if (v0 > m >> 1) v0 -= m;
+    let sum = 0;
+    let previous = 0;
+    for (let i = 0; i < n && sum < ceiling; i++) {
+      let w = v0 + (hint[i] - hint[0]);
+      if (i === 0) w = w < 0 ? 0 : w > 2 * half ? 2 * half : w;
+      else if (w < previous) w = previous;
+      if (w > m - 1) w = m - 1;
+      // No sample that does not assemble between two points (see matchInOrder).
+      for (let u = previous + 1; barriers && i > 0 && u < w; u++) if (valid[(first + u) % m] === 0) sum = Infinity;
+      const j = (first + w) % m;
+      if (valid[j] === 0) {
+        sum = Infinity;
+      } else {
+        const dx = samples[2 * j] - targets[2 * i];
+        const dy = samples[2 * j + 1] - targets[2 * i + 1];
+        sum += (weights === undefined ? 1 : weights[i]) * (dx * dx + dy * dy);
+      }
+      previous = w;
+    }
+    if (sum < ceiling) ceiling = sum;
   }
-  if (!admissible) return Infinity;
-  let sum = 0;
-  for (let i = 0; i < n; i++) {
-    const j = ((hint[i] % m) + m) % m;
-    if (valid[j] === 0) return Infinity;
-    const dx = samples[2 * j] - targets[2 * i];
-    const dy = samples[2 * j + 1] - targets[2 * i + 1];
-    sum += (weights === undefined ? 1 : weights[i]) * (dx * dx + dy * dy);
-  }
-  return sum;
+  return ceiling;
 }
 
 /**
@@ -591,8 +603,9 @@ function hintCost(
  * no sample assembles).
  *
  * `hint` (optional, cyclic): unrolled indices of a match believed near the answer, such
- * as the last one of an alternation; its cost, when some pass could find it, bounds the
- * answer from above and lets every pass skip more. The answer does not depend on it.
+ * as the last one of an alternation or an alignment's; moved into what each start's pass
+ * can find (hintCeiling), its cost bounds the answer from above and lets every pass skip
+ * more. The answer does not depend on it.
  */
 export function matchInOrder(
   samples: Float64Array,
@@ -659,7 +672,7 @@ export function matchInOrder(
     }
     order[q] = k;
   }
-  const ceiling = hint === undefined ? Infinity : hintCost(samples, valid, targets, weights, hint, found, half, scratch, barred);
+  const ceiling = hint === undefined ? Infinity : hintCeiling(samples, valid, targets, weights, hint, found, half, scratch, barred);
   let best = Infinity;
   let chosen = found;
   for (let r = 0; r < found; r++) {
