@@ -297,7 +297,10 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   /** Unprescribed timing with a fixed placement: match in order on the samples, refine. */
   function matchTiming(t: Float64Array, o: number): void {
     sampleCurve(0);
-    matchInOrder(samples, valid, targets, weights, wrap, !closed, matchScratch, matched);
+    // The last match made (the design before's, in a search often near this one's) as the
+    // hint: a bound that lets the match skip more; its answer does not depend on it.
+    for (let i = 0; i < n; i++) previousMatched[i] = matched[i];
+    matchInOrder(samples, valid, targets, weights, wrap, !closed, matchScratch, matched, previousMatched);
     const step = TAU / sampleCount;
     for (let i = 0; i < n; i++) t[o + i] = matched[i] * step;
     refineMatched(curve, t, o, step);
