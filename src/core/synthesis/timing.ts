@@ -3,7 +3,7 @@
  *
  * - `matchInOrder`: dynamic programming over the samples of the output curve, each
  *   target point matched to a sample, the sample indices non-decreasing in target
- *   order (cyclically when the curve is a closed loop); O(n·M) per start, cyclic starts
+ *   order (cyclically when the curve is a closed loop); O(n·M) per pass, cyclic starts
  *   abandoned by a lower bound once they cannot win, and blocks of samples a point
  *   cannot take on a winning match skipped unevaluated (branch and bound, Land and
  *   Doig, 1960) — the answer, ties included, that of the plain programme; optionally no
@@ -63,8 +63,8 @@ export interface MatchScratch {
   readonly pointCount: number;
   readonly sampleCount: number;
   /**
-   * Weighted squared distance of point i to sample j at [i·M + j]; Infinity where j does
-   * not assemble. A cyclic match fills row 0 only and computes the rest as it needs them.
+   * Point 0's weighted squared distance to each sample; Infinity where it does not
+   * assemble. A pass computes the other points' as it needs them.
    */
   readonly cost: Float64Array;
   readonly previous: Float64Array;
@@ -103,7 +103,7 @@ export function createMatchScratch(pointCount: number, sampleCount: number): Mat
   return {
     pointCount,
     sampleCount,
-    cost: new Float64Array(pointCount * sampleCount),
+    cost: new Float64Array(sampleCount),
     previous: new Float64Array(sampleCount),
     argPrevious: new Int32Array(pointCount * sampleCount),
     unrolled: new Int32Array(pointCount),
@@ -126,86 +126,8 @@ function blockCount(sampleCount: number): number {
   return Math.ceil(sampleCount / MATCH_BLOCK);
 }
 
-/** A non-cyclic match's costs, every point against every sample, into scratch.cost. */
-function fillCosts(samples: Float64Array, valid: Uint8Array, targets: Float64Array, weights: Float64Array | undefined, s: MatchScratch): void {
-  const m = s.sampleCount;
-  const n = s.pointCount;
-  const cost = s.cost;
-  for (let i = 0; i < n; i++) {
-    const qx = targets[2 * i];
-    const qy = targets[2 * i + 1];
-    const w = weights === undefined ? 1 : weights[i];
-    const row = i * m;
-    for (let j = 0; j < m; j++) {
-      if (valid[j] === 0) {
-        cost[row + j] = Infinity;
-      } else {
-        const dx = samples[2 * j] - qx;
-        const dy = samples[2 * j + 1] - qy;
-        cost[row + j] = w * (dx * dx + dy * dy);
-      }
-    }
-  }
-}
-
 /**
- * The in-order programme of a non-cyclic match over scratch.cost: each point's sample
- * index at least the one before. Writes the chosen index per point into
- * scratch.unrolled and returns the cost; Infinity without writing when no sum is finite.
- * `barriers` (the samples' valid flags, or null for none): a sample that does not
- * assemble parts the points on either side of it (matchInOrder).
- */
-function monotonePass(s: MatchScratch, barriers: Uint8Array | null): number {
-  const m = s.sampleCount;
-  const n = s.pointCount;
-  const cost = s.cost;
-  // The row of partial sums, updated in place: cell u reads its old value before writing.
-  const sums = s.previous;
-  const arg = s.argPrevious;
-  for (let u = 0; u < m; u++) sums[u] = cost[u];
-  for (let i = 1; i < n; i++) {
-    const row = i * m;
-    let best = Infinity;
-    let bestU = 0;
-    // Two loops, not one test per cell: without barriers the common case tests nothing.
-    if (barriers === null) {
-      for (let u = 0; u < m; u++) {
-        const here = sums[u];
-        if (here < best) {
-          best = here;
-          bestU = u;
-        }
-        arg[row + u] = bestU;
-        sums[u] = best + cost[row + u];
-      }
-    } else {
-      for (let u = 0; u < m; u++) {
-        const here = sums[u];
-        // A sample that does not assemble: the motion cannot pass it, so no point before
-        // it is followed by one after it.
-        if (barriers[u] === 0) best = Infinity;
-        else if (here < best) {
-          best = here;
-          bestU = u;
-        }
-        arg[row + u] = bestU;
-        sums[u] = best + cost[row + u];
-      }
-    }
-  }
-  let best = Infinity;
-  let bestU = 0;
-  for (let u = 0; u < m; u++) {
-    if (sums[u] < best) {
-      best = sums[u];
-      bestU = u;
-    }
-  }
-  return unrollBest(s, best, bestU, Infinity, true);
-}
-
-/**
- * For a cyclic match: cost row 0 exactly (the starts read it), each sample block's
+ * Point 0's cost at each sample (the starts and passes read it), each sample block's
  * bounding circle and whether a sample of it does not assemble, and each later point's
  * least cost in each block from below (the distance to the circle).
  */
@@ -284,16 +206,18 @@ function fillBounds(samples: Float64Array, valid: Uint8Array, targets: Float64Ar
 }
 
 /**
- * monotonePass for a cyclic match, costs computed as needed: the indices are taken in
+ * The in-order programme of one pass, point 0 at pass index 0 … `firstSpan` (pass
+ * index u at sample first + u, round the loop), each later point at an index at least
+ * the one before, at most M − 1; costs computed as needed: the indices are taken in
  * runs that each lie in one sample block, and a run whose cells cannot lie on a match
  * of total ≤ `threshold` (the least partial sum before it plus the block's bound plus
  * the bound on the later points matched in order after it, MatchScratch.after, is above
  * it) is skipped unevaluated, and the pass is abandoned once every match through a row
  * is bounded above it. A cell that can is computed as in the plain pass, from the same
  * partial sums, so the answer is the same whenever it is ≤ threshold; otherwise the
- * pass loses anyway. `bound` and `tieWins` as monotonePass;
- * `barriers`: the samples that do not assemble part the points (blockBroken marks
- * their blocks).
+ * pass loses anyway. Returns the pass's least total where it beats `bound` (or ties it,
+ * with `tieWins`), its match in scratch.unrolled; Infinity otherwise. `barriers`: the
+ * samples that do not assemble part the points (blockBroken marks their blocks).
  */
 function boundedPass(
   samples: Float64Array,
@@ -531,15 +455,13 @@ function unrollBest(s: MatchScratch, best: number, bestU: number, bound: number,
 }
 
 /**
- * An upper bound on the answer from `hint` (unrolled indices): for each start, the hint
- * moved into what that start's pass can find (its first index into the pass's window,
- * every index at most M − 1 past the window's start, in order) and costed, the least of
- * them; Infinity where the hint is not in order, or where each start's version meets a
- * sample that does not assemble (or, with barriers, passes one). Each version is a match
- * its pass may find, so the answer is at most this. A closed target's match spans nearly
- * the whole loop, so the hint itself fits a pass only where its first point sits early in
- * the window: the first match of an alternation, from an alignment, mostly did not, and
- * its passes ran without a bound until a pass had ended.
+ * An upper bound on the answer from `hint` (unrolled indices): for each start's pass, the
+ * hint moved into what that pass can find (hintCostInPass), the least of their costs;
+ * Infinity where the hint is not in order. Each is a match its pass may find, so the
+ * answer is at most this. A closed target's match spans nearly the whole loop, so the
+ * hint itself fits a pass only where its first point sits early in the window: the first
+ * match of an alternation, from an alignment, mostly did not, and its passes ran without
+ * a bound until a pass had ended.
  */
 function hintCeiling(
   samples: Float64Array,
@@ -558,31 +480,60 @@ function hintCeiling(
   let ceiling = Infinity;
   for (let k = 0; k < found; k++) {
     const first = (s.starts[k] - half + m) % m;
-    // The hint's first index in the pass's frame (pass index 0 at `first`), the nearer way round.
-    let v0 = (((hint[0] - first) % m) + m) % m;
-    if (v0 > m >> 1) v0 -= m;
-    let sum = 0;
-    let previous = 0;
-    for (let i = 0; i < n && sum < ceiling; i++) {
-      let w = v0 + (hint[i] - hint[0]);
-      if (i === 0) w = w < 0 ? 0 : w > 2 * half ? 2 * half : w;
-      else if (w < previous) w = previous;
-      if (w > m - 1) w = m - 1;
-      // No sample that does not assemble between two points (see matchInOrder).
-      for (let u = previous + 1; barriers && i > 0 && u < w; u++) if (valid[(first + u) % m] === 0) sum = Infinity;
-      const j = (first + w) % m;
-      if (valid[j] === 0) {
-        sum = Infinity;
-      } else {
-        const dx = samples[2 * j] - targets[2 * i];
-        const dy = samples[2 * j + 1] - targets[2 * i + 1];
-        sum += (weights === undefined ? 1 : weights[i]) * (dx * dx + dy * dy);
-      }
-      previous = w;
-    }
-    if (sum < ceiling) ceiling = sum;
+    const cost = hintCostInPass(samples, valid, targets, weights, hint, first, 2 * half, true, s, barriers, ceiling);
+    if (cost < ceiling) ceiling = cost;
   }
   return ceiling;
+}
+
+/**
+ * The cost of `hint` (unrolled indices, in order) moved into what one pass can find, its
+ * index 0 at sample `first`: point 0 into [0, span], every index at most M − 1 past
+ * `first`, each at least the one before; with `cyclic`, the hint's first index taken the
+ * nearer way round the loop. Infinity where the moved match meets a sample that does not
+ * assemble (or, with barriers, passes one); at least `ceiling` where its sum reaches it
+ * (the sum stops there).
+ */
+function hintCostInPass(
+  samples: Float64Array,
+  valid: Uint8Array,
+  targets: Float64Array,
+  weights: Float64Array | undefined,
+  hint: Int32Array,
+  first: number,
+  span: number,
+  cyclic: boolean,
+  s: MatchScratch,
+  barriers: boolean,
+  ceiling: number,
+): number {
+  const m = s.sampleCount;
+  const n = s.pointCount;
+  let v0 = hint[0] - first;
+  if (cyclic) {
+    v0 = ((v0 % m) + m) % m;
+    if (v0 > m >> 1) v0 -= m;
+  }
+  let sum = 0;
+  let previous = 0;
+  for (let i = 0; i < n && sum < ceiling; i++) {
+    let w = v0 + (hint[i] - hint[0]);
+    if (i === 0) w = w < 0 ? 0 : w > span ? span : w;
+    else if (w < previous) w = previous;
+    if (w > m - 1) w = m - 1;
+    // No sample that does not assemble between two points (see matchInOrder).
+    for (let u = previous + 1; barriers && i > 0 && u < w; u++) if (valid[(first + u) % m] === 0) sum = Infinity;
+    const j = (first + w) % m;
+    if (valid[j] === 0) {
+      sum = Infinity;
+    } else {
+      const dx = samples[2 * j] - targets[2 * i];
+      const dy = samples[2 * j + 1] - targets[2 * i + 1];
+      sum += (weights === undefined ? 1 : weights[i]) * (dx * dx + dy * dy);
+    }
+    previous = w;
+  }
+  return sum;
 }
 
 /**
@@ -602,10 +553,10 @@ function hintCeiling(
  * way). Returns the weighted sum of squared distances at the samples (Infinity when
  * no sample assembles).
  *
- * `hint` (optional, cyclic): unrolled indices of a match believed near the answer, such
- * as the last one of an alternation or an alignment's; moved into what each start's pass
- * can find (hintCeiling), its cost bounds the answer from above and lets every pass skip
- * more. The answer does not depend on it.
+ * `hint` (optional): unrolled indices of a match believed near the answer, such as the
+ * last one of an alternation or an alignment's; moved into what each pass can find
+ * (hintCeiling, hintCostInPass), its cost bounds the answer from above and lets every
+ * pass skip more. The answer does not depend on it.
  */
 export function matchInOrder(
   samples: Float64Array,
@@ -623,13 +574,19 @@ export function matchInOrder(
   // Barriers to honour: some sample does not assemble.
   let barred = false;
   for (let j = 0; barriers && j < m && !barred; j++) barred = valid[j] === 0;
+  fillBounds(samples, valid, targets, weights, scratch);
   if (!cyclic) {
-    fillCosts(samples, valid, targets, weights, scratch);
-    const total = monotonePass(scratch, barred ? valid : null);
+    // One pass, point 0 anywhere on the curve; the hint, in order and moved onto the curve, bounds it.
+    let ceiling = Infinity;
+    if (hint !== undefined) {
+      let ordered = true;
+      for (let i = 1; i < n; i++) ordered = ordered && hint[i] >= hint[i - 1];
+      if (ordered) ceiling = hintCostInPass(samples, valid, targets, weights, hint, 0, m - 1, false, scratch, barred, Infinity);
+    }
+    const total = boundedPass(samples, valid, targets, weights, 0, m - 1, Infinity, true, ceiling, scratch, barred);
     for (let i = 0; i < n; i++) outIndex[i] = total < Infinity ? scratch.unrolled[i] : 0;
     return total;
   }
-  fillBounds(samples, valid, targets, weights, scratch);
   const cost = scratch.cost;
   // Local minima of the first point's distance along the loop: where the match starts.
   const starts = scratch.starts;
