@@ -475,8 +475,7 @@ function hintCeiling(
   barriers: boolean,
 ): number {
   const m = s.sampleCount;
-  const n = s.pointCount;
-  for (let i = 1; i < n; i++) if (!(hint[i] >= hint[i - 1])) return Infinity;
+  if (!inOrder(hint, s.pointCount)) return Infinity;
   let ceiling = Infinity;
   for (let k = 0; k < found; k++) {
     const first = (s.starts[k] - half + m) % m;
@@ -484,6 +483,12 @@ function hintCeiling(
     if (cost < ceiling) ceiling = cost;
   }
   return ceiling;
+}
+
+/** The first n of `hint`'s indices never decrease, as a match's do not. */
+function inOrder(hint: Int32Array, n: number): boolean {
+  for (let i = 1; i < n; i++) if (!(hint[i] >= hint[i - 1])) return false;
+  return true;
 }
 
 /**
@@ -577,12 +582,7 @@ export function matchInOrder(
   fillBounds(samples, valid, targets, weights, scratch);
   if (!cyclic) {
     // One pass, point 0 anywhere on the curve; the hint, in order and moved onto the curve, bounds it.
-    let ceiling = Infinity;
-    if (hint !== undefined) {
-      let ordered = true;
-      for (let i = 1; i < n; i++) ordered = ordered && hint[i] >= hint[i - 1];
-      if (ordered) ceiling = hintCostInPass(samples, valid, targets, weights, hint, 0, m - 1, false, scratch, barred, Infinity);
-    }
+    const ceiling = hint !== undefined && inOrder(hint, n) ? hintCostInPass(samples, valid, targets, weights, hint, 0, m - 1, false, scratch, barred, Infinity) : Infinity;
     const total = boundedPass(samples, valid, targets, weights, 0, m - 1, Infinity, true, ceiling, scratch, barred);
     for (let i = 0; i < n; i++) outIndex[i] = total < Infinity ? scratch.unrolled[i] : 0;
     return total;
