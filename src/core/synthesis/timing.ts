@@ -458,10 +458,9 @@ function unrollBest(s: MatchScratch, best: number, bestU: number, bound: number,
  * An upper bound on the answer from `hint` (unrolled indices): for each start's pass, the
  * hint moved into what that pass can find (hintCostInPass), the least of their costs;
  * Infinity where the hint is not in order. Each is a match its pass may find, so the
- * answer is at most this. A closed target's match spans nearly the whole loop, so the
- * hint itself fits a pass only where its first point sits early in the window: the first
- * match of an alternation, from an alignment, mostly did not, and its passes ran without
- * a bound until a pass had ended.
+ * answer is at most this. Moved, not refused: a closed target's match spans nearly the
+ * whole loop, so a hint fits a pass as it is only where its first point sits early in the
+ * window, which an alignment's seldom does.
  */
 function hintCeiling(
   samples: Float64Array,
