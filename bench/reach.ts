@@ -22,13 +22,16 @@
  * change what `reach` runs; the rows then say so. LOCI_REACH_FREE_TIMING=matched poses each
  * free-timing case as an unprescribed one (the driver values taken from the in-order match
  * of the curve, refined, instead of searched; the problem's default samples), the
- * reformulation measured as the lead for free timing (bench/HISTORY.md, reach).
+ * reformulation measured as the lead for free timing (bench/HISTORY.md, reach);
+ * LOCI_REACH_FREE_TIMING=unrefined without `refine` (the driver values searched alone,
+ * neither refined nor refitted: the set's free timing before 2026-12-06).
  * LOCI_REACH_PLACEMENT=free poses each fixed-placement case with a free placement (its
- * placement fitted, not searched): the measurement behind the search's placeBetter
+ * placement fitted, not searched): the measurement behind the search's fitBetter
  * (bench/README.md, Reach).
  *
- * Each design is evaluated as the island evaluates it: with a fixed placement, placeBetter
- * then scores the design moved onto its fitted placement too.
+ * Each design is evaluated as the island evaluates it: with a fixed placement, fitBetter
+ * then scores the design moved onto its fitted placement too, and with refined free
+ * timing the design with its driver values refitted where the match moves a point.
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { performance } from 'node:perf_hooks';
@@ -96,7 +99,7 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
       // the search drops the design if infeasible, and a fixed placement's design moved onto its
       // fitted placement where that ranks better.
       objective.evaluate(objective.fromSearchBoxInto(points[k], x), out, dropped[k] === 1);
-      objective.placeBetter?.(x, out);
+      objective.fitBetter?.(x, out);
       values[k] = out[0];
       violations[k] = out[1];
     }
@@ -114,8 +117,12 @@ export function runReachSeed(c: ReachCase, seed: number, budget: number, optimiz
   };
 }
 
-/** How a free-timing case is searched: its driver values as variables (the problem as set), or matched as unprescribed timing matches them. */
-type FreeTiming = 'searched' | 'matched';
+/**
+ * How a free-timing case is searched: its driver values as variables, refined on each
+ * design's curve (the problem as set); as variables alone, unrefined (as a problem file
+ * without `refine` poses them); or matched as unprescribed timing matches them.
+ */
+type FreeTiming = 'searched' | 'unrefined' | 'matched';
 
 /** How a fixed-placement case is searched: as set, or posed with a free placement (its placement fitted to the target, not searched). */
 type PlacementPosing = 'as-set' | 'free';
@@ -129,9 +136,13 @@ interface Task {
   readonly placement: PlacementPosing;
 }
 
-/** `c`, or for a free-timing case with `freeTiming` 'matched', the same target and family posed with unprescribed timing. */
+/** `c`, or for a free-timing case the same target and family posed as `freeTiming` says. */
 function withFreeTiming(c: ReachCase, freeTiming: FreeTiming): ReachCase {
   if (freeTiming === 'searched' || c.timing !== 'free') return c;
+  if (freeTiming === 'unrefined') {
+    const problem = { ...c.problem, timing: { mode: 'free' as const, wrap: c.problem.timing.mode === 'free' && c.problem.timing.wrap } };
+    return { ...c, problem, problemFile: { ...c.problemFile, timing: problem.timing } };
+  }
   const mechanism = c.design.length - c.spec.driverValues.length;
   // The free timing's wrap (whether the values may pass through the turn's start) is kept: the same problem, the timing found another way.
   const wrap = c.problem.timing.mode === 'free' ? c.problem.timing.wrap : undefined;
@@ -292,14 +303,16 @@ export async function benchReach(): Promise<ReachRow[]> {
     optimizer = parsed as Record<string, unknown>;
   }
   const freeTimingText = process.env.LOCI_REACH_FREE_TIMING ?? 'searched';
-  if (freeTimingText !== 'searched' && freeTimingText !== 'matched') throw new Error(`LOCI_REACH_FREE_TIMING is ${JSON.stringify(freeTimingText)}; expected searched or matched`);
+  if (freeTimingText !== 'searched' && freeTimingText !== 'unrefined' && freeTimingText !== 'matched') {
+    throw new Error(`LOCI_REACH_FREE_TIMING is ${JSON.stringify(freeTimingText)}; expected searched, unrefined or matched`);
+  }
   const placementText = process.env.LOCI_REACH_PLACEMENT ?? 'as-set';
   if (placementText !== 'as-set' && placementText !== 'free') throw new Error(`LOCI_REACH_PLACEMENT is ${JSON.stringify(placementText)}; expected as-set or free`);
   const rows = await reachRows(reachCases(ids === undefined || ids.length === 0 ? undefined : ids), seeds, BUDGET, optimizer, freeTimingText, placementText);
   return rows.map((row) => ({
     ...row,
     ...(optimizerText === undefined ? {} : { optimizer: optimizerText }),
-    ...(freeTimingText === 'matched' ? { freeTiming: 'matched as unprescribed' } : {}),
+    ...(freeTimingText === 'matched' ? { freeTiming: 'matched as unprescribed' } : freeTimingText === 'unrefined' ? { freeTiming: 'searched, unrefined' } : {}),
     ...(placementText === 'free' ? { placementRun: 'fixed posed as free' } : {}),
   }));
 }

@@ -347,11 +347,13 @@ export function buildCase(spec: CaseSpec): ReachCase {
     names = [...names, ...spec.driverValues.map((_, i) => `${prefix}_${i + 1}`)];
   }
   const closed = spec.shape === 'closed';
+  // Free timing refined, as the app poses it (src/app/run/runInput.ts): each design's driver
+  // values refined on its curve, and refitted where the target's match moves a point.
   const timing: ProblemInput['timing'] =
     spec.timing === 'prescribed'
       ? { mode: 'prescribed', driverValues: [...spec.driverValues] }
       : spec.timing === 'free'
-        ? { mode: 'free', wrap: closed }
+        ? { mode: 'free', wrap: closed, refine: true }
         : { mode: 'unprescribed', samples: MATCH_SAMPLES };
   const problem: ProblemInput = {
     kind: 'path',

@@ -283,8 +283,9 @@ export class Island {
     const o = this.objective;
     const x = o.fromSearchBoxInto(u, this.real);
     o.evaluate(x, this.out, droppedIfInfeasible);
-    // A fixed placement's design moved onto the placement that fits it, where that ranks better.
-    o.placeBetter?.(x, this.out);
+    // A fixed placement's design moved onto the placement that fits it (a refined free timing's
+    // retimed too), where that ranks better.
+    o.fitBetter?.(x, this.out);
     canonicalInto(this.out, this.outViolation, 0, values, violations, k);
     // The archive keeps x as evaluated: a repair the objective wrote back is part of the design.
     this.archive.offerAt(x, values, violations, k);

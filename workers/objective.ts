@@ -74,7 +74,7 @@ function searchObjective(
       fromSearchBoxInto: objective.fromSearchBoxInto,
       toSearchBoxInto: objective.toSearchBoxInto,
       evaluate: objective.evaluate,
-      ...(objective.placeBetter === undefined ? {} : { placeBetter: objective.placeBetter }),
+      ...(objective.fitBetter === undefined ? {} : { fitBetter: objective.fitBetter }),
       describe,
     },
   };

@@ -18,8 +18,8 @@ export interface SearchObjective {
    * objective may stop once it knows that (Infinity for both).
    */
   evaluate(x: Float64Array, out: Float64Array, droppedIfInfeasible?: boolean): void;
-  /** Right after evaluate(x, out): x moved onto a better placement, where the objective has one (the synthesis Objective's placeBetter). */
-  readonly placeBetter?: (x: Float64Array, out: Float64Array) => boolean;
+  /** Right after evaluate(x, out): x moved onto a better placement (and timing), where the objective has one (the synthesis Objective's fitBetter). */
+  readonly fitBetter?: (x: Float64Array, out: Float64Array) => boolean;
   /** A full report of one design (allocates). */
   describe(x: Float64Array): CandidateDetail;
 }

@@ -56,8 +56,11 @@ export type Timing =
    * One driver value per point is a design variable; the sequence must increase (`wrap`:
    * cyclically, passing through 2π at most once). `refine`: before the error is taken,
    * each value is moved by a few safeguarded Newton steps to the nearest point of the
-   * curve, staying between its neighbours; evaluate then writes the refined values back
-   * into x (Lamarckian). Default false: the values are taken as given.
+   * curve (a free placement's: nearest the target taken into the design's frame),
+   * staying between its neighbours; evaluate then writes the refined values back into x
+   * (Lamarckian), and the search's fitBetter refits them where the target matched in
+   * order on the curve puts a point on another stretch of it (pathResponse.ts). Default
+   * false: the values are taken as given.
    */
   | { readonly mode: 'free'; readonly wrap: boolean; readonly refine?: boolean }
   /**

@@ -90,7 +90,7 @@ describe('a design dropped if infeasible, on a closed path', () => {
     for (const x of stopped.slice(0, ANALYSED)) {
       const design = Float64Array.from(x);
       objective.evaluate(design, out, true);
-      expect(objective.placeBetter?.(design, out)).toBe(false);
+      expect(objective.fitBetter?.(design, out)).toBe(false);
       expect(Array.from(design)).toEqual(Array.from(x));
     }
     expectNoFullTurn(objective, stopped);

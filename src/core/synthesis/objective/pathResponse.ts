@@ -30,7 +30,7 @@ import {
   V_ORDER as V_ORDER_BINDING,
   V_SLOTS as V_SLOTS_BINDING,
 } from '../encoding';
-import { createJointFit } from '../jointFit';
+import { JOINT_FIT_HALVINGS, createJointFit } from '../jointFit';
 import { measureValueInto } from '../measures';
 import { SampledCurve } from '../sampledCurve';
 import { DEFAULT_MATCH_SAMPLES, type Problem } from '../problem';
@@ -96,6 +96,19 @@ export const ALIGNMENT_ITERATIONS = 3;
 export const OPEN_SPAN_SHARES: readonly number[] = [1, 0.6, 0.35, 0.2];
 /** Alignments along parts of the curve, the best by their first fit, each alternated once before the best of them goes on. */
 export const OPEN_PART_STARTS = 2;
+/**
+ * Curve samples of refined free timing's refit (refitTiming): its match has only to find
+ * each point's stretch of the curve, the fits after it go on from there. With 48 the
+ * reach set's five free-timing cases reached on every seed (bench/README.md, Reach).
+ */
+export const REFIT_SAMPLES = 48;
+/**
+ * Gauss–Newton steps of the refit's joint fit on the curve itself, after its steps on the
+ * samples' cubics: without them the refitted values are only as exact as the cubics of
+ * REFIT_SAMPLES samples, and a search whose every design is refitted stops there
+ * (bench/README.md, Reach).
+ */
+export const REFIT_CURVE_ITERATIONS = 8;
 
 
 /** The scratch a path response leaves describing the branch it evaluated last. */
@@ -132,8 +145,10 @@ export interface PathResponse {
   evaluateAll(x: Float64Array, droppedIfInfeasible?: boolean): number;
   /** Whether evaluateAll stopped early on some branch of the design it evaluated last: its outputs are not that design's. */
   stoppedEarly(): boolean;
-  /** The placement that fits x's branch k to the target (see the function), right after evaluateAll(x). */
-  fitPlacement(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean;
+  /** The placement, and with refined free timing the driver values, that fit x's branch k to the target (see the function), right after evaluateAll(x). */
+  fitDesign(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean;
+  /** Whether the last fitDesign refitted the driver values (into times): refined free timing's refit. */
+  timingRefitted(): boolean;
 }
 
 export function createPathResponse(problem: Problem, space: PathDesignSpace): PathResponse {
@@ -146,8 +161,10 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const freePlacement = problem.placement === 'free';
   /** Unprescribed timing with a free placement: matched, then driver values and placement fitted together (matchPlacedTiming). */
   const fitsPlacement = timing.mode === 'unprescribed' && freePlacement;
-  /** The scratch of matchPlacedTiming: a free placement's evaluation, or a fixed one's fitPlacement. */
-  const matchesPlaced = timing.mode === 'unprescribed';
+  /** Free timing's driver values refined on each design's curve (refineFreeTiming) and refitted by fitDesign (refitTiming). */
+  const refineFree = timing.mode === 'free' && timing.refine === true;
+  /** The scratch of the match and alternation: a free placement's evaluation, a fixed one's fitDesign, refined free timing's refit. */
+  const matchesPlaced = timing.mode === 'unprescribed' || refineFree;
   const measure = problem.measure;
 
   // Scratch, allocated once.
@@ -165,15 +182,22 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   const unwrapped = new Float64Array(n);
   const points = new Float64Array(2 * n);
   const branchPoints = new Float64Array(freePlacement ? 0 : branchCount * 2 * n);
-  /** The points fitPlacement fits a placement to. */
-  const fitSource = new Float64Array(freePlacement ? 0 : 2 * n);
+  /** The points fitDesign fits a placement to. */
+  const fitSource = new Float64Array(2 * n);
   /** Each point's assembly margin (CURVE_MARGIN). */
   const margins = new Float64Array(n);
   const d2 = new Float64Array(n);
   const driverValues = timing.mode === 'prescribed' ? Float64Array.from(timing.driverValues) : new Float64Array(0);
   const wrap = timing.mode === 'free' ? timing.wrap : timing.mode === 'unprescribed' ? timing.wrap !== false : false;
-  const refineFree = timing.mode === 'free' && timing.refine === true;
-  const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : 0;
+  /** Refined free timing with a free placement: the targets in the design's frame, and the points and weights of the fit that takes them there (ownPlacementInto). */
+  const refinesInFrame = refineFree && freePlacement;
+  const frameTargets = new Float64Array(refinesInFrame ? 2 * n : 0);
+  const frameSource = new Float64Array(refinesInFrame ? 2 * n : 0);
+  const frameWeights = new Float64Array(refinesInFrame ? n : 0);
+  const frameSim = new Float64Array(SIM_LENGTH);
+  /** Whether the last fitDesign refitted the driver values. */
+  let refitted = false;
+  const sampleCount = timing.mode === 'unprescribed' ? (timing.samples ?? DEFAULT_MATCH_SAMPLES) : refineFree ? REFIT_SAMPLES : 0;
   const samples = new Float64Array(2 * sampleCount);
   /** The curve's answers at the samples (CURVE_* layout, one after another). */
   const around = new Float64Array(sampleCount * CURVE_OUT_LENGTH);
@@ -390,16 +414,25 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       for (let i = 0; same && i < n; i++) same = matched[i] === previousMatched[i];
       if (same) break;
       for (let i = 0; i < n; i++) previousMatched[i] = matched[i];
-      for (let i = 0; i < n; i++) {
-        const j = ((matched[i] % sampleCount) + sampleCount) % sampleCount;
-        points[2 * i] = samples[2 * j];
-        points[2 * i + 1] = samples[2 * j + 1];
-      }
-      similarityFitInto(points, targets, n, buf, weights ?? null);
-      if (!Number.isFinite(buf[SIM_A] + buf[SIM_B] + buf[SIM_TX] + buf[SIM_TY])) break;
-      for (let q = 0; q < SIM_LENGTH; q++) sim[q] = buf[q];
-      fitSse[0] = buf[SIM_SSE];
+      if (!fitToMatch()) break;
     }
+  }
+
+  /**
+   * The similarity that fits the samples `matched` names to the target, into sim and its
+   * SSE into fitSse[0]; false, sim left as it was, where it is not finite.
+   */
+  function fitToMatch(): boolean {
+    for (let i = 0; i < n; i++) {
+      const j = ((matched[i] % sampleCount) + sampleCount) % sampleCount;
+      points[2 * i] = samples[2 * j];
+      points[2 * i + 1] = samples[2 * j + 1];
+    }
+    similarityFitInto(points, targets, n, buf, weights ?? null);
+    if (!Number.isFinite(buf[SIM_A] + buf[SIM_B] + buf[SIM_TX] + buf[SIM_TY])) return false;
+    for (let q = 0; q < SIM_LENGTH; q++) sim[q] = buf[q];
+    fitSse[0] = buf[SIM_SSE];
+    return true;
   }
 
   /**
@@ -468,6 +501,50 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     }
   }
 
+  /**
+   * Refined free timing's refit of the loaded design whose driver values are times[o …]:
+   * the target matched in order on the curve's samples, the placement the design has (a
+   * fixed one's own; a free one's fitted to its points: ownPlacementInto) and its own
+   * driver values as the match's hint. Where the match moves no point further than the
+   * next sample from its own value, the evaluation's Newton steps have found what a refit
+   * would: false, nothing changed. Otherwise the alternation goes on from that match,
+   * driver values and placement are fitted together (refineMatch) and then on the curve
+   * itself, REFIT_CURVE_ITERATIONS steps: the values into times[o …], the placement into
+   * sim, the points into placedPoints; true.
+   */
+  function refitTiming(o: number): boolean {
+    sampleCurve(1);
+    if (freePlacement) {
+      if (!ownPlacementInto(times, o, sim)) return false;
+    } else {
+      sim[SIM_A] = 1;
+      sim[SIM_B] = 0;
+      sim[SIM_TX] = 0;
+      sim[SIM_TY] = 0;
+    }
+    // The own values as sample indices, unrolled once round the loop where cyclic.
+    const step = TAU / sampleCount;
+    for (let i = 0; i < n; i++) {
+      const j = Math.round(times[o + i] / step);
+      previousMatched[i] = wrap ? ((j % sampleCount) + sampleCount) % sampleCount : j < 0 ? 0 : j > sampleCount - 1 ? sampleCount - 1 : j;
+    }
+    if (wrap) for (let i = 1; i < n; i++) if (previousMatched[i] < previousMatched[0]) previousMatched[i] += sampleCount;
+    placeSamples();
+    matchInOrder(placedSamples, valid, targets, weights, wrap, !closed, matchScratch, matched, previousMatched);
+    let moves = false;
+    for (let i = 0; i < n && !moves; i++) {
+      const d = (((matched[i] - previousMatched[i]) % sampleCount) + sampleCount) % sampleCount;
+      moves = d > 1 && d < sampleCount - 1;
+    }
+    if (!moves) return false;
+    for (let i = 0; i < n; i++) previousMatched[i] = matched[i];
+    if (fitToMatch()) alternate(1, ALIGNMENT_ITERATIONS);
+    refineMatch(times, o);
+    jointFit.refine(curve, targets, weights, times, o, sim, limits, REFIT_CURVE_ITERATIONS, JOINT_FIT_HALVINGS);
+    jointFit.pointsInto(placedPoints, placedMargins);
+    return true;
+  }
+
   /** Start `slot` (alignAlong) as the placement in force and the first match's hint. */
   function startFrom(slot: number): void {
     for (let q = 0; q < SIM_LENGTH; q++) sim[q] = startSims[slot * SIM_LENGTH + q];
@@ -513,7 +590,21 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     fitSse[slot] = sum;
   }
 
+  /**
+   * Free timing's refinement: each driver value moved by Newton to where the curve passes
+   * nearest its target point, staying between its neighbours. A free placement's curve
+   * lies in the design's own frame, so its targets are first taken into that frame
+   * through the placement that fits the curve's points at the values as they are
+   * (targetsInDesignFrame): refined towards the targets as given, the values followed
+   * points of another frame, and the very design that traced a target scored far from
+   * it (tests/unit/synthesis/freeTimingRefine.test.ts).
+   */
   function refineFreeTiming(x: Float64Array, t: Float64Array, o: number): void {
+    let aim = targets;
+    if (freePlacement) {
+      if (!targetsInDesignFrame(t, o)) return;
+      aim = frameTargets;
+    }
     for (let i = 0; i < n; i++) {
       let lo = lower[m + i];
       let hi = upper[m + i];
@@ -523,14 +614,48 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
       if (i + 1 < n && x[m + i + 1] >= here) hi = Math.min(hi, x[m + i + 1]);
       if (!(lo <= here && here <= hi)) continue;
       refineIo[REFINE_T] = here;
-      refineIo[REFINE_QX] = targets[2 * i];
-      refineIo[REFINE_QY] = targets[2 * i + 1];
+      refineIo[REFINE_QX] = aim[2 * i];
+      refineIo[REFINE_QY] = aim[2 * i + 1];
       refineIo[REFINE_LO] = lo;
       refineIo[REFINE_HI] = hi;
       refineIo[REFINE_MAX_STEP] = FREE_REFINE_MAX_STEP_RAD;
       refineDriverValue(curve, refineIo, REFINE_ITERATIONS, buf);
       t[o + i] = refineIo[REFINE_T];
     }
+  }
+
+  /** The targets taken into the design's frame (frameTargets) through its own placement (ownPlacementInto); false where it has none. */
+  function targetsInDesignFrame(t: Float64Array, o: number): boolean {
+    if (!ownPlacementInto(t, o, frameSim)) return false;
+    const a = frameSim[SIM_A];
+    const b = frameSim[SIM_B];
+    const s2 = a * a + b * b;
+    for (let i = 0; i < n; i++) {
+      const dx = targets[2 * i] - frameSim[SIM_TX];
+      const dy = targets[2 * i + 1] - frameSim[SIM_TY];
+      frameTargets[2 * i] = (a * dx + b * dy) / s2;
+      frameTargets[2 * i + 1] = (a * dy - b * dx) / s2;
+    }
+    return true;
+  }
+
+  /**
+   * The similarity that fits the loaded design's points at driver values t[o …] to the
+   * target, the points where it does not assemble left out, into `into` (SIM_* layout);
+   * false where none of scale above 0 is found.
+   */
+  function ownPlacementInto(t: Float64Array, o: number, into: Float64Array): boolean {
+    for (let i = 0; i < n; i++) {
+      buf[CURVE_T] = t[o + i];
+      curve.atIo(0, buf);
+      const ok = buf[CURVE_MARGIN] >= 0 && Number.isFinite(buf[CURVE_X] + buf[CURVE_Y]);
+      frameSource[2 * i] = ok ? buf[CURVE_X] : 0;
+      frameSource[2 * i + 1] = ok ? buf[CURVE_Y] : 0;
+      frameWeights[i] = ok ? (weights === undefined ? 1 : weights[i]) : 0;
+    }
+    similarityFitInto(frameSource, targets, n, into, frameWeights);
+    const s2 = into[SIM_A] * into[SIM_A] + into[SIM_B] * into[SIM_B];
+    return s2 > 0 && Number.isFinite(s2 + into[SIM_TX] + into[SIM_TY]);
   }
 
   /** Evaluates branch k into evaluation[2k], [2k + 1]; driver values into times[k·n …]. */
@@ -663,19 +788,33 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
   /**
    * The placement that fits design x's branch k to the target, into out (SIM_* layout),
    * as a free placement's evaluation fits it: unprescribed timing matched and refined
-   * together with the placement (matchPlacedTiming); else the least-squares similarity of
-   * the branch's points at its driver values. evaluateAll must have run on x last.
-   * `turns` false: no rotation but by π (similarityFitInto). False where no fit is found.
+   * together with the placement (matchPlacedTiming); refined free timing refitted where
+   * its match moves a point to another stretch of the curve (refitTiming; the driver
+   * values into times[k·n …], timingRefitted() true), else the fixed placement's similarity
+   * as below, and a free placement none; prescribed or unrefined free timing, the
+   * least-squares similarity of the branch's points at its driver values. evaluateAll
+   * must have run on x last. `turns` false: no rotation but by π (similarityFitInto).
+   * False where no fit is found.
    */
-  function fitPlacement(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean {
+  function fitDesign(x: Float64Array, k: number, turns: boolean, out: Float64Array): boolean {
+    refitted = false;
     if (matchesPlaced) {
       // evaluateAll loads the branches in turn: the last is loaded still.
       if (k !== branchCount - 1) {
         parts.fill(0);
         encoding.load(x, k, parts);
       }
-      matchPlacedTiming(times, k * n);
-      placedPointsInto(fitSource, margins);
+      if (!refineFree) {
+        matchPlacedTiming(times, k * n);
+        placedPointsInto(fitSource, margins);
+      } else if (refitTiming(k * n)) {
+        refitted = true;
+        placedPointsInto(fitSource, margins);
+      } else if (freePlacement) {
+        return false;
+      } else {
+        for (let i = 0; i < 2 * n; i++) fitSource[i] = branchPoints[2 * n * k + i];
+      }
     } else {
       for (let i = 0; i < 2 * n; i++) fitSource[i] = branchPoints[2 * n * k + i];
     }
@@ -699,6 +838,7 @@ export function createPathResponse(problem: Problem, space: PathDesignSpace): Pa
     evaluateBranch,
     evaluateAll,
     stoppedEarly: () => stopped,
-    fitPlacement,
+    fitDesign,
+    timingRefitted: () => refitted,
   };
 }

@@ -79,13 +79,14 @@ export interface SearchObjectiveOf<Family extends string, Report> {
    */
   evaluate(x: Float64Array, out: Float64Array, droppedIfInfeasible?: boolean): void;
   /**
-   * A path problem with a fixed placement: right after evaluate(x, out), tries the design
-   * moved onto the placement that fits it to the target best (pathObjective.ts); where the
-   * moved design lies in the box and ranks better, writes it into x and its evaluation
-   * into out and returns true. A search calls it on the designs it evaluates. No
-   * allocation.
+   * A path problem with a fixed placement or refined free timing: right after evaluate(x,
+   * out), tries the design moved onto the placement that fits it to the target best, and
+   * with refined free timing given the driver values the target's match on its curve
+   * refits (pathObjective.ts); where that design lies in the box and ranks better, writes
+   * it into x and its evaluation into out and returns true. A search calls it on the
+   * designs it evaluates.
    */
-  readonly placeBetter?: (x: Float64Array, out: Float64Array) => boolean;
+  readonly fitBetter?: (x: Float64Array, out: Float64Array) => boolean;
   /** Which map takes the search box to designs: the problem's for this family (searchMap.ts). */
   readonly searchMap: SearchMapKind;
   /**

@@ -1,11 +1,12 @@
 /**
- * A fixed placement's placeBetter (pathObjective.ts): a design moved off its target by a
+ * A fixed placement's fitBetter (pathObjective.ts): a design moved off its target by a
  * known similarity is moved back onto it. The reference is outside the search: each
  * reach case's target is sampled from a known generating linkage (bench/reachCases.ts),
  * so the generating design scores zero; this test moves that design by a similarity
  * written out here, independently of the encodings' placeDesignInto, and expects
- * placeBetter to return the generating design, scoring zero again, with describe
- * reporting the figures evaluate gave.
+ * fitBetter to return the generating design, scoring zero again, with describe
+ * reporting the figures evaluate gave. Refined free timing's refit, the other thing
+ * fitBetter does: tests/unit/synthesis/freeTimingRefine.test.ts.
  */
 import { describe, expect, it } from 'vitest';
 import { reachCases, type ReachCase } from '../../../bench/reachCases';
@@ -68,7 +69,7 @@ const TURNING = { scale: 1.07, turn: 0.12, tx: 3.5, ty: -2.25 };
 /** The slider-crank's slide keeps its direction: a move without a turn. */
 const STRAIGHT = { scale: 0.94, turn: 0, tx: -4, ty: 1.5 };
 
-describe('placeBetter moves a fixed-placement design back onto its target', () => {
+describe('fitBetter moves a fixed-placement design back onto its target', () => {
   it.each([
     ['lengths-p-open-fixed', TURNING],
     ['lengths-u-closed-fixed', TURNING],
@@ -83,7 +84,7 @@ describe('placeBetter moves a fixed-placement design back onto its target', () =
     objective.evaluate(x, out);
     // Moved off its target, the design misses it by far more than rounding.
     expect(out[0] / c.sizeMm).toBeGreaterThan(1e-3);
-    expect(objective.placeBetter?.(x, out)).toBe(true);
+    expect(objective.fitBetter?.(x, out)).toBe(true);
     expect(out[1]).toBe(0);
     expect(out[0] / c.sizeMm).toBeLessThan(ON_TARGET_SHARE);
     for (let j = 0; j < c.design.length; j++) {
@@ -108,14 +109,14 @@ describe('placeBetter moves a fixed-placement design back onto its target', () =
     const out = new Float64Array(2);
     objective.evaluate(x, out);
     const evaluated = Float64Array.from(out);
-    expect(objective.placeBetter?.(x, out)).toBe(false);
+    expect(objective.fitBetter?.(x, out)).toBe(false);
     expect(Array.from(x)).toEqual(Array.from(before));
     expect(Array.from(out)).toEqual(Array.from(evaluated));
   });
 
-  it('is offered for a fixed placement only', () => {
+  it('is offered for a fixed placement, and with a free one only to refined free timing', () => {
     const free = reachCase('lengths-p-open-free');
-    expect(objectiveOf(free).placeBetter).toBeUndefined();
-    expect(objectiveOf(reachCase('lengths-p-open-fixed')).placeBetter).toBeTypeOf('function');
+    expect(objectiveOf(free).fitBetter).toBeUndefined();
+    expect(objectiveOf(reachCase('lengths-p-open-fixed')).fitBetter).toBeTypeOf('function');
   });
 });
