@@ -27,11 +27,11 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
   const space = createPathDesignSpace(problem, family);
   const response = createPathResponse(problem, space);
   const { n, times, evaluation, refineFree } = response;
+  const { encoding, lower, upper, dim } = space;
+  const m = space.mechanismDim;
   const fixed = problem.placement === 'fixed';
   /** A cyclic free timing's refitted values are taken to the turn [0, 2π) its variables span. */
   const wraps = problem.timing.mode === 'free' && problem.timing.wrap;
-  const { encoding, lower, upper, dim } = space;
-  const m = space.mechanismDim;
   /** The placement fitted to the evaluated design, the design so moved (and timed) and its evaluation. */
   const fitted = new Float64Array(SIM_LENGTH);
   const moved = new Float64Array(dim);
@@ -103,7 +103,7 @@ export function createPathObjective(problem: Problem, family: FamilyId): Objecti
     family,
     ...objectiveSpace(space),
     evaluate,
-    ...(fixed || response.refineFree ? { fitBetter } : {}),
+    ...(fixed || refineFree ? { fitBetter } : {}),
     describe: (x: Float64Array): CandidateReport => describePathDesign(problem, family, space, response, x),
   };
 }
