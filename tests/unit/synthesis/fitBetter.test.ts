@@ -11,11 +11,8 @@
 import { describe, expect, it } from 'vitest';
 import { reachCases, type ReachCase } from '../../../bench/reachCases';
 import { createObjective, createProblem, type Objective } from '../../../src/core/synthesis';
+import { expectFitBetterRecovers } from '../../support/reachRecovery';
 
-/** RMS (share of the target's size) of a design on its target: rounding of kinematics, fit and timing solve. */
-const ON_TARGET_SHARE = 1e-9;
-/** Agreement of a recovered design's variables with the generating design's, as a share of the target's size (and rad). */
-const SAME_DESIGN_SHARE = 1e-6;
 
 function objectiveOf(c: ReachCase): Objective {
   const made = createProblem(c.problem);
@@ -84,16 +81,7 @@ describe('fitBetter moves a fixed-placement design back onto its target', () => 
     objective.evaluate(x, out);
     // Moved off its target, the design misses it by far more than rounding.
     expect(out[0] / c.sizeMm).toBeGreaterThan(1e-3);
-    expect(objective.fitBetter?.(x, out)).toBe(true);
-    expect(out[1]).toBe(0);
-    expect(out[0] / c.sizeMm).toBeLessThan(ON_TARGET_SHARE);
-    for (let j = 0; j < c.design.length; j++) {
-      expect(Math.abs(x[j] - c.design[j]) / c.sizeMm, c.designNames[j]).toBeLessThan(SAME_DESIGN_SHARE);
-    }
-    // The figures are those of the design x now holds.
-    const report = objective.describe(x);
-    expect(report.value).toBe(out[0]);
-    expect(report.violation).toBe(out[1]);
+    expectFitBetterRecovers(objective, c, x, out, (j) => Math.abs(x[j] - c.design[j]) / c.sizeMm);
   });
 
   it('leaves a design whose fitted placement lies outside the box where it is', () => {

@@ -11,11 +11,8 @@
 import { describe, expect, it } from 'vitest';
 import { reachCases, type ReachCase } from '../../../bench/reachCases';
 import { createObjective, createProblem, type Objective, type ProblemInput } from '../../../src/core/synthesis';
+import { ON_TARGET_SHARE, SAME_DESIGN_SHARE, expectFitBetterRecovers } from '../../support/reachRecovery';
 
-/** RMS (share of the target's size) of a design on its target: rounding of kinematics, fit and timing solve. */
-const ON_TARGET_SHARE = 1e-9;
-/** Agreement of a recovered design's variables with the generating design's, as a share of the target's size (and rad). */
-const SAME_DESIGN_SHARE = 1e-6;
 const TAU = 2 * Math.PI;
 
 const BY_ID = new Map(reachCases().map((c) => [c.id, c]));
@@ -100,15 +97,7 @@ describe('fitBetter refits refined free timing', () => {
     const out = new Float64Array(2);
     objective.evaluate(x, out);
     expect(out[0] / c.sizeMm).toBeGreaterThan(1e-3);
-    expect(objective.fitBetter?.(x, out)).toBe(true);
-    expect(out[1]).toBe(0);
-    expect(out[0] / c.sizeMm).toBeLessThan(ON_TARGET_SHARE);
-    for (let j = 0; j < m; j++) expect(Math.abs(x[j] - c.design[j]) / c.sizeMm, c.designNames[j]).toBeLessThan(SAME_DESIGN_SHARE);
-    for (let j = m; j < x.length; j++) expect(turnDistance(x[j], c.design[j]), c.designNames[j]).toBeLessThan(SAME_DESIGN_SHARE);
-    // The figures are those of the design x now holds.
-    const report = objective.describe(x);
-    expect(report.value).toBe(out[0]);
-    expect(report.violation).toBe(out[1]);
+    expectFitBetterRecovers(objective, c, x, out, (j) => (j < m ? Math.abs(x[j] - c.design[j]) / c.sizeMm : turnDistance(x[j], c.design[j])));
   });
 
   it('offers nothing with a free placement where the match moves no point', () => {
